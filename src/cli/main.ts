@@ -1,0 +1,47 @@
+#!/usr/bin/env node
+/**
+ * The `evenecho` command. With no arguments it opens the console; the sub-commands are the batch
+ * side and never prompt. Bad input: one message on stderr, exit code 2, nothing on stdout.
+ */
+import {Command, CommanderError} from 'commander';
+import {registerCurveCommand} from './curve-command.js';
+import {registerPresetsCommand} from './presets-command.js';
+import {registerTableCommand} from './table-command.js';
+import {badInputExit, UsageError} from './usage-error.js';
+
+function reportAndExit(error: unknown): never {
+	if (error instanceof UsageError) {
+		process.stderr.write(`evenecho: ${error.message}\n`);
+		for (const d of error.details) process.stderr.write(`  ${d}\n`);
+		process.exit(badInputExit);
+	}
+	if (error instanceof CommanderError) {
+		process.exit(error.exitCode === 0 ? 0 : badInputExit);
+	}
+	// Not the user's fault: still no stack trace unless asked for.
+	process.stderr.write(`evenecho: internal error: ${(error as Error)?.message ?? String(error)}\n`);
+	if (process.env['EVENECHO_DEBUG']) process.stderr.write(`${(error as Error)?.stack ?? ''}\n`);
+	process.exit(1);
+}
+
+export function buildProgram(): Command {
+	const program = new Command('evenecho')
+		.description('Plan ultrasound depth-gain (TGC) starting points from a patient\'s layers, the probe and the scanner\'s sliders.')
+		.version('0.1.0')
+		.exitOverride()
+		.showHelpAfterError('(run evenecho --help for the commands)');
+	registerCurveCommand(program);
+	registerPresetsCommand(program);
+	registerTableCommand(program);
+	program.action(async () => {
+		const {openConsole} = await import('../ui/open-console.js');
+		await openConsole();
+	});
+	return program;
+}
+
+try {
+	await buildProgram().parseAsync(process.argv);
+} catch (error) {
+	reportAndExit(error);
+}

@@ -1,0 +1,150 @@
+/**
+ * The compensation curve: for each displayed depth, the gain (dB) that makes the reference
+ * scatterer's echo as strong as it is right under the skin, with its uncertainty band, the noise
+ * floor, any barrier, and the sliders fitted to it.
+ *
+ * TGC should undo propagation losses only (attenuation and interfaces); differences in intrinsic
+ * echogenicity between layers carry diagnostic contrast and are left alone.
+ */
+import {PathModel, type Barrier} from './path-model.js';
+import {fitSliders} from './slider-fit.js';
+import {minimumAttenuationSpread} from './tissue-library.js';
+import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, Tissue} from './types.js';
+
+/** Identifies the physics and fitting model in every output, so tables stay traceable. */
+export const modelVersion = 'evenecho-model 1 (1-D layers, normal incidence, Gaussian pulse-echo spectrum)';
+
+export interface CurveOptions {
+	/** Spacing of the samples in displayed depth, cm. @default 0.1 */
+	readonly stepCm?: number;
+}
+
+/** Fit residual above which a warning says the sliders cannot follow the curve, dB. */
+const residualWarningDb = 2;
+/** Layer speeds further than this from the assumed speed get a depth-error note. */
+const speedNoteFraction = 0.03;
+
+/** Samples from 0 to the display depth, the last one exactly on it. */
+export function sampleDepths(depthCm: number, stepCm: number): number[] {
+	const n = Math.max(1, Math.round(depthCm / stepCm));
+	const exact = Math.abs(n * stepCm - depthCm) < 1e-9;
+	const out: number[] = [];
+	for (let i = 0; i <= n; i++) {
+		const d = i * stepCm;
+		if (d < depthCm - 1e-9) out.push(Math.round(d * 1e9) / 1e9);
+	}
+	if (!exact || out.length === n) out.push(depthCm);
+	return out;
+}
+
+/** A tissue at one end of its attenuation spread (at least ±20 %, Madsen et al. 1986). */
+export function spreadTissue(t: Tissue, end: 'low' | 'high', centerMhz: number): Tissue {
+	const [aLo, aHi] = t.spread?.alphaDbPerCmMhz ?? [t.alphaDbPerCmMhz, t.alphaDbPerCmMhz];
+	const [nLo, nHi] = t.spread?.exponent ?? [t.exponent, t.exponent];
+	const alpha =
+		end === 'low'
+			? Math.min(aLo, t.alphaDbPerCmMhz * (1 - minimumAttenuationSpread))
+			: Math.max(aHi, t.alphaDbPerCmMhz * (1 + minimumAttenuationSpread));
+	// Above 1 MHz a larger exponent means more loss; below 1 MHz the reverse.
+	const lowerLossExponent = centerMhz >= 1 ? Math.min(nLo, t.exponent) : Math.max(nHi, t.exponent);
+	const higherLossExponent = centerMhz >= 1 ? Math.max(nHi, t.exponent) : Math.min(nLo, t.exponent);
+	return {...t, alphaDbPerCmMhz: alpha, exponent: end === 'low' ? lowerLossExponent : higherLossExponent};
+}
+
+function spreadLayers(layers: readonly Layer[], end: 'low' | 'high', centerMhz: number): Layer[] {
+	return layers.map((l) => ({...l, tissue: spreadTissue(l.tissue, end, centerMhz)}));
+}
+
+/** Builds the loss model of a plan's nominal layers. */
+export function pathModelOf(plan: EnginePlan, layers: readonly Layer[] = plan.layers): PathModel {
+	return new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
+}
+
+function barrierWarning(b: Barrier, plan: EnginePlan): CurveWarning {
+	const label = plan.layers[b.layerIndex]?.tissue.label ?? 'layer';
+	const depth = b.displayedCm.toFixed(1);
+	const message =
+		b.kind === 'strong-reflector'
+			? `${label} from ${depth} cm reflects ${(b.value * 100).toFixed(0)} % of the intensity: no useful echoes beyond it. Gain is held flat there; more gain cannot restore what does not return.`
+			: `${label} from ${depth} cm absorbs ${b.value} dB/cm/MHz one way: no useful echoes beyond it. Gain is held flat there.`;
+	return {code: b.kind, message, depthCm: b.displayedCm};
+}
+
+/** Computes the whole compensation curve of a plan. Pure: same plan, same result. */
+export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): CurveResult {
+	const stepCm = options.stepCm ?? 0.1;
+	const depthCm = plan.display.depthCm;
+	const f0 = plan.probe.centerMhz;
+	const nominal = pathModelOf(plan);
+	const low = pathModelOf(plan, spreadLayers(plan.layers, 'low', f0));
+	const high = pathModelOf(plan, spreadLayers(plan.layers, 'high', f0));
+
+	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
+	const blockedDepthCm = barrier ? barrier.displayedCm : null;
+	const heldAt = (m: PathModel) => (blockedDepthCm === null ? 0 : m.lossAt(blockedDepthCm));
+	const held = {nominal: heldAt(nominal), low: heldAt(low), high: heldAt(high)};
+
+	const samples: CurveSample[] = sampleDepths(depthCm, stepCm).map((d) => {
+		const p = nominal.at(d);
+		const loss = p.attenuationDb + p.interfaceLossDb;
+		const blocked = blockedDepthCm !== null && d > blockedDepthCm;
+		const lo = blocked ? held.low : low.lossAt(d);
+		const hi = blocked ? held.high : high.lossAt(d);
+		const comp = blocked ? held.nominal : loss;
+		return {
+			displayedDepthCm: d,
+			trueDepthCm: p.trueDepthCm,
+			layerIndex: p.layerIndex,
+			attenuationDb: p.attenuationDb,
+			interfaceLossDb: p.interfaceLossDb,
+			compensationDb: comp,
+			lowDb: Math.min(lo, hi, comp),
+			highDb: Math.max(lo, hi, comp),
+			echoCenterMhz: p.echoCenterMhz,
+			blocked,
+			belowNoise: loss > plan.noiseBudgetDb,
+		};
+	});
+
+	const penetrationDepthCm = nominal.depthForLoss(plan.noiseBudgetDb, depthCm);
+	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
+	const fit = fitSliders({
+		depthsCm: samples.map((s) => s.displayedDepthCm),
+		targetDb: samples.map((s) => s.compensationDb),
+		usableDepthCm,
+		bank: plan.sliders,
+		displayDepthCm: depthCm,
+		master: plan.masterGain,
+	});
+
+	const warnings: CurveWarning[] = [];
+	if (barrier) warnings.push(barrierWarning(barrier, plan));
+	if (penetrationDepthCm !== null && (blockedDepthCm === null || penetrationDepthCm < blockedDepthCm)) {
+		warnings.push({
+			code: 'below-noise-floor',
+			message: `Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor (${plan.noiseBudgetDb} dB budget): gain there lifts noise, not signal. Try a lower frequency, a shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
+			depthCm: penetrationDepthCm,
+		});
+	}
+	if (fit.residualDb > residualWarningDb) {
+		warnings.push({
+			code: 'slider-range-exceeded',
+			message: `Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
+			depthCm: fit.residualAtCm,
+		});
+	}
+	for (const span of nominal.spans) {
+		const c = span.layer.tissue.speedMps;
+		const misdrawn = span.stretch - 1;
+		if (span.shownTopCm < depthCm && Math.abs(misdrawn) > speedNoteFraction) {
+			if (barrier && span.shownTopCm >= barrier.displayedCm) continue;
+			warnings.push({
+				code: 'speed-mismatch',
+				message: `${span.layer.tissue.label} (${c} m/s) is drawn ${Math.abs(misdrawn * 100).toFixed(1)} % ${misdrawn > 0 ? 'thicker' : 'thinner'} than it is at the assumed ${plan.display.assumedSpeedMps} m/s; the curve follows displayed depth.`,
+				depthCm: span.shownTopCm,
+			});
+		}
+	}
+
+	return {plan, samples, fit, penetrationDepthCm, blockedDepthCm, usableDepthCm, warnings};
+}

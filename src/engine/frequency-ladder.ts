@@ -1,0 +1,53 @@
+/**
+ * Frequency ladder: how deep each probe frequency reaches above the noise floor, and the highest
+ * frequency that still reaches a target depth with a margin. Higher frequencies resolve better but
+ * lose more per cm, so the useful choice is the highest one that still gets there.
+ *
+ * The noise budget is taken as the same number of dB at every frequency (a simplification: real
+ * front ends vary across their band; stated in outputs).
+ */
+import {pathModelOf} from './compensation-curve.js';
+import type {EnginePlan} from './types.js';
+
+export interface LadderRung {
+	readonly centerMhz: number;
+	/** Displayed depth where the loss reaches the budget, cm; null if beyond `searchCm`. */
+	readonly penetrationDepthCm: number | null;
+	/** Does it reach the target depth with the margin? */
+	readonly reachesTarget: boolean;
+}
+
+export interface FrequencyLadder {
+	readonly rungs: readonly LadderRung[];
+	/** Highest frequency that reaches the target; null if none does. */
+	readonly highestReachingMhz: number | null;
+	readonly targetDepthCm: number;
+	readonly marginDb: number;
+}
+
+/** Deepest depth the ladder looks at, cm (the plan format's display limit). */
+export const ladderSearchCm = 40;
+
+/** A plan with another centre frequency (same fractional bandwidth). */
+export function atFrequency(plan: EnginePlan, centerMhz: number): EnginePlan {
+	return {...plan, probe: {...plan.probe, centerMhz}};
+}
+
+export function frequencyLadder(
+	plan: EnginePlan,
+	frequenciesMhz: readonly number[],
+	targetDepthCm: number,
+	marginDb = 0,
+): FrequencyLadder {
+	const budget = plan.noiseBudgetDb - marginDb;
+	const rungs = [...frequenciesMhz]
+		.sort((a, b) => a - b)
+		.map((f) => {
+			const model = pathModelOf(atFrequency(plan, f));
+			const penetrationDepthCm = model.depthForLoss(plan.noiseBudgetDb, ladderSearchCm);
+			const reachesTarget = model.lossAt(targetDepthCm) <= budget && !(model.barrier && model.barrier.displayedCm < targetDepthCm);
+			return {centerMhz: f, penetrationDepthCm, reachesTarget};
+		});
+	const reaching = rungs.filter((r) => r.reachesTarget);
+	return {rungs, highestReachingMhz: reaching.length ? reaching[reaching.length - 1]!.centerMhz : null, targetDepthCm, marginDb};
+}

@@ -1,0 +1,36 @@
+/**
+ * The system's noise budget: the largest round-trip loss it can still lift above its noise floor.
+ *
+ * Calibrated from a phantom measurement (IEC 61391-2 describes how the maximum depth of penetration
+ * is measured): if this probe reaches D cm in a uniform phantom of slope β, the budget is the loss of
+ * the reference echo at D in that phantom, worked out with the same spectrum model. For linear-in-f
+ * tissue a patient then reaches the depth where Σβᵢ·dᵢ = β·D, whatever the bandwidth (derived,
+ * methods-and-checks case C19). It assumes the patient's backscatter matches the phantom's and the
+ * scanner settings are the same.
+ */
+import {PathModel} from './path-model.js';
+import type {EnginePlan} from './types.js';
+
+export interface PhantomCalibration {
+	/** Probe centre frequency used in the phantom, MHz. */
+	readonly centerMhz: number;
+	/** Depth of penetration read in the phantom, cm (phantom speed 1540 m/s, so true = displayed). */
+	readonly depthCm: number;
+	/** Phantom attenuation slope, dB/cm/MHz, linear in f. */
+	readonly alphaDbPerCmMhz: number;
+}
+
+export function noiseBudgetFromPhantom(
+	cal: PhantomCalibration,
+	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'harmonic'>,
+	scattererExponent: number,
+): number {
+	const phantom = {label: 'calibration phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: cal.alphaDbPerCmMhz, exponent: 1};
+	const model = new PathModel(
+		[{tissue: phantom, thicknessCm: cal.depthCm}],
+		{centerMhz: cal.centerMhz, bandwidthFraction: probe.bandwidthFraction, harmonic: probe.harmonic},
+		scattererExponent,
+		1540,
+	);
+	return model.lossAt(cal.depthCm);
+}

@@ -1,0 +1,176 @@
+/**
+ * The plan file format `evenecho-plan/1` (JSON): one patient/exam setup. This is the boundary
+ * where outside input is checked; the engine behind it trusts what it gets.
+ *
+ * Every field but `layers` and `probe.centerMhz` has a default. Unknown keys are refused, and every
+ * message names the field path and the allowed range.
+ */
+import {z} from 'zod';
+import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
+import type {Tissue} from '../engine/types.js';
+
+export const planFormat = 'evenecho-plan/1';
+
+/** Allowed ranges, in one place so messages, the console's fields and the docs agree. */
+export const limits = {
+	layers: {min: 1, max: 40},
+	thicknessCm: {min: 0, max: 50, exclusiveMin: true},
+	speedMps: {min: 300, max: 5000},
+	densityKgM3: {min: 1, max: 3000},
+	alphaDbPerCmMhz: {min: 0, max: 100},
+	exponent: {min: 1, max: 2.5},
+	centerMhz: {min: 0, max: 50, exclusiveMin: true},
+	bandwidthFraction: {min: 0, max: 1.5},
+	scattererExponent: {min: 0, max: 6},
+	depthCm: {min: 0, max: 40, exclusiveMin: true},
+	assumedSpeedMps: {min: 1400, max: 1700},
+	sliderCount: {min: 1, max: 16},
+	sliderDb: {min: -60, max: 60},
+	masterDb: {min: -20, max: 120},
+	noiseBudgetDb: {min: 0, max: 200, exclusiveMin: true},
+	phantomDepthCm: {min: 0, max: 40, exclusiveMin: true},
+} as const;
+
+export type Limit = {readonly min: number; readonly max: number; readonly exclusiveMin?: boolean};
+
+/** "from 0 to 50 MHz" / "above 0 and up to 50 MHz". */
+export function describeRange(l: Limit, unit = ''): string {
+	const u = unit ? ` ${unit}` : '';
+	return l.exclusiveMin ? `above ${l.min} and up to ${l.max}${u}` : `from ${l.min} to ${l.max}${u}`;
+}
+
+function ranged(l: Limit, unit = '', integer = false) {
+	const range = describeRange(l, unit);
+	const message = `must be ${integer ? 'a whole number' : 'a number'} ${range}`;
+	let n = z.number({error: message});
+	if (integer) n = n.int({error: message});
+	n = l.exclusiveMin ? n.gt(l.min, {error: message}) : n.min(l.min, {error: message});
+	return n.max(l.max, {error: message});
+}
+
+const customTissueSchema = z.strictObject({
+	label: z.string({error: 'must be text of 1 to 60 characters'}).min(1, {error: 'must be text of 1 to 60 characters'}).max(60, {error: 'must be text of 1 to 60 characters'}),
+	speedMps: ranged(limits.speedMps, 'm/s'),
+	densityKgM3: ranged(limits.densityKgM3, 'kg/m³'),
+	alphaDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
+	exponent: ranged(limits.exponent),
+	source: z.string().max(300, {error: 'must be at most 300 characters'}).optional(),
+});
+
+const tissueIdSchema = z.string({error: 'must be a library tissue id or a custom tissue object'}).refine((id) => libraryTissue(id) !== undefined, {
+	error: (issue) => `unknown tissue id "${String(issue.input)}"; known ids: ${tissueIds.join(', ')}`,
+});
+
+export const layerSchema = z.strictObject({
+	tissue: z.union([tissueIdSchema, customTissueSchema], {error: 'must be a library tissue id or a custom tissue object'}),
+	thicknessCm: ranged(limits.thicknessCm, 'cm'),
+});
+
+const sliderSchema = z
+	.strictObject({
+		count: ranged(limits.sliderCount, '', true).default(8),
+		minDb: ranged(limits.sliderDb, 'dB').default(-15),
+		maxDb: ranged(limits.sliderDb, 'dB').default(15),
+		knots: z.enum(['band-centres', 'band-edges'], {error: 'must be "band-centres" or "band-edges"'}).default('band-centres'),
+		ends: z.enum(['flat', 'extrapolate'], {error: 'must be "flat" or "extrapolate"'}).default('flat'),
+	})
+	.refine((s) => s.minDb < s.maxDb, {error: 'minDb must be below maxDb', path: ['maxDb']});
+
+const masterSchema = z
+	.strictObject({
+		minDb: ranged(limits.masterDb, 'dB').default(0),
+		maxDb: ranged(limits.masterDb, 'dB').default(60),
+	})
+	.refine((m) => m.minDb < m.maxDb, {error: 'minDb must be below maxDb', path: ['maxDb']});
+
+const phantomSchema = z.strictObject({
+	centerMhz: ranged(limits.centerMhz, 'MHz'),
+	depthCm: ranged(limits.phantomDepthCm, 'cm'),
+	alphaDbPerCmMhz: ranged({min: 0.05, max: 2}, 'dB/cm/MHz'),
+});
+
+const referenceSchema = z.strictObject({
+	masterGainDb: ranged(limits.masterDb, 'dB'),
+	slidersDb: z.array(ranged(limits.sliderDb, 'dB'), {error: 'must be a list of slider values in dB'}).min(1).max(limits.sliderCount.max),
+});
+
+/** Default noise budget: a 3–3.5 MHz probe reaching ~16–20 cm in a 0.5 dB/cm/MHz phantom (from memory). */
+export const defaultNoiseBudgetDb = 65;
+
+export const planSchema = z
+	.strictObject({
+		format: z.literal(planFormat, {error: `must be "${planFormat}"`}).default(planFormat),
+		name: z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'}).default('Untitled plan'),
+		region: z.string({error: 'must be text of 1 to 40 characters'}).min(1, {error: 'must be text of 1 to 40 characters'}).max(40, {error: 'must be text of 1 to 40 characters'}).default('custom'),
+		note: z.string().max(2000, {error: 'must be at most 2000 characters'}).optional(),
+		layers: z
+			.array(layerSchema, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
+			.min(limits.layers.min, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
+			.max(limits.layers.max, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`}),
+		probe: z.strictObject({
+			centerMhz: ranged(limits.centerMhz, 'MHz'),
+			bandwidthFraction: ranged(limits.bandwidthFraction).default(0.6),
+			harmonic: z.boolean({error: 'must be true or false'}).default(false),
+		}, {error: 'must be an object with centerMhz'}),
+		scattererExponent: ranged(limits.scattererExponent).default(0),
+		display: z
+			.strictObject({
+				depthCm: ranged(limits.depthCm, 'cm').default(16),
+				assumedSpeedMps: ranged(limits.assumedSpeedMps, 'm/s').default(1540),
+			})
+			.default({depthCm: 16, assumedSpeedMps: 1540}),
+		sliders: sliderSchema.default({count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat'}),
+		masterGain: masterSchema.default({minDb: 0, maxDb: 60}),
+		noiseBudgetDb: ranged(limits.noiseBudgetDb, 'dB').optional(),
+		phantomCalibration: phantomSchema.optional(),
+		/** Depth the exam must reach (the frequency ladder's target); defaults to the display depth. */
+		targetDepthCm: ranged(limits.depthCm, 'cm').optional(),
+		/** The department's usual settings for this region, against which this plan is shown as deltas. */
+		reference: referenceSchema.optional(),
+	}, {error: 'must be a JSON object'})
+	.refine((p) => !(p.noiseBudgetDb !== undefined && p.phantomCalibration !== undefined), {
+		error: 'give either noiseBudgetDb or phantomCalibration, not both',
+		path: ['phantomCalibration'],
+	})
+	.refine((p) => !p.reference || p.reference.slidersDb.length === p.sliders.count, {
+		error: 'must have one value per slider (sliders.count)',
+		path: ['reference', 'slidersDb'],
+	})
+	.refine((p) => p.targetDepthCm === undefined || p.targetDepthCm <= p.display.depthCm, {
+		error: 'must not be deeper than display.depthCm',
+		path: ['targetDepthCm'],
+	});
+
+/** A plan as written in a file, with defaults filled in (tissues stay as ids where given so). */
+export type PlanDocument = z.output<typeof planSchema>;
+export type LayerDocument = PlanDocument['layers'][number];
+export type CustomTissue = z.output<typeof customTissueSchema>;
+
+export type ParseResult<T> = {ok: true; value: T} | {ok: false; errors: string[]};
+
+/** Human-readable, one line per problem: `layers.2.thicknessCm: must be a number above 0 and up to 50 cm`. */
+export function formatIssues(error: z.ZodError): string[] {
+	return error.issues.map((issue) => {
+		const path = issue.path.length ? issue.path.map(String).join('.') : '(plan)';
+		if (issue.code === 'unrecognized_keys') {
+			return `${path}: unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}`;
+		}
+		return `${path}: ${issue.message}`;
+	});
+}
+
+/** Checks a parsed JSON value against the plan format. */
+export function parsePlanDocument(input: unknown): ParseResult<PlanDocument> {
+	const r = planSchema.safeParse(input);
+	return r.success ? {ok: true, value: r.data} : {ok: false, errors: formatIssues(r.error)};
+}
+
+/** The full tissue record of a layer's tissue (library id or custom). */
+export function resolveTissue(t: LayerDocument['tissue']): Tissue {
+	if (typeof t === 'string') {
+		const found = libraryTissue(t);
+		if (!found) throw new Error(`unknown tissue id ${t}`); // unreachable after validation
+		return found;
+	}
+	return {...t, source: t.source ?? 'custom values entered by the user'};
+}

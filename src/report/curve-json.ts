@@ -1,0 +1,57 @@
+/**
+ * The machine-readable forms of a curve: JSON for other tools and CSV of the samples.
+ */
+import {stringify} from 'csv-stringify/sync';
+import {modelVersion} from '../engine/compensation-curve.js';
+import type {CurveResult} from '../engine/types.js';
+import {cautionLine} from './cautions.js';
+
+const round = (x: number, digits = 3) => (Number.isFinite(x) ? Number(x.toFixed(digits)) : x);
+
+/** The `--format json` document (numbers rounded to 0.001). */
+export function curveJson(r: CurveResult) {
+	return {
+		model: modelVersion,
+		plan: r.plan.name,
+		attenuationConvention: 'one-way dB/cm/MHz^n coefficients; curve values are round trip',
+		samples: r.samples.map((s) => ({
+			displayedDepthCm: round(s.displayedDepthCm),
+			trueDepthCm: round(s.trueDepthCm),
+			attenuationDb: round(s.attenuationDb),
+			interfaceLossDb: round(s.interfaceLossDb),
+			compensationDb: round(s.compensationDb),
+			lowDb: round(s.lowDb),
+			highDb: round(s.highDb),
+			echoCenterMhz: round(s.echoCenterMhz),
+			blocked: s.blocked,
+			belowNoise: s.belowNoise,
+		})),
+		sliders: r.fit.sliders.map((s) => ({depthCm: round(s.depthCm), gainDb: round(s.gainDb, 2)})),
+		masterGainDb: round(r.fit.masterGainDb, 2),
+		residualDb: round(r.fit.residualDb),
+		penetrationDepthCm: r.penetrationDepthCm === null ? null : round(r.penetrationDepthCm),
+		blockedDepthCm: r.blockedDepthCm === null ? null : round(r.blockedDepthCm),
+		noiseBudgetDb: round(r.plan.noiseBudgetDb),
+		warnings: r.warnings.map((w) => ({code: w.code, message: w.message, depthCm: w.depthCm === undefined ? null : round(w.depthCm)})),
+		caution: cautionLine,
+	};
+}
+
+const csvColumns = [
+	'displayedDepthCm',
+	'trueDepthCm',
+	'attenuationDb',
+	'interfaceLossDb',
+	'compensationDb',
+	'lowDb',
+	'highDb',
+	'echoCenterMhz',
+	'blocked',
+	'belowNoise',
+] as const;
+
+/** The samples as RFC 4180 CSV: one header row, then one row per depth. */
+export function curveCsv(r: CurveResult): string {
+	const rows = curveJson(r).samples.map((s) => csvColumns.map((c) => String(s[c])));
+	return stringify([[...csvColumns], ...rows], {record_delimiter: '\r\n'});
+}
