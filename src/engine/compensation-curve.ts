@@ -55,6 +55,35 @@ function spreadLayers(layers: readonly Layer[], end: 'low' | 'high', centerMhz: 
 	return layers.map((l) => ({...l, tissue: spreadTissue(l.tissue, end, centerMhz)}));
 }
 
+/**
+ * Gain the scanner's own depth ramp gives at a displayed depth with every slider centred, dB:
+ * round trip at the slider bank's ramp slope (out at f0 and back at f0, or at 2·f0 with harmonic receive).
+ */
+export function builtInRampDb(plan: EnginePlan, displayedCm: number): number {
+	const legsMhz = plan.probe.harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
+	return plan.sliders.rampDbPerCmMhz * legsMhz * displayedCm;
+}
+
+/** Spacing of the uncertainty-band grid, cm: the band is smooth and only ±20 % wide or more, so
+ * linear interpolation between these points is far finer than the band itself. */
+const bandGridCm = 0.5;
+
+/** Loss of a spread model on a coarse grid, interpolated linearly; exact at layer boundaries too. */
+function bandInterpolator(model: PathModel, depthCm: number): (d: number) => number {
+	const grid = new Set(sampleDepths(depthCm, bandGridCm));
+	for (const s of model.spans) if (s.shownBottomCm < depthCm) grid.add(s.shownBottomCm);
+	const xs = [...grid].sort((a, b) => a - b);
+	const ys = xs.map((x) => model.lossAt(x));
+	return (d) => {
+		let i = 1;
+		while (i < xs.length - 1 && xs[i]! < d) i++;
+		const x0 = xs[i - 1]!;
+		const x1 = xs[i]!;
+		const t = x1 > x0 ? (d - x0) / (x1 - x0) : 0;
+		return ys[i - 1]! + t * (ys[i]! - ys[i - 1]!);
+	};
+}
+
 /** Builds the loss model of a plan's nominal layers. */
 export function pathModelOf(plan: EnginePlan, layers: readonly Layer[] = plan.layers): PathModel {
 	return new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
@@ -84,12 +113,14 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const heldAt = (m: PathModel) => (blockedDepthCm === null ? 0 : m.lossAt(blockedDepthCm));
 	const held = {nominal: heldAt(nominal), low: heldAt(low), high: heldAt(high)};
 
+	const lowAt = bandInterpolator(low, depthCm);
+	const highAt = bandInterpolator(high, depthCm);
 	const samples: CurveSample[] = sampleDepths(depthCm, stepCm).map((d) => {
 		const p = nominal.at(d);
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = blockedDepthCm !== null && d > blockedDepthCm;
-		const lo = blocked ? held.low : low.lossAt(d);
-		const hi = blocked ? held.high : high.lossAt(d);
+		const lo = blocked ? held.low : lowAt(d);
+		const hi = blocked ? held.high : highAt(d);
 		const comp = blocked ? held.nominal : loss;
 		return {
 			displayedDepthCm: d,
@@ -110,7 +141,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
 	const fit = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),
-		targetDb: samples.map((s) => s.compensationDb),
+		targetDb: samples.map((s) => s.compensationDb - builtInRampDb(plan, s.displayedDepthCm)),
 		usableDepthCm,
 		bank: plan.sliders,
 		displayDepthCm: depthCm,

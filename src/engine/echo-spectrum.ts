@@ -20,6 +20,9 @@ const ln10 = Math.log(10);
 const kappa = ln10 / 10;
 /** The window ends where the integrand has fallen by this many nepers of power. */
 const windowDropNp = 36;
+/** Gauss–Legendre points on each side of the peak; 24 keeps the error far below 0.001 dB
+ * against the brute-force reference (see the engine tests and bench). */
+const nodesPerPanel = 24;
 
 /** σ of the Gaussian POWER spectrum from a −6 dB fractional bandwidth: σ = B·f0 / (2·√(1.2·ln10)). */
 export function sigmaFromBandwidth(centerMhz: number, bandwidthFraction: number): number {
@@ -51,9 +54,22 @@ export interface BandLoss {
 	readonly centroidMhz: number;
 }
 
+/** f^n given ln f: integer exponents spared, others as exp(n·ln f), ~3× cheaper than pow() in V8. */
+function power(f: number, lnF: number, n: number): number {
+	return n === 1 ? f : n === 2 ? f * f : Math.exp(n * lnF);
+}
+
+/** One-way path attenuation at frequency f, dB. */
 export function pathDb(terms: PathTerms, f: number): number {
+	return pathDbAt(terms, f, Math.log(f));
+}
+
+function pathDbAt(terms: PathTerms, f: number, lnF: number): number {
 	let e = 0;
-	for (let j = 0; j < terms.exponents.length; j++) e += terms.coefficients[j]! * f ** terms.exponents[j]!;
+	for (let j = 0; j < terms.exponents.length; j++) {
+		const c = terms.coefficients[j]!;
+		if (c !== 0) e += c * power(f, lnF, terms.exponents[j]!);
+	}
 	return e;
 }
 
@@ -61,7 +77,8 @@ function pathSlope(terms: PathTerms, f: number): number {
 	let e = 0;
 	for (let j = 0; j < terms.exponents.length; j++) {
 		const n = terms.exponents[j]!;
-		e += terms.coefficients[j]! * n * f ** (n - 1);
+		const c = terms.coefficients[j]!;
+		if (c !== 0) e += c * n * (n === 1 ? 1 : n === 2 ? f : f ** (n - 1));
 	}
 	return e;
 }
@@ -70,12 +87,13 @@ function pathCurvature(terms: PathTerms, f: number): number {
 	let e = 0;
 	for (let j = 0; j < terms.exponents.length; j++) {
 		const n = terms.exponents[j]!;
-		if (n !== 1) e += terms.coefficients[j]! * n * (n - 1) * f ** (n - 2);
+		const c = terms.coefficients[j]!;
+		if (n !== 1 && c !== 0) e += c * n * (n - 1) * (n === 2 ? 1 : f ** (n - 2));
 	}
 	return e;
 }
 
-// 32-point Gauss–Legendre nodes and weights on [−1, 1] (Golub–Welsch, computed once at load).
+// Gauss–Legendre nodes and weights on [−1, 1] (Golub–Welsch, computed once at load).
 const glNodes: number[] = [];
 const glWeights: number[] = [];
 (function buildGaussLegendre(n: number) {
@@ -98,7 +116,7 @@ const glWeights: number[] = [];
 		glNodes.push(x);
 		glWeights.push(2 / ((1 - x * x) * dp * dp));
 	}
-})(32);
+})(nodesPerPanel);
 
 /** A band with the path already fixed: evaluates the log-integrand and its derivatives. */
 class BandIntegrand {
@@ -111,7 +129,8 @@ class BandIntegrand {
 	log(f: number): number {
 		const {centerMhz: f0, sigmaMhz: s, weightExponent: m, legs} = this.band;
 		const d = f - f0;
-		return -(d * d) / (2 * s * s) + (m === 0 ? 0 : m * Math.log(f)) - kappa * legs * pathDb(this.terms, f);
+		const lnF = Math.log(f);
+		return -(d * d) / (2 * s * s) + (m === 0 ? 0 : m * lnF) - kappa * legs * pathDbAt(this.terms, f, lnF);
 	}
 
 	slope(f: number): number {
@@ -125,12 +144,12 @@ class BandIntegrand {
 	}
 
 	/** Peak of the (log-concave) integrand on f ≥ 0: bracketed Newton on the slope. */
-	peak(): number {
+	peak(start?: number): number {
 		const {centerMhz: f0, sigmaMhz: s, weightExponent: m} = this.band;
 		if (m === 0 && this.slope(0) <= 0) return 0;
 		let lo = 0;
 		let hi = Math.max(f0, s) + 10 * s + m * s;
-		let f = Math.min(Math.max(f0, 1e-6), hi);
+		let f = Math.min(Math.max(start ?? f0, 1e-6), hi);
 		for (let it = 0; it < 100; it++) {
 			const g = this.slope(f);
 			if (g > 0) lo = f;
@@ -144,7 +163,7 @@ class BandIntegrand {
 	}
 }
 
-/** ∫ exp(g(f) − gPeak)·f^p df over [a, b] with 32-point Gauss–Legendre; returns [∫1, ∫f]. */
+/** ∫ exp(g(f) − gPeak) df and ∫ f·exp(g(f) − gPeak) df over [a, b] by Gauss–Legendre. */
 function panel(ig: BandIntegrand, a: number, b: number, gPeak: number): [number, number] {
 	const half = (b - a) / 2;
 	const mid = (a + b) / 2;
@@ -160,8 +179,8 @@ function panel(ig: BandIntegrand, a: number, b: number, gPeak: number): [number,
 }
 
 /** ln ∫ integrand df and the centroid, integrating around the peak. */
-function logIntegral(ig: BandIntegrand, sigma: number): {logMass: number; centroid: number} {
-	const fp = ig.peak();
+function logIntegral(ig: BandIntegrand, sigma: number, peakGuess?: number): {logMass: number; centroid: number; peak: number} {
+	const fp = ig.peak(peakGuess);
 	const gPeak = ig.log(fp > 0 ? fp : Number.MIN_VALUE);
 	const c = ig.curvature(fp > 0 ? fp : 1e-9);
 	// Width scale of the peak; at the 0 MHz edge the decay rate sets it instead.
@@ -188,7 +207,7 @@ function logIntegral(ig: BandIntegrand, sigma: number): {logMass: number; centro
 	const [b0, b1] = panel(ig, fp, right, gPeak);
 	m0 += b0;
 	m1 += b1;
-	return {logMass: gPeak + Math.log(m0), centroid: m1 / m0};
+	return {logMass: gPeak + Math.log(m0), centroid: m1 / m0, peak: fp};
 }
 
 const emptyPath: PathTerms = {exponents: [], coefficients: []};
@@ -198,6 +217,8 @@ const emptyPath: PathTerms = {exponents: [], coefficients: []};
  */
 export class BandLossCalculator {
 	private readonly reference: {logMass: number} | undefined;
+	/** Peak of the last integrand: neighbouring depths have nearby peaks, so Newton starts there. */
+	private lastPeak: number | undefined;
 
 	constructor(readonly band: Band) {
 		this.reference = band.sigmaMhz > 0 ? logIntegral(new BandIntegrand(band, emptyPath), band.sigmaMhz) : undefined;
@@ -209,7 +230,8 @@ export class BandLossCalculator {
 		if (!this.reference) {
 			return {lossDb: band.legs * pathDb(terms, band.centerMhz), centroidMhz: band.centerMhz};
 		}
-		const r = logIntegral(new BandIntegrand(band, terms), band.sigmaMhz);
+		const r = logIntegral(new BandIntegrand(band, terms), band.sigmaMhz, this.lastPeak);
+		this.lastPeak = r.peak > 0 ? r.peak : undefined;
 		return {lossDb: (-10 / ln10) * (r.logMass - this.reference.logMass), centroidMhz: r.centroid};
 	}
 }

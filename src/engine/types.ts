@@ -61,6 +61,12 @@ export interface SliderBank {
 	/** With band centres: `flat` holds the end sliders' values out to the skin and the display
 	 * bottom; `extrapolate` continues the end segments' slopes. */
 	readonly ends: EndBehaviour;
+	/**
+	 * One-way slope (dB/cm/MHz) of the depth ramp the scanner applies on its own, with every slider
+	 * at its centre: the sliders are offsets from it. 0 makes the sliders absolute. The ramp is
+	 * 2·slope·f·d dB at displayed depth d (f: the centre frequency of each leg).
+	 */
+	readonly rampDbPerCmMhz: number;
 }
 
 /** The whole setup for one patient and exam, already resolved (tissues are full records). */
@@ -138,6 +144,7 @@ export interface SliderSetting {
 
 /** Sliders plus master gain fitted to a target curve. */
 export interface SliderFit {
+	/** Slider values: offsets from the built-in ramp (absolute when the ramp is 0). */
 	readonly sliders: readonly SliderSetting[];
 	readonly masterGainDb: number;
 	/** Worst |fitted − target| over the usable depth range, dB. */

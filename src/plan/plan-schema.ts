@@ -29,7 +29,15 @@ export const limits = {
 	masterDb: {min: -20, max: 120},
 	noiseBudgetDb: {min: 0, max: 200, exclusiveMin: true},
 	phantomDepthCm: {min: 0, max: 40, exclusiveMin: true},
+	rampDbPerCmMhz: {min: 0, max: 2},
 } as const;
+
+/**
+ * Sliders are offsets from the scanner's own ramp, assumed to compensate the 0.5 dB/cm/MHz
+ * soft-tissue average (common practice, no source; the average itself: IEC 61391-2, secondary).
+ * Set 0 for a scanner whose sliders are absolute.
+ */
+export const defaultRampDbPerCmMhz = 0.5;
 
 export type Limit = {readonly min: number; readonly max: number; readonly exclusiveMin?: boolean};
 
@@ -73,6 +81,7 @@ const sliderSchema = z
 		maxDb: ranged(limits.sliderDb, 'dB').default(15),
 		knots: z.enum(['band-centres', 'band-edges'], {error: 'must be "band-centres" or "band-edges"'}).default('band-centres'),
 		ends: z.enum(['flat', 'extrapolate'], {error: 'must be "flat" or "extrapolate"'}).default('flat'),
+		rampDbPerCmMhz: ranged(limits.rampDbPerCmMhz, 'dB/cm/MHz').default(defaultRampDbPerCmMhz),
 	})
 	.refine((s) => s.minDb < s.maxDb, {error: 'minDb must be below maxDb', path: ['maxDb']});
 
@@ -119,7 +128,7 @@ export const planSchema = z
 				assumedSpeedMps: ranged(limits.assumedSpeedMps, 'm/s').default(1540),
 			})
 			.default({depthCm: 16, assumedSpeedMps: 1540}),
-		sliders: sliderSchema.default({count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat'}),
+		sliders: sliderSchema.default({count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: defaultRampDbPerCmMhz}),
 		masterGain: masterSchema.default({minDb: 0, maxDb: 60}),
 		noiseBudgetDb: ranged(limits.noiseBudgetDb, 'dB').optional(),
 		phantomCalibration: phantomSchema.optional(),

@@ -2,6 +2,7 @@
  * The readable summary of a curve: plan, layers, slider table, master gain, penetration, warnings
  * and cautions. Plain text, fits 80 columns.
  */
+import {builtInRampDb} from '../engine/compensation-curve.js';
 import {impedanceMrayl} from '../engine/tissue-library.js';
 import type {CurveResult} from '../engine/types.js';
 import {cautions} from './cautions.js';
@@ -30,15 +31,21 @@ export function curveSummary(r: CurveResult): string {
 		const t = l.tissue;
 		const last = i === p.layers.length - 1;
 		out.push(
-			`  ${pad(`${i + 1} ${t.label}`, 22)} ${lpad(last ? 'rest' : f1(l.thicknessCm), 6)}  ${lpad(String(t.speedMps), 5)}  ${lpad(String(t.densityKgM3), 5)}  ${lpad(impedanceMrayl(t).toFixed(3), 7)}  ${lpad(String(t.alphaDbPerCmMhz), 14)}  ${t.exponent}`,
+			`  ${pad(`${i + 1} ${t.label}`.slice(0, 22), 22)} ${lpad(last ? 'rest' : f1(l.thicknessCm), 6)}  ${lpad(String(t.speedMps), 5)}  ${lpad(String(t.densityKgM3), 5)}  ${lpad(impedanceMrayl(t).toFixed(3), 7)}  ${lpad(String(t.alphaDbPerCmMhz), 14)}  ${t.exponent}`,
 		);
 	});
 	out.push('');
 	const bank = p.sliders;
 	out.push(`Depth-gain starting point (${bank.count} sliders ${bank.minDb}..${bank.maxDb} dB at ${bank.knots}, ${bank.ends} ends)`);
-	out.push('  slider  depth cm  slider dB  curve dB');
+	out.push(
+		bank.rampDbPerCmMhz > 0
+			? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
+			: '  sliders are absolute (no built-in ramp assumed)',
+	);
+	out.push('  slider  depth cm  slider dB  total gain dB');
 	r.fit.sliders.forEach((s, i) => {
-		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(s.gainDb + r.fit.masterGainDb), 8)}`);
+		const total = builtInRampDb(p, s.depthCm) + s.gainDb + r.fit.masterGainDb;
+		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(total), 13)}`);
 	});
 	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB; fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
 	out.push(
