@@ -1,8 +1,10 @@
 /** `evenecho curve PLAN.json`: the compensation curve of one plan. */
 import type {Command} from 'commander';
 import {computeCurve} from '../engine/compensation-curve.js';
+import {settingsDelta, settingsOf, type SettingsDelta} from '../engine/plan-difference.js';
+import type {CurveResult} from '../engine/types.js';
 import {curveCsv, curveJson} from '../report/curve-json.js';
-import {curveSummary} from '../report/curve-summary.js';
+import {curveSummary, signedDb} from '../report/curve-summary.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from './usage-error.js';
 
@@ -14,6 +16,41 @@ export function parseStep(value: string): number {
 	return step;
 }
 
+interface Comparison {
+	readonly name: string;
+	readonly delta: SettingsDelta;
+	readonly knotsCm: readonly number[];
+}
+
+/** Fits the second plan too and takes the differences; both must have the same slider bank. */
+function comparedWith(result: CurveResult, path: string, stepCm: number): Comparison {
+	const other = computeCurve(readPlanFile(path).plan, {stepCm});
+	const a = result.plan;
+	const b = other.plan;
+	if (a.sliders.count !== b.sliders.count || a.display.depthCm !== b.display.depthCm || a.sliders.knots !== b.sliders.knots) {
+		throw new UsageError(
+			`--against: ${path} must have the same display depth, slider count and knot placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
+		);
+	}
+	return {name: b.name, delta: settingsDelta(settingsOf(result.fit), settingsOf(other.fit)), knotsCm: result.fit.sliders.map((s) => s.depthCm)};
+}
+
+function deltaJson(c: Comparison) {
+	return {
+		plan: c.name,
+		masterDeltaDb: Number(c.delta.masterDeltaDb.toFixed(2)),
+		sliders: c.knotsCm.map((d, k) => ({depthCm: Number(d.toFixed(3)), deltaDb: Number(c.delta.sliderDeltasDb[k]!.toFixed(2)), totalDeltaDb: Number(c.delta.totalDeltasDb[k]!.toFixed(2))})),
+	};
+}
+
+function deltaText(c: Comparison): string {
+	const lines = ['', `Against ${c.name}: master ${signedDb(c.delta.masterDeltaDb)} dB`, '  slider  depth cm  slider change dB  total change dB'];
+	c.knotsCm.forEach((d, k) => {
+		lines.push(`  ${String(k + 1).padStart(6)}  ${d.toFixed(1).padStart(8)}  ${signedDb(c.delta.sliderDeltasDb[k]!).padStart(16)}  ${signedDb(c.delta.totalDeltasDb[k]!).padStart(15)}`);
+	});
+	return lines.join('\n') + '\n';
+}
+
 export function registerCurveCommand(program: Command): void {
 	program
 		.command('curve')
@@ -21,15 +58,22 @@ export function registerCurveCommand(program: Command): void {
 		.argument('<plan>', 'plan file (JSON, format evenecho-plan/1) or - for standard input')
 		.option('--format <format>', 'text, json or csv', 'text')
 		.option('--step <cm>', 'sample spacing in displayed depth, cm (0.01 to 5)', '0.1')
-		.action((planPath: string, opts: {format: string; step: string}) => {
+		.option('--against <plan>', 'a second plan (e.g. the region\'s standard habitus): print per-slider differences from it')
+		.action((planPath: string, opts: {format: string; step: string; against?: string}) => {
 			if (!(formats as readonly string[]).includes(opts.format)) {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
 			}
 			const stepCm = parseStep(opts.step);
 			const {plan} = readPlanFile(planPath);
 			const result = computeCurve(plan, {stepCm});
-			if (opts.format === 'json') process.stdout.write(JSON.stringify(curveJson(result), null, 2) + '\n');
-			else if (opts.format === 'csv') process.stdout.write(curveCsv(result));
-			else process.stdout.write(curveSummary(result));
+			const against = opts.against === undefined ? undefined : comparedWith(result, opts.against, stepCm);
+			if (opts.format === 'json') {
+				process.stdout.write(JSON.stringify(against ? {...curveJson(result), against: deltaJson(against)} : curveJson(result), null, 2) + '\n');
+			} else if (opts.format === 'csv') {
+				process.stdout.write(curveCsv(result));
+			} else {
+				process.stdout.write(curveSummary(result));
+				if (against) process.stdout.write(deltaText(against));
+			}
 		});
 }

@@ -5,6 +5,7 @@
  */
 import {Command, CommanderError} from 'commander';
 import {registerCurveCommand} from './curve-command.js';
+import {registerLadderCommand} from './ladder-command.js';
 import {registerPresetsCommand} from './presets-command.js';
 import {registerTableCommand} from './table-command.js';
 import {badInputExit, UsageError} from './usage-error.js';
@@ -31,6 +32,7 @@ export function buildProgram(): Command {
 		.exitOverride()
 		.showHelpAfterError('(run evenecho --help for the commands)');
 	registerCurveCommand(program);
+	registerLadderCommand(program);
 	registerPresetsCommand(program);
 	registerTableCommand(program);
 	program.action(async () => {

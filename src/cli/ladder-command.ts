@@ -1,0 +1,63 @@
+/** `evenecho ladder PLAN.json`: penetration per probe frequency, and the highest that reaches the target. */
+import type {Command} from 'commander';
+import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
+import {limits} from '../plan/plan-schema.js';
+import {cautionLine} from '../report/cautions.js';
+import {parseNumberList} from './number-list.js';
+import {readPlanFile} from './read-plan-file.js';
+import {UsageError} from './usage-error.js';
+
+function parseNumber(option: string, text: string, min: number, max: number, unit: string): number {
+	const v = Number(text);
+	if (text.trim() === '' || !Number.isFinite(v) || v < min || v > max) {
+		throw new UsageError(`${option}: must be a number from ${min} to ${max} ${unit} (got "${text}")`);
+	}
+	return v;
+}
+
+export function registerLadderCommand(program: Command): void {
+	program
+		.command('ladder')
+		.description('penetration at each probe frequency and the highest frequency that reaches the target depth')
+		.argument('<plan>', 'plan file (JSON) or - for standard input')
+		.option('--freqs <list>', 'frequencies in MHz: "2,3.5,5" or from:to:step', '1:15:0.5')
+		.option('--target <cm>', 'displayed depth that must be reached (default: the plan\'s targetDepthCm, else its display depth)')
+		.option('--margin <dB>', 'dB that must be left above the noise floor at the target', '0')
+		.option('--format <format>', 'text or json', 'text')
+		.action((planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
+			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
+			const freqs = parseNumberList(opts.freqs, {option: '--freqs', min: limits.centerMhz.min, max: limits.centerMhz.max, unit: 'MHz', exclusiveMin: true, maxCount: 200});
+			const margin = parseNumber('--margin', opts.margin, 0, 100, 'dB');
+			const target = opts.target === undefined ? undefined : parseNumber('--target', opts.target, 0.1, ladderSearchCm, 'cm');
+			const {doc, plan} = readPlanFile(planPath);
+			const targetCm = target ?? doc.targetDepthCm ?? plan.display.depthCm;
+			const ladder = frequencyLadder(plan, freqs, targetCm, margin);
+			if (opts.format === 'json') {
+				process.stdout.write(
+					JSON.stringify(
+						{
+							plan: plan.name,
+							noiseBudgetDb: Number(plan.noiseBudgetDb.toFixed(3)),
+							targetDepthCm: targetCm,
+							marginDb: margin,
+							highestReachingMhz: ladder.highestReachingMhz,
+							rungs: ladder.rungs.map((r) => ({...r, penetrationDepthCm: r.penetrationDepthCm === null ? null : Number(r.penetrationDepthCm.toFixed(3))})),
+							assumption: 'the same noise budget in dB at every frequency',
+							caution: cautionLine,
+						},
+						null,
+						2,
+					) + '\n',
+				);
+				return;
+			}
+			const lines = [`Frequency ladder for ${plan.name}: target ${targetCm} cm with ${margin} dB to spare (noise budget ${plan.noiseBudgetDb.toFixed(1)} dB, same at every frequency)`, '  MHz   reaches cm   target'];
+			for (const r of ladder.rungs) {
+				const reach = r.penetrationDepthCm === null ? `>${ladderSearchCm}` : r.penetrationDepthCm.toFixed(1);
+				lines.push(`  ${r.centerMhz.toFixed(2).padStart(5)}  ${reach.padStart(10)}   ${r.reachesTarget ? 'yes' : 'no'}`);
+			}
+			lines.push(ladder.highestReachingMhz === null ? '  no frequency in the list reaches the target' : `  highest frequency that reaches it: ${ladder.highestReachingMhz} MHz`);
+			lines.push(`  ${cautionLine}`);
+			process.stdout.write(lines.join('\n') + '\n');
+		});
+}
