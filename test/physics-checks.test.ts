@@ -237,3 +237,33 @@ describe('barriers: warn, do not compensate', () => {
 		expect(r.blockedDepthCm).toBeNull();
 	});
 });
+
+describe('tissue library bookkeeping', () => {
+	it('every tissue names its sources, and its nominal values sit inside its published spread', async () => {
+		const {allLibraryTissues} = await import('../src/engine/tissue-library.js');
+		for (const t of allLibraryTissues()) {
+			expect(t.source, t.id).toBeTruthy();
+			for (const key of ['speedMps', 'densityKgM3', 'alphaDbPerCmMhz', 'exponent'] as const) {
+				const range = t.spread?.[key];
+				if (!range) continue;
+				expect(t[key], `${t.id}.${key}`).toBeGreaterThanOrEqual(range[0] - 1e-9);
+				expect(t[key], `${t.id}.${key}`).toBeLessThanOrEqual(range[1] + 1e-9);
+			}
+		}
+	});
+
+	it('the library stores one-way coefficients: liver 0.5, fat 0.6, muscle across fibres 0.96 dB/cm at 1 MHz (Diagnostics 2023 Table 4; Breast USCT 2016 Table I)', () => {
+		expect(tissue('liver').alphaDbPerCmMhz).toBe(0.5);
+		expect(tissue('fat').alphaDbPerCmMhz).toBe(0.6);
+		expect(tissue('muscle').alphaDbPerCmMhz).toBe(0.96);
+	});
+});
+
+describe('noise budget from a plan file with a phantom calibration', () => {
+	it('narrowband: a 3.5 MHz probe reaching 16 cm in a 0.5 dB/cm/MHz phantom has a 56 dB budget (2·0.5·3.5·16, derived)', async () => {
+		const {parsePlan} = await import('../src/plan/resolve-plan.js');
+		const r = parsePlan({layers: [{tissue: 'liver', thicknessCm: 10}], probe: {centerMhz: 3.5, bandwidthFraction: 0}, phantomCalibration: {centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}});
+		expect(r.ok).toBe(true);
+		if (r.ok) expect(r.value.plan.noiseBudgetDb).toBeCloseTo(56, 9);
+	});
+});

@@ -32,7 +32,7 @@ const library = {
 		alphaDbPerCmMhz: 0.00217,
 		exponent: 2,
 		source: 'c: Marczak 1997 polynomial; ρ: Kell 1975; α0: Szabo 2004 (f² law)',
-		spread: {speedMps: [1482, 1524], densityKgM3: [993, 998], alphaDbPerCmMhz: [0.0014, 0.0022]},
+		spread: {speedMps: [1482.4, 1523.7], densityKgM3: [993.3, 998.2], alphaDbPerCmMhz: [0.00139, 0.00217]},
 	},
 	'water-37': {
 		label: 'Water, 37 °C',
@@ -41,7 +41,7 @@ const library = {
 		alphaDbPerCmMhz: 0.00139,
 		exponent: 2,
 		source: 'c: Marczak 1997 polynomial; ρ: Kell 1975; α0: fit to Pinkerton 1949 data',
-		spread: {alphaDbPerCmMhz: [0.0014, 0.0022]},
+		spread: {alphaDbPerCmMhz: [0.00139, 0.00217]},
 	},
 	blood: {
 		label: 'Blood (whole)',
