@@ -1,0 +1,454 @@
+/**
+ * Protocol tables: one plan swept over habitus (the thickness of its subcutaneous layer), probe
+ * centre frequency, receive mode and tissue swaps, each combination fitted like `evenecho curve`.
+ *
+ * Pure and synchronous: no file system, no process, no clock. The command line and the console
+ * both call {@link resolveSweep} / {@link runSweep} (or {@link buildTable} for both in one step) and
+ * hand the result to one of the formatters (table-markdown, table-csv, table-json, table-svg).
+ */
+import {computeCurve} from '../engine/compensation-curve.js';
+import {frequencyLadder} from '../engine/frequency-ladder.js';
+import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
+import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
+import type {CurveWarning, EnginePlan, Tissue} from '../engine/types.js';
+import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
+import {resolvePlan} from '../plan/resolve-plan.js';
+
+/** Most rows one table may have (all sweeps multiplied). */
+export const maxTableRows = 20_000;
+
+/** Frequencies tried for the "highest reaching" column when no `--freq` list is given: 1 to 15 MHz
+ * in 0.5 MHz steps (the same default as `evenecho ladder`). */
+export const defaultLadderMhz: readonly number[] = Array.from({length: 29}, (_, i) => 1 + i / 2);
+
+/** Margin range for the frequency ladder, dB (as `evenecho ladder`). */
+export const marginLimit: Limit = {min: 0, max: 100};
+
+/** Most entries in the `--ladder` list. */
+export const maxLadderLength = 200;
+
+export type ReceiveMode = 'fundamental' | 'harmonic';
+export const receiveModes: readonly ReceiveMode[] = ['fundamental', 'harmonic'];
+
+/** Stated in every output that has a harmonic row. */
+export const harmonicSimplification =
+	'Harmonic receive: transmit at f0, receive at 2·f0; the outward path is attenuated at f0 and the return path at 2·f0. Simplification: the harmonic is taken as present from the skin; its build-up with depth is not modelled.';
+
+/** Stated with the "highest reaching frequency" column. */
+export const ladderSimplification =
+	'The noise budget is taken as the same number of dB at every frequency (a simplification: real front ends vary across their band).';
+
+/** A tissue to put into a layer: a library id or a custom record, with where it came from. */
+export interface TissueChoice {
+	readonly tissue: LayerDocument['tissue'];
+	/** Where it came from, e.g. `layer 4 of preset "lower-abdomen"`; absent for a library id typed in. */
+	readonly from?: string;
+}
+
+/** One tissue axis: layer `layer` (1-based) takes each of `choices` in turn. */
+export interface LayerSwap {
+	readonly layer: number;
+	readonly choices: readonly TissueChoice[];
+}
+
+/** What to sweep. Every field is optional: an empty spec gives one row, the plan as it is. */
+export interface SweepSpec {
+	/** Thicknesses of the swept (subcutaneous) layer, cm. */
+	readonly fatCm?: readonly number[];
+	/** The swept layer, 1-based; default the first layer whose tissue is `fat`. */
+	readonly layer?: number;
+	/** Probe centre frequencies, MHz; default the plan's own. */
+	readonly freqMhz?: readonly number[];
+	/** Receive modes; default the plan's own. */
+	readonly receive?: readonly ReceiveMode[];
+	/** Tissue swaps, each an axis of its own. */
+	readonly swaps?: readonly LayerSwap[];
+	/** Show sliders and master as differences from the standard habitus (the plan as it is). */
+	readonly delta?: boolean;
+	/** Margin below the noise budget the target depth must keep, dB; default 0. */
+	readonly marginDb?: number;
+	/** Frequencies for the "highest reaching" column; default the `freqMhz` list, else {@link defaultLadderMhz}. */
+	readonly ladderMhz?: readonly number[];
+	/** Sample spacing in displayed depth, cm; default 0.1 (as `evenecho curve`). */
+	readonly stepCm?: number;
+}
+
+/** A bad sweep: `option` names the command-line option (without dashes); the message names it too. */
+export class SweepError extends Error {
+	constructor(
+		readonly option: string,
+		message: string,
+	) {
+		super(message);
+		this.name = 'SweepError';
+	}
+}
+
+/** A swap axis, checked, with the tissues resolved. */
+export interface ResolvedSwap {
+	readonly layer: number;
+	readonly choices: readonly (TissueChoice & {readonly record: Tissue})[];
+}
+
+/** A spec with every default filled in and every value checked. */
+export interface ResolvedSweep {
+	readonly doc: PlanDocument;
+	/** 0-based index of the swept layer, or null when there is none (no `--fat`, no fat layer). */
+	readonly layerIndex: number | null;
+	/** Thicknesses of the swept layer, in row order ([the plan's own] when not swept; [] when no layer). */
+	readonly fatCm: readonly number[];
+	readonly fatSwept: boolean;
+	readonly freqMhz: readonly number[];
+	readonly freqSwept: boolean;
+	readonly receive: readonly ReceiveMode[];
+	readonly swaps: readonly ResolvedSwap[];
+	readonly delta: boolean;
+	readonly marginDb: number;
+	readonly ladderMhz: readonly number[];
+	/** Where the ladder came from. */
+	readonly ladderFrom: 'ladder' | 'freq' | 'default';
+	readonly targetDepthCm: number;
+	readonly stepCm: number;
+	readonly rowCount: number;
+}
+
+/** One tissue the table used, with its values and source, for the header. */
+export interface TissueUse {
+	/** `layer 2`, or `layer 4 (swap)`. */
+	readonly where: string;
+	readonly tissue: Tissue;
+	/** For a swapped-in tissue: where it came from. */
+	readonly from?: string;
+}
+
+/** One combination. Numbers are unrounded; the formatters round. */
+export interface TableRow {
+	/** 1-based row number. */
+	readonly index: number;
+	/** Thickness of the swept layer, cm; null when there is no swept layer. */
+	readonly layerCm: number | null;
+	readonly centerMhz: number;
+	readonly receive: ReceiveMode;
+	/** Label of the tissue in each swap axis (same order as `sweep.swaps`). */
+	readonly swapLabels: readonly string[];
+	/** The row's plan document (what `evenecho curve` would be given) and its engine plan. */
+	readonly doc: PlanDocument;
+	readonly plan: EnginePlan;
+	readonly slidersDb: readonly number[];
+	readonly masterGainDb: number;
+	/** With `delta`: this row minus the standard habitus. */
+	readonly delta?: SettingsDelta;
+	readonly residualDb: number;
+	readonly residualAtCm: number;
+	readonly penetrationDepthCm: number | null;
+	readonly blockedDepthCm: number | null;
+	readonly usableDepthCm: number;
+	readonly noiseBudgetDb: number;
+	/** Highest ladder frequency whose echo from the target depth stays within budget − margin. */
+	readonly highestReachingMhz: number | null;
+	readonly warnings: readonly CurveWarning[];
+	/** The compensation curve (only with `keepCurves`). */
+	readonly curve?: {readonly depthsCm: readonly number[]; readonly compensationDb: readonly number[]};
+}
+
+export interface ProtocolTable {
+	readonly sweep: ResolvedSweep;
+	readonly rows: readonly TableRow[];
+	/** Displayed depths of the slider knots, cm (the same on every row). */
+	readonly knotDepthsCm: readonly number[];
+	/** The standard habitus: the input plan fitted as it is (always computed; shown with `delta`). */
+	readonly reference: GainSettings;
+	readonly tissues: readonly TissueUse[];
+	/** Simplifications that apply to this table, to be printed with it. */
+	readonly notes: readonly string[];
+}
+
+export interface RunOptions {
+	/** Keep each row's compensation curve (the SVG chart needs it; costs memory on big sweeps). */
+	readonly keepCurves?: boolean;
+	/** Called after each row, synchronously. */
+	readonly onProgress?: (done: number, total: number) => void;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Checking
+// ---------------------------------------------------------------------------------------------
+
+/** Formats a number list value for messages: 2.5, not 2.5000000001. */
+function show(x: number): string {
+	return String(Number(x.toPrecision(12)));
+}
+
+function within(l: Limit, x: number): boolean {
+	return Number.isFinite(x) && (l.exclusiveMin ? x > l.min : x >= l.min) && x <= l.max;
+}
+
+/**
+ * Checks a list of numbers for one option: not empty, finite, not negative, in range, no value
+ * twice; `unit` goes into the range text.
+ */
+export function checkNumberList(option: string, values: readonly number[], limit: Limit, unit: string, maxLength = maxTableRows): void {
+	const range = `${describeRange(limit, unit)}`;
+	if (values.length === 0) throw new SweepError(option, `--${option}: no values given; expected a comma-separated list of numbers ${range}`);
+	if (values.length > maxLength) throw new SweepError(option, `--${option}: ${values.length} values; at most ${maxLength} are allowed`);
+	const seen = new Set<number>();
+	for (const v of values) {
+		if (!Number.isFinite(v)) throw new SweepError(option, `--${option}: every value must be a number ${range}`);
+		if (v < 0) throw new SweepError(option, `--${option}: ${show(v)} is negative; every value must be a number ${range}`);
+		if (!within(limit, v)) throw new SweepError(option, `--${option}: ${show(v)} is out of range; every value must be a number ${range}`);
+		if (seen.has(v)) throw new SweepError(option, `--${option}: ${show(v)} is listed twice; give each value once`);
+		seen.add(v);
+	}
+}
+
+/** The record of a tissue choice, or a SweepError naming the option. */
+function choiceRecord(layer: number, choice: TissueChoice): Tissue {
+	if (typeof choice.tissue === 'string') {
+		const found = libraryTissue(choice.tissue);
+		if (!found) throw new SweepError('swap', `--swap: unknown tissue "${choice.tissue}" for layer ${layer}; known tissues: ${tissueIds.join(', ')} (or PRESET:M for layer M of a preset)`);
+		return found;
+	}
+	return resolveTissue(choice.tissue);
+}
+
+/** Combinations in a sweep, before checking the cap. */
+function combinationCount(parts: readonly number[]): number {
+	return parts.reduce((a, b) => a * b, 1);
+}
+
+/** Fills in the defaults and checks every value; throws {@link SweepError}. */
+export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedSweep {
+	const layerCount = doc.layers.length;
+	const layerRange = `from 1 to ${layerCount}`;
+
+	// The swept layer.
+	let layerIndex: number | null;
+	if (spec.layer !== undefined) {
+		if (!Number.isInteger(spec.layer) || spec.layer < 1 || spec.layer > layerCount) {
+			throw new SweepError('layer', `--layer: must be a whole number ${layerRange} (the plan has ${layerCount} layer${layerCount === 1 ? '' : 's'}; got ${show(spec.layer)})`);
+		}
+		layerIndex = spec.layer - 1;
+	} else {
+		const i = doc.layers.findIndex((l) => l.tissue === 'fat');
+		layerIndex = i >= 0 ? i : null;
+		if (layerIndex === null && spec.fatCm !== undefined) {
+			throw new SweepError('layer', `--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (${layerRange})`);
+		}
+	}
+	const fatSwept = spec.fatCm !== undefined;
+	if (fatSwept) checkNumberList('fat', spec.fatCm!, limits.thicknessCm, 'cm');
+	if (layerIndex === layerCount - 1) {
+		// The deepest layer extends as far as needed: its thickness means nothing.
+		if (fatSwept || spec.layer !== undefined) {
+			throw new SweepError('layer', `--${fatSwept ? 'fat' : 'layer'}: layer ${layerIndex + 1} is the deepest layer, which extends as far as needed, so its thickness changes nothing; choose another with --layer N${layerCount > 1 ? ` (from 1 to ${layerCount - 1})` : ''}`);
+		}
+		layerIndex = null;
+	}
+	const fatCm = fatSwept ? [...spec.fatCm!] : layerIndex === null ? [] : [doc.layers[layerIndex]!.thicknessCm];
+
+	const freqSwept = spec.freqMhz !== undefined;
+	if (freqSwept) checkNumberList('freq', spec.freqMhz!, limits.centerMhz, 'MHz');
+	const freqMhz = freqSwept ? [...spec.freqMhz!] : [doc.probe.centerMhz];
+
+	let receive: ReceiveMode[];
+	if (spec.receive !== undefined) {
+		if (spec.receive.length === 0 || spec.receive.some((r) => !receiveModes.includes(r))) {
+			throw new SweepError('receive', '--receive: must be fundamental, harmonic or both');
+		}
+		if (new Set(spec.receive).size !== spec.receive.length) throw new SweepError('receive', '--receive: each mode once');
+		receive = [...spec.receive];
+	} else {
+		receive = [doc.probe.harmonic ? 'harmonic' : 'fundamental'];
+	}
+
+	const swaps: ResolvedSwap[] = [];
+	const swapped = new Set<number>();
+	for (const s of spec.swaps ?? []) {
+		if (!Number.isInteger(s.layer) || s.layer < 1 || s.layer > layerCount) {
+			throw new SweepError('swap', `--swap: the layer number must be a whole number ${layerRange} (got ${show(s.layer)})`);
+		}
+		if (swapped.has(s.layer)) throw new SweepError('swap', `--swap: layer ${s.layer} is swapped twice; list all its tissues in one --swap ${s.layer}=A,B`);
+		swapped.add(s.layer);
+		if (s.choices.length === 0) throw new SweepError('swap', `--swap: no tissue given for layer ${s.layer}; expected N=TISSUE[,TISSUE…]`);
+		const choices = s.choices.map((c) => ({...c, record: choiceRecord(s.layer, c)}));
+		const keys = choices.map((c) => JSON.stringify(c.tissue));
+		const twice = keys.find((k, i) => keys.indexOf(k) !== i);
+		if (twice !== undefined) throw new SweepError('swap', `--swap: layer ${s.layer} lists the same tissue twice (${choices[keys.indexOf(twice)]!.record.label})`);
+		swaps.push({layer: s.layer, choices});
+	}
+
+	const marginDb = spec.marginDb ?? 0;
+	if (!within(marginLimit, marginDb)) throw new SweepError('margin', `--margin: must be a number ${describeRange(marginLimit, 'dB')} (got ${show(marginDb)})`);
+
+	let ladderMhz: number[];
+	let ladderFrom: ResolvedSweep['ladderFrom'];
+	if (spec.ladderMhz !== undefined) {
+		checkNumberList('ladder', spec.ladderMhz, limits.centerMhz, 'MHz', maxLadderLength);
+		ladderMhz = [...spec.ladderMhz];
+		ladderFrom = 'ladder';
+	} else if (freqSwept) {
+		ladderMhz = [...freqMhz];
+		ladderFrom = 'freq';
+	} else {
+		ladderMhz = [...defaultLadderMhz];
+		ladderFrom = 'default';
+	}
+	ladderMhz.sort((a, b) => a - b);
+
+	const stepCm = spec.stepCm ?? 0.1;
+	if (!(Number.isFinite(stepCm) && stepCm >= 0.01 && stepCm <= 5)) throw new SweepError('step', `--step: must be a number from 0.01 to 5 cm (got ${show(stepCm)})`);
+
+	const parts = [Math.max(1, fatCm.length), freqMhz.length, receive.length, ...swaps.map((s) => s.choices.length)];
+	const rowCount = combinationCount(parts);
+	if (rowCount > maxTableRows) {
+		const named = [
+			`${fatCm.length} --fat`,
+			`${freqMhz.length} --freq`,
+			`${receive.length} --receive`,
+			...swaps.map((s) => `${s.choices.length} --swap ${s.layer}`),
+		].join(' × ');
+		throw new SweepError('sweep', `the sweep has ${rowCount.toLocaleString('en-US')} combinations (${named}); a table holds at most ${maxTableRows.toLocaleString('en-US')} rows. Shorten a list.`);
+	}
+
+	return {
+		doc,
+		layerIndex,
+		fatCm,
+		fatSwept,
+		freqMhz,
+		freqSwept,
+		receive,
+		swaps,
+		delta: spec.delta ?? false,
+		marginDb,
+		ladderMhz,
+		ladderFrom,
+		targetDepthCm: doc.targetDepthCm ?? doc.display.depthCm,
+		stepCm,
+		rowCount,
+	};
+}
+
+/** Number of rows a sweep will produce, after checking it (throws {@link SweepError}). */
+export function sweepSize(doc: PlanDocument, spec: SweepSpec = {}): number {
+	return resolveSweep(doc, spec).rowCount;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Running
+// ---------------------------------------------------------------------------------------------
+
+export interface Combination {
+	readonly centerMhz: number;
+	readonly receive: ReceiveMode;
+	/** Index into each swap axis' choices. */
+	readonly swapPicks: readonly number[];
+}
+
+function* combinations(sweep: ResolvedSweep): Generator<Combination> {
+	const picks = sweep.swaps.map(() => 0);
+	for (const centerMhz of sweep.freqMhz) {
+		for (const receive of sweep.receive) {
+			picks.fill(0);
+			for (;;) {
+				yield {centerMhz, receive, swapPicks: [...picks]};
+				let k = picks.length - 1;
+				while (k >= 0 && ++picks[k]! >= sweep.swaps[k]!.choices.length) picks[k--] = 0;
+				if (k < 0) break;
+			}
+		}
+	}
+}
+
+/** The plan document of one combination. */
+export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: number | null): PlanDocument {
+	const doc = sweep.doc;
+	const layers = doc.layers.map((l, i) => {
+		let out = l;
+		const axis = sweep.swaps.findIndex((s) => s.layer === i + 1);
+		if (axis >= 0) out = {...out, tissue: sweep.swaps[axis]!.choices[combo.swapPicks[axis]!]!.tissue};
+		if (i === sweep.layerIndex && layerCm !== null && layerCm !== l.thicknessCm) out = {...out, thicknessCm: layerCm};
+		return out;
+	});
+	return {...doc, layers, probe: {...doc.probe, centerMhz: combo.centerMhz, harmonic: combo.receive === 'harmonic'}};
+}
+
+/** Everything the ladder depends on except the frequency. */
+function ladderKey(plan: EnginePlan): string {
+	return JSON.stringify([plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.harmonic, plan.probe.bandwidthFraction, plan.noiseBudgetDb]);
+}
+
+function tissueUses(sweep: ResolvedSweep): TissueUse[] {
+	const out: TissueUse[] = sweep.doc.layers.map((l, i) => ({where: `layer ${i + 1}`, tissue: resolveTissue(l.tissue)}));
+	for (const s of sweep.swaps) {
+		for (const c of s.choices) out.push({where: `layer ${s.layer} (swap)`, tissue: c.record, ...(c.from ? {from: c.from} : {})});
+	}
+	return out;
+}
+
+/** Runs a checked sweep. Pure and synchronous; `onProgress` is called after every row. */
+export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): ProtocolTable {
+	const stepCm = sweep.stepCm;
+	const referenceFit = computeCurve(resolvePlan(sweep.doc), {stepCm}).fit;
+	const reference = settingsOf(referenceFit);
+	const ladders = new Map<string, number | null>();
+	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
+	const rows: TableRow[] = [];
+	let anyHarmonic = false;
+
+	for (const combo of combinations(sweep)) {
+		for (const layerCm of layerValues) {
+			const doc = variantDoc(sweep, combo, layerCm);
+			const plan = resolvePlan(doc);
+			const r = computeCurve(plan, {stepCm});
+			const key = ladderKey(plan);
+			let highest = ladders.get(key);
+			if (highest === undefined) {
+				highest = frequencyLadder(plan, sweep.ladderMhz, sweep.targetDepthCm, sweep.marginDb).highestReachingMhz;
+				ladders.set(key, highest);
+			}
+			const settings = settingsOf(r.fit);
+			anyHarmonic ||= plan.probe.harmonic;
+			rows.push({
+				index: rows.length + 1,
+				layerCm,
+				centerMhz: combo.centerMhz,
+				receive: combo.receive,
+				swapLabels: sweep.swaps.map((s, k) => s.choices[combo.swapPicks[k]!]!.record.label),
+				doc,
+				plan,
+				slidersDb: settings.slidersDb,
+				masterGainDb: settings.masterGainDb,
+				...(sweep.delta ? {delta: settingsDelta(settings, reference)} : {}),
+				residualDb: r.fit.residualDb,
+				residualAtCm: r.fit.residualAtCm,
+				penetrationDepthCm: r.penetrationDepthCm,
+				blockedDepthCm: r.blockedDepthCm,
+				usableDepthCm: r.usableDepthCm,
+				noiseBudgetDb: plan.noiseBudgetDb,
+				highestReachingMhz: highest,
+				warnings: r.warnings,
+				...(options.keepCurves
+					? {curve: {depthsCm: r.samples.map((s) => s.displayedDepthCm), compensationDb: r.samples.map((s) => s.compensationDb)}}
+					: {}),
+			});
+			options.onProgress?.(rows.length, sweep.rowCount);
+		}
+	}
+
+	const notes = [ladderSimplification];
+	if (anyHarmonic) notes.unshift(harmonicSimplification);
+	return {
+		sweep,
+		rows,
+		knotDepthsCm: referenceFit.sliders.map((s) => s.depthCm),
+		reference,
+		tissues: tissueUses(sweep),
+		notes,
+	};
+}
+
+/** Checks and runs a sweep in one step (throws {@link SweepError} on a bad spec). */
+export function buildTable(doc: PlanDocument, spec: SweepSpec = {}, options: RunOptions = {}): ProtocolTable {
+	return runSweep(resolveSweep(doc, spec), options);
+}

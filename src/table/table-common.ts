@@ -1,0 +1,140 @@
+/**
+ * What the table formats share: rounding (fixed decimals, so output is byte-identical run to run),
+ * labels, the warning legend and the input description.
+ */
+import type {WarningCode} from '../engine/types.js';
+import type {ProtocolTable, ReceiveMode, TableRow} from './sweep.js';
+
+/** Options every formatter accepts. */
+export interface TableFormatOptions {
+	/** How the plan was given, e.g. `preset "upper-abdomen"` or `plan file liver.json`. */
+	readonly source?: string;
+	/** An ISO time to print; omitted by default so output is reproducible. */
+	readonly generatedAt?: string;
+}
+
+/** Decimals in JSON and CSV: the same as `evenecho curve --format json`. */
+export const gainDecimals = 2;
+export const depthDecimals = 3;
+export const residualDecimals = 3;
+export const mhzDecimals = 3;
+
+/** Rounds to fixed decimals; never returns −0. */
+export function roundTo(x: number, decimals: number): number {
+	const v = Number(x.toFixed(decimals));
+	return v === 0 ? 0 : v;
+}
+
+/** Fixed-decimal text; never "-0.0". */
+export function fixed(x: number, decimals: number): string {
+	return roundTo(x, decimals).toFixed(decimals);
+}
+
+/** Signed fixed-decimal text, ASCII: "+3.2", "-1.0", "+0.0". */
+export function signed(x: number, decimals: number): string {
+	const v = roundTo(x, decimals);
+	return `${v < 0 ? '-' : '+'}${Math.abs(v).toFixed(decimals)}`;
+}
+
+/** A number as short text: 2.5, 3, 0.75 (for inputs the user typed). */
+export function plain(x: number): string {
+	return String(roundTo(x, 6));
+}
+
+export function receiveLabel(r: ReceiveMode): string {
+	return r === 'harmonic' ? 'harmonic' : 'fundamental';
+}
+
+/** What the warning codes in a table mean (our wording). */
+export const warningLegend: Record<WarningCode, string> = {
+	'strong-reflector': 'a boundary reflects most of the beam: no useful echoes beyond it; gain is held flat there',
+	'strong-absorber': 'a layer absorbs so strongly that no useful echoes come from beyond it; gain is held flat there',
+	'below-noise-floor': 'the echo falls below the noise floor within the display: gain there lifts noise, not signal',
+	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
+	'master-range-exceeded': 'the master gain range is too narrow for this curve',
+	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
+	'shallow-display': 'the display is too shallow for what the plan needs to show',
+};
+
+/** Distinct warning codes in a table, in the legend's order. */
+export function warningCodesUsed(rows: readonly TableRow[]): WarningCode[] {
+	const used = new Set<WarningCode>();
+	for (const r of rows) for (const w of r.warnings) used.add(w.code);
+	return (Object.keys(warningLegend) as WarningCode[]).filter((c) => used.has(c));
+}
+
+/** Distinct warning codes of one row, in order of appearance. */
+export function rowWarningCodes(row: TableRow): WarningCode[] {
+	return [...new Set(row.warnings.map((w) => w.code))];
+}
+
+export function sweptLayerLabel(t: ProtocolTable): string | null {
+	const i = t.sweep.layerIndex;
+	if (i === null) return null;
+	return t.tissues[i]!.tissue.label;
+}
+
+/** "1, 2, 4 cm". */
+export function list(values: readonly number[], unit: string): string {
+	return `${values.map(plain).join(', ')}${unit ? ` ${unit}` : ''}`;
+}
+
+/** True when every row has the same noise budget. */
+export function sharedNoiseBudget(t: ProtocolTable): number | null {
+	const first = t.rows[0]?.noiseBudgetDb;
+	if (first === undefined) return null;
+	return t.rows.every((r) => r.noiseBudgetDb === first) ? first : null;
+}
+
+/** The inputs as label/value lines, for the Markdown header and the SVG footer. */
+export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [string, string][] {
+	const s = t.sweep;
+	const doc = s.doc;
+	const out: [string, string][] = [];
+	out.push(['Plan', `${o.source ? `${o.source}: ` : ''}"${doc.name}", region ${doc.region}`]);
+	const label = sweptLayerLabel(t);
+	if (s.layerIndex !== null && label !== null) {
+		const own = doc.layers[s.layerIndex]!.thicknessCm;
+		out.push([
+			'Habitus',
+			s.fatSwept
+				? `layer ${s.layerIndex + 1} (${label}) at ${list(s.fatCm, 'cm')}; the plan has ${plain(own)} cm`
+				: `layer ${s.layerIndex + 1} (${label}) at the plan's ${plain(own)} cm (not swept)`,
+		]);
+	}
+	const bw = doc.probe.bandwidthFraction > 0 ? `${plain(doc.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
+	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${s.freqSwept && !(s.freqMhz.length === 1 && s.freqMhz[0] === doc.probe.centerMhz) ? ` (the plan has ${plain(doc.probe.centerMhz)} MHz)` : ''}, ${bw}`]);
+	out.push(['Receive', s.receive.length === 2 ? 'fundamental and harmonic (2·f0)' : s.receive[0] === 'harmonic' ? 'harmonic (2·f0)' : 'fundamental']);
+	for (const w of s.swaps) {
+		out.push([`Layer ${w.layer} tissue`, w.choices.map((c) => c.record.label + (c.from ? ` (${c.from})` : '')).join(', ')]);
+	}
+	out.push(['Display', `${plain(doc.display.depthCm)} cm at an assumed ${plain(doc.display.assumedSpeedMps)} m/s; samples every ${plain(s.stepCm)} cm`]);
+	const bank = doc.sliders;
+	out.push([
+		'Controls',
+		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB at ${bank.knots === 'band-centres' ? 'band centres' : 'band edges'} (${bank.ends} ends), knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${bank.rampDbPerCmMhz > 0 ? `as offsets from the scanner's own ramp of ${plain(bank.rampDbPerCmMhz)} dB/cm/MHz (0 = centre detent)` : 'absolute (no built-in ramp)'}; master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
+	]);
+	const budget = sharedNoiseBudget(t);
+	const budgets = [...new Set(t.rows.map((r) => fixed(r.noiseBudgetDb, 1)))];
+	out.push([
+		'Noise budget',
+		budget !== null
+			? `${fixed(budget, 1)} dB${doc.phantomCalibration ? ' (from the phantom calibration)' : ''}`
+			: `per row, ${budgets.join(' or ')} dB (from the phantom calibration at each row's probe settings)`,
+	]);
+	const ladderFrom = s.ladderFrom === 'freq' ? 'the probe frequencies above' : s.ladderFrom === 'default' ? 'the default ladder' : 'the --ladder list';
+	out.push([
+		'Highest reaching frequency',
+		`the highest of ${list(s.ladderMhz, 'MHz')} (${ladderFrom}) whose echo from the target depth ${plain(s.targetDepthCm)} cm stays within the noise budget less a ${plain(s.marginDb)} dB margin`,
+	]);
+	if (s.delta) {
+		const ref = t.reference;
+		const own = s.layerIndex !== null ? `layer ${s.layerIndex + 1} at ${plain(doc.layers[s.layerIndex]!.thicknessCm)} cm, ` : '';
+		out.push([
+			'Deltas',
+			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ${doc.probe.harmonic ? 'harmonic' : 'fundamental'}): master ${fixed(ref.masterGainDb, 1)} dB, sliders ${ref.slidersDb.map((x) => signed(x, 1)).join(' ')} dB`,
+		]);
+	}
+	if (o.generatedAt) out.push(['Generated', o.generatedAt]);
+	return out;
+}

@@ -1,0 +1,48 @@
+/**
+ * The protocol table as CSV (RFC 4180: comma-separated, CRLF line ends, quotes where needed): one
+ * header row, then one row per combination, nothing else, so a spreadsheet opens it directly. The
+ * inputs, sources and cautions travel in the Markdown, JSON and SVG forms.
+ *
+ * Empty cells: `penetration_cm` when the echo stays above the noise floor over the whole display,
+ * `highest_reaching_mhz` when no ladder frequency reaches the target depth.
+ */
+import {stringify} from 'csv-stringify/sync';
+import type {ProtocolTable, TableRow} from './sweep.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, roundTo, rowWarningCodes} from './table-common.js';
+
+/** The header row. */
+export function csvHeader(t: ProtocolTable): string[] {
+	const s = t.sweep;
+	const h = ['row'];
+	if (s.layerIndex !== null) h.push(`layer${s.layerIndex + 1}_cm`);
+	h.push('center_mhz', 'receive');
+	for (const w of s.swaps) h.push(`layer${w.layer}_tissue`);
+	t.knotDepthsCm.forEach((_, k) => h.push(s.delta ? `slider${k + 1}_delta_db` : `slider${k + 1}_db`));
+	if (s.delta) h.push('master_delta_db');
+	h.push('master_gain_db', 'residual_db', 'penetration_cm', 'highest_reaching_mhz', 'warnings');
+	return h;
+}
+
+/** One data row, as text cells. */
+export function csvCells(t: ProtocolTable, r: TableRow): string[] {
+	const s = t.sweep;
+	const n = (x: number, d: number) => String(roundTo(x, d));
+	const out = [String(r.index)];
+	if (s.layerIndex !== null) out.push(r.layerCm === null ? '' : n(r.layerCm, depthDecimals));
+	out.push(n(r.centerMhz, mhzDecimals), r.receive);
+	out.push(...r.swapLabels);
+	if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => n(x, gainDecimals)), n(r.delta.masterDeltaDb, gainDecimals));
+	else out.push(...r.slidersDb.map((x) => n(x, gainDecimals)));
+	out.push(
+		n(r.masterGainDb, gainDecimals),
+		n(r.residualDb, residualDecimals),
+		r.penetrationDepthCm === null ? '' : n(r.penetrationDepthCm, depthDecimals),
+		r.highestReachingMhz === null ? '' : n(r.highestReachingMhz, mhzDecimals),
+		rowWarningCodes(r).join(' '),
+	);
+	return out;
+}
+
+export function tableCsv(t: ProtocolTable): string {
+	return stringify([csvHeader(t), ...t.rows.map((r) => csvCells(t, r))], {record_delimiter: '\r\n'});
+}

@@ -1,0 +1,133 @@
+/**
+ * The protocol table as Markdown (GitHub-style pipe tables), for pasting into a department
+ * document: a header with the inputs, the tissue values and their sources, the model version and
+ * the caution line; then one row per combination; then the warning legend and the simplifications.
+ */
+import {modelVersion} from '../engine/compensation-curve.js';
+import {cautionLine} from '../report/cautions.js';
+import type {ProtocolTable, TableRow} from './sweep.js';
+import {fixed, inputLines, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
+
+/** Escapes text for one table cell or line: pipes, backslashes, HTML-ish brackets, line breaks. */
+export function markdownText(s: string): string {
+	return s
+		.replace(/\\/g, '\\\\')
+		.replace(/\|/g, '\\|')
+		.replace(/</g, '&lt;')
+		.replace(/>/g, '&gt;')
+		.replace(/[*_`[\]]/g, (c) => `\\${c}`)
+		.replace(/\r\n|\r|\n/g, ' ');
+}
+
+function tableLines(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string[] {
+	const line = (cells: readonly string[]) => `| ${cells.join(' | ')} |`;
+	return [line(header), line(align.map((a) => (a === 'r' ? '---:' : ':---'))), ...rows.map(line)];
+}
+
+/** Column headers and cells of the main table (exported for the console's scrolling view). */
+export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
+	const s = t.sweep;
+	const label = sweptLayerLabel(t);
+	const header: string[] = ['#'];
+	const align: ('l' | 'r')[] = ['r'];
+	if (s.layerIndex !== null) {
+		header.push(`${markdownText(label ?? 'Layer')} cm`);
+		align.push('r');
+	}
+	header.push('MHz', 'Receive');
+	align.push('r', 'l');
+	for (const w of s.swaps) {
+		header.push(`Layer ${w.layer}`);
+		align.push('l');
+	}
+	t.knotDepthsCm.forEach((d, k) => {
+		header.push(`${s.delta ? 'Δ ' : ''}S${k + 1} @${fixed(d, 1)} cm`);
+		align.push('r');
+	});
+	if (s.delta) {
+		header.push('Δ master dB');
+		align.push('r');
+	}
+	header.push('Master dB', 'Fit ± dB', 'Noise floor at cm', `Highest MHz to ${plain(s.targetDepthCm)} cm`, 'Warnings');
+	align.push('r', 'r', 'r', 'r', 'l');
+
+	const beyond = `beyond ${plain(s.doc.display.depthCm)}`;
+	const cells = (r: TableRow): string[] => {
+		const out = [String(r.index)];
+		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
+		out.push(plain(r.centerMhz), r.receive);
+		for (const l of r.swapLabels) out.push(markdownText(l));
+		if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => signed(x, 1)), signed(r.delta.masterDeltaDb, 1));
+		else out.push(...r.slidersDb.map((x) => signed(x, 1)));
+		out.push(
+			fixed(r.masterGainDb, 1),
+			fixed(r.residualDb, 1),
+			r.penetrationDepthCm === null ? beyond : fixed(r.penetrationDepthCm, 1),
+			r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz),
+			rowWarningCodes(r).join(', ') || '–',
+		);
+		return out;
+	};
+	return {header, align, cells};
+}
+
+export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): string {
+	const s = t.sweep;
+	const out: string[] = [];
+	out.push(`# Depth-gain protocol table: ${markdownText(s.doc.name)}`);
+	out.push('');
+	out.push(`> **Caution:** ${markdownText(cautionLine)}`);
+	out.push('');
+	for (const [k, v] of inputLines(t, o)) out.push(`- **${markdownText(k)}:** ${markdownText(v)}`);
+	out.push(`- **Model:** ${markdownText(modelVersion)}`);
+	out.push('');
+
+	out.push('## Tissues used');
+	out.push('');
+	const last = s.doc.layers.length - 1;
+	out.push(
+		...tableLines(
+			['Where', 'Tissue', 'Thickness cm', 'c m/s', 'ρ kg/m³', 'α0 dB/cm/MHz^n, one way', 'n', 'Source'],
+			['l', 'l', 'r', 'r', 'r', 'r', 'r', 'l'],
+			t.tissues.map((u, i) => {
+				const layer = i <= last ? s.doc.layers[i] : undefined;
+				const thickness = !layer ? 'as the layer' : i === last ? 'rest' : i === s.layerIndex && s.fatSwept ? 'swept' : plain(layer.thicknessCm);
+				const source = [u.tissue.source ?? 'no source recorded', u.from ? `taken from ${u.from}` : ''].filter(Boolean).join('; ');
+				return [
+					u.where,
+					markdownText(u.tissue.label),
+					thickness,
+					plain(u.tissue.speedMps),
+					plain(u.tissue.densityKgM3),
+					plain(u.tissue.alphaDbPerCmMhz),
+					plain(u.tissue.exponent),
+					markdownText(source),
+				];
+			}),
+		),
+	);
+	out.push('');
+
+	out.push(s.delta ? '## Starting settings (sliders and master as deltas from the standard habitus)' : '## Starting settings');
+	out.push('');
+	const cols = markdownColumns(t);
+	out.push(...tableLines(cols.header, cols.align, t.rows.map(cols.cells)));
+	out.push('');
+	out.push(
+		`Sliders in dB at their knot depths (displayed cm)${s.delta ? ', as the row minus the standard habitus' : ''}; "Fit ± dB" is the worst gap between the fitted controls and the curve; "Noise floor at" is the displayed depth where the echo meets the noise floor.`,
+	);
+
+	const codes = warningCodesUsed(t.rows);
+	if (codes.length) {
+		out.push('');
+		out.push('Warnings:');
+		out.push('');
+		for (const c of codes) out.push(`- \`${c}\`: ${markdownText(warningLegend[c])}`);
+	}
+	out.push('');
+	out.push('Notes:');
+	out.push('');
+	for (const n of t.notes) out.push(`- ${markdownText(n)}`);
+	out.push(`- ${markdownText(cautionLine)}`);
+	return out.join('\n') + '\n';
+}
