@@ -22,7 +22,7 @@ export function tenLayerPlan(): EnginePlan {
 		scattererExponent: 1.4,
 		display: {depthCm: 30, assumedSpeedMps: 1540},
 		sliders: {count: 10, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: 0.5},
-		masterGain: {minDb: 0, maxDb: 60},
+		masterGain: {minDb: 0, maxDb: 60, baseDb: 30},
 		noiseBudgetDb: 200,
 	};
 }

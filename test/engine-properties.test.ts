@@ -5,7 +5,7 @@
 import fc from 'fast-check';
 import {describe, expect, it} from 'vitest';
 import {bruteForceAttenuationDb} from '../src/engine/brute-force-loss.js';
-import {computeCurve, pathModelOf} from '../src/engine/compensation-curve.js';
+import {computeCurve, controlTargetDb, pathModelOf} from '../src/engine/compensation-curve.js';
 import {naiveFit} from '../src/engine/slider-fit.js';
 import type {EnginePlan, Layer} from '../src/engine/types.js';
 import {custom, plan} from './helpers/plans.js';
@@ -125,7 +125,7 @@ describe('engine properties', () => {
 				const r = computeCurve(q, {stepCm: 0.2});
 				const naive = naiveFit({
 					depthsCm: r.samples.map((s) => s.displayedDepthCm),
-					targetDb: r.samples.map((s) => s.compensationDb),
+					targetDb: r.samples.map((s) => controlTargetDb(q, s)),
 					usableDepthCm: r.usableDepthCm,
 					bank: q.sliders,
 					displayDepthCm: q.display.depthCm,

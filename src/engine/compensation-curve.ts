@@ -7,9 +7,10 @@
  * echogenicity between layers carry diagnostic contrast and are left alone.
  */
 import {PathModel, type Barrier} from './path-model.js';
+import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
-import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, Tissue} from './types.js';
+import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit, Tissue} from './types.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
 export const modelVersion = 'evenecho-model 1 (1-D layers, normal incidence, Gaussian pulse-echo spectrum)';
@@ -64,6 +65,23 @@ export function builtInRampDb(plan: EnginePlan, displayedCm: number): number {
 	return plan.sliders.rampDbPerCmMhz * legsMhz * displayedCm;
 }
 
+/** What master gain + sliders must add at a sample: the compensation less the built-in ramp, on the
+ * master gain's own scale. */
+export function controlTargetDb(plan: EnginePlan, s: Pick<CurveSample, 'displayedDepthCm' | 'compensationDb'>): number {
+	return s.compensationDb - builtInRampDb(plan, s.displayedDepthCm) + plan.masterGain.baseDb;
+}
+
+/**
+ * Compensation the fitted controls deliver at a displayed depth, dB relative to the skin: the
+ * built-in ramp plus master gain plus the interpolated sliders, less the master's skin-level base.
+ * Comparable with CurveSample.compensationDb.
+ */
+export function deliveredCompensationDb(plan: EnginePlan, fit: SliderFit, displayedCm: number): number {
+	const knots = fit.sliders.map((s) => s.depthCm);
+	const values = fit.sliders.map((s) => s.gainDb);
+	return builtInRampDb(plan, displayedCm) + appliedGainDb(knots, plan.sliders.ends, values, fit.masterGainDb, displayedCm) - plan.masterGain.baseDb;
+}
+
 /** Spacing of the uncertainty-band grid, cm: the band is smooth and only ±20 % wide or more, so
  * linear interpolation between these points is far finer than the band itself. */
 const bandGridCm = 0.5;
@@ -96,7 +114,7 @@ function barrierWarning(b: Barrier, plan: EnginePlan): CurveWarning {
 		b.kind === 'strong-reflector'
 			? `${label} from ${depth} cm reflects ${(b.value * 100).toFixed(0)} % of the intensity: no useful echoes beyond it. Gain is held flat there; more gain cannot restore what does not return.`
 			: `${label} from ${depth} cm absorbs ${b.value} dB/cm/MHz one way: no useful echoes beyond it. Gain is held flat there.`;
-	return {code: b.kind, message, depthCm: b.displayedCm};
+	return {code: b.kind, severity: 'warning', message, depthCm: b.displayedCm};
 }
 
 /** Computes the whole compensation curve of a plan. Pure: same plan, same result. */
@@ -141,7 +159,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
 	const fit = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),
-		targetDb: samples.map((s) => s.compensationDb - builtInRampDb(plan, s.displayedDepthCm)),
+		targetDb: samples.map((s) => controlTargetDb(plan, s)),
 		usableDepthCm,
 		bank: plan.sliders,
 		displayDepthCm: depthCm,
@@ -153,6 +171,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	if (penetrationDepthCm !== null && (blockedDepthCm === null || penetrationDepthCm < blockedDepthCm)) {
 		warnings.push({
 			code: 'below-noise-floor',
+			severity: 'warning',
 			message: `Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor (${plan.noiseBudgetDb} dB budget): gain there lifts noise, not signal. Try a lower frequency, a shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
 			depthCm: penetrationDepthCm,
 		});
@@ -160,6 +179,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	if (fit.residualDb > residualWarningDb) {
 		warnings.push({
 			code: 'slider-range-exceeded',
+			severity: 'warning',
 			message: `Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
 			depthCm: fit.residualAtCm,
 		});
@@ -171,6 +191,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 			if (barrier && span.shownTopCm >= barrier.displayedCm) continue;
 			warnings.push({
 				code: 'speed-mismatch',
+				severity: 'note',
 				message: `${span.layer.tissue.label} (${c} m/s) is drawn ${Math.abs(misdrawn * 100).toFixed(1)} % ${misdrawn > 0 ? 'thicker' : 'thinner'} than it is at the assumed ${plan.display.assumedSpeedMps} m/s; the curve follows displayed depth.`,
 				depthCm: span.shownTopCm,
 			});

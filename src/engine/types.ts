@@ -90,7 +90,16 @@ export interface EnginePlan {
 		readonly assumedSpeedMps: number;
 	};
 	readonly sliders: SliderBank;
-	readonly masterGain: {readonly minDb: number; readonly maxDb: number};
+	readonly masterGain: {
+		readonly minDb: number;
+		readonly maxDb: number;
+		/**
+		 * Master gain that shows the reference tissue right under the skin at the intended brightness
+		 * with every slider centred. Compensation is relative to the skin, so the fitted master gain is
+		 * this plus the part of the compensation the sliders do not carry.
+		 */
+		readonly baseDb: number;
+	};
 	/** Largest round-trip loss (dB) the system can still lift above its noise floor. */
 	readonly noiseBudgetDb: number;
 }
@@ -107,6 +116,8 @@ export type WarningCode =
 
 export interface CurveWarning {
 	readonly code: WarningCode;
+	/** `warning`: the operator must act or know the curve stops; `note`: background (depth drawn off by speed). */
+	readonly severity: 'warning' | 'note';
 	readonly message: string;
 	/** Displayed depth the warning applies from, cm (absent when it concerns the whole plan). */
 	readonly depthCm?: number;

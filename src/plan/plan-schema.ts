@@ -89,8 +89,14 @@ const masterSchema = z
 	.strictObject({
 		minDb: ranged(limits.masterDb, 'dB').default(0),
 		maxDb: ranged(limits.masterDb, 'dB').default(60),
+		/** Master gain showing the tissue under the skin right with sliders centred; default mid-range. */
+		baseDb: ranged(limits.masterDb, 'dB').optional(),
 	})
-	.refine((m) => m.minDb < m.maxDb, {error: 'minDb must be below maxDb', path: ['maxDb']});
+	.refine((m) => m.minDb < m.maxDb, {error: 'minDb must be below maxDb', path: ['maxDb']})
+	.refine((m) => m.baseDb === undefined || (m.baseDb >= m.minDb && m.baseDb <= m.maxDb), {
+		error: 'must lie within minDb and maxDb',
+		path: ['baseDb'],
+	});
 
 const phantomSchema = z.strictObject({
 	centerMhz: ranged(limits.centerMhz, 'MHz'),

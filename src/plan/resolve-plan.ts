@@ -23,7 +23,11 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		scattererExponent: doc.scattererExponent,
 		display: doc.display,
 		sliders: doc.sliders,
-		masterGain: doc.masterGain,
+		masterGain: {
+			minDb: doc.masterGain.minDb,
+			maxDb: doc.masterGain.maxDb,
+			baseDb: doc.masterGain.baseDb ?? (doc.masterGain.minDb + doc.masterGain.maxDb) / 2,
+		},
 		noiseBudgetDb,
 	};
 }

@@ -32,7 +32,7 @@ export function curveJson(r: CurveResult) {
 		penetrationDepthCm: r.penetrationDepthCm === null ? null : round(r.penetrationDepthCm),
 		blockedDepthCm: r.blockedDepthCm === null ? null : round(r.blockedDepthCm),
 		noiseBudgetDb: round(r.plan.noiseBudgetDb),
-		warnings: r.warnings.map((w) => ({code: w.code, message: w.message, depthCm: w.depthCm === undefined ? null : round(w.depthCm)})),
+		warnings: r.warnings.map((w) => ({code: w.code, severity: w.severity, message: w.message, depthCm: w.depthCm === undefined ? null : round(w.depthCm)})),
 		caution: cautionLine,
 	};
 }

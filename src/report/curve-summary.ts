@@ -2,7 +2,7 @@
  * The readable summary of a curve: plan, layers, slider table, master gain, penetration, warnings
  * and cautions. Plain text, fits 80 columns.
  */
-import {builtInRampDb} from '../engine/compensation-curve.js';
+import {deliveredCompensationDb} from '../engine/compensation-curve.js';
 import {impedanceMrayl} from '../engine/tissue-library.js';
 import type {CurveResult} from '../engine/types.js';
 import {cautions} from './cautions.js';
@@ -42,12 +42,12 @@ export function curveSummary(r: CurveResult): string {
 			? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
 			: '  sliders are absolute (no built-in ramp assumed)',
 	);
-	out.push('  slider  depth cm  slider dB  total gain dB');
+	out.push('  slider  depth cm  slider dB  compensates dB');
 	r.fit.sliders.forEach((s, i) => {
-		const total = builtInRampDb(p, s.depthCm) + s.gainDb + r.fit.masterGainDb;
-		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(total), 13)}`);
+		const delivered = deliveredCompensationDb(p, r.fit, s.depthCm);
+		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}`);
 	});
-	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB; fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
+	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (${f1(p.masterGain.baseDb)} dB shows the tissue under the skin); fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
 	out.push(
 		r.penetrationDepthCm === null
 			? `  above the noise floor (${f1(p.noiseBudgetDb)} dB budget) over the whole ${p.display.depthCm} cm display`
@@ -64,10 +64,17 @@ export function curveSummary(r: CurveResult): string {
 			`       ${lpad(f1(s.displayedDepthCm), 8)}  ${lpad(f1(s.trueDepthCm), 7)}  ${lpad(f1(s.compensationDb), 7)}  ${lpad(`${f1(s.lowDb)}-${f1(s.highDb)}`, 11)}  ${lpad(s.echoCenterMhz.toFixed(2), 8)}${flag}`,
 		);
 	});
-	if (r.warnings.length) {
+	const warnings = r.warnings.filter((w) => w.severity === 'warning');
+	const notes = r.warnings.filter((w) => w.severity === 'note');
+	if (warnings.length) {
 		out.push('');
 		out.push('Warnings');
-		for (const w of r.warnings) out.push(`  ! ${w.message}`);
+		for (const w of warnings) out.push(`  ! ${w.message}`);
+	}
+	if (notes.length) {
+		out.push('');
+		out.push('Notes');
+		for (const w of notes) out.push(`  - ${w.message}`);
 	}
 	out.push('');
 	out.push('Cautions');

@@ -427,7 +427,8 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 				usableDepthCm: r.usableDepthCm,
 				noiseBudgetDb: plan.noiseBudgetDb,
 				highestReachingMhz: highest,
-				warnings: r.warnings,
+				// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
+				warnings: r.warnings.filter((w) => w.severity === 'warning'),
 				...(options.keepCurves
 					? {curve: {depthsCm: r.samples.map((s) => s.displayedDepthCm), compensationDb: r.samples.map((s) => s.compensationDb)}}
 					: {}),

@@ -32,7 +32,7 @@ export function plan(layers: Layer[], overrides: Partial<EnginePlan> & {centerMh
 		scattererExponent: 0,
 		display: {depthCm, assumedSpeedMps: 1540},
 		sliders: {count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: 0},
-		masterGain: {minDb: 0, maxDb: 60},
+		masterGain: {minDb: 0, maxDb: 60, baseDb: 30},
 		noiseBudgetDb: 200,
 		...rest,
 	};
