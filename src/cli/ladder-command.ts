@@ -3,7 +3,8 @@ import type {Command} from 'commander';
 import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
 import {cautionLine} from '../report/cautions.js';
-import {parseNumberList} from './number-list.js';
+import {SweepError} from '../table/sweep.js';
+import {parseNumberList} from '../table/sweep-options.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from './usage-error.js';
 
@@ -13,6 +14,16 @@ function parseNumber(option: string, text: string, min: number, max: number, uni
 		throw new UsageError(`${option}: must be a number from ${min} to ${max} ${unit} (got "${text}")`);
 	}
 	return v;
+}
+
+/** The same list syntax as the table command's sweeps ("2,3.5,5" or from:to:step). */
+function frequencies(text: string): number[] {
+	try {
+		return parseNumberList('freqs', text, limits.centerMhz, 'MHz', 200);
+	} catch (error) {
+		if (error instanceof SweepError) throw new UsageError(error.message);
+		throw error;
+	}
 }
 
 export function registerLadderCommand(program: Command): void {
@@ -26,7 +37,7 @@ export function registerLadderCommand(program: Command): void {
 		.option('--format <format>', 'text or json', 'text')
 		.action((planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
 			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
-			const freqs = parseNumberList(opts.freqs, {option: '--freqs', min: limits.centerMhz.min, max: limits.centerMhz.max, unit: 'MHz', exclusiveMin: true, maxCount: 200});
+			const freqs = frequencies(opts.freqs);
 			const margin = parseNumber('--margin', opts.margin, 0, 100, 'dB');
 			const target = opts.target === undefined ? undefined : parseNumber('--target', opts.target, 0.1, ladderSearchCm, 'cm');
 			const {doc, plan} = readPlanFile(planPath);

@@ -42,6 +42,12 @@ export function buildProgram(): Command {
 	return program;
 }
 
+// A reader that stops early (`evenecho … | head`) is not an error: end quietly, no stack trace.
+process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+	if (error.code === 'EPIPE') process.exit(0);
+	reportAndExit(error);
+});
+
 try {
 	await buildProgram().parseAsync(process.argv);
 } catch (error) {

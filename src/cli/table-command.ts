@@ -147,11 +147,6 @@ export function registerTableCommand(program: Command): void {
 				if (error instanceof SweepError) throw new UsageError(error.message);
 				throw error;
 			}
-			// A reader that stops early (`| head`) is not an error: end quietly instead of a stack trace.
-			process.stdout.once('error', (error: NodeJS.ErrnoException) => {
-				if (error.code === 'EPIPE') process.exit(0);
-				throw error;
-			});
 			process.stdout.write(text);
 		});
 }
