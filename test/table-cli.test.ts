@@ -63,12 +63,12 @@ describe('rows agree with evenecho curve', () => {
 			plan.probe.harmonic = row.receive === 'harmonic';
 			const c = runCli(['curve', write(`row-${row.row}.json`, plan), '--format', 'json']);
 			expect(c.status).toBe(0);
-			const curve = JSON.parse(c.stdout) as {masterGainDb: number; sliders: {depthCm: number; gainDb: number}[]; residualDb: number; penetrationDepthCm: number | null; warnings: {code: string}[]};
+			const curve = JSON.parse(c.stdout) as {masterGainDb: number; sliders: {depthCm: number; gainDb: number}[]; residualDb: number; penetrationDepthCm: number | null; warnings: {code: string; severity: string}[]};
 			expect(row.masterGainDb, `row ${row.row}`).toBe(curve.masterGainDb);
 			expect(row.sliders, `row ${row.row}`).toEqual(curve.sliders);
 			expect(row.residualDb, `row ${row.row}`).toBe(curve.residualDb);
 			expect(row.penetrationDepthCm, `row ${row.row}`).toBe(curve.penetrationDepthCm);
-			expect(row.warnings.map((w) => w.code)).toEqual(curve.warnings.filter((w: {severity: string}) => w.severity === 'warning').map((w) => w.code));
+			expect(row.warnings.map((w) => w.code)).toEqual(curve.warnings.filter((w) => w.severity === 'warning').map((w) => w.code));
 		}
 	});
 

@@ -172,7 +172,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		warnings.push({
 			code: 'below-noise-floor',
 			severity: 'warning',
-			message: `Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor (${plan.noiseBudgetDb} dB budget): gain there lifts noise, not signal. Try a lower frequency, a shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
+			message: `Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor (${plan.noiseBudgetDb.toFixed(1)} dB budget): gain there lifts noise, not signal. Try a lower frequency, a shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
 			depthCm: penetrationDepthCm,
 		});
 	}
