@@ -1,0 +1,155 @@
+/**
+ * The planning console: step bar, the current step (with the live curve beside it from 100
+ * columns), the status and hint lines, and the caution on every screen.
+ */
+import {Box, Text, useApp, useInput} from 'ink';
+import {useEffect, useMemo, useReducer, useRef} from 'react';
+import {computeCurve} from '../engine/compensation-curve.js';
+import type {CurveResult} from '../engine/types.js';
+import {demoPlan} from '../plan/demo-plan.js';
+import type {PlanDocument} from '../plan/plan-schema.js';
+import {resolvePlan} from '../plan/resolve-plan.js';
+import {CautionLine} from './caution-line.js';
+import {consoleReducer, modeOf} from './console-reducer.js';
+import {runEffect} from './console-effects.js';
+import {createInitialState} from './console-state.js';
+import {deltaOf, liveLine} from './curve-facts.js';
+import {CurvePane} from './curve-pane.js';
+import {CurveStep} from './curve-step.js';
+import {HelpOverlay} from './help-overlay.js';
+import {HintLine} from './hint-line.js';
+import {splitKeys} from './key-intents.js';
+import {layoutFor, type Layout} from './layout.js';
+import {demoPoint, type PresetShelf} from './preset-shelf.js';
+import {StatusLine} from './status-line.js';
+import {StepBar} from './step-bar.js';
+import {StepPane} from './step-pane.js';
+import {clip} from './text-fit.js';
+import {colourTheme, type Theme} from './theme.js';
+import {ThemeContext} from './theme-context.js';
+import {TissuePicker} from './tissue-picker.js';
+import {useTerminalSize} from './use-terminal-size.js';
+import {WarningsView} from './warnings-view.js';
+import type {ConsoleState} from './console-state.js';
+
+export interface AppProps {
+	readonly shelf: PresetShelf;
+	/** The plan to open with. @default the built-in demo */
+	readonly initialPlan?: PlanDocument;
+	readonly theme?: Theme;
+	/** Fixed terminal size (tests, the bench); otherwise read from stdout and kept up to date. */
+	readonly columns?: number;
+	readonly rows?: number;
+	/** Where exports are written. @default the current directory */
+	readonly exportDir?: string;
+	/** Called once when the console closes, with whether the plan had unsaved changes. */
+	readonly onExit?: (summary: {readonly isDirty: boolean}) => void;
+}
+
+function curveOf(doc: PlanDocument): CurveResult | string {
+	try {
+		return computeCurve(resolvePlan(doc));
+	} catch (error) {
+		// The schema should make this unreachable; still never crash the console over it.
+		return `The curve could not be worked out: ${error instanceof Error ? error.message : String(error)}`;
+	}
+}
+
+function Body({state, curve, layout}: {readonly state: ConsoleState; readonly curve: CurveResult; readonly layout: Layout}) {
+	const o = state.overlay;
+	const {columns, bodyRows} = layout;
+	const delta = deltaOf(curve, state.doc);
+	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
+	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
+	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} width={columns} height={bodyRows} />;
+	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
+	if (layout.isWide) {
+		const isCurveStep = state.step === 'curve';
+		return (
+			<Box flexDirection="row">
+				{isCurveStep ? (
+					<CurveStep state={state} curve={curve} delta={delta} layout={layout} width={layout.stepWidth} height={bodyRows} />
+				) : (
+					<StepPane state={state} curve={curve} delta={delta} width={layout.stepWidth} height={bodyRows} isFocused={state.pane === 'step'} />
+				)}
+				<Box width={1} />
+				<CurvePane
+					curve={curve}
+					delta={delta}
+					width={layout.curveWidth}
+					plotRows={isCurveStep ? bodyRows - 3 : layout.plotRows}
+					isFocused={state.pane === 'curve' && !isCurveStep}
+					slider={isCurveStep && state.cursors.curve >= curve.fit.sliders.length ? -1 : slider}
+					isPlotOnly={isCurveStep}
+				/>
+			</Box>
+		);
+	}
+	if (state.step === 'curve') return <CurveStep state={state} curve={curve} delta={delta} layout={layout} width={columns} height={bodyRows} />;
+	return (
+		<Box flexDirection="column">
+			<Box height={bodyRows - 1}>
+				<StepPane state={state} curve={curve} delta={delta} width={columns} height={bodyRows - 1} isFocused />
+			</Box>
+			<Text wrap="truncate">{clip(`${liveLine(curve, delta)}  (Tab: curve)`, columns)}</Text>
+		</Box>
+	);
+}
+
+export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exportDir, onExit}: AppProps) {
+	const size = useTerminalSize({...(columns === undefined ? {} : {columns}), ...(rows === undefined ? {} : {rows})});
+	const layout = layoutFor(size.columns, size.rows);
+	const [state, dispatch] = useReducer(consoleReducer, undefined, () => {
+		const listed = shelf.list();
+		return createInitialState({
+			doc: initialPlan ?? demoPlan(),
+			originName: initialPlan ? initialPlan.name : demoPoint.name,
+			startingPoints: listed.points,
+			storeProblems: listed.problems,
+			notices: shelf.notices,
+			isWide: layout.isWide,
+		});
+	});
+	const {exit} = useApp();
+	// Reported on unmount, however the console closes (q, Ctrl+C, a signal).
+	const dirtyRef = useRef(state.dirty);
+	dirtyRef.current = state.dirty;
+	useEffect(() => () => onExit?.({isDirty: dirtyRef.current}), [onExit]);
+
+	useEffect(() => {
+		dispatch({type: 'resize', isWide: layout.isWide});
+	}, [layout.isWide]);
+
+	useInput((input, key) => {
+		for (const press of splitKeys(input, key)) dispatch({type: 'key', ...press});
+	});
+
+	useEffect(() => {
+		if (state.effects.length === 0) return;
+		const batch = state.effects;
+		dispatch({type: 'effects-taken', count: batch.length});
+		const ctx = {
+			shelf,
+			doc: state.doc,
+			...(exportDir === undefined ? {} : {exportDir}),
+			exit,
+		};
+		for (const effect of batch) for (const action of runEffect(effect, ctx)) dispatch(action);
+	}, [state.effects, state.doc, shelf, exportDir, exit]);
+
+	const curve = useMemo(() => curveOf(state.doc), [state.doc]);
+
+	return (
+		<ThemeContext.Provider value={theme}>
+			<Box flexDirection="column" width={layout.columns}>
+				<StepBar step={state.step} width={layout.columns} isDirty={state.dirty} />
+				<Box height={layout.bodyRows} flexDirection="column">
+					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} />}
+				</Box>
+				<StatusLine state={state} width={layout.columns} />
+				<HintLine mode={modeOf(state)} width={layout.columns} />
+				<CautionLine width={layout.columns} />
+			</Box>
+		</ThemeContext.Provider>
+	);
+}

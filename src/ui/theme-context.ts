@@ -1,0 +1,9 @@
+/** The theme for every view below the app, so views never name a colour. */
+import {createContext, useContext} from 'react';
+import {colourTheme, type Theme} from './theme.js';
+
+export const ThemeContext = createContext<Theme>(colourTheme);
+
+export function useTheme(): Theme {
+	return useContext(ThemeContext);
+}
