@@ -267,3 +267,22 @@ describe('noise budget from a plan file with a phantom calibration', () => {
 		if (r.ok) expect(r.value.plan.noiseBudgetDb).toBeCloseTo(56, 9);
 	});
 });
+
+describe('below the usable depth the controls hold the compensation flat', () => {
+	it('sliders wholly below a bone surface cancel the built-in ramp instead of adding gain (common practice, no source)', async () => {
+		const {deliveredCompensationDb} = await import('../src/engine/compensation-curve.js');
+		const p = {
+			...plan([
+				{tissue: tissue('soft-tissue'), thicknessCm: 5},
+				{tissue: tissue('cortical-bone'), thicknessCm: 1},
+				{tissue: tissue('soft-tissue'), thicknessCm: 10},
+			]),
+			sliders: {count: 8, minDb: -60, maxDb: 60, knots: 'band-centres' as const, ends: 'flat' as const, rampDbPerCmMhz: 0.5},
+		};
+		const r = computeCurve(p);
+		const free = r.fit.sliders.filter((s, k) => k > 0 && r.fit.sliders[k - 1]!.depthCm >= r.usableDepthCm);
+		expect(free.length).toBeGreaterThan(0);
+		const held = deliveredCompensationDb(p, r.fit, free[0]!.depthCm);
+		for (const s of free) expect(deliveredCompensationDb(p, r.fit, s.depthCm)).toBeCloseTo(held, 6);
+	});
+});

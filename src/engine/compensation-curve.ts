@@ -82,6 +82,23 @@ export function deliveredCompensationDb(plan: EnginePlan, fit: SliderFit, displa
 	return builtInRampDb(plan, displayedCm) + appliedGainDb(knots, plan.sliders.ends, values, fit.masterGainDb, displayedCm) - plan.masterGain.baseDb;
 }
 
+/**
+ * Sliders that act only below the usable depth (the previous knot is already past it) are set so
+ * that the delivered compensation stays at its value there: below a barrier or the noise floor more
+ * gain brightens only noise, and the scanner's own ramp would otherwise keep adding it. They cannot
+ * change the fit over the usable range, so its residual stands.
+ */
+function holdFlatBeyond(plan: EnginePlan, fit: SliderFit, usableDepthCm: number, heldDb: number): SliderFit {
+	const {minDb, maxDb} = plan.sliders;
+	const sliders = fit.sliders.map((s, k) => {
+		const previous = fit.sliders[k - 1];
+		if (!previous || previous.depthCm < usableDepthCm) return s;
+		const wanted = heldDb - builtInRampDb(plan, s.depthCm) + plan.masterGain.baseDb - fit.masterGainDb;
+		return {depthCm: s.depthCm, gainDb: Math.min(maxDb, Math.max(minDb, wanted))};
+	});
+	return {...fit, sliders};
+}
+
 /** Spacing of the uncertainty-band grid, cm: the band is smooth and only ±20 % wide or more, so
  * linear interpolation between these points is far finer than the band itself. */
 const bandGridCm = 0.5;
@@ -157,7 +174,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 
 	const penetrationDepthCm = nominal.depthForLoss(plan.noiseBudgetDb, depthCm);
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
-	const fit = fitSliders({
+	const fitted = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),
 		targetDb: samples.map((s) => controlTargetDb(plan, s)),
 		usableDepthCm,
@@ -165,6 +182,8 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		displayDepthCm: depthCm,
 		master: plan.masterGain,
 	});
+	const heldDb = blockedDepthCm !== null && usableDepthCm >= blockedDepthCm ? held.nominal : nominal.lossAt(usableDepthCm);
+	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, heldDb);
 
 	const warnings: CurveWarning[] = [];
 	if (barrier) warnings.push(barrierWarning(barrier, plan));

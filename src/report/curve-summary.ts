@@ -47,7 +47,7 @@ export function curveSummary(r: CurveResult): string {
 		const delivered = deliveredCompensationDb(p, r.fit, s.depthCm);
 		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}`);
 	});
-	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (${f1(p.masterGain.baseDb)} dB shows the tissue under the skin); fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
+	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
 	out.push(
 		r.penetrationDepthCm === null
 			? `  above the noise floor (${f1(p.noiseBudgetDb)} dB budget) over the whole ${p.display.depthCm} cm display`
