@@ -1,6 +1,6 @@
 /**
  * Console benchmark.
- * - Cold start: `node dist/src/cli/main.js` in a pseudo-terminal (`script -qfc`, util-linux) until
+ * - Cold start: `node dist/bundle/main.js` (the shipped bundle) in a pseudo-terminal (`script -qfc`, util-linux) until
  *   its first frame is on the terminal, against `node -e 0` run the same way in the same run
  *   (median of several runs each, interleaved). Target ≤ 6×.
  * - Keystroke to frame: the console rendered in this process exactly as it runs (same render
@@ -21,7 +21,8 @@ import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
 import {report} from './bench-tools.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
-const cli = join(here, '..', 'src', 'cli', 'main.js');
+// The shipped entry: the bundle that package.json "bin" points at.
+const cli = join(here, '..', 'bundle', 'main.js');
 const firstFrameMarker = '[1 Starting plan]';
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;

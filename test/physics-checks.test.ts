@@ -280,7 +280,7 @@ describe('below the usable depth the controls hold the compensation flat', () =>
 			sliders: {count: 8, minDb: -60, maxDb: 60, knots: 'band-centres' as const, ends: 'flat' as const, rampDbPerCmMhz: 0.5},
 		};
 		const r = computeCurve(p);
-		const free = r.fit.sliders.filter((s, k) => k > 0 && r.fit.sliders[k - 1]!.depthCm >= r.usableDepthCm);
+		const free = r.fit.sliders.filter((_, k) => k > 0 && r.fit.sliders[k - 1]!.depthCm >= r.usableDepthCm);
 		expect(free.length).toBeGreaterThan(0);
 		const held = deliveredCompensationDb(p, r.fit, free[0]!.depthCm);
 		for (const s of free) expect(deliveredCompensationDb(p, r.fit, s.depthCm)).toBeCloseTo(held, 6);

@@ -10,7 +10,9 @@ import {fileURLToPath} from 'node:url';
 import {afterEach} from 'vitest';
 
 export const repoRoot = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
-export const distCli = join(repoRoot, 'dist', 'src', 'cli', 'main.js');
+import {cliPath as distCli} from './run-cli.js';
+
+export {distCli};
 export const distStore = join(repoRoot, 'dist', 'src', 'store', 'preset-store.js');
 
 const made: string[] = [];
@@ -71,7 +73,7 @@ export interface CliRun {
 	readonly stderr: string;
 }
 
-/** Runs `node dist/src/cli/main.js …args` with EVENECHO_HOME set to `home`. */
+/** Runs the shipped CLI (dist/bundle/main.js) with …args with EVENECHO_HOME set to `home`. */
 export function runCli(args: readonly string[], home: string, input?: string): CliRun {
 	const env: NodeJS.ProcessEnv = {...process.env, EVENECHO_HOME: home};
 	delete env['EVENECHO_DEBUG'];
