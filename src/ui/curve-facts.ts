@@ -1,7 +1,7 @@
 /**
  * Short words for what the curve says, shared by the curve pane, the curve step and the one-line
  * live summary. Each warning line starts with the plot's own character (`~` noise, `#` blocked,
- * `!` other), so the meaning survives without colour.
+ * `!` other, `i` a background note), so the meaning survives without colour.
  */
 import {settingsDelta, settingsOf, type SettingsDelta} from '../engine/plan-difference.js';
 import type {CurveResult, CurveWarning} from '../engine/types.js';
@@ -26,7 +26,7 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 			return '! master gain range too narrow';
 		case 'speed-mismatch': {
 			const m = /^(.*?) \((\d+(?:\.\d+)?) m\/s\) is drawn ([\d.]+ % (?:thicker|thinner))/.exec(w.message);
-			return m ? `! ${m[1]} drawn ${m[3]} (${m[2]} m/s)` : `! ${w.message}`;
+			return m ? `i ${m[1]} drawn ${m[3]} (${m[2]} m/s)` : `i ${w.message}`;
 		}
 		case 'shallow-display':
 			return `! ${w.message}`;
@@ -63,6 +63,7 @@ export function deltaOf(r: CurveResult, doc: PlanDocument): SettingsDelta | null
 
 /** The one-line live summary under a step when the curve is not on screen. */
 export function liveLine(r: CurveResult, delta: SettingsDelta | null): string {
-	const warn = r.warnings.length ? `  ${r.warnings.length} warning${r.warnings.length > 1 ? 's' : ''}` : '';
+	const n = r.warnings.filter((w) => w.severity === 'warning').length;
+	const warn = n ? `  ${n} warning${n > 1 ? 's' : ''}` : '';
 	return `Live: ${masterText(r, delta)}  ${reachText(r)}${warn}`;
 }
