@@ -17,6 +17,8 @@ export function curveJson(r: CurveResult) {
 		samples: r.samples.map((s) => ({
 			displayedDepthCm: round(s.displayedDepthCm),
 			trueDepthCm: round(s.trueDepthCm),
+			/** 1-based layer, skin down, that this depth falls in. */
+			layer: s.layerIndex + 1,
 			attenuationDb: round(s.attenuationDb),
 			interfaceLossDb: round(s.interfaceLossDb),
 			compensationDb: round(s.compensationDb),
@@ -40,6 +42,7 @@ export function curveJson(r: CurveResult) {
 const csvColumns = [
 	'displayedDepthCm',
 	'trueDepthCm',
+	'layer',
 	'attenuationDb',
 	'interfaceLossDb',
 	'compensationDb',
