@@ -2,11 +2,12 @@
  * The four table formats parse back: CSV with a CSV parser, JSON with its schema, SVG as XML;
  * Markdown keeps its header block and one line per row. All are byte-identical run to run.
  */
+import {abdomenPlan} from './helpers/abdomen-plan.js';
 import {parse} from 'csv-parse/sync';
 import {XMLParser, XMLValidator} from 'fast-xml-parser';
 import {describe, expect, it} from 'vitest';
 import {modelVersion} from '../src/engine/compensation-curve.js';
-import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
+import type {PlanDocument} from '../src/plan/plan-schema.js';
 import {cautionLine} from '../src/report/cautions.js';
 import {buildTable, harmonicSimplification, ladderSimplification, resolveSweep, SweepError, type SweepSpec} from '../src/table/sweep.js';
 import {tableCsv} from '../src/table/table-csv.js';
@@ -14,23 +15,8 @@ import {tableJson, tableJsonSchema, tableJsonText} from '../src/table/table-json
 import {markdownText, tableMarkdown} from '../src/table/table-markdown.js';
 import {checkSvgSweep, tableSvg, xmlText} from '../src/table/table-svg.js';
 
-/** Invented test template (no real patient or product). */
-function template(): PlanDocument {
-	const r = parsePlanDocument({
-		name: 'Test template | upper abdomen <adult> & co',
-		region: 'upper-abdomen',
-		layers: [
-			{tissue: 'skin', thicknessCm: 0.2},
-			{tissue: 'fat', thicknessCm: 2},
-			{tissue: 'muscle', thicknessCm: 1},
-			{tissue: 'liver', thicknessCm: 20},
-		],
-		probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
-		noiseBudgetDb: 65,
-	});
-	if (!r.ok) throw new Error(r.errors.join('; '));
-	return r.value;
-}
+/** The shared test stack, with a name that needs escaping in every format. */
+const template = (): PlanDocument => abdomenPlan({name: 'Test template | upper abdomen <adult> & co'});
 
 /** A custom tissue whose label needs quoting in every format. */
 const oddTissue = {label: 'Cyst, "simple" | <odd> & \'x\'', speedMps: 1550, densityKgM3: 1010, alphaDbPerCmMhz: 0.01, exponent: 2, source: 'invented test tissue'};

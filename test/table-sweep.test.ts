@@ -4,6 +4,7 @@
  * and every class of bad sweep.
  */
 import fc from 'fast-check';
+import {abdomenPlan} from './helpers/abdomen-plan.js';
 import {describe, expect, it} from 'vitest';
 import {computeCurve} from '../src/engine/compensation-curve.js';
 import {frequencyLadder} from '../src/engine/frequency-ladder.js';
@@ -22,26 +23,7 @@ import {
 import {parseNumberList, parseReceive, parseSwap, parseSweepText} from '../src/table/sweep-options.js';
 import {limits} from '../src/plan/plan-schema.js';
 
-/** Invented test template (no real patient or product): adult upper abdomen, standard habitus. */
-const templateJson = {
-	name: 'Test template: upper abdomen, standard adult',
-	region: 'upper-abdomen',
-	layers: [
-		{tissue: 'skin', thicknessCm: 0.2},
-		{tissue: 'fat', thicknessCm: 2},
-		{tissue: 'muscle', thicknessCm: 1},
-		{tissue: 'liver', thicknessCm: 20},
-	],
-	probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
-	display: {depthCm: 16, assumedSpeedMps: 1540},
-	noiseBudgetDb: 65,
-};
-
-function template(overrides: Record<string, unknown> = {}): PlanDocument {
-	const r = parsePlanDocument({...structuredClone(templateJson), ...overrides});
-	if (!r.ok) throw new Error(r.errors.join('; '));
-	return r.value;
-}
+const template = (overrides: Record<string, unknown> = {}): PlanDocument => abdomenPlan(overrides);
 
 function sweepError(fn: () => unknown): SweepError {
 	try {
