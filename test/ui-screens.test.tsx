@@ -37,6 +37,14 @@ async function screens(columns: number, rows: number, check: (app: Rendered, wha
 		['step 4', [keys.escape, '4']],
 		['step 4, on', [keys.enter]],
 		['step 5', ['5']],
+		['fat sweep', ['f']],
+		['fat sweep, deltas, next row', ['d', keys.down]],
+		['fat sweep, typing the list', [keys.enter, '0']],
+		['fat sweep, list refused', [keys.enter]],
+		['fat sweep, exported', [keys.escape, 'e']],
+		['fat sweep, 16 rows', [keys.enter, ...'1:16:1', keys.enter, keys.pageDown]],
+		['fat sweep, help', ['?']],
+		['step 5, back from the sweep', [keys.escape, keys.escape]],
 		['warnings', ['w']],
 		['help', [keys.escape, '?']],
 		['quit question', [keys.escape, 'q']],
@@ -78,7 +86,10 @@ describe('narrow, 80x24', () => {
 
 describe('wide, 100x30', () => {
 	it('fits on every step and overlay', async () => {
-		await screens(100, 30, (app, what) => expectFits(frame(app), 100, 30, what));
+		await screens(100, 30, (app, what) => {
+			expectFits(frame(app), 100, 30, what);
+			expect(frame(app), what).toContain('Starting point only, not a diagnosis');
+		});
 	});
 
 	it('shows the step and the live curve side by side', async () => {

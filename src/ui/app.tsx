@@ -24,6 +24,7 @@ import {demoPoint, type PresetShelf} from './preset-shelf.js';
 import {StatusLine} from './status-line.js';
 import {StepBar} from './step-bar.js';
 import {StepPane} from './step-pane.js';
+import {SweepView} from './sweep-view.js';
 import {clip} from './text-fit.js';
 import {colourTheme, type Theme} from './theme.js';
 import {ThemeContext} from './theme-context.js';
@@ -62,6 +63,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} width={columns} height={bodyRows} />;
+	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
 	if (layout.isWide) {
 		const isCurveStep = state.step === 'curve';
@@ -108,6 +110,8 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			storeProblems: listed.problems,
 			notices: shelf.notices,
 			isWide: layout.isWide,
+			columns: layout.columns,
+			rows: layout.rows,
 		});
 	});
 	const {exit} = useApp();
@@ -117,8 +121,8 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 	useEffect(() => () => onExit?.({isDirty: dirtyRef.current}), [onExit]);
 
 	useEffect(() => {
-		dispatch({type: 'resize', isWide: layout.isWide});
-	}, [layout.isWide]);
+		dispatch({type: 'resize', isWide: layout.isWide, columns: layout.columns, rows: layout.rows});
+	}, [layout.isWide, layout.columns, layout.rows]);
 
 	useInput((input, key) => {
 		for (const press of splitKeys(input, key)) dispatch({type: 'key', ...press});

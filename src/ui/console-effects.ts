@@ -1,12 +1,15 @@
 /**
- * Carries out the reducer's effects (load, save, export, exit) and turns each outcome into result
- * actions. The only UI module with I/O; failures become messages, never exceptions.
+ * Carries out the reducer's effects (load, save, export, the fat sweep's export, exit) and turns
+ * each outcome into result actions. The only UI module with I/O; failures become messages, never
+ * exceptions.
  */
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Action} from './console-reducer.js';
 import type {Effect} from './console-state.js';
 import {exportPlan} from './export-files.js';
 import type {PresetShelf} from './preset-shelf.js';
+import {exportSweep} from './sweep-export.js';
+import {sweepTable} from './sweep-table.js';
 
 export interface EffectContext {
 	readonly shelf: PresetShelf;
@@ -44,5 +47,14 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			} catch (error) {
 				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
 			}
+		case 'export-sweep': {
+			const outcome = sweepTable(ctx.doc, effect.fatCm, effect.isDelta);
+			if (!outcome.ok) return [{type: 'failed', message: 'Nothing exported: there is no table for this plan (the reason is under the list).'}];
+			try {
+				return [{type: 'sweep-exported', files: exportSweep(outcome.table, ctx.exportDir)}];
+			} catch (error) {
+				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
+			}
+		}
 	}
 }

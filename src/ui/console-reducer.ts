@@ -13,16 +13,19 @@ import {choiceFields, cycleChoice, numberFields} from './plan-fields.js';
 import type {StartingPoint} from './preset-shelf.js';
 import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, setCursor, withNotice} from './state-helpers.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
+import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
+import {maxColumnOffset} from './sweep-view-model.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
 
 export type Action =
 	| {readonly type: 'key'; readonly input: string; readonly key: KeyFlags}
-	| {readonly type: 'resize'; readonly isWide: boolean}
+	| {readonly type: 'resize'; readonly isWide: boolean; readonly columns?: number; readonly rows?: number}
 	| {readonly type: 'effects-taken'; readonly count: number}
 	| {readonly type: 'loaded'; readonly name: string; readonly plan: PlanDocument; readonly isPreset: boolean}
 	| {readonly type: 'saved'; readonly name: string}
 	| {readonly type: 'save-exists'; readonly name: string}
 	| {readonly type: 'exported'; readonly files: readonly string[]}
+	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
 	| {readonly type: 'starting-points'; readonly points: readonly StartingPoint[]; readonly problems: readonly string[]};
 
@@ -34,6 +37,7 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'tissue') return 'tissue';
 		return 'overlay';
 	}
+	if (s.sweep.isOpen) return s.sweep.typing ? 'edit-list' : 'sweep';
 	if (s.editing) return currentRow(s)?.kind === 'tissue-label' ? 'edit-text' : 'edit-number';
 	if (s.isWide && s.pane === 'curve' && s.step !== 'curve') return 'curve-pane';
 	if (s.step === 'stack' && s.openLayer === null) return 'stack';
@@ -110,6 +114,8 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 			return openSave(s);
 		case 'export':
 			return queue(s, {kind: 'export'});
+		case 'sweep':
+			return openSweep(s);
 	}
 }
 
@@ -207,6 +213,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return openSave(s);
 		case 'export':
 			return queue(s, {kind: 'export'});
+		case 'sweep':
+			return openSweep(s);
 		default:
 			return s;
 	}
@@ -265,6 +273,10 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 			return editTextIntent(s, intent, input);
 		case 'edit-number':
 			return editNumberIntent(s, intent, input);
+		case 'edit-list':
+			return sweepTypingIntent(s, intent, input);
+		case 'sweep':
+			return sweepIntent(s, intent) ?? (intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s);
 		default:
 			return clampCursor(browseIntent(s, intent, input, mode));
 	}
@@ -274,8 +286,13 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 	switch (a.type) {
 		case 'key':
 			return keyPress(s, a.input, a.key);
-		case 'resize':
-			return a.isWide === s.isWide ? s : {...s, isWide: a.isWide, pane: 'step', returnStep: null};
+		case 'resize': {
+			const columns = a.columns ?? s.columns;
+			const rows = a.rows ?? s.rows;
+			const column = Math.min(s.sweep.column, maxColumnOffset(s.doc.sliders.count, s.sweep.isDelta, columns));
+			const sized = columns === s.columns && rows === s.rows ? s : {...s, columns, rows, sweep: {...s.sweep, column}};
+			return a.isWide === s.isWide ? sized : {...sized, isWide: a.isWide, pane: 'step', returnStep: null};
+		}
 		case 'effects-taken':
 			return {...s, effects: s.effects.slice(a.count)};
 		case 'loaded':
@@ -301,6 +318,8 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
 		case 'exported':
 			return withNotice(s, `Exported ${a.files.join(' and ')} here.`, 'done');
+		case 'sweep-exported':
+			return withNotice({...s, sweep: {...s.sweep, files: a.files}}, `Exported the table in ${a.files.length} formats (Markdown, CSV, JSON, SVG) here.`, 'done');
 		case 'failed':
 			return withNotice(s, a.message, 'warning');
 		case 'starting-points':

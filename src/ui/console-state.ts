@@ -4,6 +4,7 @@
  */
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {StartingPoint} from './preset-shelf.js';
+import {closedSweep, type SweepState} from './sweep-state.js';
 
 export const stepIds = ['start', 'stack', 'probe', 'usual', 'curve'] as const;
 export type StepId = (typeof stepIds)[number];
@@ -35,7 +36,8 @@ export type Effect =
 	| {readonly kind: 'exit'}
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
-	| {readonly kind: 'export'};
+	| {readonly kind: 'export'}
+	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean};
 
 export interface Editing {
 	/** The row being edited (row ids are stable while the plan's shape is). */
@@ -61,6 +63,9 @@ export interface ConsoleState {
 	/** Narrow layout: where Tab goes back to after showing the curve. */
 	readonly returnStep: StepId | null;
 	readonly isWide: boolean;
+	/** Terminal size, for views that scroll (the fat sweep's columns and pages). */
+	readonly columns: number;
+	readonly rows: number;
 	/** Tissue stack: the layer whose details are open, or null for the stack itself. */
 	readonly openLayer: number | null;
 	readonly editing: Editing | null;
@@ -74,6 +79,8 @@ export interface ConsoleState {
 	readonly effects: readonly Effect[];
 	/** Last preset name saved or loaded, offered again when saving. */
 	readonly presetName: string | null;
+	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
+	readonly sweep: SweepState;
 }
 
 export interface InitialOptions {
@@ -83,6 +90,9 @@ export interface InitialOptions {
 	readonly storeProblems?: readonly string[];
 	readonly notices?: readonly string[];
 	readonly isWide: boolean;
+	/** Terminal size. @default 100x30 when wide, else 80x24 */
+	readonly columns?: number;
+	readonly rows?: number;
 }
 
 export function createInitialState(o: InitialOptions): ConsoleState {
@@ -94,6 +104,8 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		pane: 'step',
 		returnStep: null,
 		isWide: o.isWide,
+		columns: o.columns ?? (o.isWide ? 100 : 80),
+		rows: o.rows ?? (o.isWide ? 30 : 24),
 		openLayer: null,
 		editing: null,
 		refusal: null,
@@ -104,5 +116,6 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		storeProblems: o.storeProblems ?? [],
 		effects: [],
 		presetName: null,
+		sweep: closedSweep,
 	};
 }

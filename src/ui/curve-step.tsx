@@ -1,6 +1,6 @@
 /**
  * Step 5, the result: the sliders to set, master gain, how well they follow the curve, reach,
- * warnings, and the save / export actions. Narrow: the plot sits beside the table on this step.
+ * warnings, and the save / export / fat-sweep actions. Narrow: the plot sits beside the table on this step.
  */
 import {Box, Text} from 'ink';
 import type {SettingsDelta} from '../engine/plan-difference.js';
@@ -46,6 +46,7 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 	const count = curve.fit.sliders.length;
 	const cursor = state.cursors.curve;
 	const slider = cursor < count ? cursor : -1;
+	const actionCount = rowsOf(state, 'curve').filter((r) => r.kind === 'action').length;
 	const facts = (w: number) => {
 		const lines = [masterLine(curve, delta), fitLine(curve)];
 		return (
@@ -60,9 +61,9 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 		);
 	};
 	if (layout.isWide) {
-		// Title, three fact lines, the table, two actions, then the warnings in full below.
-		const tableRows = Math.min(count + 1, height - 9);
-		const room = Math.max(1, height - tableRows - 6);
+		// Title, three fact lines, the table, the actions, then the warnings in full below.
+		const tableRows = Math.min(count + 1, height - 7 - actionCount);
+		const room = Math.max(1, height - tableRows - 4 - actionCount);
 		const full = curve.warnings.length
 			? curve.warnings.flatMap((w) => wrapWords(`${shortWarning(w, curve)[0] ?? '!'} ${w.message}`, width - 2).map((l, i) => (i ? `  ${l}` : l)))
 			: ['no warnings'];
@@ -93,7 +94,7 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 				<Box width={1} />
 				<Box flexDirection="column" width={tableWidth}>
 					{facts(tableWidth)}
-					<SliderTable curve={curve} delta={delta} width={tableWidth} height={Math.max(2, sideRows - 5)} cursor={slider} isFocused />
+					<SliderTable curve={curve} delta={delta} width={tableWidth} height={Math.max(2, sideRows - 3 - actionCount)} cursor={slider} isFocused />
 					<Actions state={state} width={tableWidth} />
 				</Box>
 			</Box>

@@ -22,7 +22,8 @@ export function fileStem(name: string): string {
 	return stem || 'plan';
 }
 
-function writeAtomically(path: string, text: string): void {
+/** Writes `text` to a temp name beside `path`, then renames it over `path` (the temp file is removed on failure). */
+export function writeAtomically(path: string, text: string): void {
 	const temp = `${path}.${process.pid}.tmp`;
 	try {
 		writeFileSync(temp, text, 'utf8');

@@ -21,8 +21,8 @@ export interface KeyFlags {
 	readonly meta: boolean;
 }
 
-/** What the user is doing, which decides what a key means. */
-export type Mode = 'browse' | 'stack' | 'curve-pane' | 'edit-number' | 'edit-text' | 'tissue' | 'ask' | 'overlay';
+/** What the user is doing, which decides what a key means. `sweep` is the fat-thickness table of step 5, `edit-list` typing its list. */
+export type Mode = 'browse' | 'stack' | 'curve-pane' | 'edit-number' | 'edit-text' | 'edit-list' | 'tissue' | 'ask' | 'overlay' | 'sweep';
 
 export type Intent =
 	| 'exit-now'
@@ -48,6 +48,12 @@ export type Intent =
 	| 'layer-up'
 	| 'layer-down'
 	| 'tissue'
+	| 'sweep'
+	| 'scroll-left'
+	| 'scroll-right'
+	| 'page-up'
+	| 'page-down'
+	| 'toggle-delta'
 	| 'yes'
 	| 'no'
 	| 'erase'
@@ -69,8 +75,8 @@ export interface Binding {
 
 const browsing: readonly Mode[] = ['browse', 'stack', 'curve-pane'];
 const stepping: readonly Mode[] = ['browse', 'stack'];
-const typing: readonly Mode[] = ['edit-number', 'edit-text'];
-const every: readonly Mode[] = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'tissue', 'ask', 'overlay'];
+const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list'];
+const every: readonly Mode[] = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep'];
 
 const plain = (key: KeyFlags) => !key.ctrl && !key.meta;
 const is = (c: string, intent: Intent) => (input: string, key: KeyFlags) => (input === c && plain(key) ? intent : undefined);
@@ -79,29 +85,39 @@ const when = (test: boolean, intent: Intent) => (test ? intent : undefined);
 export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
-	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay'], pick: (_i, k) => when(k.escape, 'back')},
+	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep'], pick: (_i, k) => when(k.escape, 'back')},
 	{keys: 'y', hint: 'yes', help: 'answer yes', section: 'Questions', modes: ['ask'], pick: (i, k) => when((i === 'y' || i === 'Y') && plain(k), 'yes')},
 	{keys: 'n  Esc', hint: 'no', help: 'answer no', section: 'Questions', modes: ['ask'], pick: (i, k) => when(k.escape || ((i === 'n' || i === 'N') && plain(k)), 'no')},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
-	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
+	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
 	{keys: 'PgUp PgDn', help: 'nudge it a big step', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined)},
-	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue'], pick: (_i, k) => when(k.return, 'enter')},
+	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: typing, pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . -', help: 'type the value', section: 'Typing a value', modes: typing, pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
 	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: browsing, pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
+	{
+		keys: '←→ PgUp PgDn',
+		help: 'scroll the sweep table',
+		section: 'Moving around',
+		modes: ['sweep'],
+		pick: (_i, k) => (k.leftArrow ? 'scroll-left' : k.rightArrow ? 'scroll-right' : k.pageUp ? 'page-up' : k.pageDown ? 'page-down' : undefined),
+	},
 	{keys: '1-5', help: 'jump to a step', section: 'Moving around', modes: browsing, pick: (i, k) => when(/^[1-5]$/.test(i) && plain(k), 'jump')},
 	{keys: 'Tab', hint: 'curve', help: 'step pane / live curve', section: 'Moving around', modes: browsing, pick: (_i, k) => when(k.tab, 'pane')},
 	{keys: '+ -', help: 'nudge a step (= as +)', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && (i === '+' || i === '=') ? 'nudge-up' : plain(k) && i === '-' ? 'nudge-down' : undefined)},
 	{keys: '] [', help: 'nudge a big step', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && i === ']' ? 'coarse-up' : plain(k) && i === '[' ? 'coarse-down' : undefined)},
+	{keys: 'd', hint: 'deltas', help: 'sweep: values / deltas', section: 'Changing a value', modes: ['sweep'], pick: is('d', 'toggle-delta')},
 	{keys: 'a', hint: 'add', help: 'add a layer below', section: 'Tissue stack', modes: ['stack'], pick: is('a', 'layer-add')},
 	{keys: 'x', hint: 'remove', help: 'remove the layer', section: 'Tissue stack', modes: ['stack'], pick: is('x', 'layer-remove')},
 	{keys: 't', hint: 'tissue', help: 'tissue from the library', section: 'Tissue stack', modes: ['stack'], pick: is('t', 'tissue')},
 	{keys: 's', hint: 'save', help: 'save as a preset', section: 'The plan', modes: browsing, pick: is('s', 'save')},
 	{keys: 'e', hint: 'export', help: 'export JSON + summary', section: 'The plan', modes: browsing, pick: is('e', 'export')},
+	{keys: 'e', hint: 'export', help: 'sweep: md csv json svg', section: 'The plan', modes: ['sweep'], pick: is('e', 'export')},
+	{keys: 'f', help: 'fat thickness sweep', section: 'The plan', modes: browsing, pick: is('f', 'sweep')},
 	{keys: 'w', help: 'warnings in full', section: 'The plan', modes: browsing, pick: is('w', 'warnings')},
-	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay'], pick: is('?', 'help')},
-	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: browsing, pick: is('q', 'quit')},
+	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep'], pick: is('?', 'help')},
+	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},
 ];
 
 export interface Resolved {
@@ -145,6 +161,8 @@ export function hintsFor(mode: Mode): string[] {
 		'curve-pane': ['↑↓ slider'],
 		'edit-number': ['type digits', 'Enter apply'],
 		'edit-text': ['type text', 'Enter done'],
+		'edit-list': ['type a list', 'Enter apply'],
+		sweep: ['↑↓ rows', '←→ columns'],
 		tissue: ['↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
 	};
