@@ -123,3 +123,18 @@ describe('bad input: exit 2, the field named, nothing on stdout', () => {
 		expect(r.stdout).toBe('');
 	});
 });
+
+describe('traceability', () => {
+	it('JSON and text name every layer\'s tissue values and their sources', () => {
+		const path = planFile('trace.json', demo());
+		const j = JSON.parse(runCli(['curve', path, '--format', 'json']).stdout);
+		expect(j.layers).toHaveLength(4);
+		expect(j.layers[1]).toMatchObject({layer: 2, tissueId: 'fat', speedMps: 1440, alphaDbPerCmMhz: 0.6, exponent: 1});
+		expect(j.layers[1].source).toMatch(/Hasgall 2018/);
+		expect(j.layers[3].thicknessCm).toBeNull();
+		expect(j.model).toMatch(/evenecho-model/);
+		const text = runCli(['curve', path]).stdout;
+		expect(text).toContain('Tissue values from');
+		expect(text).toMatch(/2 Fat \(subcutaneous\): c: in-vivo breast fat/);
+	});
+});

@@ -14,6 +14,17 @@ export function curveJson(r: CurveResult) {
 		model: modelVersion,
 		plan: r.plan.name,
 		attenuationConvention: 'one-way dB/cm/MHz^n coefficients; curve values are round trip',
+		layers: r.plan.layers.map((l, i) => ({
+			layer: i + 1,
+			...(l.tissue.id ? {tissueId: l.tissue.id} : {}),
+			label: l.tissue.label,
+			thicknessCm: i === r.plan.layers.length - 1 ? null : l.thicknessCm,
+			speedMps: l.tissue.speedMps,
+			densityKgM3: l.tissue.densityKgM3,
+			alphaDbPerCmMhz: l.tissue.alphaDbPerCmMhz,
+			exponent: l.tissue.exponent,
+			source: l.tissue.source ?? null,
+		})),
 		samples: r.samples.map((s) => ({
 			displayedDepthCm: round(s.displayedDepthCm),
 			trueDepthCm: round(s.trueDepthCm),

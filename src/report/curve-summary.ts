@@ -77,6 +77,9 @@ export function curveSummary(r: CurveResult): string {
 		for (const w of notes) out.push(`  - ${w.message}`);
 	}
 	out.push('');
+	out.push('Tissue values from');
+	p.layers.forEach((l, i) => out.push(`  ${i + 1} ${l.tissue.label}: ${l.tissue.source ?? 'no source given'}`));
+	out.push('');
 	out.push('Cautions');
 	for (const c of cautions) out.push(`  - ${c}`);
 	return out.join('\n') + '\n';
