@@ -138,3 +138,13 @@ describe('traceability', () => {
 		expect(text).toMatch(/2 Fat \(subcutaneous\): c: in-vivo breast fat/);
 	});
 });
+
+describe('harmonic receive', () => {
+	it('the curve states the simplification in text and JSON', () => {
+		const p = demo();
+		p.probe = {centerMhz: 2.5, bandwidthFraction: 0.6, harmonic: true};
+		const path = planFile('harmonic.json', p);
+		expect(runCli(['curve', path]).stdout).toContain('build-up with depth is not modelled');
+		expect(JSON.parse(runCli(['curve', path, '--format', 'json']).stdout).notes[0]).toMatch(/receive at 2·f0/);
+	});
+});

@@ -3,6 +3,7 @@ import type {Command} from 'commander';
 import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
 import {cautionLine} from '../report/cautions.js';
+import {harmonicSimplification, ladderSimplification} from '../report/model-notes.js';
 import {SweepError} from '../table/sweep.js';
 import {parseNumberList} from '../table/sweep-options.js';
 import {readPlanFile} from './read-plan-file.js';
@@ -53,7 +54,7 @@ export function registerLadderCommand(program: Command): void {
 							marginDb: margin,
 							highestReachingMhz: ladder.highestReachingMhz,
 							rungs: ladder.rungs.map((r) => ({...r, penetrationDepthCm: r.penetrationDepthCm === null ? null : Number(r.penetrationDepthCm.toFixed(3))})),
-							assumption: 'the same noise budget in dB at every frequency',
+							notes: [ladderSimplification, ...(plan.probe.harmonic ? [harmonicSimplification] : [])],
 							caution: cautionLine,
 						},
 						null,
@@ -68,6 +69,8 @@ export function registerLadderCommand(program: Command): void {
 				lines.push(`  ${r.centerMhz.toFixed(2).padStart(5)}  ${reach.padStart(10)}   ${r.reachesTarget ? 'yes' : 'no'}`);
 			}
 			lines.push(ladder.highestReachingMhz === null ? '  no frequency in the list reaches the target' : `  highest frequency that reaches it: ${ladder.highestReachingMhz} MHz`);
+			lines.push(`  ${ladderSimplification}`);
+			if (plan.probe.harmonic) lines.push(`  ${harmonicSimplification}`);
 			lines.push(`  ${cautionLine}`);
 			process.stdout.write(lines.join('\n') + '\n');
 		});

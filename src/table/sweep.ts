@@ -6,6 +6,7 @@
  * both call {@link resolveSweep} / {@link runSweep} (or {@link buildTable} for both in one step) and
  * hand the result to one of the formatters (table-markdown, table-csv, table-json, table-svg).
  */
+import {harmonicSimplification, ladderSimplification} from '../report/model-notes.js';
 import {computeCurve} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
@@ -30,13 +31,7 @@ export const maxLadderLength = 200;
 export type ReceiveMode = 'fundamental' | 'harmonic';
 export const receiveModes: readonly ReceiveMode[] = ['fundamental', 'harmonic'];
 
-/** Stated in every output that has a harmonic row. */
-export const harmonicSimplification =
-	'Harmonic receive: transmit at f0, receive at 2·f0; the outward path is attenuated at f0 and the return path at 2·f0. Simplification: the harmonic is taken as present from the skin; its build-up with depth is not modelled.';
-
-/** Stated with the "highest reaching frequency" column. */
-export const ladderSimplification =
-	'The noise budget is taken as the same number of dB at every frequency (a simplification: real front ends vary across their band).';
+export {harmonicSimplification, ladderSimplification};
 
 /** A tissue to put into a layer: a library id or a custom record, with where it came from. */
 export interface TissueChoice {
