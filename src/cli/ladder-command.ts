@@ -3,7 +3,7 @@ import type {Command} from 'commander';
 import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
 import {cautionLine} from '../report/cautions.js';
-import {harmonicSimplification, ladderSimplification} from '../report/model-notes.js';
+import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
 import {SweepError} from '../table/sweep.js';
 import {parseNumberList} from '../table/sweep-options.js';
 import {readPlanFile} from './read-plan-file.js';

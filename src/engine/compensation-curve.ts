@@ -9,6 +9,7 @@
 import {PathModel, type Barrier} from './path-model.js';
 import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
+import {harmonicSimplification} from './model-notes.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit, Tissue} from './types.js';
 
@@ -203,6 +204,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 			depthCm: fit.residualAtCm,
 		});
 	}
+	if (plan.probe.harmonic) warnings.push({code: 'harmonic-simplified', severity: 'note', message: harmonicSimplification});
 	for (const span of nominal.spans) {
 		const c = span.layer.tissue.speedMps;
 		const misdrawn = span.stretch - 1;

@@ -110,9 +110,8 @@ export type WarningCode =
 	| 'strong-absorber'
 	| 'below-noise-floor'
 	| 'slider-range-exceeded'
-	| 'master-range-exceeded'
 	| 'speed-mismatch'
-	| 'shallow-display';
+	| 'harmonic-simplified';
 
 export interface CurveWarning {
 	readonly code: WarningCode;

@@ -5,7 +5,6 @@ import {stringify} from 'csv-stringify/sync';
 import {modelVersion} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
 import {cautionLine} from './cautions.js';
-import {harmonicSimplification} from './model-notes.js';
 
 const round = (x: number, digits = 3) => (Number.isFinite(x) ? Number(x.toFixed(digits)) : x);
 
@@ -47,7 +46,6 @@ export function curveJson(r: CurveResult) {
 		blockedDepthCm: r.blockedDepthCm === null ? null : round(r.blockedDepthCm),
 		noiseBudgetDb: round(r.plan.noiseBudgetDb),
 		warnings: r.warnings.map((w) => ({code: w.code, severity: w.severity, message: w.message, depthCm: w.depthCm === undefined ? null : round(w.depthCm)})),
-		notes: r.plan.probe.harmonic ? [harmonicSimplification] : [],
 		caution: cautionLine,
 	};
 }

@@ -6,7 +6,6 @@ import {deliveredCompensationDb} from '../engine/compensation-curve.js';
 import {impedanceMrayl} from '../engine/tissue-library.js';
 import type {CurveResult} from '../engine/types.js';
 import {cautions} from './cautions.js';
-import {harmonicSimplification} from './model-notes.js';
 
 const f1 = (x: number) => x.toFixed(1);
 const pad = (s: string, n: number) => s.padEnd(n);
@@ -26,7 +25,6 @@ export function curveSummary(r: CurveResult): string {
 	out.push(
 		`probe ${p.probe.centerMhz} MHz${p.probe.harmonic ? ` (harmonic receive ${2 * p.probe.centerMhz} MHz)` : ''}, ${bw}, scatterer f^${p.scattererExponent}; display ${p.display.depthCm} cm at ${p.display.assumedSpeedMps} m/s`,
 	);
-	if (p.probe.harmonic) out.push(harmonicSimplification);
 	out.push('');
 	out.push('Layers, skin down        true cm  c m/s  rho    Z MRayl  a0 dB/cm/MHz^n  n');
 	p.layers.forEach((l, i) => {

@@ -6,7 +6,7 @@
  * both call {@link resolveSweep} / {@link runSweep} (or {@link buildTable} for both in one step) and
  * hand the result to one of the formatters (table-markdown, table-csv, table-json, table-svg).
  */
-import {harmonicSimplification, ladderSimplification} from '../report/model-notes.js';
+import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
 import {computeCurve} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';

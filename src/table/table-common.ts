@@ -51,9 +51,8 @@ export const warningLegend: Record<WarningCode, string> = {
 	'strong-absorber': 'a layer absorbs so strongly that no useful echoes come from beyond it; gain is held flat there',
 	'below-noise-floor': 'the echo falls below the noise floor within the display: gain there lifts noise, not signal',
 	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
-	'master-range-exceeded': 'the master gain range is too narrow for this curve',
 	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
-	'shallow-display': 'the display is too shallow for what the plan needs to show',
+	'harmonic-simplified': 'harmonic receive: out at f0, back at 2·f0; the build-up of the harmonic with depth is not modelled',
 };
 
 /** Distinct warning codes in a table, in the legend's order. */

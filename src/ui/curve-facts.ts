@@ -22,14 +22,12 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 			return `${glyph.noise} below the noise floor from ${at} cm`;
 		case 'slider-range-exceeded':
 			return `! controls miss the curve by ${f1(r.fit.residualDb)} dB at ${at} cm`;
-		case 'master-range-exceeded':
-			return '! master gain range too narrow';
 		case 'speed-mismatch': {
 			const m = /^(.*?) \((\d+(?:\.\d+)?) m\/s\) is drawn ([\d.]+ % (?:thicker|thinner))/.exec(w.message);
 			return m ? `i ${m[1]} drawn ${m[3]} (${m[2]} m/s)` : `i ${w.message}`;
 		}
-		case 'shallow-display':
-			return `! ${w.message}`;
+		case 'harmonic-simplified':
+			return 'i harmonic receive: simplified (no build-up with depth)';
 	}
 }
 

@@ -23,9 +23,8 @@ export const shortCodes: Record<WarningCode, {readonly code: string; readonly me
 	'strong-absorber': {code: `${glyph.blocked}absorb`, means: 'a layer absorbs nearly all of it'},
 	'below-noise-floor': {code: `${glyph.noise}noise`, means: 'echo under the noise floor inside the display'},
 	'slider-range-exceeded': {code: '!sliders', means: 'the controls miss the curve by over 2 dB'},
-	'master-range-exceeded': {code: '!master', means: 'master gain range too narrow'},
 	'speed-mismatch': {code: '!speed', means: 'a layer is drawn thicker or thinner'},
-	'shallow-display': {code: '!shallow', means: 'the display is too shallow'},
+	'harmonic-simplified': {code: 'i harmonic', means: 'harmonic receive, simplified model'},
 };
 
 export type ColumnKind = 'slider' | 'master-delta' | 'master' | 'fit' | 'floor' | 'fmax' | 'warnings';
