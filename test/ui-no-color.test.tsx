@@ -6,6 +6,7 @@ import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
+import {boneAndNoisePlanJson} from './helpers/bone-and-noise-plan.js';
 
 // Before Ink (and chalk) are loaded, hence the dynamic imports below.
 process.env['FORCE_COLOR'] = '1';
@@ -15,18 +16,7 @@ afterAll(() => rmSync(home, {recursive: true, force: true}));
 
 const ansi = /\u001B\[/;
 
-/** Invented check plan: below the noise floor from about 6 cm, bone at 8 cm. */
-const boneAndNoise = {
-	name: 'Bone and noise check',
-	layers: [
-		{tissue: 'fat', thicknessCm: 2},
-		{tissue: 'liver', thicknessCm: 6},
-		{tissue: 'cortical-bone', thicknessCm: 1},
-		{tissue: 'soft-tissue', thicknessCm: 10},
-	],
-	probe: {centerMhz: 3.5},
-	noiseBudgetDb: 22,
-};
+const boneAndNoise = structuredClone(boneAndNoisePlanJson);
 
 let lib: {
 	render: typeof import('ink-testing-library').render;

@@ -5,20 +5,10 @@ import {demoPlan} from '../src/plan/demo-plan.js';
 import {parsePlan, resolvePlan} from '../src/plan/resolve-plan.js';
 import {depthPlot, glyph} from '../src/ui/depth-plot.js';
 import {layoutFor, scrollWindow, wrapWords} from '../src/ui/layout.js';
+import {boneAndNoisePlanJson} from './helpers/bone-and-noise-plan.js';
 
-/** A plan whose echo falls below the noise floor at about 6 cm and meets bone at 8 cm. */
 function boneAndNoisePlan() {
-	const r = parsePlan({
-		name: 'Bone and noise check',
-		layers: [
-			{tissue: 'fat', thicknessCm: 2},
-			{tissue: 'liver', thicknessCm: 6},
-			{tissue: 'cortical-bone', thicknessCm: 1},
-			{tissue: 'soft-tissue', thicknessCm: 10},
-		],
-		probe: {centerMhz: 3.5},
-		noiseBudgetDb: 22,
-	});
+	const r = parsePlan(structuredClone(boneAndNoisePlanJson));
 	if (!r.ok) throw new Error(r.errors.join('; '));
 	return r.value;
 }

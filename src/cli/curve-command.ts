@@ -5,16 +5,12 @@ import {settingsDelta, settingsOf, type SettingsDelta} from '../engine/plan-diff
 import type {CurveResult} from '../engine/types.js';
 import {curveCsv, curveJson} from '../report/curve-json.js';
 import {curveSummary, signedDb} from '../report/curve-summary.js';
+import {numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from './usage-error.js';
 
 const formats = ['text', 'json', 'csv'] as const;
 
-export function parseStep(value: string): number {
-	const step = Number(value);
-	if (!Number.isFinite(step) || step < 0.01 || step > 5) throw new UsageError(`--step: must be a number from 0.01 to 5 cm (got "${value}")`);
-	return step;
-}
 
 interface Comparison {
 	readonly name: string;
@@ -63,7 +59,7 @@ export function registerCurveCommand(program: Command): void {
 			if (!(formats as readonly string[]).includes(opts.format)) {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
 			}
-			const stepCm = parseStep(opts.step);
+			const stepCm = numberOption('step', opts.step, {min: 0.01, max: 5}, 'cm');
 			const {plan} = readPlanFile(planPath);
 			const result = computeCurve(plan, {stepCm});
 			const against = opts.against === undefined ? undefined : comparedWith(result, opts.against, stepCm);

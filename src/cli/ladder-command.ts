@@ -4,28 +4,9 @@ import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
 import {cautionLine} from '../report/cautions.js';
 import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
-import {SweepError} from '../table/sweep.js';
-import {parseNumberList} from '../table/sweep-options.js';
+import {numberListOption, numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from './usage-error.js';
-
-function parseNumber(option: string, text: string, min: number, max: number, unit: string): number {
-	const v = Number(text);
-	if (text.trim() === '' || !Number.isFinite(v) || v < min || v > max) {
-		throw new UsageError(`${option}: must be a number from ${min} to ${max} ${unit} (got "${text}")`);
-	}
-	return v;
-}
-
-/** The same list syntax as the table command's sweeps ("2,3.5,5" or from:to:step). */
-function frequencies(text: string): number[] {
-	try {
-		return parseNumberList('freqs', text, limits.centerMhz, 'MHz', 200);
-	} catch (error) {
-		if (error instanceof SweepError) throw new UsageError(error.message);
-		throw error;
-	}
-}
 
 export function registerLadderCommand(program: Command): void {
 	program
@@ -38,9 +19,9 @@ export function registerLadderCommand(program: Command): void {
 		.option('--format <format>', 'text or json', 'text')
 		.action((planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
 			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
-			const freqs = frequencies(opts.freqs);
-			const margin = parseNumber('--margin', opts.margin, 0, 100, 'dB');
-			const target = opts.target === undefined ? undefined : parseNumber('--target', opts.target, 0.1, ladderSearchCm, 'cm');
+			const freqs = numberListOption('freqs', opts.freqs, limits.centerMhz, 'MHz', 200);
+			const margin = numberOption('margin', opts.margin, {min: 0, max: 100}, 'dB');
+			const target = opts.target === undefined ? undefined : numberOption('target', opts.target, {min: 0.1, max: ladderSearchCm}, 'cm');
 			const {doc, plan} = readPlanFile(planPath);
 			const targetCm = target ?? doc.targetDepthCm ?? plan.display.depthCm;
 			const ladder = frequencyLadder(plan, freqs, targetCm, margin);

@@ -183,8 +183,8 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		displayDepthCm: depthCm,
 		master: plan.masterGain,
 	});
-	const heldDb = blockedDepthCm !== null && usableDepthCm >= blockedDepthCm ? held.nominal : nominal.lossAt(usableDepthCm);
-	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, heldDb);
+	// The usable depth never lies below a barrier, so this is also the held value there.
+	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, nominal.lossAt(usableDepthCm));
 
 	const warnings: CurveWarning[] = [];
 	if (barrier) warnings.push(barrierWarning(barrier, plan));
