@@ -1,13 +1,20 @@
 /**
- * Engine benchmark: the fast broadband path against the brute-force integration on the same
- * 10-layer plan, and throughput of whole curves (loss, band, fit) over varied plans.
+ * Engine benchmark.
+ * - CPU per curve (loss, band, noise floor, fit) over the 7 templates and 1,000 varied plans, this
+ *   tree against the pinned build, alternated; and the largest difference in any output (dB).
+ * - The fast broadband path against the brute-force integration on a 10-layer plan, both warmed
+ *   and alternated, with their largest difference.
  */
-import {performance} from 'node:perf_hooks';
 import {bruteForceAttenuationDb} from '../src/engine/brute-force-loss.js';
 import {computeCurve, pathModelOf, sampleDepths} from '../src/engine/compensation-curve.js';
 import {libraryTissue} from '../src/engine/tissue-library.js';
-import type {EnginePlan, Tissue} from '../src/engine/types.js';
-import {medianMs, report, seeded} from './bench-tools.js';
+import type {CurveResult, EnginePlan, Tissue} from '../src/engine/types.js';
+import {resolvePlan} from '../src/plan/resolve-plan.js';
+import {loadTemplates} from '../src/store/templates.js';
+import {alternate, median, note, ratioList, seeded, target} from './bench-tools.js';
+import {importPinned, type PinnedBuild} from './pinned-build.js';
+
+type ComputeCurve = (plan: EnginePlan, options?: {stepCm?: number}) => CurveResult;
 
 const t = (id: string): Tissue => libraryTissue(id)!;
 
@@ -27,42 +34,94 @@ export function tenLayerPlan(): EnginePlan {
 	};
 }
 
-export async function run(): Promise<void> {
-	console.log('curve engine');
+/** The built-in templates and `count` varied plans (seeded, so every run uses the same). */
+export function curvePlans(count: number): EnginePlan[] {
+	const templates = loadTemplates().templates.map((x) => resolvePlan(x.plan));
+	const base = tenLayerPlan();
+	const rand = seeded(7);
+	const pool = ['fat', 'muscle', 'liver', 'kidney', 'spleen', 'soft-tissue', 'breast', 'cyst-fluid', 'urine', 'blood', 'skin', 'tendon'];
+	const varied: EnginePlan[] = Array.from({length: count}, (_, i) => {
+		const n = 1 + Math.floor(rand() * 8);
+		return {
+			...base,
+			name: `varied ${i}`,
+			layers: Array.from({length: n}, () => ({tissue: t(pool[Math.floor(rand() * pool.length)]!), thicknessCm: 0.2 + rand() * 6})),
+			probe: {centerMhz: 2 + rand() * 10, bandwidthFraction: rand() < 0.2 ? 0 : 0.3 + rand() * 0.7, harmonic: rand() < 0.2},
+			scattererExponent: rand() < 0.5 ? 0 : rand() * 4,
+			display: {depthCm: 4 + rand() * 20, assumedSpeedMps: 1540},
+			sliders: {...base.sliders, count: 6 + Math.floor(rand() * 7)},
+			noiseBudgetDb: 50 + rand() * 40,
+		};
+	});
+	return [...templates, ...varied];
+}
+
+/** Largest difference between two curves of the same plan: every dB output and the fit. */
+export function curveDifference(a: CurveResult, b: CurveResult): {db: number; cm: number} {
+	let db = 0;
+	const n = Math.min(a.samples.length, b.samples.length);
+	for (let i = 0; i < n; i++) {
+		const x = a.samples[i]!;
+		const y = b.samples[i]!;
+		db = Math.max(db, Math.abs(x.compensationDb - y.compensationDb), Math.abs(x.lowDb - y.lowDb), Math.abs(x.highDb - y.highDb));
+	}
+	if (a.samples.length !== b.samples.length) db = Infinity;
+	db = Math.max(db, Math.abs(a.fit.masterGainDb - b.fit.masterGainDb), Math.abs(a.fit.residualDb - b.fit.residualDb));
+	a.fit.sliders.forEach((s, k) => (db = Math.max(db, Math.abs(s.gainDb - (b.fit.sliders[k]?.gainDb ?? Infinity)))));
+	const cm = Math.max(
+		Math.abs((a.penetrationDepthCm ?? -1) - (b.penetrationDepthCm ?? -1)),
+		Math.abs(a.usableDepthCm - b.usableDepthCm),
+	);
+	return {db, cm};
+}
+
+export async function run(pinned: PinnedBuild): Promise<void> {
+	console.log('\ncurve engine');
+	const before = (await importPinned<{computeCurve: ComputeCurve}>(pinned, 'src/engine/compensation-curve.js')).computeCurve;
+	const plans = curvePlans(1000);
+	const pass = (compute: ComputeCurve) => () => {
+		for (const p of plans) compute(p);
+	};
+	const ab = await alternate(pass(before), pass(computeCurve), 5, 1);
+	const perCurve = (ms: number) => ms / plans.length;
+	const nowCpu = median(ab.b.map((m) => perCurve(m.cpuMs)));
+	const beforeCpu = median(ab.a.map((m) => perCurve(m.cpuMs)));
+	note(`pinned build, CPU per curve (median of 5 passes over ${plans.length} plans)`, `${beforeCpu.toFixed(3)} ms`);
+	note('per-pair CPU ratios now ÷ pinned', ratioList(ab.cpuRatios));
+	target(
+		'CPU per curve, fit included (7 templates + 1,000 varied plans)',
+		`${nowCpu.toFixed(3)} ms, ${(1 / median(ab.cpuRatios)).toFixed(2)}× faster than the pinned build`,
+		'≤ 0.8 ms',
+		nowCpu <= 0.8,
+	);
+	let worstDb = 0;
+	let worstCm = 0;
+	let worstPlan = '';
+	for (const p of plans) {
+		const d = curveDifference(computeCurve(p), before(p));
+		if (d.db > worstDb) worstPlan = p.name;
+		worstDb = Math.max(worstDb, d.db);
+		worstCm = Math.max(worstCm, d.cm);
+	}
+	target(
+		'largest output difference from the pinned build (curve, band, sliders, master)',
+		`${worstDb.toFixed(4)} dB${worstPlan ? ` (${worstPlan})` : ''}; noise-floor depth ${worstCm.toFixed(4)} cm`,
+		'≤ 0.01 dB',
+		worstDb <= 0.01,
+	);
+
 	const plan = tenLayerPlan();
-	const depths = sampleDepths(30, 0.05);
+	const depths = sampleDepths(30, 0.25);
 	const fast = () => {
 		const m = pathModelOf(plan);
 		return depths.map((d) => m.at(d).attenuationDb);
 	};
-	const fastMs = medianMs(fast, 20);
-	const t0 = performance.now();
-	const reference = bruteForceAttenuationDb(plan, depths, {points: 20000});
-	const bruteMs = performance.now() - t0;
-	const fastValues = fast();
-	const maxDiff = Math.max(...fastValues.map((v, i) => Math.abs(v - reference[i]!)));
-	report('10-layer broadband attenuation, 601 samples (0.05 cm over 30 cm), fast path', `${fastMs.toFixed(2)} ms`);
-	report('same samples, brute-force 20,000-point integration', `${bruteMs.toFixed(0)} ms`);
-	report('speed ratio brute force / fast', `${(bruteMs / fastMs).toFixed(0)}x`, '>= 50x', bruteMs / fastMs >= 50);
-	report('largest difference', `${maxDiff.toFixed(5)} dB`, '<= 0.05 dB', maxDiff <= 0.05);
-	report('whole curve (loss, band, fit) for the same plan at 0.05 cm', `${medianMs(() => computeCurve(plan, {stepCm: 0.05}), 10).toFixed(2)} ms`);
-
-	const rand = seeded(7);
-	const pool = ['fat', 'muscle', 'liver', 'kidney', 'spleen', 'soft-tissue', 'breast', 'cyst-fluid', 'urine', 'blood', 'skin', 'tendon'];
-	const plans: EnginePlan[] = Array.from({length: 10_000}, (_, i) => {
-		const n = 1 + Math.floor(rand() * 8);
-		return {
-			...plan,
-			name: `varied ${i}`,
-			layers: Array.from({length: n}, () => ({tissue: t(pool[Math.floor(rand() * pool.length)]!), thicknessCm: 0.2 + rand() * 6})),
-			probe: {centerMhz: 2 + rand() * 10, bandwidthFraction: rand() < 0.2 ? 0 : 0.3 + rand() * 0.7, harmonic: rand() < 0.2},
-			display: {depthCm: 4 + rand() * 20, assumedSpeedMps: 1540},
-			sliders: {...plan.sliders, count: 6 + Math.floor(rand() * 7)},
-			noiseBudgetDb: 50 + rand() * 40,
-		};
-	});
-	const t1 = performance.now();
-	for (const p of plans) computeCurve(p);
-	const seconds = (performance.now() - t1) / 1000;
-	report('10,000 varied plans (0.1 cm steps, fit included)', `${(plans.length / seconds).toFixed(0)} curves/s (${seconds.toFixed(1)} s)`);
+	const brute = () => bruteForceAttenuationDb(plan, depths, {points: 20000});
+	const vs = await alternate(fast, brute, 3, 1);
+	const reference = brute();
+	const maxDiff = Math.max(...fast().map((v, i) => Math.abs(v - reference[i]!)));
+	note('10-layer broadband attenuation at 121 depths, fast path (median of 3)', `${median(vs.a.map((m) => m.cpuMs)).toFixed(2)} ms CPU`);
+	note('same depths, brute-force 20,000-point integration', `${median(vs.b.map((m) => m.cpuMs)).toFixed(0)} ms CPU`);
+	target('brute force ÷ fast path, alternated', `${median(vs.cpuRatios).toFixed(0)}× (pairs ${ratioList(vs.cpuRatios)})`, '≥ 50×', median(vs.cpuRatios) >= 50);
+	target('fast path against brute force, largest difference', `${maxDiff.toFixed(5)} dB`, '≤ 0.05 dB', maxDiff <= 0.05);
 }

@@ -1,106 +1,107 @@
 /**
- * Protocol-table benchmark: a 10,000-row sweep (100 habitus × 50 frequencies × 2 receive modes) of
- * an invented template, the full table path (variants, engine, ladder, rows, then each format)
- * against the engine alone on the very same plans in the same run: computeCurve for every row's
- * plan plus the frequency ladder for every distinct ladder the table needs. The ratio is the
- * table's own overhead; target ≤ 1.5×.
+ * Protocol-table benchmark, through the command as users run it: a 10,000-row sweep (100 habitus ×
+ * 50 frequencies × 2 receive modes) of the upper-abdomen template, this tree's bundle against the
+ * pinned build's command, alternated, output written to a file; then both outputs compared. And the
+ * resident memory of the largest allowed table (20,000 rows) written as JSON.
  */
-import {performance} from 'node:perf_hooks';
-import {computeCurve} from '../src/engine/compensation-curve.js';
-import {frequencyLadder} from '../src/engine/frequency-ladder.js';
-import type {EnginePlan} from '../src/engine/types.js';
-import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
-import {buildTable, type ProtocolTable, type SweepSpec} from '../src/table/sweep.js';
-import {tableCsv} from '../src/table/table-csv.js';
-import {tableJsonText} from '../src/table/table-json.js';
-import {tableMarkdown} from '../src/table/table-markdown.js';
-import {tableSvg} from '../src/table/table-svg.js';
-import {report} from './bench-tools.js';
+import {spawnSync} from 'node:child_process';
+import {mkdtempSync, readFileSync, rmSync} from 'node:fs';
+import {tmpdir} from 'node:os';
+import {dirname, join} from 'node:path';
+import {fileURLToPath} from 'node:url';
+import {median, note, ratioList, target} from './bench-tools.js';
+import type {PinnedBuild} from './pinned-build.js';
 
-/** Invented template: adult upper abdomen (not a real patient). */
-function benchTemplate(): PlanDocument {
-	const r = parsePlanDocument({
-		name: 'Bench template: upper abdomen',
-		region: 'upper-abdomen',
-		layers: [
-			{tissue: 'skin', thicknessCm: 0.2},
-			{tissue: 'fat', thicknessCm: 2},
-			{tissue: 'muscle', thicknessCm: 1},
-			{tissue: 'liver', thicknessCm: 20},
-		],
-		probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
-		display: {depthCm: 16, assumedSpeedMps: 1540},
-		noiseBudgetDb: 70,
+const here = dirname(fileURLToPath(import.meta.url));
+const root = join(here, '..', '..');
+const cli = join(root, 'dist', 'bundle', 'main.js');
+const plan = join(root, 'presets', 'upper-abdomen.json');
+
+interface Timed {
+	readonly wallS: number;
+	readonly cpuS: number;
+	readonly peakMb: number;
+}
+
+/** Runs `node <entry> table …` under /usr/bin/time, stdout to a file; wall, CPU and peak resident set. */
+function timedTable(entry: string, args: readonly string[], outFile: string, env: NodeJS.ProcessEnv): Timed {
+	const r = spawnSync('/usr/bin/time', ['-f', '@@time %e %U %S %M', 'sh', '-c', `exec "$0" "$@" > "${outFile}"`, process.execPath, entry, 'table', plan, ...args], {
+		env,
+		stdio: ['ignore', 'ignore', 'pipe'],
+		maxBuffer: 1 << 24,
 	});
-	if (!r.ok) throw new Error(r.errors.join('; '));
-	return r.value;
+	const err = r.stderr.toString();
+	const m = /@@time ([\d.]+) ([\d.]+) ([\d.]+) (\d+)/.exec(err);
+	if (r.status !== 0 || !m) throw new Error(`table run failed (${r.status}): ${err.slice(0, 400)}`);
+	return {wallS: Number(m[1]), cpuS: Number(m[2]) + Number(m[3]), peakMb: Number(m[4]) / 1024};
 }
 
-const range = (from: number, step: number, count: number) => Array.from({length: count}, (_, i) => Number((from + i * step).toFixed(6)));
-
-/** What the engine alone does for the same rows: every curve, and each distinct ladder once. */
-function engineAlone(plans: readonly EnginePlan[], ladderPlans: readonly EnginePlan[], ladder: readonly number[], targetCm: number, marginDb: number): void {
-	for (const p of plans) computeCurve(p, {stepCm: 0.1});
-	for (const p of ladderPlans) frequencyLadder(p, ladder, targetCm, marginDb);
-}
-
-/** One plan per distinct ladder (same layers, receive and budget): the first row of each. */
-function ladderRepresentatives(t: ProtocolTable): EnginePlan[] {
-	const seen = new Map<string, EnginePlan>();
-	for (const r of t.rows) {
-		const key = JSON.stringify([r.layerCm, r.receive, r.swapLabels, r.noiseBudgetDb]);
-		if (!seen.has(key)) seen.set(key, r.plan);
+/** Largest difference between two JSON documents of the same shape (numbers compared, the rest must match). */
+function jsonDifference(a: unknown, b: unknown, path = ''): {max: number; where: string; mismatch?: string} {
+	if (typeof a === 'number' && typeof b === 'number') return {max: Math.abs(a - b), where: path};
+	if (Array.isArray(a) && Array.isArray(b) && a.length === b.length) {
+		let worst = {max: 0, where: ''} as {max: number; where: string; mismatch?: string};
+		a.forEach((x, i) => {
+			const d = jsonDifference(x, b[i], `${path}[${i}]`);
+			if (d.mismatch) worst = d.mismatch && !worst.mismatch ? d : worst;
+			else if (!worst.mismatch && d.max > worst.max) worst = d;
+		});
+		return worst;
 	}
-	return [...seen.values()];
+	if (a && b && typeof a === 'object' && typeof b === 'object' && !Array.isArray(a) && !Array.isArray(b)) {
+		const keys = new Set([...Object.keys(a), ...Object.keys(b)]);
+		let worst = {max: 0, where: ''} as {max: number; where: string; mismatch?: string};
+		for (const k of keys) {
+			if (k === 'model' || k === 'version') continue;
+			const d = jsonDifference((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], `${path}.${k}`);
+			if (d.mismatch && !worst.mismatch) worst = d;
+			else if (!worst.mismatch && d.max > worst.max) worst = d;
+		}
+		return worst;
+	}
+	return a === b ? {max: 0, where: path} : {max: 0, where: path, mismatch: `${path}: ${JSON.stringify(a)?.slice(0, 60)} vs ${JSON.stringify(b)?.slice(0, 60)}`};
 }
 
-function time<T>(fn: () => T): {ms: number; value: T} {
-	const t0 = performance.now();
-	const value = fn();
-	return {ms: performance.now() - t0, value};
-}
-
-export async function run(): Promise<void> {
-	console.log('protocol tables');
-	const doc = benchTemplate();
-	const spec: SweepSpec = {fatCm: range(0.5, 0.5, 100), freqMhz: range(2, 0.2, 50), receive: ['fundamental', 'harmonic']};
-
-	// Warm-up on a small sweep so both paths are compiled before timing.
-	const warm = buildTable(doc, {fatCm: [1, 2, 3], freqMhz: [2, 3, 4, 5], receive: ['fundamental', 'harmonic']});
-	engineAlone(warm.rows.map((r) => r.plan), ladderRepresentatives(warm), warm.sweep.ladderMhz, warm.sweep.targetDepthCm, 0);
-	tableMarkdown(warm);
-	tableCsv(warm);
-	tableJsonText(warm);
-
-	const built = time(() => buildTable(doc, spec));
-	const table = built.value;
-	const rows = table.rows.length;
-	const plans = table.rows.map((r) => r.plan);
-	const ladders = ladderRepresentatives(table);
-	const engine = time(() => engineAlone(plans, ladders, table.sweep.ladderMhz, table.sweep.targetDepthCm, table.sweep.marginDb));
-
-	const perSecond = (ms: number) => `${((rows / ms) * 1000).toFixed(0)} rows/s`;
-	report(`engine alone on the same ${rows.toLocaleString('en-US')} plans (${plans.length} curves, ${ladders.length} ladders of ${table.sweep.ladderMhz.length})`, `${(engine.ms / 1000).toFixed(2)} s, ${perSecond(engine.ms)}`);
-	report('table sweep (variants, engine, ladders, rows)', `${(built.ms / 1000).toFixed(2)} s, ${perSecond(built.ms)}`);
-	for (const [name, format] of [
-		['markdown', () => tableMarkdown(table)],
-		['csv', () => tableCsv(table)],
-		['json', () => tableJsonText(table)],
-	] as const) {
-		const f = time(format);
-		const total = built.ms + f.ms;
-		const ratio = total / engine.ms;
-		report(
-			`full table path, ${name} (${(f.value.length / 1e6).toFixed(1)} MB, formatting ${f.ms.toFixed(0)} ms)`,
-			`${(total / 1000).toFixed(2)} s, ${perSecond(total)}, ${ratio.toFixed(2)}x the engine alone`,
-			'<= 1.5x',
-			ratio <= 1.5,
+export async function run(pinned: PinnedBuild): Promise<void> {
+	console.log('\nprotocol tables');
+	const dir = mkdtempSync(join(tmpdir(), 'evenecho-bench-table-'));
+	const {CI: _ci, ...env} = process.env;
+	const before = join(pinned.distDir, 'src', 'cli', 'main.js');
+	const sweep = ['--fat', '0.5:50:0.5', '--freq', '2:11.8:0.2', '--receive', 'both', '--format', 'json'];
+	const pairs = Number(process.env['EVENECHO_BENCH_TABLE_PAIRS'] ?? 2);
+	try {
+		// Warm the file cache and both builds' module loading on a small sweep.
+		const small = ['--fat', '1,2', '--freq', '3,4', '--format', 'json'];
+		timedTable(before, small, join(dir, 'warm-a.json'), env);
+		timedTable(cli, small, join(dir, 'warm-b.json'), env);
+		const a: Timed[] = [];
+		const b: Timed[] = [];
+		for (let i = 0; i < pairs; i++) {
+			a.push(timedTable(before, sweep, join(dir, 'before.json'), env));
+			b.push(timedTable(cli, sweep, join(dir, 'now.json'), env));
+		}
+		const wallRatios = a.map((x, i) => x.wallS / b[i]!.wallS);
+		const cpuRatios = a.map((x, i) => x.cpuS / b[i]!.cpuS);
+		note(`pinned build ${pinned.commit}, 10,000 rows JSON (median of ${pairs})`, `${median(a.map((x) => x.wallS)).toFixed(1)} s wall, ${median(a.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ${median(a.map((x) => x.peakMb)).toFixed(0)} MB`);
+		note('this tree, same table', `${median(b.map((x) => x.wallS)).toFixed(1)} s wall, ${median(b.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ${median(b.map((x) => x.peakMb)).toFixed(0)} MB; CPU ratios pinned ÷ now ${ratioList(cpuRatios)}`);
+		const speedup = median(wallRatios);
+		target(
+			'10,000-row table, wall time, pinned build ÷ this tree (alternated)',
+			`${speedup.toFixed(2)}× faster (pairs ${ratioList(wallRatios)})`,
+			'≥ 4×',
+			speedup >= 4,
 		);
+		const d = jsonDifference(JSON.parse(readFileSync(join(dir, 'before.json'), 'utf8')), JSON.parse(readFileSync(join(dir, 'now.json'), 'utf8')));
+		target(
+			'10,000-row table, largest difference from the pinned build (rounded outputs)',
+			d.mismatch ? `differs: ${d.mismatch}` : `${d.max.toFixed(3)}${d.where ? ` at ${d.where}` : ''}`,
+			'≤ 0.01 dB (one rounding step)',
+			!d.mismatch && d.max <= 0.0100001,
+		);
+		rmSync(join(dir, 'before.json'));
+		const largest = timedTable(cli, ['--fat', '0.25:50:0.25', '--freq', '2:11.8:0.2', '--receive', 'both', '--format', 'json'], join(dir, 'largest.json'), env);
+		target('20,000-row JSON table, peak resident memory', `${largest.peakMb.toFixed(0)} MB (${largest.wallS.toFixed(1)} s)`, '≤ 150 MB', largest.peakMb <= 150);
+	} finally {
+		rmSync(dir, {recursive: true, force: true});
 	}
-
-	// The SVG chart is capped at 16 lines × 24 panels; time the largest one.
-	const chartSpec: SweepSpec = {fatCm: range(0.5, 0.5, 16), freqMhz: range(2, 0.5, 12), receive: ['fundamental', 'harmonic']};
-	const chart = buildTable(doc, chartSpec, {keepCurves: true});
-	const svg = time(() => tableSvg(chart));
-	report(`largest SVG chart (${chart.rows.length} curves, ${(svg.value.length / 1e6).toFixed(1)} MB)`, `${svg.ms.toFixed(0)} ms to format`);
 }
