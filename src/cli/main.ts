@@ -3,11 +3,8 @@
  * The `evenecho` command. With no arguments it opens the console; the sub-commands are the batch
  * side and never prompt. Bad input: one message on stderr, exit code 2, nothing on stdout.
  */
-import {Command, CommanderError} from 'commander';
-import {registerCurveCommand} from './curve-command.js';
-import {registerLadderCommand} from './ladder-command.js';
-import {registerPresetsCommand} from './presets-command.js';
-import {registerTableCommand} from './table-command.js';
+import {CommanderError} from 'commander';
+import {buildProgram} from './program.js';
 import {badInputExit, UsageError} from './usage-error.js';
 
 function reportAndExit(error: unknown): never {
@@ -25,23 +22,6 @@ function reportAndExit(error: unknown): never {
 	process.exit(1);
 }
 
-export function buildProgram(): Command {
-	const program = new Command('evenecho')
-		.description('Plan ultrasound depth-gain (TGC) starting points from a patient\'s layers, the probe and the scanner\'s sliders.')
-		.version('0.1.0')
-		.exitOverride()
-		.showHelpAfterError('(run evenecho --help for the commands)');
-	registerCurveCommand(program);
-	registerLadderCommand(program);
-	registerPresetsCommand(program);
-	registerTableCommand(program);
-	program.action(async () => {
-		const {openConsole} = await import('../ui/open-console.js');
-		await openConsole();
-	});
-	return program;
-}
-
 // A reader that stops early (`evenecho … | head`) is not an error: end quietly, no stack trace.
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
 	if (error.code === 'EPIPE') process.exit(0);
@@ -49,7 +29,7 @@ process.stdout.on('error', (error: NodeJS.ErrnoException) => {
 });
 
 try {
-	await buildProgram().parseAsync(process.argv);
+	await (await buildProgram(process.argv.slice(2))).parseAsync(process.argv);
 } catch (error) {
 	reportAndExit(error);
 }

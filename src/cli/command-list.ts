@@ -1,0 +1,53 @@
+/**
+ * The sub-commands as the top-level help lists them, and where each one's full definition lives.
+ * Only the command being run is loaded (with its engine, schemas and formats); the others appear
+ * as light entries, so `--version` and `--help` start about as fast as Node itself. A test holds
+ * these entries to the full definitions, so the two cannot drift apart.
+ */
+import type {Command} from 'commander';
+
+export interface CommandEntry {
+	readonly name: string;
+	/** As the top-level help shows it: name, `[options]` and arguments. */
+	readonly term: string;
+	readonly description: string;
+	readonly register: () => Promise<(program: Command) => void>;
+}
+
+export const commandList: readonly CommandEntry[] = [
+	{
+		name: 'curve',
+		term: 'curve [options] <plan>',
+		description: 'compute the depth-gain curve and slider starting points of a plan file ("-" reads standard input)',
+		register: async () => (await import('./curve-command.js')).registerCurveCommand,
+	},
+	{
+		name: 'ladder',
+		term: 'ladder [options] <plan>',
+		description: 'penetration at each probe frequency and the highest frequency that reaches the target depth',
+		register: async () => (await import('./ladder-command.js')).registerLadderCommand,
+	},
+	{
+		name: 'presets',
+		term: 'presets',
+		description: 'built-in region templates and your own presets (list, show, save, rename, copy, delete, export, import)',
+		register: async () => (await import('./presets-command.js')).registerPresetsCommand,
+	},
+	{
+		name: 'table',
+		term: 'table [options] [plan]',
+		description:
+			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, receive mode and tissue swaps',
+		register: async () => (await import('./table-command.js')).registerTableCommand,
+	},
+];
+
+/**
+ * The sub-command a command line runs (`help X` counts as X), or undefined for none: the console,
+ * `--version`, `--help` or a word that is not a command.
+ */
+export function commandNamed(args: readonly string[]): CommandEntry | undefined {
+	const words = args.filter((a) => !a.startsWith('-'));
+	const word = words[0] === 'help' ? words[1] : words[0];
+	return commandList.find((c) => c.name === word);
+}
