@@ -1,0 +1,448 @@
+/**
+ * Refine a plan from one still image of the patient taken with known settings: measure the echo
+ * level per depth band in speckle from tissue, compare it with what the plan expects under those
+ * settings, estimate the patient's own attenuation for one layer, and refit the sliders and master
+ * to the refined plan with the engine's own fitter (same bounds, same split rule).
+ *
+ * Corrections follow the published route (shared method notes §3.6): the layer's attenuation
+ * changes, the plan's compensation is recomputed and refitted. They therefore undo propagation loss
+ * only; a tissue that is simply brighter or darker than the plan's reference keeps that contrast,
+ * as the engine's curve does. What the model cannot explain is reported per band, not
+ * folded into the sliders.
+ */
+import {computeCurve, pathModelOf} from '../engine/compensation-curve.js';
+import type {CurveResult, EnginePlan} from '../engine/types.js';
+import {
+	assumedRamp,
+	bandSampleDepths,
+	deliveredGainDb,
+	meanOver,
+	settingsOfFit,
+	type AppliedSettings,
+	type OwnDepthGain,
+} from './applied-gain.js';
+import {fitLayerAttenuation, withLayerAlpha, type AttenuationEstimate, type FitBand} from './attenuation-fit.js';
+import {bandRows, measureBands, type BandMeasurement} from './band-levels.js';
+import {windowStatistics} from './correlation-area.js';
+import {regionBottomCm, type GreyFrame, type MeasuredRegion} from './grey-frame.js';
+import {logLevelMap, type LevelMap} from './level-map.js';
+import {maskNonSpeckle, type SpeckleMask} from './speckle-mask.js';
+
+/** A band is usable with a 95 % half-width of at most this (dB) … */
+export const usableHalfWidthDb = 1;
+/** … and at least this echo-to-noise (dB). */
+export const usableEchoToNoiseDb = 6;
+/** Mean grey below this is taken as black (no tissue echo shown; ~8 % of the grey range). */
+export const darkGrey = 20;
+/** Uncalibrated: a band with more clipped-black pixels than this loses its mean. */
+const clippedLimit = 0.05;
+/** The fit is declined when its SD exceeds this, dB/cm/MHz (shared method notes §3.6). */
+export const largestAlphaSd = 0.1;
+/** Fewest usable bands, and least depth (cm) they must span, inside the fitted layer. */
+export const fewestFitBands = 3;
+export const leastFitSpanCm = 2;
+/** Leftover after the model beyond this (dB) says the plan differs from the patient in more than α. */
+const leftoverWarningDb = 2;
+/** Image depth may differ from the plan's display depth by this fraction before it is refused. */
+export const depthTolerance = 0.05;
+
+export interface RefineRequest {
+	readonly frame: GreyFrame;
+	readonly region: MeasuredRegion;
+	readonly plan: EnginePlan;
+	/** Settings the image was taken with; default: the plan's own fitted sliders and master. */
+	readonly applied?: AppliedSettings;
+	/** Layer whose attenuation is fitted (0-based); default: the deepest layer the image shows. */
+	readonly layerIndex?: number;
+	/** Grey → dB; default: plain log with `dynamicRangeDb`. */
+	readonly levelMap?: LevelMap;
+	/** The scanner's own depth gain; default: the plan's assumed ramp. */
+	readonly ownGain?: OwnDepthGain;
+	/** Dynamic range assumed without a profile, dB. @default 60 */
+	readonly dynamicRangeDb?: number;
+}
+
+export type BandVerdict = 'usable' | 'too-few-cells' | 'dark' | 'clipped' | 'below-noise' | 'off-map';
+
+export interface RefinedBand extends BandMeasurement {
+	/** Level the plan expects under the applied settings, with the image's offset added, dB. */
+	readonly expectedDb: number;
+	/** Measured − expected, dB (NaN when not measured). */
+	readonly residualDb: number;
+	readonly echoToNoiseDb: number;
+	readonly verdict: BandVerdict;
+	readonly usable: boolean;
+	/** Tissue echo level (noise power removed) after the corrections are applied, dB (NaN when not measured). */
+	readonly correctedDb: number;
+	/** Layer (0-based) the band's centre falls in. */
+	readonly layerIndex: number;
+	/** Used in the attenuation fit. */
+	readonly fitted: boolean;
+}
+
+export interface RefineWarning {
+	readonly code:
+		| 'uncalibrated'
+		| 'cannot-tell'
+		| 'unusable-bands'
+		| 'model-leftover'
+		| 'slider-range-exceeded'
+		| 'settings-stated';
+	readonly message: string;
+}
+
+export interface AttenuationResult extends AttenuationEstimate {
+	readonly layerIndex: number;
+	readonly label: string;
+	readonly planAlphaDbPerCmMhz: number;
+	readonly bandsUsed: number;
+}
+
+/** What an error in the assumptions of uncalibrated mode can do to α0 (dB/cm/MHz). */
+export interface UncalibratedCost {
+	readonly dynamicRangeDb: number;
+	/** α0 if the true dynamic range were 10 dB smaller / larger. */
+	readonly alphaAtRange: readonly [number, number] | null;
+	/** α0 if the scanner's own ramp were 0.1 dB/cm/MHz lower / higher than assumed. */
+	readonly alphaAtRamp: readonly [number, number] | null;
+}
+
+export interface RefineResult {
+	readonly ok: true;
+	readonly bands: readonly RefinedBand[];
+	readonly mask: SpeckleMask;
+	readonly cellAreaPx: number;
+	readonly levelMap: LevelMap;
+	readonly applied: AppliedSettings;
+	readonly appliedIsPlanFit: boolean;
+	/** Offset of the image's level scale against the plan's, dB (from the shallowest tissue bands). */
+	readonly offsetDb: number;
+	readonly attenuation: AttenuationResult | null;
+	/** Why no attenuation was reported, when it was not. */
+	readonly cannotTell: string | null;
+	/** The plan with the measured attenuation, and its curve (sliders and master to set). */
+	readonly refinedPlan: EnginePlan;
+	readonly refinedCurve: CurveResult;
+	readonly sliders: readonly {depthCm: number; gainDb: number; correctionDb: number}[];
+	readonly masterGainDb: number;
+	readonly masterCorrectionDb: number;
+	readonly uncalibrated: UncalibratedCost | null;
+	readonly warnings: readonly RefineWarning[];
+}
+
+export type RefineOutcome = RefineResult | {readonly ok: false; readonly problem: string};
+
+/** Checks that the image and plan describe the same display; null when fine. */
+export function depthMismatch(plan: EnginePlan, region: MeasuredRegion): string | null {
+	const bottom = regionBottomCm(region);
+	const want = plan.display.depthCm;
+	if (Math.abs(bottom - want) > depthTolerance * want + region.cmPerPixel) {
+		return `the image shows ${bottom.toFixed(1)} cm of depth but the plan's display depth is ${want} cm (they must agree within ${depthTolerance * 100} %): use a plan made for this image's depth, or check the depth scale`;
+	}
+	return null;
+}
+
+/** The deepest layer whose displayed top lies in the image. */
+function deepestShownLayer(plan: EnginePlan, bottomCm: number): number {
+	const spans = pathModelOf(plan).spans;
+	let k = 0;
+	for (const s of spans) if (s.shownTopCm < bottomCm) k = s.index;
+	return k;
+}
+
+interface Evaluated {
+	bands: RefinedBandDraft[];
+	offsetDb: number;
+}
+
+interface RefinedBandDraft {
+	m: BandMeasurement;
+	samples: number[];
+	delivered: number;
+	expectedRaw: number;
+	layerIndex: number;
+	verdict: BandVerdict;
+	echoToNoiseDb: number;
+	residualDb: number;
+	/** Predicted noise level in the band, on the image's scale, dB. */
+	noiseDb: number;
+}
+
+function median(v: number[]): number {
+	const s = [...v].sort((a, b) => a - b);
+	const m = s.length >> 1;
+	return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+}
+
+/** Residuals, echo-to-noise and verdicts of measured bands under one set of assumptions. */
+function evaluate(
+	plan: EnginePlan,
+	applied: AppliedSettings,
+	own: OwnDepthGain,
+	map: LevelMap,
+	measured: readonly BandMeasurement[],
+	levelOf: (m: BandMeasurement) => number,
+): Evaluated {
+	const model = pathModelOf(plan);
+	const spans = model.spans;
+	const drafts: RefinedBandDraft[] = measured.map((m) => {
+		const samples = bandSampleDepths(m.topCm, m.bottomCm);
+		const delivered = meanOver(samples, (d) => deliveredGainDb(plan, applied, own, d));
+		const loss = meanOver(samples, (d) => model.lossAt(d));
+		const span = spans.find((s) => m.depthCm <= s.shownBottomCm) ?? spans[spans.length - 1]!;
+		let verdict: BandVerdict = 'usable';
+		if (!(m.cells > 0)) verdict = 'too-few-cells';
+		else if (m.meanGrey < Math.max(darkGrey, map.greyRange[0])) verdict = 'dark';
+		else if (m.meanGrey > map.greyRange[1]) verdict = 'off-map';
+		else if (!map.calibrated && m.clippedFraction > clippedLimit) verdict = 'clipped';
+		return {
+			m,
+			samples,
+			delivered,
+			expectedRaw: delivered - loss,
+			layerIndex: span.index,
+			verdict,
+			echoToNoiseDb: Number.NaN,
+			noiseDb: Number.NaN,
+			residualDb: m.cells > 0 ? levelOf(m) - (delivered - loss) : Number.NaN,
+		};
+	});
+	// The image's offset: the shallowest measured bands are taken as tissue at the plan's reference.
+	const shallow = drafts.filter((d) => d.verdict === 'usable').slice(0, 3).map((d) => d.residualDb);
+	const offsetDb = shallow.length ? median(shallow) : 0;
+	for (const d of drafts) {
+		d.noiseDb = d.delivered - plan.noiseBudgetDb + offsetDb;
+		if (d.verdict !== 'usable') continue;
+		const excess = 10 ** ((levelOf(d.m) - d.noiseDb) / 10) - 1;
+		d.echoToNoiseDb = excess > 0 ? 10 * Math.log10(excess) : Number.NEGATIVE_INFINITY;
+		if (d.echoToNoiseDb < usableEchoToNoiseDb) d.verdict = 'below-noise';
+		else if (d.m.halfWidthDb > usableHalfWidthDb) d.verdict = 'too-few-cells';
+	}
+	return {bands: drafts, offsetDb};
+}
+
+/** The tissue echo's level with the noise power taken out (the level itself when it does not exceed the noise). */
+function tissueLevelDb(levelDb: number, noiseDb: number): number {
+	const excess = 10 ** (levelDb / 10) - 10 ** (noiseDb / 10);
+	return excess > 0 ? 10 * Math.log10(excess) : levelDb;
+}
+
+/** Fit bands of one layer: noise power removed, its SD grown to match. */
+function fitBandsOf(ev: Evaluated, plan: EnginePlan, layerIndex: number, levelOf: (m: BandMeasurement) => number): {bands: FitBand[]; drafts: RefinedBandDraft[]} {
+	const spans = pathModelOf(plan).spans;
+	const span = spans[layerIndex]!;
+	const drafts = ev.bands.filter(
+		(d) => d.verdict === 'usable' && d.m.topCm >= span.shownTopCm - 1e-6 && d.m.bottomCm <= span.shownBottomCm + 1e-6,
+	);
+	const bands = drafts.map((d) => {
+		const signal = tissueLevelDb(levelOf(d.m), d.noiseDb);
+		const grow = 1 + 10 ** (-d.echoToNoiseDb / 10);
+		return {sampleDepthsCm: d.samples, residualDb: signal - d.expectedRaw, sdDb: d.m.sdDb * grow};
+	});
+	return {bands, drafts};
+}
+
+interface LayerFit {
+	estimate: AttenuationEstimate | null;
+	cannotTell: string | null;
+	fitted: Set<RefinedBandDraft>;
+}
+
+function fitLayer(ev: Evaluated, plan: EnginePlan, layerIndex: number, levelOf: (m: BandMeasurement) => number): LayerFit {
+	const spans = pathModelOf(plan).spans;
+	const span = spans[layerIndex]!;
+	const label = span.layer.tissue.label;
+	const barrier = pathModelOf(plan).barrier;
+	const none = (cannotTell: string): LayerFit => ({estimate: null, cannotTell, fitted: new Set()});
+	if (barrier && barrier.displayedCm <= span.shownTopCm + 1e-9) {
+		return none(`layer ${layerIndex + 1} (${label}) lies beyond a ${barrier.kind.replace('strong-', '')} at ${barrier.displayedCm.toFixed(1)} cm: no echo to measure`);
+	}
+	const usable = ev.bands.filter((d) => d.verdict === 'usable');
+	const deepest = usable.length ? usable[usable.length - 1]!.m.bottomCm : 0;
+	if (deepest <= span.shownTopCm + 1e-9) {
+		return none(`the usable image stops at ${deepest.toFixed(1)} cm, above layer ${layerIndex + 1} (${label}) from ${span.shownTopCm.toFixed(1)} cm: too shallow to tell`);
+	}
+	const {bands, drafts} = fitBandsOf(ev, plan, layerIndex, levelOf);
+	const spanCm = drafts.length ? drafts[drafts.length - 1]!.m.bottomCm - drafts[0]!.m.topCm : 0;
+	if (drafts.length < fewestFitBands || spanCm < leastFitSpanCm) {
+		return none(
+			`layer ${layerIndex + 1} (${label}) has ${drafts.length} usable band(s) over ${spanCm.toFixed(1)} cm; at least ${fewestFitBands} over ${leastFitSpanCm} cm are needed (layer too thin, or too few speckle cells above the noise)`,
+		);
+	}
+	const estimate = fitLayerAttenuation(plan, layerIndex, bands);
+	if (estimate.sd > largestAlphaSd) {
+		return none(`the image cannot tell layer ${layerIndex + 1} (${label}): α0 ${estimate.alphaDbPerCmMhz.toFixed(2)} ± ${(1.96 * estimate.sd).toFixed(2)} dB/cm/MHz is too uncertain (SD above ${largestAlphaSd})`);
+	}
+	return {estimate, cannotTell: null, fitted: new Set(drafts)};
+}
+
+export function refineImage(req: RefineRequest): RefineOutcome {
+	const {frame, region, plan} = req;
+	const dynamicRangeDb = req.dynamicRangeDb ?? 60;
+	const map = req.levelMap ?? logLevelMap(dynamicRangeDb);
+	const own = req.ownGain ?? assumedRamp;
+	const planCurve = computeCurve(plan);
+	const applied = req.applied ?? settingsOfFit(planCurve.fit);
+
+	const mismatch = depthMismatch(plan, region);
+	if (mismatch) return {ok: false, problem: mismatch};
+
+	// Speckle cell size (median over the bands, so depth trends and structures do not inflate it)
+	// sets the mask's block size.
+	const valid = frame.valid ?? new Uint8Array(frame.width * frame.height).fill(1);
+	const areas = bandRows(region).map(
+		(b) => windowStatistics({grey: frame.grey, use: valid, width: frame.width, rows: b.rows, columns: region.columns}).cellAreaPx,
+	);
+	const cellAreaPx = areas.length ? median(areas) : 1;
+	const mask = maskNonSpeckle(frame, region, map, cellAreaPx);
+	const measured = measureBands(frame, region, mask, map);
+	const levelOf = (m: BandMeasurement) => m.levelDb;
+	const ev = evaluate(plan, applied, own, map, measured, levelOf);
+	const usableBands = ev.bands.filter((d) => d.verdict === 'usable');
+	if (usableBands.length === 0) {
+		return {ok: false, problem: 'no tissue: no depth band shows enough speckle from tissue above the noise (all anechoic, black, masked or noise)'};
+	}
+	// Noise follows the applied gain; tissue echoes fall with the plan's loss. Levels that rise
+	// one for one with the loss the plan expects are noise, not tissue.
+	if (usableBands.length >= 3) {
+		const model = pathModelOf(plan);
+		const xs = usableBands.map((d) => meanOver(d.samples, (z) => model.lossAt(z)));
+		const ys = usableBands.map((d) => d.residualDb);
+		const mx = xs.reduce((a, b) => a + b, 0) / xs.length;
+		const my = ys.reduce((a, b) => a + b, 0) / ys.length;
+		let sxy = 0;
+		let sxx = 0;
+		for (let i = 0; i < xs.length; i++) {
+			sxy += (xs[i]! - mx) * (ys[i]! - my);
+			sxx += (xs[i]! - mx) ** 2;
+		}
+		if (sxx > 100 && sxy / sxx > 0.7) {
+			return {ok: false, problem: 'no tissue: the measured levels follow the applied gain the way noise does, not the fall-off of tissue echoes (all anechoic or noise)'};
+		}
+	}
+
+	const bottom = regionBottomCm(region);
+	const layerIndex = req.layerIndex ?? deepestShownLayer(plan, bottom);
+	const lf = fitLayer(ev, plan, layerIndex, levelOf);
+	const span = pathModelOf(plan).spans[layerIndex]!;
+	const attenuation: AttenuationResult | null = lf.estimate
+		? {
+				...lf.estimate,
+				layerIndex,
+				label: span.layer.tissue.label,
+				planAlphaDbPerCmMhz: span.layer.tissue.alphaDbPerCmMhz,
+				bandsUsed: lf.fitted.size,
+			}
+		: null;
+
+	const refinedPlan = attenuation ? withLayerAlpha(plan, layerIndex, attenuation.alphaDbPerCmMhz) : plan;
+	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planCurve;
+	const refinedSettings = settingsOfFit(refinedCurve.fit);
+	const sliders = refinedCurve.fit.sliders.map((s, k) => ({depthCm: s.depthCm, gainDb: s.gainDb, correctionDb: s.gainDb - (applied.slidersDb[k] ?? 0)}));
+
+	const bands: RefinedBand[] = ev.bands.map((d) => {
+		const change = meanOver(d.samples, (z) => deliveredGainDb(plan, refinedSettings, own, z) - deliveredGainDb(plan, applied, own, z));
+		const level = Number.isFinite(d.m.levelDb) ? tissueLevelDb(d.m.levelDb, d.noiseDb) : Number.NaN;
+		return {
+			...d.m,
+			expectedDb: d.expectedRaw + ev.offsetDb,
+			residualDb: d.residualDb,
+			echoToNoiseDb: d.echoToNoiseDb,
+			verdict: d.verdict,
+			usable: d.verdict === 'usable',
+			correctedDb: Number.isFinite(level) ? level + change : Number.NaN,
+			layerIndex: d.layerIndex,
+			fitted: lf.fitted.has(d),
+		};
+	});
+
+	const warnings: RefineWarning[] = [];
+	warnings.push({
+		code: 'settings-stated',
+		message: req.applied
+			? 'Corrections are changes from the stated settings; if the image was taken with other settings, the corrections are wrong.'
+			: 'No settings given: the image is assumed to be taken with the plan\'s own sliders and master. If it was not, the corrections are wrong (give them with --applied).',
+	});
+	if (lf.cannotTell) warnings.push({code: 'cannot-tell', message: `Attenuation not measured: ${lf.cannotTell}. The sliders shown are the plan's own fit.`});
+	const unusable = bands.filter((b) => !b.usable);
+	if (unusable.length) {
+		const list = unusable.map((b) => `${b.depthCm.toFixed(1)} cm ${b.verdict}`).join(', ');
+		warnings.push({code: 'unusable-bands', message: `${unusable.length} of ${bands.length} bands unusable (${list}).`});
+	}
+	if (attenuation) {
+		const worst = attenuation.leftoverDb.reduce((a, b) => Math.max(a, Math.abs(b)), 0);
+		if (worst > leftoverWarningDb) {
+			warnings.push({
+				code: 'model-leftover',
+				message: `The measured levels in layer ${layerIndex + 1} differ from the fitted model by up to ${worst.toFixed(1)} dB: the patient differs from the plan in more than this layer's attenuation (thicknesses, tissues, or the stated settings).`,
+			});
+		}
+	}
+	if (refinedCurve.fit.residualDb > 2) {
+		warnings.push({
+			code: 'slider-range-exceeded',
+			message: `Sliders and master gain cannot follow the refined curve: they miss it by up to ${refinedCurve.fit.residualDb.toFixed(1)} dB at ${refinedCurve.fit.residualAtCm.toFixed(1)} cm.`,
+		});
+	}
+
+	let uncalibrated: UncalibratedCost | null = null;
+	if (!map.calibrated) {
+		uncalibrated = uncalibratedCost(req, ev, layerIndex, applied, own, measured, dynamicRangeDb, attenuation !== null);
+		const fmt = (r: readonly [number, number] | null) => (r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable');
+		warnings.unshift({
+			code: 'uncalibrated',
+			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display and the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz). Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; a focal zone or processing curve adds its own dB per slider. Calibrate the scanner for measured corrections.`,
+		});
+	}
+
+	return {
+		ok: true,
+		bands,
+		mask,
+		cellAreaPx,
+		levelMap: map,
+		applied,
+		appliedIsPlanFit: req.applied === undefined,
+		offsetDb: ev.offsetDb,
+		attenuation,
+		cannotTell: lf.cannotTell,
+		refinedPlan,
+		refinedCurve,
+		sliders,
+		masterGainDb: refinedSettings.masterGainDb,
+		masterCorrectionDb: refinedSettings.masterGainDb - applied.masterGainDb,
+		uncalibrated,
+		warnings,
+	};
+}
+
+/** Re-runs the fit with the dynamic range ±10 dB and the ramp ±0.1 dB/cm/MHz. */
+function uncalibratedCost(
+	req: RefineRequest,
+	_ev: Evaluated,
+	layerIndex: number,
+	applied: AppliedSettings,
+	own: OwnDepthGain,
+	measured: readonly BandMeasurement[],
+	dynamicRangeDb: number,
+	measurable: boolean,
+): UncalibratedCost {
+	if (!measurable) return {dynamicRangeDb, alphaAtRange: null, alphaAtRamp: null};
+	const {plan} = req;
+	const alphaWith = (range: number, rampShift: number): number => {
+		const map = logLevelMap(range);
+		const levelOf = (m: BandMeasurement) => map.levelDb(m.meanGrey);
+		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * (plan.probe.harmonic ? 3 : 2) * plan.probe.centerMhz * d);
+		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
+		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf);
+		const lf = fitLayer(ev, plan, layerIndex, levelOf);
+		return lf.estimate ? lf.estimate.alphaDbPerCmMhz : Number.NaN;
+	};
+	const pair = (a: number, b: number): readonly [number, number] | null =>
+		Number.isFinite(a) && Number.isFinite(b) ? [Math.min(a, b), Math.max(a, b)] : null;
+	return {
+		dynamicRangeDb,
+		alphaAtRange: pair(alphaWith(dynamicRangeDb - 10, 0), alphaWith(dynamicRangeDb + 10, 0)),
+		alphaAtRamp: pair(alphaWith(dynamicRangeDb, -0.1), alphaWith(dynamicRangeDb, 0.1)),
+	};
+}
