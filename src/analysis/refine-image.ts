@@ -38,6 +38,8 @@ export const darkGrey = 20;
 const clippedLimit = 0.05;
 /** The fit is declined when its SD exceeds this, dB/cm/MHz (shared method notes §3.6). */
 export const largestAlphaSd = 0.1;
+/** Fewer usable bands than this in the whole image: no tissue to measure. */
+export const fewestTissueBands = 3;
 /** Fewest usable bands, and least depth (cm) they must span, inside the fitted layer. */
 export const fewestFitBands = 3;
 export const leastFitSpanCm = 2;
@@ -299,12 +301,15 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const levelOf = (m: BandMeasurement) => m.levelDb;
 	const ev = evaluate(plan, applied, own, map, measured, levelOf);
 	const usableBands = ev.bands.filter((d) => d.verdict === 'usable');
-	if (usableBands.length === 0) {
-		return {ok: false, problem: 'no tissue: no depth band shows enough speckle from tissue above the noise (all anechoic, black, masked or noise)'};
+	if (usableBands.length < fewestTissueBands) {
+		return {
+			ok: false,
+			problem: `no tissue: ${usableBands.length} of ${ev.bands.length} depth bands show enough speckle from tissue above the noise (at least ${fewestTissueBands} are needed; the rest are anechoic, black, masked or noise)`,
+		};
 	}
 	// Noise follows the applied gain; tissue echoes fall with the plan's loss. Levels that rise
 	// one for one with the loss the plan expects are noise, not tissue.
-	if (usableBands.length >= 3) {
+	{
 		const model = pathModelOf(plan);
 		const xs = usableBands.map((d) => meanOver(d.samples, (z) => model.lossAt(z)));
 		const ys = usableBands.map((d) => d.residualDb);
@@ -435,8 +440,8 @@ function uncalibratedCost(
 		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * (plan.probe.harmonic ? 3 : 2) * plan.probe.centerMhz * d);
 		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
 		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf);
-		const lf = fitLayer(ev, plan, layerIndex, levelOf);
-		return lf.estimate ? lf.estimate.alphaDbPerCmMhz : Number.NaN;
+		const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);
+		return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands).alphaDbPerCmMhz : Number.NaN;
 	};
 	const pair = (a: number, b: number): readonly [number, number] | null =>
 		Number.isFinite(a) && Number.isFinite(b) ? [Math.min(a, b), Math.max(a, b)] : null;
