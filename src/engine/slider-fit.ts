@@ -51,10 +51,16 @@ const MINIMAX_SLACK = 1e-9;
  * term, so sliders whose knots see no usable sample continue flat from the last fitted one.
  *
  * **Split rule.** From the fitted totals h_k (dB) the master gain is
- * M = (max h + min h)/2 − (bank.minDb + bank.maxDb)/2, i.e. the value that puts the sliders'
- * midrange, (max s + min s)/2, at the centre of the slider range, then clamped into the feasible
- * interval [max(master.minDb, max h − bank.maxDb), min(master.maxDb, min h − bank.minDb)].
- * Sliders are s_k = h_k − M. This leaves the most slider headroom both ways for live adjustment.
+ * M = h̄ − (bank.minDb + bank.maxDb)/2, where h̄ = Σ w_k·h_k / Σ w_k is the mean total weighted by
+ * how much each slider acts on the usable depth range (w_k: the sum of its interpolation weights
+ * over the usable samples), i.e. the value that puts the sliders' usable-depth average at the
+ * centre of the slider range, then clamped into the feasible interval
+ * [max(master.minDb, max h − bank.maxDb), min(master.maxDb, min h − bank.minDb)].
+ * Sliders are s_k = h_k − M. A weighted mean moves smoothly when one slider's total or the usable
+ * depth changes a little, so neighbouring rows of a sweep get neighbouring master gains; the
+ * earlier midrange rule, (max h + min h)/2, jumped whenever a different slider became the
+ * extreme (and was pulled by sliders held flat below the usable depth). With no usable sample the
+ * plain mean is used.
  *
  * A usable range of zero length (usableDepthCm ≤ 0) fits nothing: the result is the flat naive
  * setting with residual 0.
@@ -239,6 +245,31 @@ function interpolate(depths: readonly number[], values: readonly number[], x: nu
 	return values[lo]! + ((values[hi]! - values[lo]!) * (x - d0)) / (d1 - d0);
 }
 
+/** Mean of the totals weighted by each slider's share of the usable depth range (split rule). */
+function usableMeanTotal(totals: readonly number[], req: FitRequest): number {
+	const data = usableSamples(req);
+	const knots = safeKnots(req);
+	const w = totals.map(() => 0);
+	for (const d of data.depths) {
+		const row = sparseWeights(knots, req.bank.ends, d);
+		for (let j = 0; j < row.idx.length; j++) {
+			const k = row.idx[j]!;
+			if (k < w.length) w[k]! += Math.abs(row.val[j]!);
+		}
+	}
+	let sw = 0;
+	let swh = 0;
+	for (let k = 0; k < totals.length; k++) {
+		const h = totals[k]!;
+		if (!Number.isFinite(h)) continue;
+		sw += w[k]!;
+		swh += w[k]! * h;
+	}
+	if (sw > 0) return swh / sw;
+	const finite = totals.filter(Number.isFinite);
+	return finite.length ? finite.reduce((a, b) => a + b, 0) / finite.length : 0;
+}
+
 /** Split totals into master + sliders (rule in fitSliders' TSDoc), clamping what cannot be reached. */
 function splitTotals(totals: readonly number[], req: FitRequest): {masterDb: number; sliderDb: number[]} {
 	const {bank, master} = req;
@@ -248,7 +279,7 @@ function splitTotals(totals: readonly number[], req: FitRequest): {masterDb: num
 		if (h > hMax) hMax = h;
 		if (h < hMin) hMin = h;
 	}
-	const ideal = (hMax + hMin) / 2 - (bank.minDb + bank.maxDb) / 2;
+	const ideal = usableMeanTotal(totals, req) - (bank.minDb + bank.maxDb) / 2;
 	const lo = Math.max(master.minDb, hMax - bank.maxDb);
 	const hi = Math.min(master.maxDb, hMin - bank.minDb);
 	// Unreachable totals (naive fit only): centre the sliders as far as the master allows.
