@@ -80,7 +80,7 @@ describe('bad input: exit 2, the field named, nothing on stdout', () => {
 		['slider range inverted', (p) => ((p.sliders.minDb = 10), (p.sliders.maxDb = -10), p), /sliders\.maxDb: minDb must be below maxDb/],
 		['fractional slider count', (p) => ((p.sliders.count = 7.5), p), /sliders\.count: must be a whole number from 1 to 16/],
 		['noise budget and phantom both', (p) => ((p.phantomCalibration = {centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}), p), /phantomCalibration: give either/],
-		['wrong format version', (p) => ((p.format = 'evenecho-plan/9'), p), /format: must be "evenecho-plan\/1"/],
+		['wrong format version', (p) => ((p.format = 'evenecho-plan/9'), p), /format: must be "evenecho-plan\/2" \(or "evenecho-plan\/1", read and migrated\)/],
 		['not an object', () => [1, 2, 3], /\(plan\): must be a JSON object/],
 	];
 	for (const [what, mutate, message] of cases) {

@@ -64,7 +64,7 @@ describe('presets list and show', () => {
 		expect(r.status).toBe(0);
 		const j = JSON.parse(r.stdout) as {id: string; isTemplate: boolean; plan: {format: string}};
 		expect(j).toMatchObject({id: 'neck-superficial', isTemplate: true});
-		expect(j.plan.format).toBe('evenecho-plan/1');
+		expect(j.plan.format).toBe('evenecho-plan/2');
 		const curve = runCli(['curve', '-'], home, JSON.stringify(j.plan));
 		expect(curve.status).toBe(0);
 	});

@@ -38,7 +38,7 @@ describe('record version 1 → 2', () => {
 			name: 'Old thyroid',
 			savedAt: '2024-03-01T09:00:00.000Z',
 			plan: {
-				format: 'evenecho-plan/1',
+				format: 'evenecho-plan/2',
 				name: 'Old thyroid',
 				region: 'neck',
 				note: 'Kept from the first store layout.',
@@ -107,7 +107,7 @@ describe('migration in the store', () => {
 		const p = store.get('Old thyroid');
 		expect(p.migratedFrom).toBe(1);
 		expect(p.savedAt).toBe('2024-03-01T09:00:00.000Z');
-		expect(p.plan.layers[2]).toEqual({tissue: 'soft-tissue', thicknessCm: 3});
+		expect(p.plan.layers[2]).toEqual({tissue: 'soft-tissue', thicknessCm: 3, thicknessAs: 'true'});
 		expect(readFileSync(file, 'utf8')).toBe(text);
 	});
 

@@ -291,7 +291,7 @@ describe('console: step 5, curve, save and export', () => {
 		await press(app, 'e');
 		expect(frame(app)).toContain('Exported demo-deep-liver-through-thick-fat.plan.json and');
 		const json = JSON.parse(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json'), 'utf8'));
-		expect(json.format).toBe('evenecho-plan/1');
+		expect(json.format).toBe('evenecho-plan/2');
 		expect(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.summary.txt'), 'utf8')).toContain('Cautions');
 	});
 
@@ -334,7 +334,7 @@ describe('console: a whole plan by keyboard, template to saved preset', () => {
 		expect(frame(app)).toContain('Saved as preset "Kestrel bed 12 thick fat"');
 		expect(frame(app)).not.toContain('*changed');
 		const saved = openPresetStore({home}).find('Kestrel bed 12 thick fat');
-		expect(saved?.plan.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7});
+		expect(saved?.plan.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7, thicknessAs: 'displayed'});
 		expect(saved?.plan.probe.centerMhz).toBe(2.5);
 		expect(saved?.plan.reference?.slidersDb).toHaveLength(8);
 

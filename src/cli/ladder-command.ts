@@ -2,6 +2,7 @@
 import type {Command} from 'commander';
 import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
+import {targetDepthOf} from '../plan/plan-target.js';
 import {cautionLine} from '../report/cautions.js';
 import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
 import {numberListOption, numberOption} from './option-values.js';
@@ -14,7 +15,7 @@ export function registerLadderCommand(program: Command): void {
 		.description('penetration at each probe frequency and the highest frequency that reaches the target depth')
 		.argument('<plan>', 'plan file (JSON) or - for standard input')
 		.option('--freqs <list>', 'frequencies in MHz: "2,3.5,5" or from:to:step', '1:15:0.5')
-		.option('--target <cm>', 'displayed depth that must be reached (default: the plan\'s targetDepthCm, else its display depth)')
+		.option('--target <cm>', 'displayed depth that must be reached (default: the plan\'s target, else its display depth)')
 		.option('--margin <dB>', 'dB that must be left above the noise floor at the target', '0')
 		.option('--format <format>', 'text or json', 'text')
 		.action((planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
@@ -23,7 +24,7 @@ export function registerLadderCommand(program: Command): void {
 			const margin = numberOption('margin', opts.margin, {min: 0, max: 100}, 'dB');
 			const target = opts.target === undefined ? undefined : numberOption('target', opts.target, {min: 0.1, max: ladderSearchCm}, 'cm');
 			const {doc, plan} = readPlanFile(planPath);
-			const targetCm = target ?? doc.targetDepthCm ?? plan.display.depthCm;
+			const targetCm = target ?? targetDepthOf(doc, plan);
 			const ladder = frequencyLadder(plan, freqs, targetCm, margin);
 			if (opts.format === 'json') {
 				process.stdout.write(
@@ -44,7 +45,7 @@ export function registerLadderCommand(program: Command): void {
 				);
 				return;
 			}
-			const lines = [`Frequency ladder for ${plan.name}: target ${targetCm} cm with ${margin} dB to spare (noise budget ${plan.noiseBudgetDb.toFixed(1)} dB, same at every frequency)`, '  MHz   reaches cm   target'];
+			const lines = [`Frequency ladder for ${plan.name}: target ${Number(targetCm.toFixed(2))} cm with ${margin} dB to spare (noise budget ${plan.noiseBudgetDb.toFixed(1)} dB, same at every frequency)`, '  MHz   reaches cm   target'];
 			for (const r of ladder.rungs) {
 				const reach = r.penetrationDepthCm === null ? `>${ladderSearchCm}` : r.penetrationDepthCm.toFixed(1);
 				lines.push(`  ${r.centerMhz.toFixed(2).padStart(5)}  ${reach.padStart(10)}   ${r.reachesTarget ? 'yes' : 'no'}`);

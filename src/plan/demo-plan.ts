@@ -6,7 +6,7 @@ import type {PlanDocument} from './plan-schema.js';
 import {parsePlanDocument} from './plan-schema.js';
 
 export const demoPlanJson = {
-	format: 'evenecho-plan/1',
+	format: 'evenecho-plan/2',
 	name: 'Demo – deep liver through thick fat',
 	region: 'upper-abdomen',
 	note: 'Invented demo patient "Bed 7, Ward Heron": 5 cm subcutaneous fat over the right lobe.',

@@ -1,6 +1,7 @@
 /**
- * The plan file format `evenecho-plan/1` (JSON): one patient/exam setup. This is the boundary
- * where outside input is checked; the engine behind it trusts what it gets.
+ * The plan file format `evenecho-plan/2` (JSON): one patient/exam setup. This is the boundary
+ * where outside input is checked; the engine behind it trusts what it gets. Files in the older
+ * `evenecho-plan/1` are read through {@link migratePlanV1} (plan-migration.ts) and keep their meaning.
  *
  * Every field but `layers` and `probe.centerMhz` has a default. Unknown keys are refused, and every
  * message names the field path and the allowed range.
@@ -8,8 +9,9 @@
 import {z} from 'zod';
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {Tissue} from '../engine/types.js';
+import {migratePlanV1} from './plan-migration.js';
 
-export const planFormat = 'evenecho-plan/1';
+export const planFormat = 'evenecho-plan/2';
 
 /** Allowed ranges, in one place so messages, the console's fields and the docs agree. */
 export const limits = {
@@ -69,9 +71,31 @@ const tissueIdSchema = z.string({error: 'must be a library tissue id or a custom
 	error: (issue) => `unknown tissue id "${String(issue.input)}"; known ids: ${tissueIds.join(', ')}`,
 });
 
+/**
+ * An attenuation coefficient measured for this patient (an attenuation measurement on the scanner,
+ * or a correction worked out from an image), with its own interval. It replaces the tissue's α0 and
+ * its spread; n stays the tissue's.
+ */
+const measuredAlphaSchema = z
+	.strictObject({
+		alphaDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
+		lowDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
+		highDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
+	})
+	.refine((m) => m.lowDbPerCmMhz <= m.alphaDbPerCmMhz && m.alphaDbPerCmMhz <= m.highDbPerCmMhz, {
+		error: 'the interval must hold the value: lowDbPerCmMhz ≤ alphaDbPerCmMhz ≤ highDbPerCmMhz',
+		path: ['alphaDbPerCmMhz'],
+	});
+
+/** `true`: physical thickness; `displayed`: as measured on the screen (converted through the assumed speed). */
+export const thicknessModes = ['true', 'displayed'] as const;
+export type ThicknessMode = (typeof thicknessModes)[number];
+
 export const layerSchema = z.strictObject({
 	tissue: z.union([tissueIdSchema, customTissueSchema], {error: 'must be a library tissue id or a custom tissue object'}),
 	thicknessCm: ranged(limits.thicknessCm, 'cm'),
+	thicknessAs: z.enum(thicknessModes, {error: 'must be "true" or "displayed"'}).default('true'),
+	measuredAlpha: measuredAlphaSchema.optional(),
 });
 
 const sliderSchema = z
@@ -114,7 +138,7 @@ export const defaultNoiseBudgetDb = 65;
 
 export const planSchema = z
 	.strictObject({
-		format: z.literal(planFormat, {error: `must be "${planFormat}"`}).default(planFormat),
+		format: z.literal(planFormat, {error: `must be "${planFormat}" (or "evenecho-plan/1", read and migrated)`}).default(planFormat),
 		name: z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'}).default('Untitled plan'),
 		region: z.string({error: 'must be text of 1 to 40 characters'}).min(1, {error: 'must be text of 1 to 40 characters'}).max(40, {error: 'must be text of 1 to 40 characters'}).default('custom'),
 		note: z.string().max(2000, {error: 'must be at most 2000 characters'}).optional(),
@@ -140,6 +164,16 @@ export const planSchema = z
 		phantomCalibration: phantomSchema.optional(),
 		/** Depth the exam must reach (the frequency ladder's target); defaults to the display depth. */
 		targetDepthCm: ranged(limits.depthCm, 'cm').optional(),
+		/**
+		 * Instead of `targetDepthCm`: the target as displayed cm below the displayed top of a layer
+		 * (1 = the first layer), so it follows the organ when the layers above it change.
+		 */
+		targetBelowLayer: z
+			.strictObject({
+				layer: ranged(limits.layers, '', true),
+				depthCm: ranged({min: 0, max: limits.depthCm.max}, 'cm'),
+			})
+			.optional(),
 		/** The department's usual settings for this region, against which this plan is shown as deltas. */
 		reference: referenceSchema.optional(),
 	}, {error: 'must be a JSON object'})
@@ -154,6 +188,14 @@ export const planSchema = z
 	.refine((p) => p.targetDepthCm === undefined || p.targetDepthCm <= p.display.depthCm, {
 		error: 'must not be deeper than display.depthCm',
 		path: ['targetDepthCm'],
+	})
+	.refine((p) => !(p.targetDepthCm !== undefined && p.targetBelowLayer !== undefined), {
+		error: 'give either targetDepthCm or targetBelowLayer, not both',
+		path: ['targetBelowLayer'],
+	})
+	.refine((p) => p.targetBelowLayer === undefined || p.targetBelowLayer.layer <= p.layers.length, {
+		error: 'must name one of the plan\'s layers (1 = just under the skin)',
+		path: ['targetBelowLayer', 'layer'],
 	});
 
 /** A plan as written in a file, with defaults filled in (tissues stay as ids where given so). */
@@ -176,7 +218,7 @@ export function formatIssues(error: z.ZodError): string[] {
 
 /** Checks a parsed JSON value against the plan format. */
 export function parsePlanDocument(input: unknown): ParseResult<PlanDocument> {
-	const r = planSchema.safeParse(input);
+	const r = planSchema.safeParse(migratePlanV1(input));
 	return r.success ? {ok: true, value: r.data} : {ok: false, errors: formatIssues(r.error)};
 }
 

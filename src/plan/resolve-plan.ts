@@ -3,8 +3,38 @@
  * a phantom calibration becomes a noise budget.
  */
 import {noiseBudgetFromPhantom} from '../engine/noise-budget.js';
-import type {EnginePlan} from '../engine/types.js';
-import {defaultNoiseBudgetDb, parsePlanDocument, resolveTissue, type ParseResult, type PlanDocument} from './plan-schema.js';
+import type {EnginePlan, Layer, Tissue} from '../engine/types.js';
+import {
+	defaultNoiseBudgetDb,
+	type LayerDocument,
+	parsePlanDocument,
+	resolveTissue,
+	type ParseResult,
+	type PlanDocument,
+} from './plan-schema.js';
+
+/** Source line of an α0 measured for this patient (the console and every output show it). */
+export const measuredAlphaSource = 'measured for this patient';
+
+/**
+ * One layer for the engine: its tissue record (with a measured α0 and interval in place of the
+ * library's, when given) and its true thickness. A thickness measured on screen is drawn c0/c times
+ * the true one, so the true thickness is displayed × c/c0.
+ */
+export function resolveLayer(l: LayerDocument, assumedSpeedMps: number): Layer {
+	const base = resolveTissue(l.tissue);
+	const m = l.measuredAlpha;
+	const tissue: Tissue = m
+		? {
+				...base,
+				alphaDbPerCmMhz: m.alphaDbPerCmMhz,
+				spread: {...base.spread, alphaDbPerCmMhz: [m.lowDbPerCmMhz, m.highDbPerCmMhz]},
+				source: `α0 ${m.alphaDbPerCmMhz} (${m.lowDbPerCmMhz}–${m.highDbPerCmMhz}) dB/cm/MHz^n ${measuredAlphaSource}; other values: ${base.source ?? 'custom'}`,
+			}
+		: base;
+	const thicknessCm = l.thicknessAs === 'displayed' ? (l.thicknessCm * tissue.speedMps) / assumedSpeedMps : l.thicknessCm;
+	return {tissue, thicknessCm};
+}
 
 export function resolvePlan(doc: PlanDocument): EnginePlan {
 	const probe = {
@@ -18,7 +48,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 	return {
 		name: doc.name,
 		region: doc.region,
-		layers: doc.layers.map((l) => ({tissue: resolveTissue(l.tissue), thicknessCm: l.thicknessCm})),
+		layers: doc.layers.map((l) => resolveLayer(l, doc.display.assumedSpeedMps)),
 		probe,
 		scattererExponent: doc.scattererExponent,
 		display: doc.display,

@@ -29,15 +29,16 @@ function fatInsertIndex(doc: PlanDocument): number {
 export function setFatThickness(doc: PlanDocument, cm: number): PlanDocument {
 	const next = clonePlan(doc);
 	const i = fatLayerIndex(next);
-	if (i >= 0) next.layers[i]!.thicknessCm = cm;
-	else next.layers.splice(fatInsertIndex(next), 0, {tissue: 'fat', thicknessCm: cm});
+	// The fat row takes what the sonographer measured on the screen (a displayed thickness).
+	if (i >= 0) Object.assign(next.layers[i]!, {thicknessCm: cm, thicknessAs: 'displayed'});
+	else next.layers.splice(fatInsertIndex(next), 0, {tissue: 'fat', thicknessCm: cm, thicknessAs: 'displayed'});
 	return next;
 }
 
 /** A new layer of generic soft tissue, 1 cm, just below `index`. */
 export function addLayer(doc: PlanDocument, index: number): PlanDocument {
 	const next = clonePlan(doc);
-	next.layers.splice(Math.min(index + 1, next.layers.length), 0, {tissue: 'soft-tissue', thicknessCm: 1});
+	next.layers.splice(Math.min(index + 1, next.layers.length), 0, {tissue: 'soft-tissue', thicknessCm: 1, thicknessAs: 'displayed'});
 	return next;
 }
 
