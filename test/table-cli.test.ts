@@ -103,7 +103,7 @@ describe('formats and determinism', () => {
 		expect(r.stdout).toContain(cautionLine);
 		expect(r.stdout).toContain('- **Plan:** plan file protocol.json');
 		expect(r.stdout).toContain('- **Model:** evenecho-model');
-		expect(r.stdout).toContain('Highest MHz to 15 cm');
+		expect(r.stdout).toContain('Highest frequency reaching the target, per habitus');
 	});
 
 	it('CSV is only a header row plus data rows; SVG is valid XML with the caution', () => {

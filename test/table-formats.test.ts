@@ -68,8 +68,10 @@ describe('CSV', () => {
 			j.sliders.forEach((s, k) => expect(Number(r[`slider${k + 1}_db`])).toBe(s.gainDb));
 			expect(Number(r['master_gain_db'])).toBe(j.masterGainDb);
 			expect(Number(r['residual_db'])).toBe(j.residualDb);
-			expect(r['penetration_cm'] === '' ? null : Number(r['penetration_cm'])).toBe(j.penetrationDepthCm);
-			expect(r['highest_reaching_mhz'] === '' ? null : Number(r['highest_reaching_mhz'])).toBe(j.highestReachingMhz);
+			// Nothing is left empty for a meaning: "beyond display" and "none" are written out.
+			expect(r['penetration_cm'] === 'beyond display' ? null : Number(r['penetration_cm'])).toBe(j.penetrationDepthCm);
+			expect(r['highest_reaching_mhz'] === 'none' ? null : Number(r['highest_reaching_mhz'])).toBe(j.highestReachingMhz);
+			expect(r['penetration_cm']).not.toBe('');
 			expect(r['warnings']).toBe([...new Set(j.warnings.map((w) => w.code))].join(' '));
 		});
 		expect(rows.some((r) => r['layer4_tissue'] === oddTissue.label)).toBe(true);
@@ -104,7 +106,8 @@ describe('JSON', () => {
 			marginDb: 0,
 			targetDepthCm: 16,
 		});
-		expect(doc.tissues.map((t) => t.where)).toEqual(['layer 1', 'layer 2', 'layer 3', 'layer 4', 'layer 4 (swap)', 'layer 4 (swap)']);
+		// The swapped layer is listed once per tissue it takes, not also with the plan's own tissue.
+		expect(doc.tissues.map((t) => t.where)).toEqual(['layer 1', 'layer 2', 'layer 3', 'layer 4 (swap)', 'layer 4 (swap)']);
 		expect(doc.tissues.find((t) => t.id === 'fat')!.source).toMatch(/Breast USCT 2016 Table I/);
 		expect(doc.tissues.at(-1)).toMatchObject({label: oddTissue.label, source: 'invented test tissue', from: 'layer 2 of preset "test-pelvis"'});
 		expect(doc.notes).toEqual([harmonicSimplification, ladderSimplification]);
@@ -138,36 +141,75 @@ describe('SVG', () => {
 	const text = tableSvg(table, options);
 	const parser = new XMLParser({ignoreAttributes: false, attributeNamePrefix: '@'});
 
-	it('is well-formed XML with one polyline per row, grouped in one panel per frequency/receive/tissue', () => {
+	/** The small charts: one `<g>` with a frame (`rect`) per row. */
+	const cells = (svg: {g: unknown}) => [svg.g].flat().filter((g) => (g as Record<string, unknown>)['rect'] !== undefined) as Record<string, unknown>[];
+	const textsOf = (node: unknown): string[] =>
+		[node].flat().filter((t) => t !== undefined).map((t) => String(typeof t === 'object' && t !== null ? (t as Record<string, unknown>)['#text'] : t));
+
+	it('is well-formed XML with one small chart per row, each curve sampled down the display', () => {
 		expect(XMLValidator.validate(text)).toBe(true);
 		const svg = parser.parse(text).svg;
 		expect(svg['@xmlns']).toBe('http://www.w3.org/2000/svg');
-		const groups = [svg.g].flat();
-		expect(groups).toHaveLength(8);
-		const polylines = groups.flatMap((g: {polyline: unknown}) => [g.polyline].flat());
-		expect(polylines).toHaveLength(24);
-		for (const p of polylines as {'@points': string}[]) {
-			const pts = p['@points'].split(' ');
-			expect(pts).toHaveLength(161);
-			for (const pt of pts) expect(pt).toMatch(/^-?\d+\.\d,-?\d+\.\d$/);
+		const charts = cells(svg);
+		expect(charts).toHaveLength(table.rows.length);
+		for (const c of charts) {
+			const lines = [c['polyline']].flat() as {'@points': string}[];
+			// Above and (where the echo meets the floor) below the noise floor share the boundary sample.
+			const points = lines.reduce((n, p) => n + p['@points'].split(' ').length, 0);
+			expect(points).toBeGreaterThanOrEqual(161);
+			expect(points).toBeLessThanOrEqual(162);
+			for (const p of lines) for (const pt of p['@points'].split(' ')) expect(pt).toMatch(/^-?\d+\.\d,-?\d+\.\d$/);
 		}
 	});
 
-	it('has the title, legend per habitus, axes, inputs, tissue sources, model, notes and caution, all escaped', () => {
+	it('labels each chart directly, shows slider knots with values, the highest reaching frequency and the target', () => {
 		const svg = parser.parse(text).svg;
 		expect(svg.title).toBe(`Depth-gain curves: ${template().name}`);
-		const texts = [svg.text].flat().map((t: unknown) => String(typeof t === 'object' && t !== null ? (t as Record<string, unknown>)['#text'] : t)).join('\n');
-		expect(texts).toContain('Layer 2, Fat (subcutaneous):');
-		for (const label of ['1 cm', '4 cm', '8 cm']) expect([svg.text].flat().map((t: {'#text'?: unknown}) => t['#text'])).toContain(label);
-		expect(text).toContain('<title>Fat (subcutaneous) 4 cm, row 2</title>');
-		expect(text).toContain('displayed depth, cm');
-		expect(text).toContain('compensation, dB');
-		expect(texts.replace(/\n/g, ' ')).toContain(cautionLine);
-		expect(texts.replace(/\n/g, ' ')).toContain(modelVersion);
-		expect(texts.replace(/\n/g, ' ')).toContain('build-up with depth is not modelled');
-		expect(texts).toMatch(/Breast USCT 2016/);
+		const charts = cells(svg);
+		table.rows.forEach((r, i) => {
+			const words = textsOf(charts[i]!['text']).join('\n');
+			expect(words).toContain(`Fat (subcutaneous) ${r.layerCm} cm`);
+			expect(words).toMatch(r.highestReachingMhz === null ? /no listed MHz reaches/ : new RegExp(`highest reaching ${r.highestReachingMhz} MHz`));
+			expect(words).toContain(`master ${r.masterGainDb.toFixed(1)} dB`);
+			for (let k = 1; k <= 8; k++) expect(words).toMatch(new RegExp(`S${k} [+-]\\d+\\.\\d`));
+			expect([charts[i]!['circle']].flat()).toHaveLength(8);
+		});
+		expect(text).toContain('<title>Fat (subcutaneous) 4 cm, 2.5 MHz fundamental, layer 4: Liver, row 2</title>');
+		const all = textsOf(svg.text).join('\n');
+		expect(all.replace(/\n/g, ' ')).toContain(cautionLine);
+		expect(all.replace(/\n/g, ' ')).toContain(modelVersion);
+		expect(all.replace(/\n/g, ' ')).toContain('build-up with depth is not modelled');
+		expect(all).toMatch(/Breast USCT 2016/);
+		expect(text).toContain('below the noise floor or a barrier');
+		expect(text).toContain('target depth');
 		expect(text).toContain(xmlText(oddTissue.label));
 		expect(text).not.toContain(oddTissue.label);
+	});
+
+	it('draws the part below the noise floor dashed and grey, apart from the part above', () => {
+		const deep = buildTable(template(), {fatCm: [1, 8], freqMhz: [9]}, {keepCurves: true});
+		expect(deep.rows.every((r) => r.penetrationDepthCm !== null)).toBe(true);
+		const svg = parser.parse(tableSvg(deep)).svg;
+		for (const c of cells(svg)) {
+			const lines = [c['polyline']].flat() as Record<string, string>[];
+			expect(lines).toHaveLength(2);
+			expect(lines[0]!['@stroke-dasharray']).toBeUndefined();
+			expect(lines[1]!['@stroke-dasharray']).toBeDefined();
+			expect(lines[1]!['title']).toMatch(/below the noise floor/);
+		}
+	});
+
+	it('with --delta draws differences from the standard habitus: the plan-as-is chart is a straight zero line', () => {
+		const plain = buildTable(template(), {fatCm: [2, 6]}, {keepCurves: true});
+		const delta = buildTable(template(), {fatCm: [2, 6], delta: true}, {keepCurves: true});
+		const a = tableSvg(plain);
+		const b = tableSvg(delta);
+		expect(b).not.toBe(a);
+		expect(b).toContain('minus the standard habitus');
+		const first = cells(parser.parse(b).svg)[0]!;
+		const xs = ([first['polyline']].flat() as {'@points': string}[]).flatMap((p) => p['@points'].split(' ').map((pt) => pt.split(',')[0]));
+		expect(new Set(xs).size).toBe(1);
+		expect(textsOf(first['text']).join('\n')).toContain('Δ master +0.0 dB');
 	});
 
 	it('draws the same chart whether the curves were kept or are recomputed', () => {
@@ -208,7 +250,9 @@ describe('Markdown', () => {
 		const cells = (l: string) => l.split(/(?<!\\)\|/).length;
 		for (const l of body) expect(cells(l)).toBe(cells(body[0]!));
 		expect(body[0]).toContain('S1 @1.0 cm');
-		expect(body[0]).toContain('Highest MHz to 16 cm');
+		// Two frequencies per habitus: the highest reaching frequency moves to a table of its own.
+		expect(body[0]).not.toContain('Highest MHz');
+		expect(text).toContain('## Highest frequency reaching the target, per habitus');
 		expect(body[2]).toMatch(/^\| 1 \| 1\.0 \| 2\.5 \| fundamental \| Liver \| [+-]\d+\.\d \|/);
 	});
 

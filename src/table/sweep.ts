@@ -13,7 +13,8 @@ import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {CurveWarning, EnginePlan, Tissue} from '../engine/types.js';
 import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
-import {resolvePlan} from '../plan/resolve-plan.js';
+import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
+import {describeTarget, targetDepthOf} from '../plan/plan-target.js';
 
 /** Most rows one table may have (all sweeps multiplied). */
 export const maxTableRows = 20_000;
@@ -102,7 +103,12 @@ export interface ResolvedSweep {
 	readonly ladderMhz: readonly number[];
 	/** Where the ladder came from. */
 	readonly ladderFrom: 'ladder' | 'freq' | 'default';
+	/** The plan's own target depth, displayed cm (rows differ when it follows a layer). */
 	readonly targetDepthCm: number;
+	/** How the plan gives its target: "15 cm" or "10 cm below the top of layer 4 (Liver)". */
+	readonly targetRule: string;
+	/** The target moves with the layers above it (`targetBelowLayer`). */
+	readonly targetFollowsLayer: boolean;
 	readonly stepCm: number;
 	readonly rowCount: number;
 }
@@ -139,8 +145,12 @@ export interface TableRow {
 	readonly blockedDepthCm: number | null;
 	readonly usableDepthCm: number;
 	readonly noiseBudgetDb: number;
+	/** This row's target depth, displayed cm (it moves with the layers when the target follows one). */
+	readonly targetDepthCm: number;
 	/** Highest ladder frequency whose echo from the target depth stays within budget − margin. */
 	readonly highestReachingMhz: number | null;
+	/** Where that frequency meets the noise floor, displayed cm (null: none reaches, or beyond 40 cm). */
+	readonly highestReachingPenetrationCm: number | null;
 	readonly warnings: readonly CurveWarning[];
 	/** The compensation curve (only with `keepCurves`). */
 	readonly curve?: {readonly depthsCm: readonly number[]; readonly compensationDb: readonly number[]};
@@ -318,7 +328,9 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 		marginDb,
 		ladderMhz,
 		ladderFrom,
-		targetDepthCm: doc.targetDepthCm ?? doc.display.depthCm,
+		targetDepthCm: targetDepthOf(doc, resolvePlan(doc)),
+		targetRule: describeTarget(doc, (i) => resolveTissue(doc.layers[i]!.tissue).label),
+		targetFollowsLayer: doc.targetBelowLayer !== undefined,
 		stepCm,
 		rowCount,
 	};
@@ -361,7 +373,11 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 	const layers = doc.layers.map((l, i) => {
 		let out = l;
 		const axis = sweep.swaps.findIndex((s) => s.layer === i + 1);
-		if (axis >= 0) out = {...out, tissue: sweep.swaps[axis]!.choices[combo.swapPicks[axis]!]!.tissue};
+		if (axis >= 0) {
+			// A swapped-in tissue brings its own α0: a measurement made on the plan's tissue does not apply.
+			const {measuredAlpha: _measured, ...rest} = out;
+			out = {...rest, tissue: sweep.swaps[axis]!.choices[combo.swapPicks[axis]!]!.tissue};
+		}
 		if (i === sweep.layerIndex && layerCm !== null && layerCm !== l.thicknessCm) out = {...out, thicknessCm: layerCm};
 		return out;
 	});
@@ -369,12 +385,16 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 }
 
 /** Everything the ladder depends on except the frequency. */
-function ladderKey(plan: EnginePlan): string {
-	return JSON.stringify([plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.harmonic, plan.probe.bandwidthFraction, plan.noiseBudgetDb]);
+function ladderKey(plan: EnginePlan, targetCm: number): string {
+	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.harmonic, plan.probe.bandwidthFraction, plan.noiseBudgetDb]);
 }
 
 function tissueUses(sweep: ResolvedSweep): TissueUse[] {
-	const out: TissueUse[] = sweep.doc.layers.map((l, i) => ({where: `layer ${i + 1}`, tissue: resolveTissue(l.tissue)}));
+	const swapped = new Set(sweep.swaps.map((s) => s.layer));
+	// A swapped layer never carries the plan's own tissue in any row: list only its choices.
+	const out: TissueUse[] = sweep.doc.layers.flatMap((l, i) =>
+		swapped.has(i + 1) ? [] : [{where: `layer ${i + 1}`, tissue: resolveLayer(l, sweep.doc.display.assumedSpeedMps).tissue}],
+	);
 	for (const s of sweep.swaps) {
 		for (const c of s.choices) out.push({where: `layer ${s.layer} (swap)`, tissue: c.record, ...(c.from ? {from: c.from} : {})});
 	}
@@ -386,7 +406,7 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 	const stepCm = sweep.stepCm;
 	const referenceFit = computeCurve(resolvePlan(sweep.doc), {stepCm}).fit;
 	const reference = settingsOf(referenceFit);
-	const ladders = new Map<string, number | null>();
+	const ladders = new Map<string, {mhz: number | null; penetrationCm: number | null}>();
 	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
 	const rows: TableRow[] = [];
 	let anyHarmonic = false;
@@ -396,10 +416,13 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 			const doc = variantDoc(sweep, combo, layerCm);
 			const plan = resolvePlan(doc);
 			const r = computeCurve(plan, {stepCm});
-			const key = ladderKey(plan);
+			const targetCm = targetDepthOf(doc, plan);
+			const key = ladderKey(plan, targetCm);
 			let highest = ladders.get(key);
 			if (highest === undefined) {
-				highest = frequencyLadder(plan, sweep.ladderMhz, sweep.targetDepthCm, sweep.marginDb).highestReachingMhz;
+				const ladder = frequencyLadder(plan, sweep.ladderMhz, targetCm, sweep.marginDb);
+				const rung = ladder.rungs.find((g) => g.centerMhz === ladder.highestReachingMhz);
+				highest = {mhz: ladder.highestReachingMhz, penetrationCm: rung?.penetrationDepthCm ?? null};
 				ladders.set(key, highest);
 			}
 			const settings = settingsOf(r.fit);
@@ -421,7 +444,9 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 				blockedDepthCm: r.blockedDepthCm,
 				usableDepthCm: r.usableDepthCm,
 				noiseBudgetDb: plan.noiseBudgetDb,
-				highestReachingMhz: highest,
+				targetDepthCm: targetCm,
+				highestReachingMhz: highest.mhz,
+				highestReachingPenetrationCm: highest.penetrationCm,
 				// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
 				warnings: r.warnings.filter((w) => w.severity === 'warning'),
 				...(options.keepCurves

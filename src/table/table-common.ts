@@ -124,7 +124,7 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	const ladderFrom = s.ladderFrom === 'freq' ? 'the probe frequencies above' : s.ladderFrom === 'default' ? 'the default ladder' : 'the --ladder list';
 	out.push([
 		'Highest reaching frequency',
-		`the highest of ${list(s.ladderMhz, 'MHz')} (${ladderFrom}) whose echo from the target depth ${plain(s.targetDepthCm)} cm stays within the noise budget less a ${plain(s.marginDb)} dB margin`,
+		`the highest of ${list(s.ladderMhz, 'MHz')} (${ladderFrom}) whose echo from the target depth${s.targetFollowsLayer ? `, ${s.targetRule} (${plain(roundTo(s.targetDepthCm, 2))} cm in the plan as it is; it follows the layers above it),` : ` ${plain(s.targetDepthCm)} cm`} stays within the noise budget less a ${plain(s.marginDb)} dB margin`,
 	]);
 	if (s.delta) {
 		const ref = t.reference;
@@ -136,4 +136,21 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	}
 	if (o.generatedAt) out.push(['Generated', o.generatedAt]);
 	return out;
+}
+
+/** Rows grouped by habitus: the same swept thickness, receive mode and swaps (frequency aside). */
+export function habitusGroups(t: ProtocolTable): TableRow[][] {
+	const groups = new Map<string, TableRow[]>();
+	for (const r of t.rows) {
+		const key = JSON.stringify([r.layerCm, r.receive, r.swapLabels]);
+		const g = groups.get(key);
+		if (g) g.push(r);
+		else groups.set(key, [r]);
+	}
+	return [...groups.values()];
+}
+
+/** True when each habitus has one row, so the highest reaching frequency can sit in the main table. */
+export function highestPerRow(t: ProtocolTable): boolean {
+	return t.sweep.freqMhz.length === 1;
 }

@@ -3,12 +3,18 @@
  * header row, then one row per combination, nothing else, so a spreadsheet opens it directly. The
  * inputs, sources and cautions travel in the Markdown, JSON and SVG forms.
  *
- * Empty cells: `penetration_cm` when the echo stays above the noise floor over the whole display,
- * `highest_reaching_mhz` when no ladder frequency reaches the target depth.
+ * No empty cells stand for a meaning: `penetration_cm` says `beyond display` when the echo stays
+ * above the noise floor over the whole display, and `highest_reaching_mhz` says `none` when no ladder
+ * frequency reaches the target depth. Every other cell of those columns is a number. The highest
+ * reaching frequency repeats on each row of a habitus (one row per combination keeps the file
+ * tidy for a spreadsheet); Markdown shows it once per habitus.
  */
 import {stringify} from 'csv-stringify/sync';
 import type {ProtocolTable, TableRow} from './sweep.js';
 import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, roundTo, rowWarningCodes} from './table-common.js';
+
+/** `penetration_cm` when the echo stays above the noise floor down to the display depth. */
+export const beyondDisplay = 'beyond display';
 
 /** The header row. */
 export function csvHeader(t: ProtocolTable): string[] {
@@ -19,7 +25,9 @@ export function csvHeader(t: ProtocolTable): string[] {
 	for (const w of s.swaps) h.push(`layer${w.layer}_tissue`);
 	t.knotDepthsCm.forEach((_, k) => h.push(s.delta ? `slider${k + 1}_delta_db` : `slider${k + 1}_db`));
 	if (s.delta) h.push('master_delta_db');
-	h.push('master_gain_db', 'residual_db', 'penetration_cm', 'highest_reaching_mhz', 'warnings');
+	h.push('master_gain_db', 'residual_db', 'penetration_cm');
+	if (s.targetFollowsLayer) h.push('target_cm');
+	h.push('highest_reaching_mhz', 'warnings');
 	return h;
 }
 
@@ -36,10 +44,10 @@ export function csvCells(t: ProtocolTable, r: TableRow): string[] {
 	out.push(
 		n(r.masterGainDb, gainDecimals),
 		n(r.residualDb, residualDecimals),
-		r.penetrationDepthCm === null ? '' : n(r.penetrationDepthCm, depthDecimals),
-		r.highestReachingMhz === null ? '' : n(r.highestReachingMhz, mhzDecimals),
-		rowWarningCodes(r).join(' '),
+		r.penetrationDepthCm === null ? beyondDisplay : n(r.penetrationDepthCm, depthDecimals),
 	);
+	if (s.targetFollowsLayer) out.push(n(r.targetDepthCm, depthDecimals));
+	out.push(r.highestReachingMhz === null ? 'none' : n(r.highestReachingMhz, mhzDecimals), rowWarningCodes(r).join(' '));
 	return out;
 }
 

@@ -42,7 +42,9 @@ const rowJsonSchema = z.strictObject({
 	blockedDepthCm: z.number().nullable(),
 	usableDepthCm: z.number(),
 	noiseBudgetDb: z.number(),
+	targetDepthCm: z.number(),
 	highestReachingMhz: z.number().nullable(),
+	highestReachingPenetrationCm: z.number().nullable(),
 	warnings: z.array(z.strictObject({code: z.enum(warningCodes), message: z.string(), depthCm: z.number().nullable()})),
 });
 
@@ -66,6 +68,7 @@ export const tableJsonSchema = z.strictObject({
 		ladderMhz: z.array(z.number()),
 		marginDb: z.number(),
 		targetDepthCm: z.number(),
+		targetRule: z.string(),
 		displayDepthCm: z.number(),
 		assumedSpeedMps: z.number(),
 		bandwidthFraction: z.number(),
@@ -111,7 +114,9 @@ function rowJson(t: ProtocolTable, r: TableRow): TableJson['rows'][number] {
 		blockedDepthCm: dn(r.blockedDepthCm),
 		usableDepthCm: d(r.usableDepthCm),
 		noiseBudgetDb: d(r.noiseBudgetDb),
+		targetDepthCm: d(r.targetDepthCm),
 		highestReachingMhz: r.highestReachingMhz === null ? null : roundTo(r.highestReachingMhz, mhzDecimals),
+		highestReachingPenetrationCm: dn(r.highestReachingPenetrationCm),
 		warnings: r.warnings.map((w) => ({code: w.code, message: w.message, depthCm: w.depthCm === undefined ? null : d(w.depthCm)})),
 	};
 }
@@ -142,6 +147,7 @@ export function tableJson(t: ProtocolTable, o: TableFormatOptions = {}): TableJs
 			ladderMhz: s.ladderMhz.map((f) => roundTo(f, mhzDecimals)),
 			marginDb: s.marginDb,
 			targetDepthCm: d(s.targetDepthCm),
+			targetRule: s.targetRule,
 			displayDepthCm: d(doc.display.depthCm),
 			assumedSpeedMps: doc.display.assumedSpeedMps,
 			bandwidthFraction: doc.probe.bandwidthFraction,
@@ -170,6 +176,8 @@ export function tableJson(t: ProtocolTable, o: TableFormatOptions = {}): TableJs
 			delta: 'with --delta: row minus the standard habitus (the plan as it is), dB',
 			residualDb: 'worst |fitted − curve| over the usable depth, dB',
 			penetrationDepthCm: 'displayed depth where the echo meets the noise floor; null if not on screen',
+			targetDepthCm: "this row's target depth, displayed cm (follows the layers above it when the plan says so)",
+			highestReachingPenetrationCm: 'where that frequency meets the noise floor, displayed cm; null if none reaches or beyond 40 cm',
 			highestReachingMhz: 'highest ladder frequency reaching the target depth within the noise budget less the margin; null if none',
 		},
 		rows: t.rows.map((r) => rowJson(t, r)),

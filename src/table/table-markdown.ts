@@ -6,7 +6,7 @@
 import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep.js';
-import {fixed, inputLines, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
+import {fixed, habitusGroups, highestPerRow, inputLines, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
 
 /** Escapes text for one table cell or line: pipes, backslashes, HTML-ish brackets, line breaks. */
 export function markdownText(s: string): string {
@@ -48,8 +48,21 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 		header.push('Δ master dB');
 		align.push('r');
 	}
-	header.push('Master dB', 'Fit ± dB', 'Noise floor at cm', `Highest MHz to ${plain(s.targetDepthCm)} cm`, 'Warnings');
-	align.push('r', 'r', 'r', 'r', 'l');
+	header.push('Master dB', 'Fit ± dB', 'Noise floor at cm');
+	align.push('r', 'r', 'r');
+	// The highest reaching frequency depends on the habitus, not on the row's frequency: in the main
+	// table only when every habitus has one row, else once per habitus in a table of its own.
+	const perRow = highestPerRow(t);
+	if (perRow && s.targetFollowsLayer) {
+		header.push('Target cm');
+		align.push('r');
+	}
+	if (perRow) {
+		header.push(s.targetFollowsLayer ? 'Highest MHz to target' : `Highest MHz to ${plain(s.targetDepthCm)} cm`);
+		align.push('r');
+	}
+	header.push('Warnings');
+	align.push('l');
 
 	const beyond = `beyond ${plain(s.doc.display.depthCm)}`;
 	const cells = (r: TableRow): string[] => {
@@ -63,12 +76,48 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 			fixed(r.masterGainDb, 1),
 			fixed(r.residualDb, 1),
 			r.penetrationDepthCm === null ? beyond : fixed(r.penetrationDepthCm, 1),
-			r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz),
-			rowWarningCodes(r).join(', ') || '–',
 		);
+		if (perRow && s.targetFollowsLayer) out.push(fixed(r.targetDepthCm, 1));
+		if (perRow) out.push(r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz));
+		out.push(rowWarningCodes(r).join(', ') || '–');
 		return out;
 	};
 	return {header, align, cells};
+}
+
+/** One row per habitus (everything but the frequency): the highest reaching frequency once. */
+function habitusLadderTable(t: ProtocolTable): string[] {
+	const s = t.sweep;
+	const label = sweptLayerLabel(t);
+	const header: string[] = [];
+	const align: ('l' | 'r')[] = [];
+	if (s.layerIndex !== null) {
+		header.push(`${markdownText(label ?? 'Layer')} cm`);
+		align.push('r');
+	}
+	header.push('Receive');
+	align.push('l');
+	for (const w of s.swaps) {
+		header.push(`Layer ${w.layer}`);
+		align.push('l');
+	}
+	header.push('Target cm', 'Highest MHz', 'Its noise floor at cm', 'Rows');
+	align.push('r', 'r', 'r', 'l');
+	const rows = habitusGroups(t).map((g) => {
+		const r = g[0]!;
+		const out: string[] = [];
+		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
+		out.push(r.receive);
+		for (const l of r.swapLabels) out.push(markdownText(l));
+		out.push(
+			fixed(r.targetDepthCm, 1),
+			r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz),
+			r.highestReachingPenetrationCm === null ? (r.highestReachingMhz === null ? '–' : 'beyond 40') : fixed(r.highestReachingPenetrationCm, 1),
+			g.map((x) => String(x.index)).join(', '),
+		);
+		return out;
+	});
+	return tableLines(header, align, rows);
 }
 
 export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): string {
@@ -116,6 +165,13 @@ export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): str
 	out.push(
 		`Sliders in dB at their knot depths (displayed cm)${s.delta ? ', as the row minus the standard habitus' : ''}; "Fit ± dB" is the worst gap between the fitted controls and the curve; "Noise floor at" is the displayed depth where the echo meets the noise floor.`,
 	);
+
+	if (!highestPerRow(t)) {
+		out.push('');
+		out.push(`## Highest frequency reaching the target, per habitus`);
+		out.push('');
+		out.push(...habitusLadderTable(t));
+	}
 
 	const codes = warningCodesUsed(t.rows);
 	if (codes.length) {

@@ -1,27 +1,24 @@
 /**
- * The protocol table as an SVG chart a document can embed: one panel per probe frequency / receive
- * mode / tissue swap, one line per habitus (thickness of the swept layer) in each panel. Depth runs
- * down the page as on the image, compensation (dB) to the right. A dot marks where the echo meets
- * the noise floor. Under the panels: legend, inputs, tissues with sources, model, notes and the
+ * The protocol table as an SVG chart a document can embed: small multiples, one group per probe
+ * frequency / receive mode / tissue swap and one small chart per habitus (thickness of the swept
+ * layer) in each group, all on one scale, so six fat values never sit on top of each other. Depth
+ * runs down the page as on the image, compensation (dB) to the right; the part below the noise floor
+ * is dashed grey; slider knots carry their values; each chart names the highest reaching frequency.
+ * With `--delta` the curves are differences from the standard habitus. Under the panels: legend, inputs, tissues with sources, model, notes and the
  * caution line. Hand-written SVG 1.1, all text escaped, coordinates with fixed decimals.
  */
 import {computeCurve, modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import {SweepError, type ProtocolTable, type ResolvedSweep, type TableRow} from './sweep.js';
-import {fixed, inputLines, plain, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
+import {fixed, inputLines, plain, roundTo, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
+import {resolvePlan} from '../plan/resolve-plan.js';
 
-/** Most panels in one chart. */
+/** Most groups (frequency × receive × swap) in one chart. */
 export const maxSvgPanels = 24;
-/** Most lines (habitus values) per panel: 8 colours, solid then dashed. */
+/** Most habitus values (small charts) per group. */
 export const maxSvgLines = 16;
 
-const palette = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#000000', '#8C8C8C'];
-
-const panelW = 380;
-const panelH = 300;
-const plot = {left: 58, right: 18, top: 34, bottom: 44};
 const pad = 24;
-const columnsMax = 3;
 /** Narrowest chart, px, so the text under one panel stays readable. */
 const minWidth = 760;
 const footFont = 11;
@@ -109,12 +106,36 @@ function panelTitle(r: TableRow, t: ProtocolTable): string {
 	return parts.join(', ');
 }
 
+/** Small multiples: at most this many habitus side by side before a group wraps. */
+const cellsPerLine = 5;
+const cellW = 236;
+const cellH = 330;
+const cell = {left: 40, right: 50, top: 46, bottom: 40};
+const muted = '#9A9A9A';
+
+/** The polyline points of a curve between two depths (inclusive), or '' when fewer than two. */
+function segment(c: Curve, from: number, to: number, xOf: (db: number) => number, yOf: (cm: number) => number): string {
+	const pts: string[] = [];
+	for (let i = 0; i < c.depthsCm.length; i++) {
+		const d = c.depthsCm[i]!;
+		if (d >= from - 1e-9 && d <= to + 1e-9) pts.push(`${fixed(xOf(c.compensationDb[i]!), 1)},${fixed(yOf(d), 1)}`);
+	}
+	return pts.length >= 2 ? pts.join(' ') : '';
+}
+
+/** The curve shown for a row: its compensation, or with `--delta` its difference from the standard habitus. */
+function shownCurve(c: Curve, reference: Curve | null): Curve {
+	if (!reference) return c;
+	return {depthsCm: c.depthsCm, compensationDb: c.depthsCm.map((d, i) => c.compensationDb[i]! - valueAt(reference, d))};
+}
+
 export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const s = t.sweep;
 	const lineCount = Math.max(1, s.fatCm.length);
-	const panels: TableRow[][] = [];
-	for (let i = 0; i < t.rows.length; i += lineCount) panels.push(t.rows.slice(i, i + lineCount));
-	const curves = new Map<TableRow, Curve>(t.rows.map((r) => [r, curveOf(t, r)]));
+	const groups: TableRow[][] = [];
+	for (let i = 0; i < t.rows.length; i += lineCount) groups.push(t.rows.slice(i, i + lineCount));
+	const reference = s.delta ? curveOf(t, {plan: resolvePlan(s.doc)} as TableRow) : null;
+	const curves = new Map<TableRow, Curve>(t.rows.map((r) => [r, shownCurve(curveOf(t, r), reference)]));
 
 	const depthCm = s.doc.display.depthCm;
 	let lo = 0;
@@ -125,19 +146,18 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 			if (v > hi) hi = v;
 		}
 	}
-	const dbStep = niceStep(Math.max(10, hi - lo), 6);
+	const dbStep = niceStep(Math.max(s.delta ? 4 : 10, hi - lo), 4);
 	const dbLo = Math.floor(lo / dbStep) * dbStep;
 	const dbHi = Math.max(dbLo + dbStep, Math.ceil(hi / dbStep) * dbStep);
 	const depthStep = niceStep(depthCm, 8);
 
-	const cols = Math.min(columnsMax, panels.length);
-	const width = Math.max(minWidth, pad * 2 + cols * panelW);
+	const cols = Math.min(cellsPerLine, lineCount);
+	const width = Math.max(minWidth, pad * 2 + cols * cellW);
 	const textChars = Math.floor((width - 2 * pad) / (footFont * 0.56));
 	const layerLabel = sweptLayerLabel(t);
-
-	const lineLabel = (r: TableRow) => (r.layerCm === null || layerLabel === null ? 'plan as given' : `${layerLabel} ${plain(r.layerCm)} cm`);
-	const stroke = (k: number) => palette[k % palette.length]!;
-	const dash = (k: number) => (k >= palette.length ? ' stroke-dasharray="6 3"' : '');
+	const swept = layerLabel !== null && s.layerIndex !== null && s.fatSwept;
+	const cellLabel = (r: TableRow) => (r.layerCm === null || layerLabel === null ? 'plan as given' : `${layerLabel} ${plain(r.layerCm)} cm`);
+	const wide = (px: number) => Math.floor((textChars * footFont) / px);
 
 	const out: string[] = [];
 	const title = `Depth-gain curves: ${s.doc.name}`;
@@ -145,81 +165,96 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const head: string[] = [];
 	head.push(`<text x="${pad}" y="${y}" font-size="18" font-weight="bold">${xmlText(title)}</text>`);
 	y += 20;
-	const sub =
-		layerLabel !== null && s.fatSwept
-			? `One line per thickness of layer ${s.layerIndex! + 1} (${layerLabel}). Depth (displayed cm) runs down, compensation (dB, round trip) to the right; a dot marks the noise floor.`
-			: 'Depth (displayed cm) runs down, compensation (dB, round trip) to the right; a dot marks the noise floor.';
-	for (const l of wrap(sub, Math.floor((textChars * footFont) / 12))) {
+	const what = s.delta
+		? 'each curve is the habitus minus the standard habitus (the plan as it is), in dB; slider and master values are deltas too'
+		: 'compensation (dB, round trip) to the right';
+	const sub = `${swept ? `One small chart per thickness of layer ${s.layerIndex! + 1} (${layerLabel}), on a shared scale. ` : ''}Depth (displayed cm) runs down, ${what}.`;
+	for (const l of wrap(sub, wide(12))) {
 		head.push(`<text x="${pad}" y="${y}" font-size="12">${xmlText(l)}</text>`);
 		y += 16;
 	}
-	for (const l of wrap(`Caution: ${cautionLine}`, Math.floor((textChars * footFont) / 12))) {
+	for (const l of wrap(`Caution: ${cautionLine}`, wide(12))) {
 		head.push(`<text x="${pad}" y="${y}" font-size="12" font-weight="bold" fill="#B00020">${xmlText(l)}</text>`);
 		y += 16;
 	}
-	y -= 6;
 
-	// Legend: a caption naming the swept layer, then one short entry per habitus.
+	// Key: how the parts of each chart are drawn (the same in every chart).
 	const legend: string[] = [];
-	y += 14;
-	const swept = layerLabel !== null && s.layerIndex !== null && s.fatSwept;
-	const shortLabel = (r: TableRow) => (swept && r.layerCm !== null ? `${plain(r.layerCm)} cm` : lineLabel(r));
-	let lx0 = pad;
-	if (swept) {
-		const caption = `Layer ${s.layerIndex! + 1}, ${layerLabel}:`;
-		legend.push(`<text x="${pad}" y="${y}" font-size="12" font-weight="bold">${xmlText(caption)}</text>`);
-		lx0 = pad + Math.ceil(caption.length * 12 * 0.6) + 12;
+	y += 8;
+	const keyItems: [string, string][] = [
+		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="#0072B2" stroke-width="2.5"/>`, 'above the noise floor'],
+		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3"/>`, 'below the noise floor or a barrier: gain lifts only noise'],
+		[`<circle cx="13" cy="-4" r="3.5" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`, `slider knot; its ${s.delta ? 'Δ ' : ''}value in dB at the right`],
+		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="#B00020" stroke-width="1" stroke-dasharray="2 2"/>`, 'target depth'],
+	];
+	let kx = pad;
+	for (const [mark, text] of keyItems) {
+		const w = 40 + Math.ceil(text.length * 12 * 0.55);
+		if (kx + w > width - pad) {
+			kx = pad;
+			y += lineGap;
+		}
+		legend.push(`<g transform="translate(${kx},${y})">${mark}<text x="32" y="0" font-size="12">${xmlText(text)}</text></g>`);
+		kx += w + 10;
 	}
-	const legendItemW = swept ? 88 : 190;
-	const perRow = Math.max(1, Math.floor((width - pad - lx0) / legendItemW));
-	panels[0]!.forEach((r, k) => {
-		const lx = lx0 + (k % perRow) * legendItemW;
-		const ly = y + Math.floor(k / perRow) * lineGap;
-		legend.push(
-			`<line x1="${lx}" y1="${ly - 4}" x2="${lx + 26}" y2="${ly - 4}" stroke="${stroke(k)}" stroke-width="2.5"${dash(k)}/>`,
-			`<text x="${lx + 32}" y="${ly}" font-size="12">${xmlText(shortLabel(r))}</text>`,
-		);
-	});
-	y += Math.ceil(panels[0]!.length / perRow) * lineGap;
-	const panelTop = y;
+	y += lineGap + 6;
 
-	// Panels.
 	const body: string[] = [];
-	const plotW = panelW - plot.left - plot.right;
-	const plotH = panelH - plot.top - plot.bottom;
+	const plotW = cellW - cell.left - cell.right;
+	const plotH = cellH - cell.top - cell.bottom;
 	const xOf = (db: number) => ((db - dbLo) / (dbHi - dbLo)) * plotW;
-	const yOf = (cm: number) => (cm / depthCm) * plotH;
-	panels.forEach((rows, p) => {
-		const px = pad + (p % cols) * panelW + plot.left;
-		const py = panelTop + Math.floor(p / cols) * panelH + plot.top;
-		const g: string[] = [];
-		g.push(`<g transform="translate(${px},${py})">`);
-		g.push(`<text x="0" y="-12" font-size="13" font-weight="bold">${xmlText(panelTitle(rows[0]!, t))}</text>`);
-		g.push(`<rect x="0" y="0" width="${plotW}" height="${plotH}" fill="none" stroke="#444444"/>`);
-		for (const v of ticks(dbLo, dbHi, dbStep)) {
-			const x = fixed(xOf(v), 1);
-			g.push(`<line x1="${x}" y1="0" x2="${x}" y2="${plotH}" stroke="#DDDDDD"/>`);
-			g.push(`<text x="${x}" y="${plotH + 14}" font-size="10" text-anchor="middle">${plain(v)}</text>`);
-		}
-		for (const v of ticks(0, depthCm, depthStep)) {
-			const yy = fixed(yOf(v), 1);
-			g.push(`<line x1="0" y1="${yy}" x2="${plotW}" y2="${yy}" stroke="#DDDDDD"/>`);
-			g.push(`<text x="-6" y="${yy}" font-size="10" text-anchor="end" dominant-baseline="middle">${plain(v)}</text>`);
-		}
-		g.push(`<text x="${fixed(plotW / 2, 1)}" y="${plotH + 32}" font-size="11" text-anchor="middle">compensation, dB</text>`);
-		g.push(`<text transform="translate(-40,${fixed(plotH / 2, 1)}) rotate(-90)" font-size="11" text-anchor="middle">displayed depth, cm</text>`);
+	const yOf = (cm: number) => (Math.min(cm, depthCm) / depthCm) * plotH;
+	for (const rows of groups) {
+		body.push(`<text x="${pad}" y="${y + 14}" font-size="14" font-weight="bold">${xmlText(panelTitle(rows[0]!, t))}</text>`);
+		y += 22;
 		rows.forEach((r, k) => {
+			const px = pad + (k % cols) * cellW + cell.left;
+			const py = y + Math.floor(k / cols) * cellH + cell.top;
 			const c = curves.get(r)!;
-			const pts = c.depthsCm.map((d, i) => `${fixed(xOf(c.compensationDb[i]!), 1)},${fixed(yOf(d), 1)}`).join(' ');
-			g.push(`<polyline fill="none" stroke="${stroke(k)}" stroke-width="2"${dash(k)} points="${pts}"><title>${xmlText(`${lineLabel(r)}, row ${r.index}`)}</title></polyline>`);
-			if (r.penetrationDepthCm !== null) {
-				g.push(`<circle cx="${fixed(xOf(valueAt(c, r.penetrationDepthCm)), 1)}" cy="${fixed(yOf(r.penetrationDepthCm), 1)}" r="3.5" fill="${stroke(k)}"/>`);
+			const g: string[] = [`<g transform="translate(${px},${py})">`];
+			g.push(`<text x="-${cell.left - 4}" y="-30" font-size="12" font-weight="bold">${xmlText(cellLabel(r))}</text>`);
+			const reach =
+				r.highestReachingMhz === null
+					? `no listed MHz reaches ${plain(roundTo(r.targetDepthCm, 1))} cm`
+					: `highest reaching ${plain(r.highestReachingMhz)} MHz${r.highestReachingPenetrationCm !== null ? ` (floor ${fixed(r.highestReachingPenetrationCm, 1)} cm)` : ''}`;
+			g.push(`<text x="-${cell.left - 4}" y="-16" font-size="10">${xmlText(reach)}</text>`);
+			const master = s.delta && r.delta ? `Δ master ${signed(r.delta.masterDeltaDb, 1)} dB` : `master ${fixed(r.masterGainDb, 1)} dB`;
+			g.push(`<text x="-${cell.left - 4}" y="-4" font-size="10">${xmlText(`${master}, fit ±${fixed(r.residualDb, 1)} dB`)}</text>`);
+			g.push(`<rect x="0" y="0" width="${plotW}" height="${plotH}" fill="none" stroke="#444444"/>`);
+			for (const v of ticks(dbLo, dbHi, dbStep)) {
+				const x = fixed(xOf(v), 1);
+				g.push(`<line x1="${x}" y1="0" x2="${x}" y2="${plotH}" stroke="${v === 0 ? '#888888' : '#E4E4E4'}"/>`);
+				g.push(`<text x="${x}" y="${plotH + 13}" font-size="9" text-anchor="middle">${plain(v)}</text>`);
 			}
+			for (const v of ticks(0, depthCm, depthStep)) {
+				const yy = fixed(yOf(v), 1);
+				g.push(`<line x1="0" y1="${yy}" x2="${plotW}" y2="${yy}" stroke="#E4E4E4"/>`);
+				g.push(`<text x="-5" y="${yy}" font-size="9" text-anchor="end" dominant-baseline="middle">${plain(v)}</text>`);
+			}
+			g.push(`<text x="${fixed(plotW / 2, 1)}" y="${plotH + 28}" font-size="10" text-anchor="middle">${s.delta ? 'Δ dB' : 'dB'}</text>`);
+			if (r.targetDepthCm <= depthCm) {
+				const ty = fixed(yOf(r.targetDepthCm), 1);
+				g.push(`<line x1="0" y1="${ty}" x2="${plotW}" y2="${ty}" stroke="#B00020" stroke-width="1" stroke-dasharray="2 2"/>`);
+			}
+			const good = Math.min(r.penetrationDepthCm ?? depthCm, r.blockedDepthCm ?? depthCm, depthCm);
+			const above = segment(c, 0, good, xOf, yOf);
+			const below = segment(c, good, depthCm, xOf, yOf);
+			const name = `${cellLabel(r)}, ${panelTitle(r, t)}, row ${r.index}`;
+			if (above) g.push(`<polyline fill="none" stroke="#0072B2" stroke-width="2.2" points="${above}"><title>${xmlText(name)}</title></polyline>`);
+			if (below) g.push(`<polyline fill="none" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3" points="${below}"><title>${xmlText(`${name}: below the noise floor`)}</title></polyline>`);
+			const values = r.delta ? r.delta.sliderDeltasDb : r.slidersDb;
+			t.knotDepthsCm.forEach((d, j) => {
+				if (d > depthCm) return;
+				const ky = fixed(yOf(d), 1);
+				g.push(`<circle cx="${fixed(xOf(valueAt(c, d)), 1)}" cy="${ky}" r="3" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`);
+				g.push(`<text x="${plotW + 4}" y="${ky}" font-size="9" dominant-baseline="middle">${xmlText(`S${j + 1} ${signed(values[j]!, 1)}`)}</text>`);
+			});
+			g.push('</g>');
+			body.push(g.join('\n'));
 		});
-		g.push('</g>');
-		body.push(g.join('\n'));
-	});
-	y = panelTop + Math.ceil(panels.length / cols) * panelH + 8;
+		y += Math.ceil(rows.length / cols) * cellH + 6;
+	}
+	y += 8;
 
 	// Footer: inputs, tissues, model, notes, caution.
 	const foot: string[] = [];
