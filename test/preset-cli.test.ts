@@ -34,8 +34,8 @@ describe('presets list and show', () => {
 		expect(lines[0]).toMatch(/^id\s+name\s+region\s+kind$/);
 		expect(lines).toContainEqual(expect.stringMatching(/^upper-abdomen\s+Upper abdomen – liver\s+upper-abdomen\s+template$/));
 		expect(lines.at(-1)).toMatch(/^user:ward-heron-liver\s+Ward Heron liver\s+upper-abdomen\s+user preset$/);
-		expect(lines.filter((l) => l.endsWith(' template'))).toHaveLength(7);
-		expect(r.stderr).toMatch(/7 templates, 1 user preset \(store: /);
+		expect(lines.filter((l) => l.endsWith(' template'))).toHaveLength(9);
+		expect(r.stderr).toMatch(/9 templates, 1 user preset \(store: /);
 	});
 
 	it('list --format json gives the store folder, the presets and the problems', () => {

@@ -18,6 +18,8 @@
  * - Gooding: speed of sound in follicular fluid (journal and year from memory).
  * - Sun 2012: Ultrasound Med Biol 38(7) (IEC agar TMM); Browne 2003: Ultrasound Med Biol 29:1053.
  * - Madsen 1986: J Ultrasound Med 5:569 (inter-laboratory attenuation agreement ≈ 20 %).
+ * - Lin 1988: Lin T, Ophir J, Potter G, Ultrasound Med Biol 14(8):729 (attenuation vs liver fat; from memory).
+ * - Imbault 2017: Phys Med Biol 62:3582 (speed of sound falls with liver fat; from memory).
  */
 import type {Tissue} from './types.js';
 
@@ -114,6 +116,16 @@ const library = {
 		exponent: 1.1,
 		source: 'c: Szabo 2004 / Duck 1990 (from memory); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: from memory',
 		spread: {speedMps: [1540, 1635], densityKgM3: [1060, 1084], alphaDbPerCmMhz: [0.43, 0.7], exponent: [1, 1.2]},
+	},
+	'steatotic-liver': {
+		label: 'Liver, steatotic (fatty)',
+		speedMps: 1530,
+		densityKgM3: 1040,
+		alphaDbPerCmMhz: 0.8,
+		exponent: 1.1,
+		source:
+			'α0 range: Lin, Ophir & Potter 1988 (Ultrasound Med Biol 14(8):729, attenuation rises with histological fat; values from memory) and later scanner attenuation studies with cut-offs of about 0.6–0.7 dB/cm/MHz (from memory, unverified); c: lower than normal liver, Imbault et al. 2017 (Phys Med Biol 62:3582; values from memory); ρ, n: from memory',
+		spread: {speedMps: [1490, 1570], densityKgM3: [1020, 1060], alphaDbPerCmMhz: [0.62, 1], exponent: [1, 1.2]},
 	},
 	kidney: {
 		label: 'Kidney',
