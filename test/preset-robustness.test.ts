@@ -208,7 +208,7 @@ describe('hostile import files leave the store unchanged', () => {
 	it('refuses the wrong schema: unknown fields, values out of range, another format', () => {
 		expect(importing(JSON.stringify({...good(), gainKnob: 3})).text).toMatch(/unknown field "gainKnob"/);
 		expect(importing(JSON.stringify({...good(), probe: {centerMhz: 500}})).text).toMatch(/probe\.centerMhz: must be a number above 0 and up to 50 MHz/);
-		expect(importing(JSON.stringify({format: 'someone-elses/3', presets: []})).text).toMatch(/format: must be "evenecho-presets\/1" .* or "evenecho-plan\/1"/);
+		expect(importing(JSON.stringify({format: 'someone-elses/3', presets: []})).text).toMatch(/format: must be "evenecho-presets\/1" .* or "evenecho-plan\/2"/);
 		expect(importing('[1, 2, 3]').text).toMatch(/must be a plan object/);
 		expect(importing('not json at all').text).toMatch(/not valid JSON/);
 	});

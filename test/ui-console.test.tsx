@@ -378,7 +378,8 @@ describe('console: quitting', () => {
 		const {app} = await open({onExit});
 		await press(app, '2', '+');
 		await send(app, keys.ctrlC);
-		expect(onExit).toHaveBeenCalledWith({isDirty: true});
+		// Leaving unmounts the app; wait for that rather than for a guessed time.
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: true}), {timeout: 3000});
 	});
 });
 

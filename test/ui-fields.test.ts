@@ -76,7 +76,7 @@ describe('plan fields', () => {
 		const doc = demoPlan();
 		expect(numberFields.fat.get(doc, 0)).toBe(5);
 		const thicker = setFatThickness(doc, 7);
-		expect(thicker.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7});
+		expect(thicker.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7, thicknessAs: 'displayed'});
 		const noFat = {...doc, layers: doc.layers.filter((l) => l.tissue !== 'fat')};
 		const added = setFatThickness(noFat, 3);
 		expect(fatLayerIndex(added)).toBe(1);

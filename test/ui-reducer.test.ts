@@ -169,6 +169,6 @@ describe('keys that arrive together', () => {
 		]);
 		let s = start();
 		for (const p of [...splitKeys('2', noFlags), ...splitKeys('\r7\r', noFlags)]) s = consoleReducer(s, {type: 'key', ...p});
-		expect(s.doc.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7});
+		expect(s.doc.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7, thicknessAs: 'displayed'});
 	});
 });

@@ -9,6 +9,7 @@
  * Both are untrusted: every entry is checked in full, and any problem refuses the whole file.
  */
 import {z} from 'zod';
+import {planFormatV1} from '../plan/plan-migration.js';
 import {formatIssues, parsePlanDocument, planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {checkPresetName, presetSlug} from './safe-name.js';
 import {PresetStoreError} from './store-errors.js';
@@ -88,8 +89,8 @@ export function decodeImport(value: unknown): ImportDecode {
 		});
 		return problems.length ? {ok: false, problems} : {ok: true, kind: 'bundle', items};
 	}
-	if (format !== undefined && format !== planFormat) {
-		return {ok: false, problems: [`format: must be "${bundleFormat}" (a preset bundle) or "${planFormat}" (one plan)`]};
+	if (format !== undefined && format !== planFormat && format !== planFormatV1) {
+		return {ok: false, problems: [`format: must be "${bundleFormat}" (a preset bundle) or "${planFormat}" (one plan; "${planFormatV1}" is read too)`]};
 	}
 	const item = checkEntry(value, '', problems);
 	return item && !problems.length ? {ok: true, kind: 'plan', items: [item]} : {ok: false, problems};

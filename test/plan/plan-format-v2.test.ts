@@ -37,7 +37,7 @@ function parsed(input: unknown) {
 
 describe('migration from evenecho-plan/1', () => {
 	it('is one function that marks every thickness as true and changes nothing else', () => {
-		const m = migratePlanV1(v1) as typeof v1 & {layers: {thicknessAs: string}[]};
+		const m = migratePlanV1(v1) as Omit<typeof v1, 'layers'> & {layers: {tissue: string; thicknessCm: number; thicknessAs: string}[]};
 		expect(m.format).toBe('evenecho-plan/2');
 		expect(m.layers.map((l) => l.thicknessAs)).toEqual(['true', 'true', 'true', 'true']);
 		expect({...m, format: v1.format, layers: m.layers.map(({thicknessAs: _, ...l}) => l)}).toEqual(v1);
