@@ -357,7 +357,7 @@ describe('console: quitting', () => {
 		const onExit = vi.fn();
 		const {app} = await open({onExit});
 		await send(app, 'q');
-		expect(onExit).toHaveBeenCalledWith({isDirty: false});
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: false}), {timeout: 3000});
 	});
 
 	it('asks first with unsaved changes: n stays, y leaves', async () => {
@@ -370,7 +370,7 @@ describe('console: quitting', () => {
 		expect(onExit).not.toHaveBeenCalled();
 		await press(app, 'q');
 		await send(app, 'y');
-		expect(onExit).toHaveBeenCalledWith({isDirty: true});
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: true}), {timeout: 3000});
 	});
 
 	it('Ctrl+C leaves even with unsaved changes', async () => {
