@@ -8,8 +8,8 @@ import {join} from 'node:path';
 import {render} from 'ink-testing-library';
 import {afterEach, describe, expect, it, vi} from 'vitest';
 import {App} from '../src/ui/app.js';
-import {openShelf} from '../src/ui/preset-shelf.js';
-import {plainTheme} from '../src/ui/theme.js';
+import {openShelf} from '../src/ui/effects/preset-shelf.js';
+import {plainTheme} from '../src/ui/kit/theme.js';
 import {openPresetStore} from '../src/store/preset-store.js';
 import {cautionLine} from '../src/report/cautions.js';
 import {keys} from './keys.js';
@@ -384,7 +384,7 @@ describe('console: quitting', () => {
 
 describe('console: help overlay', () => {
 	it('lists every key of the key table and closes with Esc', async () => {
-		const {bindings} = await import('../src/ui/key-intents.js');
+		const {bindings} = await import('../src/ui/state/key-intents.js');
 		const {app} = await open();
 		await press(app, '?');
 		const f = frame(app);
@@ -427,7 +427,7 @@ describe('console: left-pane content stays in its column', () => {
 
 describe('console: export file names', () => {
 	it('are made safe from the plan name', async () => {
-		const {fileStem} = await import('../src/ui/export-files.js');
+		const {fileStem} = await import('../src/ui/effects/export-files.js');
 		expect(fileStem('Demo – deep liver / thick fat')).toBe('demo-deep-liver-thick-fat');
 		expect(fileStem('---')).toBe('plan');
 		expect(existsSync('.')).toBe(true);

@@ -21,8 +21,8 @@ const boneAndNoise = structuredClone(boneAndNoisePlanJson);
 let lib: {
 	render: typeof import('ink-testing-library').render;
 	App: typeof import('../src/ui/app.js').App;
-	openShelf: typeof import('../src/ui/preset-shelf.js').openShelf;
-	theme: typeof import('../src/ui/theme.js');
+	openShelf: typeof import('../src/ui/effects/preset-shelf.js').openShelf;
+	theme: typeof import('../src/ui/kit/theme.js');
 	press: typeof import('./helpers/press.js');
 	parse: typeof import('../src/plan/plan-schema.js').parsePlanDocument;
 };
@@ -31,8 +31,8 @@ beforeAll(async () => {
 	lib = {
 		render: (await import('ink-testing-library')).render,
 		App: (await import('../src/ui/app.js')).App,
-		openShelf: (await import('../src/ui/preset-shelf.js')).openShelf,
-		theme: await import('../src/ui/theme.js'),
+		openShelf: (await import('../src/ui/effects/preset-shelf.js')).openShelf,
+		theme: await import('../src/ui/kit/theme.js'),
 		press: await import('./helpers/press.js'),
 		parse: (await import('../src/plan/plan-schema.js')).parsePlanDocument,
 	};

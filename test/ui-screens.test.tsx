@@ -9,8 +9,8 @@ import {renderToString} from 'ink';
 import {render} from 'ink-testing-library';
 import {afterAll, describe, expect, it} from 'vitest';
 import {App} from '../src/ui/app.js';
-import {openShelf} from '../src/ui/preset-shelf.js';
-import {plainTheme} from '../src/ui/theme.js';
+import {openShelf} from '../src/ui/effects/preset-shelf.js';
+import {plainTheme} from '../src/ui/kit/theme.js';
 import {keys} from './keys.js';
 import {frame, press, ready, type Rendered} from './helpers/press.js';
 

@@ -6,7 +6,7 @@ import {computeCurve} from '../engine/compensation-curve.js';
 import {libraryTissue} from '../engine/tissue-library.js';
 import type {CustomTissue, LayerDocument, PlanDocument} from '../plan/plan-schema.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
-import {roundTo} from './number-field.js';
+import {roundTo} from './state/number-field.js';
 
 export type Reference = NonNullable<PlanDocument['reference']>;
 
