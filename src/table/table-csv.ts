@@ -8,7 +8,8 @@
  */
 import {stringify} from 'csv-stringify/sync';
 import type {ProtocolTable, TableRow} from './sweep.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, roundTo, rowWarningCodes} from './table-common.js';
+import {roundTo} from '../plan/rounding.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes} from './table-common.js';
 
 /** The header row. */
 export function csvHeader(t: ProtocolTable): string[] {

@@ -8,7 +8,7 @@ import type {ConsoleState, Overlay, StepId} from './console-state.js';
 import {stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
-import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../plan-edits.js';
+import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
 import {choiceFields, cycleChoice, numberFields} from './plan-fields.js';
 import type {StartingPoint} from './starting-point.js';
 import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, setCursor, withNotice} from './state-helpers.js';

@@ -3,6 +3,7 @@
  * outside the plan format's ranges with a message that names the range. Nothing here throws.
  */
 import {describeRange, type Limit} from '../../plan/plan-schema.js';
+import {roundTo} from '../../plan/rounding.js';
 
 export interface NumberSpec {
 	readonly label: string;
@@ -42,12 +43,6 @@ export function parseEntry(text: string, spec: NumberSpec): Checked {
 	const value = Number(t);
 	if (!isInRange(value, spec)) return {ok: false, message: rangeMessage(spec)};
 	return {ok: true, value};
-}
-
-/** Rounds away binary noise (0.1 + 0.2) at the field's precision. */
-export function roundTo(value: number, decimals: number): number {
-	const f = 10 ** decimals;
-	return Math.round(value * f) / f;
 }
 
 /** One step up or down; refused (value unchanged) when it would leave the range. */

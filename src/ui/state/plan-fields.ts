@@ -5,7 +5,8 @@
 import {noiseBudgetFromPhantom} from '../../engine/noise-budget.js';
 import {defaultNoiseBudgetDb, limits, type CustomTissue, type PlanDocument} from '../../plan/plan-schema.js';
 import {formatNumber, type NumberSpec} from './number-field.js';
-import {clonePlan, fatLayerIndex, setFatThickness, setSliderCount, type Reference} from '../plan-edits.js';
+import {fatLayerIndex} from '../../plan/fat-layer.js';
+import {clonePlan, setFatThickness, setSliderCount, type Reference} from '../../plan/plan-edits.js';
 
 export type NumberKey =
 	| 'fat'
@@ -86,7 +87,7 @@ const db = (x: number) => `${formatNumber(x, {decimals: 1})} dB`;
 export const numberFields: Record<NumberKey, NumberField> = {
 	fat: {
 		spec: spec('Fat thickness (measured)', 'cm', limits.thicknessCm, 0.5, 2, 1),
-		get: (doc) => doc.layers[fatLayerIndex(doc)]?.thicknessCm,
+		get: (doc) => doc.layers[fatLayerIndex(doc) ?? -1]?.thicknessCm,
 		set: (doc, _i, v) => setFatThickness(doc, v),
 	},
 	thickness: {

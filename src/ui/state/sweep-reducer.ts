@@ -3,12 +3,13 @@
  * columns, type a new thickness list, switch deltas, export. Pure: the table itself is not needed
  * here (row count is the list's length, column widths follow from the slider count).
  */
+import {fatLayerToSweep} from '../../plan/fat-layer.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {layoutFor} from '../kit/layout.js';
 import {queue, setCursor} from './state-helpers.js';
 import {rowsOf} from './step-rows.js';
-import {sweepFatCm, sweepFieldText, sweepTextMax, sweptLayerIndex, type SweepState} from './sweep-state.js';
+import {sweepFatCm, sweepFieldText, sweepTextMax, type SweepState} from './sweep-state.js';
 import {parseFatList} from './sweep-table.js';
 import {maxColumnOffset} from './sweep-view-model.js';
 
@@ -29,7 +30,7 @@ function clampColumn(s: ConsoleState, column: number, isDelta = s.sweep.isDelta)
 /** Opens the table on step 5, the cursor on the plan's own thickness when the list has it. */
 export function openSweep(s: ConsoleState): ConsoleState {
 	const fatCm = sweepFatCm(s.sweep, s.doc);
-	const layer = sweptLayerIndex(s.doc);
+	const layer = fatLayerToSweep(s.doc);
 	const own = layer === null ? -1 : fatCm.indexOf(s.doc.layers[layer]!.thicknessCm);
 	const at = rowsOf(s, 'curve').findIndex((r) => r.kind === 'action' && r.action === 'sweep');
 	const onStep = setCursor({...s, step: 'curve', pane: 'step', returnStep: null, openLayer: null, refusal: null, editing: null}, 'curve', Math.max(0, at));

@@ -2,6 +2,7 @@
  * The fat-thickness sweep of step 5 as plain data: whether it is open, the thickness list, what is
  * being typed into it, the cursor row and the first scrolled column. Pure; no React or Ink here.
  */
+import {fatLayerToSweep} from '../../plan/fat-layer.js';
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import {maxSvgLines} from '../../table/table-svg.js';
 
@@ -36,19 +37,13 @@ export interface SweepState {
 
 export const closedSweep: SweepState = {isOpen: false, list: null, typing: null, refusal: null, isDelta: false, row: 0, column: 0, files: []};
 
-/** The first layer of tissue "fat" that is not the deepest (whose thickness means nothing), or null. */
-export function sweptLayerIndex(doc: PlanDocument): number | null {
-	const i = doc.layers.findIndex((l) => l.tissue === 'fat');
-	return i >= 0 && i < doc.layers.length - 1 ? i : null;
-}
-
 /**
  * The default list: 1, 2, 3, 4, 6, 8 cm for displays 8 cm deep or more, 0.25, 0.5, 0.75, 1, 1.5,
  * 2 cm for shallower ones, with the plan's own thickness added in order when it is not there.
  */
 export function defaultFatCm(doc: PlanDocument): number[] {
 	const base = doc.display.depthCm >= deepFromCm ? deepDefaultCm : shallowDefaultCm;
-	const i = sweptLayerIndex(doc);
+	const i = fatLayerToSweep(doc);
 	const own = i === null ? undefined : doc.layers[i]!.thicknessCm;
 	const values = own === undefined || base.includes(own) ? [...base] : [...base, own];
 	return values.sort((a, b) => a - b);

@@ -4,11 +4,12 @@
  * top and the files of the last export underneath. Uses the whole width in both layouts.
  */
 import {Box, Text} from 'ink';
+import {fatLayerToSweep} from '../../plan/fat-layer.js';
 import type {ConsoleState} from '../state/console-state.js';
 import {wrapWords} from '../kit/layout.js';
 import {refusalLines} from '../kit/row-line.js';
 import {thicknessText} from '../state/row-text.js';
-import {sweepFatCm, sweepFieldText, sweptLayerIndex} from '../state/sweep-state.js';
+import {sweepFatCm, sweepFieldText} from '../state/sweep-state.js';
 import {sweepTable} from '../state/sweep-table.js';
 import {columnKey, sweepGrid, warningKey} from '../state/sweep-view-model.js';
 import {useTheme} from '../kit/theme-context.js';
@@ -38,7 +39,7 @@ export function fieldLines(state: ConsoleState, width: number): {text: string; i
 }
 
 export function titleText(state: ConsoleState): string {
-	const i = sweptLayerIndex(state.doc);
+	const i = fatLayerToSweep(state.doc);
 	const layer = i === null ? '' : `: layer ${i + 1}; the plan has ${thicknessText(state.doc.layers[i]!.thicknessCm)} cm`;
 	return `5 Curve & save › Sweep over fat thickness${layer}`;
 }

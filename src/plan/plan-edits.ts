@@ -4,19 +4,15 @@
  */
 import {computeCurve} from '../engine/compensation-curve.js';
 import {libraryTissue} from '../engine/tissue-library.js';
-import type {CustomTissue, LayerDocument, PlanDocument} from '../plan/plan-schema.js';
-import {resolvePlan} from '../plan/resolve-plan.js';
-import {roundTo} from './state/number-field.js';
+import {fatLayerIndex} from './fat-layer.js';
+import type {CustomTissue, LayerDocument, PlanDocument} from './plan-schema.js';
+import {resolvePlan} from './resolve-plan.js';
+import {roundTo} from './rounding.js';
 
 export type Reference = NonNullable<PlanDocument['reference']>;
 
 export function clonePlan(doc: PlanDocument): PlanDocument {
 	return structuredClone(doc);
-}
-
-/** The layer a "measured fat" entry refers to: the first library fat layer, skin down. */
-export function fatLayerIndex(doc: PlanDocument): number {
-	return doc.layers.findIndex((l) => l.tissue === 'fat');
 }
 
 /** Where a missing fat layer goes: below any skin or custom pad layers at the top. */
@@ -29,7 +25,7 @@ function fatInsertIndex(doc: PlanDocument): number {
 export function setFatThickness(doc: PlanDocument, cm: number): PlanDocument {
 	const next = clonePlan(doc);
 	const i = fatLayerIndex(next);
-	if (i >= 0) next.layers[i]!.thicknessCm = cm;
+	if (i !== null) next.layers[i]!.thicknessCm = cm;
 	else next.layers.splice(fatInsertIndex(next), 0, {tissue: 'fat', thicknessCm: cm});
 	return next;
 }
