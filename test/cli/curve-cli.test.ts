@@ -4,8 +4,8 @@ import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {parse} from 'csv-parse/sync';
 import {beforeAll, describe, expect, it} from 'vitest';
-import {demoPlanJson} from '../src/plan/demo-plan.js';
-import {runCli} from './helpers/run-cli.js';
+import {demoPlanJson} from '../../src/plan/demo-plan.js';
+import {runCli} from '../helpers/run-cli.js';
 
 let dir: string;
 const planFile = (name: string, content: unknown) => {

@@ -1,6 +1,6 @@
 /** The sweep progress bar: terminal only, silent for short sweeps, throttled, erased when done. */
 import {describe, expect, it} from 'vitest';
-import {createProgressBar, type ProgressStream} from '../src/table/progress-bar.js';
+import {createProgressBar, type ProgressStream} from '../../src/table/progress-bar.js';
 
 function fakeStream(isTTY: boolean, columns = 80): ProgressStream & {out: string[]} {
 	const out: string[] = [];

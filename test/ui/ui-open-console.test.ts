@@ -2,13 +2,13 @@
  * `evenecho` with no arguments when stdout is not a terminal (piped, CI): no raw mode, the demo
  * plan's summary, and how to open the console. Runs the built CLI (`npm test` builds first).
  */
-import {cliPath} from './helpers/run-cli.js';
+import {cliPath} from '../helpers/run-cli.js';
 import {spawnSync} from 'node:child_process';
 import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, describe, expect, it} from 'vitest';
-import {canOpenConsole} from '../src/ui/open-console.js';
+import {canOpenConsole} from '../../src/ui/open-console.js';
 
 const cli = cliPath;
 const home = mkdtempSync(join(tmpdir(), 'evenecho-pipe-'));

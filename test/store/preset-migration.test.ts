@@ -5,9 +5,9 @@
 import {readFileSync, writeFileSync} from 'node:fs';
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
-import {currentRecordVersion, decodeRecord, migrateV1, type RecordV1} from '../src/store/preset-record.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {cleanTempHomes, tempHome} from './helpers/temp-home.js';
+import {currentRecordVersion, decodeRecord, migrateV1, type RecordV1} from '../../src/store/preset-record.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {cleanTempHomes, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
 

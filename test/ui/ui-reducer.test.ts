@@ -1,11 +1,11 @@
 /** The console's reducer on its own: key presses in, state and queued effects out. */
 import {describe, expect, it} from 'vitest';
-import {demoPlan} from '../src/plan/demo-plan.js';
-import {consoleReducer, modeOf} from '../src/ui/state/console-reducer.js';
-import {createInitialState, type ConsoleState} from '../src/ui/state/console-state.js';
-import {noFlags, resolveIntent, type KeyFlags} from '../src/ui/state/key-intents.js';
-import {demoPoint} from '../src/ui/state/starting-point.js';
-import {currentRow} from '../src/ui/state/step-rows.js';
+import {demoPlan} from '../../src/plan/demo-plan.js';
+import {consoleReducer, modeOf} from '../../src/ui/state/console-reducer.js';
+import {createInitialState, type ConsoleState} from '../../src/ui/state/console-state.js';
+import {noFlags, resolveIntent, type KeyFlags} from '../../src/ui/state/key-intents.js';
+import {demoPoint} from '../../src/ui/state/starting-point.js';
+import {currentRow} from '../../src/ui/state/step-rows.js';
 
 const start = (isWide = true) =>
 	createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint, {id: 'upper-abdomen', name: 'Upper abdomen', region: 'upper-abdomen', kind: 'template'}], isWide});
@@ -149,7 +149,7 @@ describe('console reducer', () => {
 
 describe('keys that arrive together', () => {
 	it('are split into one press each, so "\\r7\\r" is Enter, 7, Enter', async () => {
-		const {splitKeys} = await import('../src/ui/state/key-intents.js');
+		const {splitKeys} = await import('../../src/ui/state/key-intents.js');
 		const presses = splitKeys('\r7\r', noFlags);
 		expect(presses.map((p) => [p.input, p.key.return])).toEqual([
 			['', true],

@@ -4,13 +4,13 @@
  * §2.3, NumPy/SciPy). Values marked "from memory" are unverified inputs, kept marked.
  */
 import {describe, expect, it} from 'vitest';
-import {computeCurve, pathModelOf} from '../src/engine/compensation-curve.js';
-import {pathDb, sigmaFromBandwidth} from '../src/engine/echo-spectrum.js';
-import {reflectionCoefficient, roundTripTransmissionLossDb} from '../src/engine/interface-loss.js';
-import {echoTimeUs, layerSpans, displayedDepthOf} from '../src/engine/layer-geometry.js';
-import {noiseBudgetFromPhantom} from '../src/engine/noise-budget.js';
-import {impedanceMrayl, libraryTissue} from '../src/engine/tissue-library.js';
-import {bandwidthForSigma, custom, matched, plan, tissue} from './helpers/plans.js';
+import {computeCurve, pathModelOf} from '../../src/engine/compensation-curve.js';
+import {pathDb, sigmaFromBandwidth} from '../../src/engine/echo-spectrum.js';
+import {reflectionCoefficient, roundTripTransmissionLossDb} from '../../src/engine/interface-loss.js';
+import {echoTimeUs, layerSpans, displayedDepthOf} from '../../src/engine/layer-geometry.js';
+import {noiseBudgetFromPhantom} from '../../src/engine/noise-budget.js';
+import {impedanceMrayl, libraryTissue} from '../../src/engine/tissue-library.js';
+import {bandwidthForSigma, custom, matched, plan, tissue} from '../helpers/plans.js';
 
 /** A medium given only by its impedance (MRayl), for handbook-impedance checks. */
 const byZ = (z: number) => ({speedMps: 1540, densityKgM3: (z * 1e6) / 1540});
@@ -240,7 +240,7 @@ describe('barriers: warn, do not compensate', () => {
 
 describe('tissue library bookkeeping', () => {
 	it('every tissue names its sources, and its nominal values sit inside its published spread', async () => {
-		const {allLibraryTissues} = await import('../src/engine/tissue-library.js');
+		const {allLibraryTissues} = await import('../../src/engine/tissue-library.js');
 		for (const t of allLibraryTissues()) {
 			expect(t.source, t.id).toBeTruthy();
 			for (const key of ['speedMps', 'densityKgM3', 'alphaDbPerCmMhz', 'exponent'] as const) {
@@ -261,7 +261,7 @@ describe('tissue library bookkeeping', () => {
 
 describe('noise budget from a plan file with a phantom calibration', () => {
 	it('narrowband: a 3.5 MHz probe reaching 16 cm in a 0.5 dB/cm/MHz phantom has a 56 dB budget (2·0.5·3.5·16, derived)', async () => {
-		const {parsePlan} = await import('../src/plan/resolve-plan.js');
+		const {parsePlan} = await import('../../src/plan/resolve-plan.js');
 		const r = parsePlan({layers: [{tissue: 'liver', thicknessCm: 10}], probe: {centerMhz: 3.5, bandwidthFraction: 0}, phantomCalibration: {centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}});
 		expect(r.ok).toBe(true);
 		if (r.ok) expect(r.value.plan.noiseBudgetDb).toBeCloseTo(56, 9);
@@ -270,7 +270,7 @@ describe('noise budget from a plan file with a phantom calibration', () => {
 
 describe('below the usable depth the controls hold the compensation flat', () => {
 	it('sliders wholly below a bone surface cancel the built-in ramp instead of adding gain (common practice, no source)', async () => {
-		const {deliveredCompensationDb} = await import('../src/engine/compensation-curve.js');
+		const {deliveredCompensationDb} = await import('../../src/engine/compensation-curve.js');
 		const p = {
 			...plan([
 				{tissue: tissue('soft-tissue'), thicknessCm: 5},

@@ -5,8 +5,8 @@
 import {existsSync, readFileSync, writeFileSync} from 'node:fs';
 import {join} from 'node:path';
 import {beforeAll, describe, expect, it} from 'vitest';
-import {demoPlanJson} from '../src/plan/demo-plan.js';
-import {assertBuilt, cleanTempHomes, repoRoot, runCli, snapshotDir, tempHome} from './helpers/temp-home.js';
+import {demoPlanJson} from '../../src/plan/demo-plan.js';
+import {assertBuilt, cleanTempHomes, repoRoot, runCli, snapshotDir, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
 beforeAll(() => assertBuilt());

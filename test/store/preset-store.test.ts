@@ -5,11 +5,11 @@
 import {existsSync, readdirSync, readFileSync, writeFileSync} from 'node:fs';
 import {join} from 'node:path';
 import {afterEach, describe, expect, it, vi} from 'vitest';
-import {UsageError} from '../src/errors/usage-error.js';
-import {demoPlan} from '../src/plan/demo-plan.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNameError, PresetNotFoundError, TemplateReadOnlyError} from '../src/store/store-errors.js';
-import {cleanTempHomes, snapshotDir, tempHome} from './helpers/temp-home.js';
+import {UsageError} from '../../src/errors/usage-error.js';
+import {demoPlan} from '../../src/plan/demo-plan.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNameError, PresetNotFoundError, TemplateReadOnlyError} from '../../src/store/store-errors.js';
+import {cleanTempHomes, snapshotDir, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
 afterEach(() => {

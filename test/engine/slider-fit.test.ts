@@ -1,7 +1,7 @@
 import {describe, expect, it} from 'vitest';
 import fc from 'fast-check';
-import {fitError, fitSliders, naiveFit, type FitRequest} from '../src/engine/slider-fit.js';
-import type {EndBehaviour, KnotPlacement, SliderBank, SliderFit} from '../src/engine/types.js';
+import {fitError, fitSliders, naiveFit, type FitRequest} from '../../src/engine/slider-fit.js';
+import type {EndBehaviour, KnotPlacement, SliderBank, SliderFit} from '../../src/engine/types.js';
 
 const C20_SOURCE = 'Reference arithmetic, methods-and-checks §2.2 case C20 (derived; scipy linprog/lsq_linear)';
 

@@ -4,11 +4,11 @@
  */
 import fc from 'fast-check';
 import {describe, expect, it} from 'vitest';
-import {bruteForceAttenuationDb} from '../src/engine/brute-force-loss.js';
-import {computeCurve, controlTargetDb, pathModelOf} from '../src/engine/compensation-curve.js';
-import {naiveFit} from '../src/engine/slider-fit.js';
-import type {EnginePlan, Layer} from '../src/engine/types.js';
-import {custom, plan} from './helpers/plans.js';
+import {bruteForceAttenuationDb} from '../../src/engine/brute-force-loss.js';
+import {computeCurve, controlTargetDb, pathModelOf} from '../../src/engine/compensation-curve.js';
+import {naiveFit} from '../../src/engine/slider-fit.js';
+import type {EnginePlan, Layer} from '../../src/engine/types.js';
+import {custom, plan} from '../helpers/plans.js';
 
 /** Soft-tissue-like random layers (no barriers), 1–6 layers. */
 const arbTissue = fc.record({

@@ -2,7 +2,7 @@
 import {readdirSync, readFileSync} from 'node:fs';
 import {describe, expect, it} from 'vitest';
 
-const engineDir = new URL('../src/engine/', import.meta.url);
+const engineDir = new URL('../../src/engine/', import.meta.url);
 const files = readdirSync(engineDir).filter((f) => f.endsWith('.ts'));
 
 describe('src/engine is a pure core', () => {

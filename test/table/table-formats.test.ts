@@ -2,18 +2,18 @@
  * The four table formats parse back: CSV with a CSV parser, JSON with its schema, SVG as XML;
  * Markdown keeps its header block and one line per row. All are byte-identical run to run.
  */
-import {abdomenPlan} from './helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/abdomen-plan.js';
 import {parse} from 'csv-parse/sync';
 import {XMLParser, XMLValidator} from 'fast-xml-parser';
 import {describe, expect, it} from 'vitest';
-import {modelVersion} from '../src/engine/compensation-curve.js';
-import type {PlanDocument} from '../src/plan/plan-schema.js';
-import {cautionLine} from '../src/report/cautions.js';
-import {buildTable, harmonicSimplification, ladderSimplification, resolveSweep, SweepError, type SweepSpec} from '../src/table/sweep.js';
-import {tableCsv} from '../src/table/table-csv.js';
-import {tableJson, tableJsonSchema, tableJsonText} from '../src/table/table-json.js';
-import {markdownText, tableMarkdown} from '../src/table/table-markdown.js';
-import {checkSvgSweep, tableSvg, xmlText} from '../src/table/table-svg.js';
+import {modelVersion} from '../../src/engine/compensation-curve.js';
+import type {PlanDocument} from '../../src/plan/plan-schema.js';
+import {cautionLine} from '../../src/report/cautions.js';
+import {buildTable, harmonicSimplification, ladderSimplification, resolveSweep, SweepError, type SweepSpec} from '../../src/table/sweep.js';
+import {tableCsv} from '../../src/table/table-csv.js';
+import {tableJson, tableJsonSchema, tableJsonText} from '../../src/table/table-json.js';
+import {markdownText, tableMarkdown} from '../../src/table/table-markdown.js';
+import {checkSvgSweep, tableSvg, xmlText} from '../../src/table/table-svg.js';
 
 /** The shared test stack, with a name that needs escaping in every format. */
 const template = (): PlanDocument => abdomenPlan({name: 'Test template | upper abdomen <adult> & co'});

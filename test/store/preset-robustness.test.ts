@@ -6,12 +6,12 @@ import {spawn} from 'node:child_process';
 import {existsSync, readdirSync, readFileSync, utimesSync, writeFileSync} from 'node:fs';
 import {join} from 'node:path';
 import {beforeAll, describe, expect, it} from 'vitest';
-import {demoPlan} from '../src/plan/demo-plan.js';
-import {decodeRecord} from '../src/store/preset-record.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {PresetImportError, PresetNameError, PresetStoreError} from '../src/store/store-errors.js';
-import {maxPresetFileBytes} from '../src/store/untrusted-json.js';
-import {assertBuilt, cleanTempHomes, repoRoot, runCli, snapshotDir, tempHome} from './helpers/temp-home.js';
+import {demoPlan} from '../../src/plan/demo-plan.js';
+import {decodeRecord} from '../../src/store/preset-record.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {PresetImportError, PresetNameError, PresetStoreError} from '../../src/store/store-errors.js';
+import {maxPresetFileBytes} from '../../src/store/untrusted-json.js';
+import {assertBuilt, cleanTempHomes, repoRoot, runCli, snapshotDir, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
 

@@ -6,7 +6,7 @@ import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
-import {boneAndNoisePlanJson} from './helpers/bone-and-noise-plan.js';
+import {boneAndNoisePlanJson} from '../helpers/bone-and-noise-plan.js';
 
 // Before Ink (and chalk) are loaded, hence the dynamic imports below.
 process.env['FORCE_COLOR'] = '1';
@@ -20,21 +20,21 @@ const boneAndNoise = structuredClone(boneAndNoisePlanJson);
 
 let lib: {
 	render: typeof import('ink-testing-library').render;
-	App: typeof import('../src/ui/app.js').App;
-	openShelf: typeof import('../src/ui/effects/preset-shelf.js').openShelf;
-	theme: typeof import('../src/ui/kit/theme.js');
-	press: typeof import('./helpers/press.js');
-	parse: typeof import('../src/plan/plan-schema.js').parsePlanDocument;
+	App: typeof import('../../src/ui/app.js').App;
+	openShelf: typeof import('../../src/ui/effects/preset-shelf.js').openShelf;
+	theme: typeof import('../../src/ui/kit/theme.js');
+	press: typeof import('../helpers/press.js');
+	parse: typeof import('../../src/plan/plan-schema.js').parsePlanDocument;
 };
 
 beforeAll(async () => {
 	lib = {
 		render: (await import('ink-testing-library')).render,
-		App: (await import('../src/ui/app.js')).App,
-		openShelf: (await import('../src/ui/effects/preset-shelf.js')).openShelf,
-		theme: await import('../src/ui/kit/theme.js'),
-		press: await import('./helpers/press.js'),
-		parse: (await import('../src/plan/plan-schema.js')).parsePlanDocument,
+		App: (await import('../../src/ui/app.js')).App,
+		openShelf: (await import('../../src/ui/effects/preset-shelf.js')).openShelf,
+		theme: await import('../../src/ui/kit/theme.js'),
+		press: await import('../helpers/press.js'),
+		parse: (await import('../../src/plan/plan-schema.js')).parsePlanDocument,
 	};
 });
 

@@ -1,12 +1,12 @@
 /** Number fields and the field registry: typing, nudging and refusing, without rendering. */
 import fc from 'fast-check';
 import {describe, expect, it} from 'vitest';
-import {limits, parsePlanDocument} from '../src/plan/plan-schema.js';
-import {demoPlan} from '../src/plan/demo-plan.js';
-import {formatNumber, isInRange, nudge, parseEntry, rangeMessage, type NumberSpec} from '../src/ui/state/number-field.js';
-import {fatLayerIndex} from '../src/plan/fat-layer.js';
-import {moveLayer, resizeReference, setFatThickness, standardReference} from '../src/plan/plan-edits.js';
-import {choiceFields, cycleChoice, derivedNoiseBudgetDb, numberFields} from '../src/ui/state/plan-fields.js';
+import {limits, parsePlanDocument} from '../../src/plan/plan-schema.js';
+import {demoPlan} from '../../src/plan/demo-plan.js';
+import {formatNumber, isInRange, nudge, parseEntry, rangeMessage, type NumberSpec} from '../../src/ui/state/number-field.js';
+import {fatLayerIndex} from '../../src/plan/fat-layer.js';
+import {moveLayer, resizeReference, setFatThickness, standardReference} from '../../src/plan/plan-edits.js';
+import {choiceFields, cycleChoice, derivedNoiseBudgetDb, numberFields} from '../../src/ui/state/plan-fields.js';
 
 const mhz: NumberSpec = {label: 'Centre frequency', unit: 'MHz', limit: limits.centerMhz, step: 0.5, coarse: 2, decimals: 2};
 const count: NumberSpec = {label: 'Slider count', unit: '', limit: limits.sliderCount, step: 1, coarse: 4, decimals: 0, integer: true};

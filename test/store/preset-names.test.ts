@@ -3,9 +3,9 @@
  */
 import fc from 'fast-check';
 import {describe, expect, it} from 'vitest';
-import {checkPresetName, presetSlug, printable, slugOfUserId, userIdPrefix} from '../src/store/safe-name.js';
-import {PresetNameError} from '../src/store/store-errors.js';
-import {loadTemplates} from '../src/store/templates.js';
+import {checkPresetName, presetSlug, printable, slugOfUserId, userIdPrefix} from '../../src/store/safe-name.js';
+import {PresetNameError} from '../../src/store/store-errors.js';
+import {loadTemplates} from '../../src/store/templates.js';
 
 const slugShape = /^[\p{L}\p{N}]+(?:-[\p{L}\p{N}]+)*$/u;
 

@@ -7,13 +7,13 @@ import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {render} from 'ink-testing-library';
 import {afterEach, describe, expect, it, vi} from 'vitest';
-import {App} from '../src/ui/app.js';
-import {openShelf} from '../src/ui/effects/preset-shelf.js';
-import {plainTheme} from '../src/ui/kit/theme.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {cautionLine} from '../src/report/cautions.js';
-import {keys} from './keys.js';
-import {frame, moveTo, press, ready, selectedLine, send, type, type Rendered} from './helpers/press.js';
+import {App} from '../../src/ui/app.js';
+import {openShelf} from '../../src/ui/effects/preset-shelf.js';
+import {plainTheme} from '../../src/ui/kit/theme.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {cautionLine} from '../../src/report/cautions.js';
+import {keys} from '../helpers/keys.js';
+import {frame, moveTo, press, ready, selectedLine, send, type, type Rendered} from '../helpers/press.js';
 
 const dirs: string[] = [];
 const apps: Rendered[] = [];
@@ -356,8 +356,8 @@ describe('console: quitting', () => {
 	it('quits at once when nothing changed', async () => {
 		const onExit = vi.fn();
 		const {app} = await open({onExit});
-		await send(app, 'q');
-		expect(onExit).toHaveBeenCalledWith({isDirty: false});
+		app.stdin.write('q');
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: false}));
 	});
 
 	it('asks first with unsaved changes: n stays, y leaves', async () => {
@@ -369,22 +369,22 @@ describe('console: quitting', () => {
 		expect(frame(app)).toContain('Still here.');
 		expect(onExit).not.toHaveBeenCalled();
 		await press(app, 'q');
-		await send(app, 'y');
-		expect(onExit).toHaveBeenCalledWith({isDirty: true});
+		app.stdin.write('y');
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: true}));
 	});
 
 	it('Ctrl+C leaves even with unsaved changes', async () => {
 		const onExit = vi.fn();
 		const {app} = await open({onExit});
 		await press(app, '2', '+');
-		await send(app, keys.ctrlC);
-		expect(onExit).toHaveBeenCalledWith({isDirty: true});
+		app.stdin.write(keys.ctrlC);
+		await vi.waitFor(() => expect(onExit).toHaveBeenCalledWith({isDirty: true}));
 	});
 });
 
 describe('console: help overlay', () => {
 	it('lists every key of the key table and closes with Esc', async () => {
-		const {bindings} = await import('../src/ui/state/key-intents.js');
+		const {bindings} = await import('../../src/ui/state/key-intents.js');
 		const {app} = await open();
 		await press(app, '?');
 		const f = frame(app);
@@ -427,7 +427,7 @@ describe('console: left-pane content stays in its column', () => {
 
 describe('console: export file names', () => {
 	it('are made safe from the plan name', async () => {
-		const {fileStem} = await import('../src/ui/effects/export-files.js');
+		const {fileStem} = await import('../../src/ui/effects/export-files.js');
 		expect(fileStem('Demo – deep liver / thick fat')).toBe('demo-deep-liver-thick-fat');
 		expect(fileStem('---')).toBe('plan');
 		expect(existsSync('.')).toBe(true);

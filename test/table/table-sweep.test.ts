@@ -4,13 +4,13 @@
  * and every class of bad sweep.
  */
 import fc from 'fast-check';
-import {abdomenPlan} from './helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/abdomen-plan.js';
 import {describe, expect, it} from 'vitest';
-import {computeCurve} from '../src/engine/compensation-curve.js';
-import {frequencyLadder} from '../src/engine/frequency-ladder.js';
-import {settingsDelta, settingsOf} from '../src/engine/plan-difference.js';
-import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
-import {resolvePlan} from '../src/plan/resolve-plan.js';
+import {computeCurve} from '../../src/engine/compensation-curve.js';
+import {frequencyLadder} from '../../src/engine/frequency-ladder.js';
+import {settingsDelta, settingsOf} from '../../src/engine/plan-difference.js';
+import {parsePlanDocument, type PlanDocument} from '../../src/plan/plan-schema.js';
+import {resolvePlan} from '../../src/plan/resolve-plan.js';
 import {
 	buildTable,
 	defaultLadderMhz,
@@ -19,9 +19,9 @@ import {
 	resolveSweep,
 	SweepError,
 	type SweepSpec,
-} from '../src/table/sweep.js';
-import {parseNumberList, parseReceive, parseSwap, parseSweepText} from '../src/table/sweep-options.js';
-import {limits} from '../src/plan/plan-schema.js';
+} from '../../src/table/sweep.js';
+import {parseNumberList, parseReceive, parseSwap, parseSweepText} from '../../src/table/sweep-options.js';
+import {limits} from '../../src/plan/plan-schema.js';
 
 const template = (overrides: Record<string, unknown> = {}): PlanDocument => abdomenPlan(overrides);
 

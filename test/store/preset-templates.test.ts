@@ -6,13 +6,13 @@ import {createHash} from 'node:crypto';
 import {readdirSync, readFileSync} from 'node:fs';
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
-import {computeCurve} from '../src/engine/compensation-curve.js';
-import {libraryTissue} from '../src/engine/tissue-library.js';
-import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
-import {resolvePlan} from '../src/plan/resolve-plan.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {loadTemplates, packageRoot, templateIdPattern, templatesDir} from '../src/store/templates.js';
-import {cleanTempHomes, repoRoot, tempHome} from './helpers/temp-home.js';
+import {computeCurve} from '../../src/engine/compensation-curve.js';
+import {libraryTissue} from '../../src/engine/tissue-library.js';
+import {parsePlanDocument, type PlanDocument} from '../../src/plan/plan-schema.js';
+import {resolvePlan} from '../../src/plan/resolve-plan.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {loadTemplates, packageRoot, templateIdPattern, templatesDir} from '../../src/store/templates.js';
+import {cleanTempHomes, repoRoot, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
 

@@ -1,11 +1,11 @@
 /** The depth plot and the layout arithmetic, pure. */
 import {describe, expect, it} from 'vitest';
-import {computeCurve} from '../src/engine/compensation-curve.js';
-import {demoPlan} from '../src/plan/demo-plan.js';
-import {parsePlan, resolvePlan} from '../src/plan/resolve-plan.js';
-import {depthPlot, glyph} from '../src/ui/kit/depth-plot.js';
-import {layoutFor, scrollWindow, wrapWords} from '../src/ui/kit/layout.js';
-import {boneAndNoisePlanJson} from './helpers/bone-and-noise-plan.js';
+import {computeCurve} from '../../src/engine/compensation-curve.js';
+import {demoPlan} from '../../src/plan/demo-plan.js';
+import {parsePlan, resolvePlan} from '../../src/plan/resolve-plan.js';
+import {depthPlot, glyph} from '../../src/ui/kit/depth-plot.js';
+import {layoutFor, scrollWindow, wrapWords} from '../../src/ui/kit/layout.js';
+import {boneAndNoisePlanJson} from '../helpers/bone-and-noise-plan.js';
 
 function boneAndNoisePlan() {
 	const r = parsePlan(structuredClone(boneAndNoisePlanJson));
@@ -51,7 +51,7 @@ describe('depth plot', () => {
 
 describe('plot rows', () => {
 	it('use round depth steps when they fit', async () => {
-		const {plotRowCount} = await import('../src/ui/kit/depth-plot.js');
+		const {plotRowCount} = await import('../../src/ui/kit/depth-plot.js');
 		expect(plotRowCount(16, 16)).toBe(16);
 		expect(plotRowCount(16, 21)).toBe(16);
 		expect(plotRowCount(16, 13)).toBe(11);

@@ -10,11 +10,11 @@ import {fileURLToPath} from 'node:url';
 import {parse} from 'csv-parse/sync';
 import {XMLValidator} from 'fast-xml-parser';
 import {beforeAll, describe, expect, it} from 'vitest';
-import {parsePlanDocument} from '../src/plan/plan-schema.js';
-import {cautionLine} from '../src/report/cautions.js';
-import {openPresetStore} from '../src/store/preset-store.js';
-import {tableJsonSchema, type TableJson} from '../src/table/table-json.js';
-import {runCli} from './helpers/run-cli.js';
+import {parsePlanDocument} from '../../src/plan/plan-schema.js';
+import {cautionLine} from '../../src/report/cautions.js';
+import {openPresetStore} from '../../src/store/preset-store.js';
+import {tableJsonSchema, type TableJson} from '../../src/table/table-json.js';
+import {runCli} from '../helpers/run-cli.js';
 
 /** Invented scenario (no real patient, clinic or product): outpatient liver protocol, adult. */
 const protocolPlan = {
@@ -168,7 +168,7 @@ describe('presets', () => {
 		expect(s.tissues.at(-1)!.from).toBe(`layer 3 of preset "${saved.id}"`);
 	});
 
-	const templateFile = join(fileURLToPath(new URL('..', import.meta.url)), 'presets', 'upper-abdomen.json');
+	const templateFile = join(fileURLToPath(new URL('../..', import.meta.url)), 'presets', 'upper-abdomen.json');
 	it.skipIf(!existsSync(templateFile))('--preset takes a built-in template by id', () => {
 		const r = table('--preset', 'upper-abdomen', '--fat', '1,2,4,6,8', '--freq', '2.5,3.5,5', '--format', 'json');
 		expect(r.status).toBe(0);

@@ -3,12 +3,12 @@ import {mkdtempSync, writeFileSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
-import {computeCurve} from '../src/engine/compensation-curve.js';
-import {frequencyLadder} from '../src/engine/frequency-ladder.js';
-import {settingsDelta, settingsOf} from '../src/engine/plan-difference.js';
-import {demoPlanJson} from '../src/plan/demo-plan.js';
-import {custom, plan, tissue} from './helpers/plans.js';
-import {runCli} from './helpers/run-cli.js';
+import {computeCurve} from '../../src/engine/compensation-curve.js';
+import {frequencyLadder} from '../../src/engine/frequency-ladder.js';
+import {settingsDelta, settingsOf} from '../../src/engine/plan-difference.js';
+import {demoPlanJson} from '../../src/plan/demo-plan.js';
+import {custom, plan, tissue} from '../helpers/plans.js';
+import {runCli} from '../helpers/run-cli.js';
 
 describe('frequency ladder', () => {
 	it('100 dB of dynamic range at 3 MHz in 1 dB/cm/MHz tissue reaches 16.7 cm, and 33.3 cm at 0.5 dB/cm/MHz (round trip; methods-and-checks case C6, from memory, derived)', () => {

@@ -8,11 +8,11 @@ import {join} from 'node:path';
 import {renderToString} from 'ink';
 import {render} from 'ink-testing-library';
 import {afterAll, describe, expect, it} from 'vitest';
-import {App} from '../src/ui/app.js';
-import {openShelf} from '../src/ui/effects/preset-shelf.js';
-import {plainTheme} from '../src/ui/kit/theme.js';
-import {keys} from './keys.js';
-import {frame, press, ready, type Rendered} from './helpers/press.js';
+import {App} from '../../src/ui/app.js';
+import {openShelf} from '../../src/ui/effects/preset-shelf.js';
+import {plainTheme} from '../../src/ui/kit/theme.js';
+import {keys} from '../helpers/keys.js';
+import {frame, press, ready, type Rendered} from '../helpers/press.js';
 
 const home = mkdtempSync(join(tmpdir(), 'evenecho-screens-'));
 afterAll(() => rmSync(home, {recursive: true, force: true}));
