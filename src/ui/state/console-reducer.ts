@@ -111,6 +111,16 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 			return withNotice(applyDoc(s, next, row.id), `Usual gains refilled from the standard layers of "${s.origin.name}".`);
 		}
 		case 'save':
+		case 'export':
+		case 'sweep':
+			return runCommand(s, row.action);
+	}
+}
+
+/** Save, export and the fat sweep: one path whether asked by key or by their row on step 5. */
+function runCommand(s: ConsoleState, command: 'save' | 'export' | 'sweep'): ConsoleState {
+	switch (command) {
+		case 'save':
 			return openSave(s);
 		case 'export':
 			return queue(s, {kind: 'export'});
@@ -210,11 +220,9 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 		case 'quit':
 			return askQuit(s);
 		case 'save':
-			return openSave(s);
 		case 'export':
-			return queue(s, {kind: 'export'});
 		case 'sweep':
-			return openSweep(s);
+			return runCommand(s, intent);
 		default:
 			return s;
 	}
