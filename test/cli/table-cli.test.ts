@@ -14,24 +14,20 @@ import {parsePlanDocument} from '../../src/plan/plan-schema.js';
 import {cautionLine} from '../../src/report/cautions.js';
 import {openPresetStore} from '../../src/store/preset-store.js';
 import {tableJsonSchema, type TableJson} from '../../src/table/table-json.js';
+import {abdomenPlanJson} from '../fixtures/plans.js';
 import {runCli} from '../helpers/run-cli.js';
 
 /** Invented scenario (no real patient, clinic or product): outpatient liver protocol, adult. */
-const protocolPlan = {
-	format: 'evenecho-plan/1',
-	name: 'Clinic test protocol: right upper quadrant',
-	region: 'upper-abdomen',
-	layers: [
-		{tissue: 'skin', thicknessCm: 0.2},
-		{tissue: 'fat', thicknessCm: 2.5},
-		{tissue: 'muscle', thicknessCm: 1},
-		{tissue: 'liver', thicknessCm: 20},
-	],
-	probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
-	display: {depthCm: 18, assumedSpeedMps: 1540},
-	noiseBudgetDb: 70,
-	targetDepthCm: 15,
-};
+const protocolPlan = abdomenPlanJson(
+	{
+		format: 'evenecho-plan/1',
+		name: 'Clinic test protocol: right upper quadrant',
+		display: {depthCm: 18, assumedSpeedMps: 1540},
+		noiseBudgetDb: 70,
+		targetDepthCm: 15,
+	},
+	2.5,
+);
 
 let dir: string;
 let home: string;

@@ -2,7 +2,7 @@
  * The four table formats parse back: CSV with a CSV parser, JSON with its schema, SVG as XML;
  * Markdown keeps its header block and one line per row. All are byte-identical run to run.
  */
-import {abdomenPlan} from '../helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/plans.js';
 import {parse} from 'csv-parse/sync';
 import {XMLParser, XMLValidator} from 'fast-xml-parser';
 import {describe, expect, it} from 'vitest';

@@ -4,7 +4,7 @@
  * and every class of bad sweep.
  */
 import fc from 'fast-check';
-import {abdomenPlan} from '../helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/plans.js';
 import {describe, expect, it} from 'vitest';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {frequencyLadder} from '../../src/engine/frequency-ladder.js';

@@ -6,7 +6,7 @@ import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
-import {boneAndNoisePlanJson} from '../helpers/bone-and-noise-plan.js';
+import {boneAndNoisePlanJson} from '../fixtures/plans.js';
 
 // Before Ink (and chalk) are loaded, hence the dynamic imports below.
 process.env['FORCE_COLOR'] = '1';

@@ -5,7 +5,7 @@ import {demoPlan} from '../../src/plan/demo-plan.js';
 import {parsePlan, resolvePlan} from '../../src/plan/resolve-plan.js';
 import {depthPlot, glyph} from '../../src/ui/kit/depth-plot.js';
 import {layoutFor, scrollWindow, wrapWords} from '../../src/ui/kit/layout.js';
-import {boneAndNoisePlanJson} from '../helpers/bone-and-noise-plan.js';
+import {boneAndNoisePlanJson} from '../helpers/plans.js';
 
 function boneAndNoisePlan() {
 	const r = parsePlan(structuredClone(boneAndNoisePlanJson));
