@@ -3,8 +3,9 @@ import {describe, expect, it} from 'vitest';
 import {demoPlan} from '../../src/plan/demo-plan.js';
 import {consoleReducer, modeOf} from '../../src/ui/state/console-reducer.js';
 import {createInitialState, type ConsoleState} from '../../src/ui/state/console-state.js';
-import {noFlags, resolveIntent, type KeyFlags} from '../../src/ui/state/key-intents.js';
+import {modes, noFlags, resolveIntent, type KeyFlags} from '../../src/ui/state/key-intents.js';
 import {demoPoint} from '../../src/ui/state/starting-point.js';
+import {applyDoc} from '../../src/ui/state/state-helpers.js';
 import {currentRow} from '../../src/ui/state/step-rows.js';
 
 const start = (isWide = true) =>
@@ -33,9 +34,7 @@ describe('key table', () => {
 	});
 
 	it('Ctrl+C exits from every mode', () => {
-		for (const mode of ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'tissue', 'ask', 'overlay'] as const) {
-			expect(resolveIntent(mode, 'c', {...noFlags, ctrl: true})?.intent).toBe('exit-now');
-		}
+		for (const mode of modes) expect(resolveIntent(mode, 'c', {...noFlags, ctrl: true})?.intent, mode).toBe('exit-now');
 	});
 });
 
@@ -170,5 +169,31 @@ describe('keys that arrive together', () => {
 		let s = start();
 		for (const p of [...splitKeys('2', noFlags), ...splitKeys('\r7\r', noFlags)]) s = consoleReducer(s, {type: 'key', ...p});
 		expect(s.doc.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7});
+	});
+});
+
+describe('a plan the schema refuses never reaches the state', () => {
+	// The plan format allows 1 to 40 layers (src/plan/plan-schema.ts); a 41st is the simplest refused edit.
+	const fortyLayers = () => {
+		const s = start();
+		const doc = structuredClone(s.doc);
+		doc.layers = Array.from({length: 40}, (_, i) => ({tissue: i === 39 ? 'liver' : 'soft-tissue', thicknessCm: 0.5}));
+		return {...s, doc};
+	};
+
+	it('applyDoc keeps the old plan and puts the refusal beside the row', () => {
+		const s = fortyLayers();
+		const next = structuredClone(s.doc);
+		next.layers.push({tissue: 'liver', thicknessCm: 1});
+		const after = applyDoc(s, next, 'a:add-layer');
+		expect(after.doc).toBe(s.doc);
+		expect(after.dirty).toBe(false);
+		expect(after.refusal).toEqual({rowId: 'a:add-layer', message: expect.stringMatching(/layers: must be a list of 1 to 40 layers/)});
+	});
+
+	it('adding a 41st layer with the a key is refused the same way', () => {
+		const s = keysIn(fortyLayers(), '2', 'a');
+		expect(s.doc.layers).toHaveLength(40);
+		expect(s.refusal?.message).toMatch(/layers: must be a list of 1 to 40 layers/);
 	});
 });

@@ -22,7 +22,8 @@ export interface KeyFlags {
 }
 
 /** What the user is doing, which decides what a key means. `sweep` is the fat-thickness table of step 5, `edit-list` typing its list. */
-export type Mode = 'browse' | 'stack' | 'curve-pane' | 'edit-number' | 'edit-text' | 'edit-list' | 'tissue' | 'ask' | 'overlay' | 'sweep';
+export const modes = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep'] as const;
+export type Mode = (typeof modes)[number];
 
 export type Intent =
 	| 'exit-now'
@@ -76,7 +77,7 @@ export interface Binding {
 const browsing: readonly Mode[] = ['browse', 'stack', 'curve-pane'];
 const stepping: readonly Mode[] = ['browse', 'stack'];
 const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list'];
-const every: readonly Mode[] = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep'];
+const every: readonly Mode[] = modes;
 
 const plain = (key: KeyFlags) => !key.ctrl && !key.meta;
 const is = (c: string, intent: Intent) => (input: string, key: KeyFlags) => (input === c && plain(key) ? intent : undefined);
