@@ -7,7 +7,7 @@ import {readFileSync} from 'node:fs';
 import {describe, expect, it} from 'vitest';
 import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 
-export const layers: readonly (readonly string[])[] = [
+const layers: readonly (readonly string[])[] = [
 	['errors'],
 	['engine', 'files'],
 	['plan'],
@@ -27,7 +27,7 @@ const files = readSourceFiles();
 const folderOf = (path: string) => (path.includes('/') ? path.slice(0, path.lastIndexOf('/')) : '.');
 
 /** The layers as DEVELOPERS.md draws them: top (imports most) to bottom (imports nothing of ours). */
-export function layerDrawing(): string {
+function layerDrawing(): string {
 	return [...layers]
 		.reverse()
 		.map((names) => names.map((n) => `src/${n}`).join('   '))

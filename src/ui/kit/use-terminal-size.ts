@@ -14,13 +14,13 @@ export function useTerminalSize(fixed: Partial<TerminalSize> = {}): TerminalSize
 		rows: fixed.rows ?? (stdout.rows || 24),
 	});
 	const [size, setSize] = useState(read);
+	// biome-ignore lint/correctness/useExhaustiveDependencies: read() is rebuilt each render from exactly these inputs
 	useEffect(() => {
 		const onResize = () => setSize(read());
 		stdout.on('resize', onResize);
 		return () => {
 			stdout.off('resize', onResize);
 		};
-		// eslint-disable-next-line react-hooks/exhaustive-deps
 	}, [stdout, fixed.columns, fixed.rows]);
 	return fixed.columns !== undefined || fixed.rows !== undefined ? read() : size;
 }
