@@ -10,7 +10,7 @@ import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 const layers: readonly (readonly string[])[] = [
 	['errors'],
 	['engine', 'files'],
-	['plan'],
+	['plan', 'analysis'],
 	['report'],
 	['table', 'store'],
 	['ui/kit'],
