@@ -111,8 +111,8 @@ async function keystrokeToFrame(): Promise<void> {
 		import('ink'),
 		import('react'),
 		import('../src/ui/app.js'),
-		import('../src/ui/preset-shelf.js'),
-		import('../src/ui/theme.js'),
+		import('../src/ui/effects/preset-shelf.js'),
+		import('../src/ui/kit/theme.js'),
 		import('../src/ui/render-options.js'),
 	]);
 	const all: {wall: number; cpu: number}[] = [];

@@ -7,7 +7,7 @@ import {curveCsv, curveJson} from '../report/curve-json.js';
 import {curveSummary, signedDb} from '../report/curve-summary.js';
 import {numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['text', 'json', 'csv'] as const;
 

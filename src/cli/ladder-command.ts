@@ -7,7 +7,7 @@ import {cautionLine} from '../report/cautions.js';
 import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
 import {numberListOption, numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 export function registerLadderCommand(program: Command): void {
 	program

@@ -5,7 +5,7 @@
  */
 import {CommanderError} from 'commander';
 import {buildProgram} from './program.js';
-import {badInputExit, UsageError} from './usage-error.js';
+import {badInputExit, UsageError} from '../errors/usage-error.js';
 
 function reportAndExit(error: unknown): never {
 	if (error instanceof UsageError) {

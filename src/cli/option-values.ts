@@ -5,7 +5,7 @@
 import type {Limit} from '../plan/plan-schema.js';
 import {SweepError} from '../table/sweep.js';
 import {parseBoundedNumber, parseNumberList} from '../table/sweep-options.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 function asUsage<T>(parse: () => T): T {
 	try {

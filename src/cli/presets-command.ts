@@ -12,7 +12,7 @@ import type {Preset, PresetStore, PresetSummary} from '../store/preset-store.js'
 import {presetSlug} from '../store/safe-name.js';
 import {loadTemplates} from '../store/templates.js';
 import {readPlanFile} from './read-plan-file.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['text', 'json'] as const;
 type Format = (typeof formats)[number];

@@ -6,7 +6,7 @@ import {readFileSync, statSync} from 'node:fs';
 import type {EnginePlan} from '../engine/types.js';
 import {parsePlan} from '../plan/resolve-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 /** Plans are small; anything bigger is not a plan. */
 export const maxPlanBytes = 1_000_000;

@@ -16,7 +16,7 @@ import {tableJsonText} from '../table/table-json.js';
 import {tableMarkdown} from '../table/table-markdown.js';
 import {checkSvgSweep, maxSvgLines, maxSvgPanels, tableSvg} from '../table/table-svg.js';
 import {readPlanFile} from './read-plan-file.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['markdown', 'csv', 'json', 'svg'] as const;
 type Format = (typeof formats)[number];

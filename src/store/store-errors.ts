@@ -3,7 +3,7 @@
  * UsageError, so the CLI prints them as one message with exit code 2 and any caller (console,
  * table command) can tell them apart with `instanceof`.
  */
-import {UsageError} from '../cli/usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 /** Base class: the request was refused and nothing stored changed. */
 export class PresetStoreError extends UsageError {

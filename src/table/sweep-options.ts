@@ -132,7 +132,7 @@ export function parseSweepText(t: SweepText, presetLayer?: PresetLayerLookup): S
 		...(t.layer !== undefined ? {layer: parseLayerNumber('layer', t.layer)} : {}),
 		...(t.freq !== undefined ? {freqMhz: parseNumberList('freq', t.freq, limits.centerMhz, 'MHz')} : {}),
 		...(t.receive !== undefined ? {receive: parseReceive(t.receive)} : {}),
-		...(t.swap !== undefined && t.swap.length ? {swaps: t.swap.map((s) => parseSwap(s, presetLayer))} : {}),
+		...(t.swap?.length ? {swaps: t.swap.map((s) => parseSwap(s, presetLayer))} : {}),
 		...(t.delta ? {delta: true} : {}),
 		...(t.margin !== undefined ? {marginDb: parseBoundedNumber('margin', t.margin, marginLimit, 'dB')} : {}),
 		...(t.ladder !== undefined ? {ladderMhz: parseNumberList('ladder', t.ladder, limits.centerMhz, 'MHz', maxLadderLength)} : {}),

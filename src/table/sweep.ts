@@ -12,6 +12,7 @@ import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {CurveWarning, EnginePlan, Tissue} from '../engine/types.js';
+import {fatLayerIndex} from '../plan/fat-layer.js';
 import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
 import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
 import {describeTarget, targetDepthOf} from '../plan/plan-target.js';
@@ -234,8 +235,7 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 		}
 		layerIndex = spec.layer - 1;
 	} else {
-		const i = doc.layers.findIndex((l) => l.tissue === 'fat');
-		layerIndex = i >= 0 ? i : null;
+		layerIndex = fatLayerIndex(doc);
 		if (layerIndex === null && spec.fatCm !== undefined) {
 			throw new SweepError('layer', `--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (${layerRange})`);
 		}

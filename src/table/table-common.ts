@@ -3,6 +3,7 @@
  * labels, the warning legend and the input description.
  */
 import type {WarningCode} from '../engine/types.js';
+import {roundTo} from '../plan/rounding.js';
 import type {ProtocolTable, ReceiveMode, TableRow} from './sweep.js';
 
 /** Options every formatter accepts. */
@@ -18,12 +19,6 @@ export const gainDecimals = 2;
 export const depthDecimals = 3;
 export const residualDecimals = 3;
 export const mhzDecimals = 3;
-
-/** Rounds to fixed decimals; never returns −0. */
-export function roundTo(x: number, decimals: number): number {
-	const v = Number(x.toFixed(decimals));
-	return v === 0 ? 0 : v;
-}
 
 /** Fixed-decimal text; never "-0.0". */
 export function fixed(x: number, decimals: number): string {

@@ -11,7 +11,8 @@
  */
 import {stringify} from 'csv-stringify/sync';
 import type {ProtocolTable, TableRow} from './sweep.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, roundTo, rowWarningCodes} from './table-common.js';
+import {roundTo} from '../plan/rounding.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes} from './table-common.js';
 
 /** `penetration_cm` when the echo stays above the noise floor down to the display depth. */
 export const beyondDisplay = 'beyond display';

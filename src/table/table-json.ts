@@ -9,7 +9,8 @@ import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep.js';
 import type {WarningCode} from '../engine/types.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, roundTo, warningLegend, type TableFormatOptions} from './table-common.js';
+import {roundTo} from '../plan/rounding.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, warningLegend, type TableFormatOptions} from './table-common.js';
 
 export const tableFormat = 'evenecho-table/1';
 

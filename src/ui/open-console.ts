@@ -37,8 +37,8 @@ export async function openConsole(): Promise<void> {
 		import('ink'),
 		import('react'),
 		import('./app.js'),
-		import('./preset-shelf.js'),
-		import('./theme.js'),
+		import('./effects/preset-shelf.js'),
+		import('./kit/theme.js'),
 	]);
 	const shelf = openShelf();
 	let isDirty = false;

@@ -1,6 +1,22 @@
-/** Small builders for engine plans in tests (not clinical data). */
+/** The tests' plan builders: engine plans from layers, plan documents from the invented fixtures (not clinical data). */
 import {libraryTissue} from '../../src/engine/tissue-library.js';
 import type {EnginePlan, Layer, Tissue} from '../../src/engine/types.js';
+import {parsePlanDocument, type PlanDocument} from '../../src/plan/plan-schema.js';
+import {abdomenPlanJson} from '../fixtures/plans.js';
+
+export {abdomenPlanJson, boneAndNoisePlanJson} from '../fixtures/plans.js';
+
+/** A plan document from plan-file JSON; throws with the schema's messages when it does not validate. */
+export function planDocument(json: unknown): PlanDocument {
+	const r = parsePlanDocument(json);
+	if (!r.ok) throw new Error(r.errors.join('; '));
+	return r.value;
+}
+
+/** The invented upper-abdomen plan as a document (see test/fixtures/plans.ts). */
+export function abdomenPlan(overrides: object = {}, fatCm?: number): PlanDocument {
+	return planDocument(abdomenPlanJson(overrides, fatCm));
+}
 
 export function tissue(id: string): Tissue {
 	const t = libraryTissue(id);

@@ -1,6 +1,8 @@
 /**
- * Keystroke helpers for ink-testing-library: write a key, then wait until the frame changes
- * (not a guessed delay), and once more so effects settle.
+ * Keystroke helpers for ink-testing-library: write a key, then wait for a condition, never a
+ * guessed delay. Ink renders through a legacy React root, so a key's update, its render and the
+ * effects it queues run in microtasks and event-loop turns right after the write, not on a timer:
+ * `settle` waits for those turns until no new frame comes, however slow the machine is.
  */
 import type {render} from 'ink-testing-library';
 
@@ -14,12 +16,21 @@ export function frame(app: Rendered): string {
 	return app.lastFrame() ?? '';
 }
 
-/** Waits until the app has rendered and subscribed to input (effects run after the first frame). */
+/** Waits until the app has rendered and listens to stdin (Ink subscribes in an effect after the first frame; a key written before is lost). */
 export async function ready(app: Rendered): Promise<void> {
-	const start = Date.now();
-	while (!app.lastFrame() && Date.now() - start < 2000) await sleep(5);
-	// Ink subscribes to stdin in an effect after the first frame; a key written before is lost.
-	await sleep(100);
+	await waitUntil(() => app.lastFrame() !== undefined && app.stdin.listenerCount('readable') > 0, 'the first frame and the input listener', 5000);
+}
+
+/** Waits until written keys have been handled: event-loop turns until two pass with no new frame. */
+export async function settle(app: Rendered): Promise<void> {
+	let quiet = 0;
+	let seen = app.frames.length;
+	for (let turns = 0; quiet < 2; turns++) {
+		if (turns > 10_000) throw new Error('the console kept rendering and never settled');
+		await tick();
+		quiet = app.frames.length === seen ? quiet + 1 : 0;
+		seen = app.frames.length;
+	}
 }
 
 async function waitUntil(test: () => boolean, what: string, timeoutMs: number): Promise<void> {
@@ -38,6 +49,7 @@ export async function press(app: Rendered, ...sequence: string[]): Promise<void>
 		const before = frame(app);
 		app.stdin.write(key);
 		await waitUntil(() => frame(app) !== before, `the frame to change after ${JSON.stringify(key)}`, 3000);
+		await settle(app);
 	}
 }
 
@@ -46,10 +58,10 @@ export async function type(app: Rendered, text: string): Promise<void> {
 	for (const ch of text) await send(app, ch);
 }
 
-/** For a key that may leave the frame as it is: write it and give Ink a moment. */
+/** For a key that may leave the frame as it is: write it and wait until the console has settled. */
 export async function send(app: Rendered, key: string): Promise<void> {
 	app.stdin.write(key);
-	await sleep(30);
+	await settle(app);
 }
 
 /** Waits until the frame contains `text`. */

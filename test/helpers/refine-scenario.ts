@@ -5,7 +5,7 @@ import type {EnginePlan} from '../../src/engine/types.js';
 import {settingsOfFit} from '../../src/analysis/applied-gain.js';
 import {withLayerAlpha} from '../../src/analysis/attenuation-fit.js';
 import {parsePlan} from '../../src/plan/resolve-plan.js';
-import {abdomenPlanJson} from './abdomen-plan.js';
+import {abdomenPlanJson} from '../fixtures/plans.js';
 import {mulberry32, speckleFrame, type FrameOptions} from './speckle-frame.js';
 
 export function scenarioPlan(overrides: Record<string, unknown> = {}): EnginePlan {

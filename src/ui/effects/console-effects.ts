@@ -1,0 +1,60 @@
+/**
+ * Carries out the reducer's effects (load, save, export, the fat sweep's export, exit) and turns
+ * each outcome into result actions. The only UI module with I/O; failures become messages, never
+ * exceptions.
+ */
+import type {PlanDocument} from '../../plan/plan-schema.js';
+import type {Action} from '../state/console-reducer.js';
+import type {Effect} from '../state/console-state.js';
+import {exportPlan} from './export-files.js';
+import type {PresetShelf} from './preset-shelf.js';
+import {exportSweep} from './sweep-export.js';
+import {sweepTable} from '../state/sweep-table.js';
+
+export interface EffectContext {
+	readonly shelf: PresetShelf;
+	readonly doc: PlanDocument;
+	readonly exportDir?: string;
+	readonly exit: () => void;
+}
+
+const messageOf = (e: unknown) => (e instanceof Error ? e.message : String(e));
+
+export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
+	switch (effect.kind) {
+		case 'exit':
+			ctx.exit();
+			return [];
+		case 'load': {
+			const found = ctx.shelf.load(effect.pointId);
+			if (!found) return [{type: 'failed', message: 'That starting point could not be read; the plan is unchanged.'}];
+			const isPreset = ctx.shelf.list().points.some((p) => p.id === effect.pointId && p.kind === 'preset');
+			return [{type: 'loaded', name: found.name, plan: found.plan, isPreset}];
+		}
+		case 'save': {
+			const plan = {...ctx.doc, name: effect.name};
+			const outcome = ctx.shelf.save(effect.name, plan, effect.overwrite);
+			if (outcome.ok) {
+				const {points, problems} = ctx.shelf.list();
+				return [{type: 'saved', name: effect.name}, {type: 'starting-points', points, problems}];
+			}
+			if (outcome.exists) return [{type: 'save-exists', name: effect.name}];
+			return [{type: 'failed', message: `Not saved: ${outcome.message}`}];
+		}
+		case 'export':
+			try {
+				return [{type: 'exported', files: exportPlan(ctx.doc, ctx.exportDir)}];
+			} catch (error) {
+				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
+			}
+		case 'export-sweep': {
+			const outcome = sweepTable(ctx.doc, effect.fatCm, effect.isDelta);
+			if (!outcome.ok) return [{type: 'failed', message: 'Nothing exported: there is no table for this plan (the reason is under the list).'}];
+			try {
+				return [{type: 'sweep-exported', files: exportSweep(outcome.table, ctx.exportDir)}];
+			} catch (error) {
+				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
+			}
+		}
+	}
+}

@@ -1,0 +1,60 @@
+/** `?`: every key of the one key table, by section, in two columns when they fit. */
+import {Box, Text} from 'ink';
+import {bindings, type Section} from '../state/key-intents.js';
+import {useTheme} from '../kit/theme-context.js';
+import {clip, padTo} from '../kit/text-fit.js';
+
+export interface HelpOverlayProps {
+	readonly width: number;
+	readonly height: number;
+}
+
+const sectionOrder: readonly Section[] = ['Moving around', 'Changing a value', 'Typing a value', 'Tissue stack', 'The plan', 'Questions'];
+
+type Line = {readonly text: string; readonly isHeading: boolean};
+
+/** The overlay's lines, section by section, each key padded to one column. */
+export function helpLines(columnWidth: number): Line[][] {
+	return sectionOrder.map((section) => [
+		{text: section, isHeading: true},
+		...bindings.filter((b) => b.section === section).map((b) => ({text: clip(`  ${padTo(b.keys, 13)} ${b.help}`, columnWidth), isHeading: false})),
+	]);
+}
+
+/** Splits sections into two columns of about equal length (sections are never split). */
+export function twoColumns(sections: Line[][]): [Line[], Line[]] {
+	const total = sections.reduce((n, s) => n + s.length, 0);
+	const left: Line[] = [];
+	const right: Line[] = [];
+	for (const s of sections) (left.length + s.length <= Math.ceil(total / 2) + 1 && right.length === 0 ? left : right).push(...s);
+	return [left, right];
+}
+
+export function HelpOverlay({width, height}: HelpOverlayProps) {
+	const theme = useTheme();
+	const isTwo = width >= 76;
+	const colWidth = isTwo ? Math.floor((width - 2) / 2) : width;
+	const sections = helpLines(colWidth);
+	const [left, right] = isTwo ? twoColumns(sections) : [sections.flat(), []];
+	const column = (lines: Line[]) => (
+		<Box flexDirection="column" width={colWidth}>
+			{lines.slice(0, height - 1).map((l, i) => (
+				<Text key={i} wrap="truncate" {...(l.isHeading ? theme.current : {})}>
+					{l.text}
+				</Text>
+			))}
+		</Box>
+	);
+	return (
+		<Box flexDirection="column" width={width}>
+			<Text wrap="truncate" {...theme.current}>
+				{clip('Keys (Esc or ? closes this list)', width)}
+			</Text>
+			<Box flexDirection="row">
+				{column(left)}
+				{isTwo ? <Box width={2} /> : null}
+				{isTwo ? column(right) : null}
+			</Box>
+		</Box>
+	);
+}

@@ -1,0 +1,130 @@
+/**
+ * The curve as text, pure: depth runs down the rows (skin at the top, as the layers are stacked),
+ * gain runs across. Plain characters carry every meaning so nothing depends on colour:
+ *   *  gain the echo needs at that depth      -  its spread (tissue values at the ends of their range)
+ *   o  what the fitted controls give at a slider's depth, @ the selected one
+ *   ~  background of depths below the noise floor      #  background of depths below a barrier
+ */
+import {deliveredCompensationDb} from '../../engine/compensation-curve.js';
+import type {CurveResult} from '../../engine/types.js';
+
+export interface PlotOptions {
+	/** Total width of every line, characters. */
+	readonly width: number;
+	/** Most depth rows to use (not counting the axis and legend lines); fewer when that gives round depths. */
+	readonly height: number;
+	/** Slider drawn as `@` instead of `o`. */
+	readonly selectedSlider?: number;
+}
+
+export interface Plot {
+	/** The dB axis line. */
+	readonly axis: string;
+	readonly rows: readonly string[];
+	readonly legend: string;
+	/** dB at the left and right edge of the grid. */
+	readonly lowDb: number;
+	readonly highDb: number;
+}
+
+export const glyph = {curve: '*', band: '-', slider: 'o', selected: '@', noise: '~', blocked: '#', empty: ' '} as const;
+
+/** Compensation the fitted master, ramp and sliders give at each slider's depth (same scale as the curve). */
+export function sliderDeliveredDb(r: CurveResult): number[] {
+	return r.fit.sliders.map((s) => deliveredCompensationDb(r.plan, r.fit, s.depthCm));
+}
+
+const labelWidth = 5;
+
+function fit(text: string, width: number): string {
+	return text.length > width ? text.slice(0, width) : text.padEnd(width);
+}
+
+function legendFor(width: number): string {
+	const long = `${glyph.curve} need ${glyph.band} spread ${glyph.slider} slider ${glyph.noise} noise ${glyph.blocked} blocked`;
+	const short = `${glyph.curve}need ${glyph.band}spread ${glyph.slider}slider ${glyph.noise}noise ${glyph.blocked}blocked`;
+	return fit(long.length <= width ? long : short, width);
+}
+
+/** Depth steps a row may span, cm: round numbers first, so the row labels read 0, 1.5, 3 … */
+const rowSteps = [0.1, 0.2, 0.25, 0.5, 1, 1.5, 2, 2.5, 3, 4, 5, 10];
+
+/** Depth per row for a display depth: the finest round step that fits in `maxRows` rows (the last row may be partly past the bottom). */
+export function plotRowStep(depthCm: number, maxRows: number): number {
+	for (const step of rowSteps) if (Math.ceil(depthCm / step - 1e-9) <= maxRows) return step;
+	return depthCm / Math.max(2, maxRows);
+}
+
+export function plotRowCount(depthCm: number, maxRows: number): number {
+	return Math.max(2, Math.ceil(depthCm / plotRowStep(depthCm, maxRows) - 1e-9));
+}
+
+export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
+	const depth = r.plan.display.depthCm;
+	const rowCm = plotRowStep(depth, Math.max(2, o.height));
+	const height = plotRowCount(depth, Math.max(2, o.height));
+	const note = o.width >= 40 ? Math.min(11, o.width - 30) : 0;
+	const grid = Math.max(8, o.width - labelWidth - 3 - (note ? note + 1 : 0));
+	const totals = sliderDeliveredDb(r);
+
+	const values = [0, ...r.samples.map((s) => s.highDb), ...r.samples.map((s) => s.lowDb), ...totals];
+	const lowDb = Math.floor(Math.min(...values) / 10) * 10;
+	const highDb = Math.max(lowDb + 10, Math.ceil(Math.max(...values) / 10) * 10);
+	const col = (db: number) => Math.max(0, Math.min(grid - 1, Math.round(((db - lowDb) / (highDb - lowDb)) * (grid - 1))));
+	const rowOf = (d: number) => Math.max(0, Math.min(height - 1, Math.floor(d / rowCm + 1e-9)));
+
+	const cells: string[][] = Array.from({length: height}, () => new Array<string>(grid).fill(glyph.empty));
+	const notes: string[] = new Array<string>(height).fill('');
+	for (let row = 0; row < height; row++) {
+		const top = row * rowCm;
+		const bottom = Math.min(depth, (row + 1) * rowCm);
+		const inRow = r.samples.filter((s) => s.displayedDepthCm >= top - 1e-9 && (s.displayedDepthCm < bottom - 1e-9 || (row === height - 1 && s.displayedDepthCm <= bottom + 1e-9)));
+		if (inRow.length === 0) continue;
+		const line = cells[row]!;
+		const isBlocked = inRow.every((s) => s.blocked);
+		const isNoise = inRow.every((s) => s.belowNoise);
+		if (isBlocked || isNoise) line.fill(isBlocked ? glyph.blocked : glyph.noise);
+		const lo = Math.min(...inRow.map((s) => s.lowDb));
+		const hi = Math.max(...inRow.map((s) => s.highDb));
+		for (let c = col(lo); c <= col(hi); c++) line[c] = glyph.band;
+		const mid = inRow[Math.floor(inRow.length / 2)]!;
+		line[col(mid.compensationDb)] = glyph.curve;
+	}
+	// Notes: the barrier and the noise floor in their own rows, then each layer's name at its top
+	// (or the next free row, so thin layers near the skin still get named).
+	if (r.blockedDepthCm !== null) notes[rowOf(r.blockedDepthCm)] = `${glyph.blocked} blocked`;
+	if (r.penetrationDepthCm !== null && !notes[rowOf(r.penetrationDepthCm)]) notes[rowOf(r.penetrationDepthCm)] = `${glyph.noise} noise`;
+	let next = 0;
+	r.plan.layers.forEach((layer, i) => {
+		const first = r.samples.find((s) => s.layerIndex === i);
+		if (!first) return;
+		let row = Math.max(next, rowOf(first.displayedDepthCm));
+		while (row < height && notes[row]) row++;
+		if (row >= height) return;
+		notes[row] = layer.tissue.label.split(' (')[0]!;
+		next = row + 1;
+	});
+	r.fit.sliders.forEach((s, k) => {
+		cells[rowOf(s.depthCm)]![col(totals[k]!)] = k === o.selectedSlider ? glyph.selected : glyph.slider;
+	});
+
+	const rows = cells.map((line, row) => {
+		const label = (row * rowCm).toFixed(1).padStart(labelWidth);
+		const tail = note ? ` ${fit(notes[row]!, note)}` : '';
+		return `${label}|${line.join('')}|${tail}`;
+	});
+
+	const axisCells = new Array<string>(grid).fill(' ');
+	const put = (db: number) => {
+		const text = String(db);
+		const at = Math.max(0, Math.min(grid - text.length, col(db) - (db === highDb ? text.length - 1 : 0)));
+		for (let i = 0; i < text.length; i++) axisCells[at + i] = text[i]!;
+	};
+	put(lowDb);
+	put(highDb);
+	const midDb = Math.round((lowDb + highDb) / 20) * 10;
+	if (midDb > lowDb && midDb < highDb && grid >= 20) put(midDb);
+	const axis = fit(`${'cm'.padStart(labelWidth)} ${axisCells.join('')}  dB`, o.width);
+	// No trailing blanks: Ink tokenises every character it is given, spaces included.
+	return {axis: axis.trimEnd(), rows: rows.map((l) => fit(l, o.width).trimEnd()), legend: legendFor(o.width).trimEnd(), lowDb, highDb};
+}

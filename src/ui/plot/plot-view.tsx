@@ -1,0 +1,75 @@
+/** Draws a depth plot; colour only repeats what the characters already say. */
+import {Box, Text} from 'ink';
+import type {CurveResult} from '../../engine/types.js';
+import {depthPlot, glyph} from '../kit/depth-plot.js';
+import type {Theme} from '../kit/theme.js';
+import {useTheme} from '../kit/theme-context.js';
+
+export interface PlotViewProps {
+	readonly curve: CurveResult;
+	readonly width: number;
+	readonly height: number;
+	readonly selectedSlider?: number;
+}
+
+function styleOf(ch: string, theme: Theme) {
+	switch (ch) {
+		case glyph.curve:
+			return theme.plotCurve;
+		case glyph.band:
+			return theme.plotBand;
+		case glyph.slider:
+		case glyph.selected:
+			return theme.plotSlider;
+		case glyph.noise:
+			return theme.plotNoise;
+		case glyph.blocked:
+			return theme.plotBlocked;
+		default:
+			return {};
+	}
+}
+
+/** Splits the grid part of a row into runs of one style each (one run per row in the plain theme). */
+export function styledRuns(grid: string, theme: Theme): {text: string; style: ReturnType<typeof styleOf>}[] {
+	const out: {text: string; style: ReturnType<typeof styleOf>}[] = [];
+	for (const ch of grid) {
+		const style = styleOf(ch, theme);
+		const last = out[out.length - 1];
+		if (last && (last.style === style || (isPlain(last.style) && isPlain(style)))) last.text += ch;
+		else out.push({text: ch, style});
+	}
+	return out;
+}
+
+const isPlain = (style: object) => Object.keys(style).length === 0;
+
+export function PlotView({curve, width, height, selectedSlider}: PlotViewProps) {
+	const theme = useTheme();
+	const plot = depthPlot(curve, {width, height, ...(selectedSlider === undefined ? {} : {selectedSlider})});
+	return (
+		<Box flexDirection="column" width={width}>
+			<Text wrap="truncate" {...theme.muted}>
+				{plot.axis}
+			</Text>
+			{plot.rows.map((row, i) => {
+				const a = row.indexOf('|');
+				const b = row.indexOf('|', a + 1);
+				return (
+					<Text key={i} wrap="truncate">
+						<Text {...theme.muted}>{row.slice(0, a + 1)}</Text>
+						{styledRuns(row.slice(a + 1, b), theme).map((run, k) => (
+							<Text key={k} {...run.style}>
+								{run.text}
+							</Text>
+						))}
+						<Text {...theme.muted}>{row.slice(b)}</Text>
+					</Text>
+				);
+			})}
+			<Text wrap="truncate" {...theme.muted}>
+				{plot.legend}
+			</Text>
+		</Box>
+	);
+}

@@ -1,0 +1,53 @@
+/** The fitted sliders: knot depth, slider value, the compensation the controls give there, and the change from the usual. */
+import {Box, Text} from 'ink';
+import type {SettingsDelta} from '../../engine/plan-difference.js';
+import type {CurveResult} from '../../engine/types.js';
+import {signedDb} from '../../report/curve-summary.js';
+import {sliderDeliveredDb} from '../kit/depth-plot.js';
+import {scrollWindow} from '../kit/layout.js';
+import {useTheme} from '../kit/theme-context.js';
+import {clip} from '../kit/text-fit.js';
+
+export interface SliderTableProps {
+	readonly curve: CurveResult;
+	readonly delta: SettingsDelta | null;
+	readonly width: number;
+	/** Lines for the header and the slider rows together. */
+	readonly height: number;
+	/** Selected slider, or -1 for none. */
+	readonly cursor: number;
+	readonly isFocused: boolean;
+}
+
+export function sliderRows(curve: CurveResult, delta: SettingsDelta | null): string[] {
+	const totals = sliderDeliveredDb(curve);
+	return curve.fit.sliders.map((s, k) => {
+		const vs = delta ? signedDb(delta.sliderDeltasDb[k]!).padStart(7) : '      -';
+		return `${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${signedDb(s.gainDb).padStart(6)} ${totals[k]!.toFixed(1).padStart(6)} ${vs}`;
+	});
+}
+
+export const sliderHeader = ' # depth slider   comp vs usual';
+
+export function SliderTable({curve, delta, width, height, cursor, isFocused}: SliderTableProps) {
+	const theme = useTheme();
+	const lines = sliderRows(curve, delta);
+	const {start, end} = scrollWindow(lines.length, Math.max(0, cursor), Math.max(1, height - 1));
+	const more = start > 0 || end < lines.length ? ` (${start + 1}-${end} of ${lines.length})` : '';
+	return (
+		<Box flexDirection="column" width={width}>
+			<Text wrap="truncate" {...theme.muted}>
+				{clip(`  ${sliderHeader}${more}`, width)}
+			</Text>
+			{lines.slice(start, end).map((line, k) => {
+				const i = start + k;
+				const isSel = isFocused && i === cursor;
+				return (
+					<Text key={i} wrap="truncate" {...(isSel ? theme.selected : {})}>
+						{clip(`${isSel ? '>' : ' '} ${line}`, width)}
+					</Text>
+				);
+			})}
+		</Box>
+	);
+}

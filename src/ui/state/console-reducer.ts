@@ -1,0 +1,336 @@
+/**
+ * The console's reducer: every key press and every effect result goes through here, so the whole
+ * stepper can be driven and tested without rendering. Pure: side effects are queued in
+ * `state.effects` and carried out by the app, which reports back with a result action.
+ */
+import type {PlanDocument} from '../../plan/plan-schema.js';
+import type {ConsoleState, Overlay, StepId} from './console-state.js';
+import {stepIds} from './console-state.js';
+import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
+import {formatNumber, nudge} from './number-field.js';
+import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
+import {choiceFields, cycleChoice, numberFields} from './plan-fields.js';
+import type {StartingPoint} from './starting-point.js';
+import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, setCursor, withNotice} from './state-helpers.js';
+import {currentRow, rowsOf, type Row} from './step-rows.js';
+import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
+import {maxColumnOffset} from './sweep-view-model.js';
+import {editNumberIntent, editTextIntent} from './typing-reducer.js';
+
+export type Action =
+	| {readonly type: 'key'; readonly input: string; readonly key: KeyFlags}
+	| {readonly type: 'resize'; readonly isWide: boolean; readonly columns?: number; readonly rows?: number}
+	| {readonly type: 'effects-taken'; readonly count: number}
+	| {readonly type: 'loaded'; readonly name: string; readonly plan: PlanDocument; readonly isPreset: boolean}
+	| {readonly type: 'saved'; readonly name: string}
+	| {readonly type: 'save-exists'; readonly name: string}
+	| {readonly type: 'exported'; readonly files: readonly string[]}
+	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
+	| {readonly type: 'failed'; readonly message: string}
+	| {readonly type: 'starting-points'; readonly points: readonly StartingPoint[]; readonly problems: readonly string[]};
+
+export function modeOf(s: ConsoleState): Mode {
+	const o = s.overlay;
+	if (o) {
+		if (o.kind === 'ask') return 'ask';
+		if (o.kind === 'name') return 'edit-text';
+		if (o.kind === 'tissue') return 'tissue';
+		return 'overlay';
+	}
+	if (s.sweep.isOpen) return s.sweep.typing ? 'edit-list' : 'sweep';
+	if (s.editing) return currentRow(s)?.kind === 'tissue-label' ? 'edit-text' : 'edit-number';
+	if (s.isWide && s.pane === 'curve' && s.step !== 'curve') return 'curve-pane';
+	if (s.step === 'stack' && s.openLayer === null) return 'stack';
+	return 'browse';
+}
+
+function goStep(s: ConsoleState, step: StepId): ConsoleState {
+	return clampCursor({...s, step, pane: 'step', openLayer: step === 'stack' ? s.openLayer : null, refusal: null, returnStep: null});
+}
+
+function askQuit(s: ConsoleState): ConsoleState {
+	if (!s.dirty) return queue(s, {kind: 'exit'});
+	return {...s, overlay: {kind: 'ask', question: 'This plan has changes not saved as a preset. Quit anyway? (y/n)', then: {kind: 'quit'}}};
+}
+
+function openSave(s: ConsoleState): ConsoleState {
+	return {...s, overlay: {kind: 'name', text: s.presetName ?? s.doc.name, isFresh: true}};
+}
+
+function openTissuePicker(s: ConsoleState, layer: number): ConsoleState {
+	const t = s.doc.layers[layer]?.tissue;
+	const found = typeof t === 'string' ? pickerTissues.findIndex((p) => p.id === t) : pickerTissues.length;
+	return {...s, overlay: {kind: 'tissue', layer, cursor: Math.max(0, found)}};
+}
+
+function enterRow(s: ConsoleState, row: Row): ConsoleState {
+	switch (row.kind) {
+		case 'number': {
+			const v = numberFields[row.key].get(s.doc, row.index);
+			const spec = numberFields[row.key].spec;
+			return {...s, editing: {rowId: row.id, text: v === undefined ? '' : formatNumber(v, spec), isFresh: true}, refusal: null};
+		}
+		case 'tissue-label': {
+			const t = s.doc.layers[row.index]?.tissue;
+			return {...s, editing: {rowId: row.id, text: typeof t === 'string' ? '' : (t?.label ?? ''), isFresh: true}, refusal: null};
+		}
+		case 'choice':
+			return changeChoice(s, row, 1);
+		case 'start': {
+			if (!s.dirty) return queue(s, {kind: 'load', pointId: row.point.id});
+			const question = `Start again from "${row.point.name}"? The current changes are not saved. (y/n)`;
+			return {...s, overlay: {kind: 'ask', question, then: {kind: 'load', pointId: row.point.id}}};
+		}
+		case 'layer':
+			return setCursor({...s, openLayer: row.index, refusal: null}, 'stack', 0);
+		case 'slider':
+			return s;
+		case 'action':
+			return runRowAction(s, row);
+	}
+}
+
+function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleState {
+	switch (row.action) {
+		case 'add-layer': {
+			const next = addLayer(s.doc, s.doc.layers.length - 1);
+			const after = applyDoc(s, next, row.id);
+			return after.doc === s.doc ? after : setCursor(after, 'stack', after.doc.layers.length);
+		}
+		case 'pick-tissue':
+			return s.openLayer === null ? s : openTissuePicker(s, s.openLayer);
+		case 'make-custom': {
+			if (s.openLayer === null) return s;
+			const layer = s.openLayer;
+			const after = applyDoc(s, setLayerTissue(s.doc, layer, customCopy(s.doc.layers[layer]!.tissue)), row.id);
+			return setCursor(after, 'stack', 2);
+		}
+		case 'fill-reference': {
+			const next = structuredClone(s.doc);
+			next.reference = standardReference(s.doc, s.origin.layers);
+			return withNotice(applyDoc(s, next, row.id), `Usual gains refilled from the standard layers of "${s.origin.name}".`);
+		}
+		case 'save':
+		case 'export':
+		case 'sweep':
+			return runCommand(s, row.action);
+	}
+}
+
+/** Save, export and the fat sweep: one path whether asked by key or by their row on step 5. */
+function runCommand(s: ConsoleState, command: 'save' | 'export' | 'sweep'): ConsoleState {
+	switch (command) {
+		case 'save':
+			return openSave(s);
+		case 'export':
+			return queue(s, {kind: 'export'});
+		case 'sweep':
+			return openSweep(s);
+	}
+}
+
+function changeChoice(s: ConsoleState, row: Row & {kind: 'choice'}, direction: 1 | -1): ConsoleState {
+	const field = choiceFields[row.key];
+	const value = cycleChoice(field, field.get(s.doc), direction);
+	const next = field.set(s.doc, value, {standardReference: () => standardReference(s.doc, s.origin.layers)});
+	return applyDoc(s, next, row.id);
+}
+
+function nudgeRow(s: ConsoleState, row: Row, direction: 1 | -1, isCoarse: boolean): ConsoleState {
+	if (row.kind === 'choice') return changeChoice(s, row, direction);
+	const target = row.kind === 'number' ? row : row.kind === 'layer' ? ({kind: 'number', id: row.id, key: 'thickness', index: row.index} as const) : undefined;
+	if (!target) return s;
+	const field = numberFields[target.key];
+	const current = field.get(s.doc, target.index);
+	if (current === undefined) return enterRow(s, row);
+	const r = nudge(current, field.spec, direction, isCoarse);
+	if (!r.ok) return {...s, refusal: {rowId: row.id, message: r.message}};
+	return applyNumber(s, target, r.value);
+}
+
+function stackIntent(s: ConsoleState, intent: Intent, row: Row | undefined): ConsoleState | undefined {
+	const layer = row?.kind === 'layer' ? row.index : undefined;
+	switch (intent) {
+		case 'layer-add': {
+			const below = layer ?? -1;
+			const after = applyDoc(s, addLayer(s.doc, below), row?.id ?? 'a:add-layer');
+			return after.doc === s.doc ? after : setCursor(after, 'stack', below + 2);
+		}
+		case 'layer-remove':
+			if (layer === undefined) return s;
+			if (s.doc.layers.length <= 1) return {...s, refusal: {rowId: row!.id, message: 'refused: a plan needs at least one layer'}};
+			return clampCursor(applyDoc(s, removeLayer(s.doc, layer), row!.id));
+		case 'layer-up':
+		case 'layer-down': {
+			if (layer === undefined) return s;
+			const delta = intent === 'layer-up' ? -1 : 1;
+			const next = moveLayer(s.doc, layer, delta);
+			if (next === s.doc) return s;
+			return setCursor(applyDoc(s, next, row!.id), 'stack', layer + 1 + delta);
+		}
+		case 'tissue':
+			return layer === undefined ? s : openTissuePicker(s, layer);
+		default:
+			return undefined;
+	}
+}
+
+function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode): ConsoleState {
+	const rows = rowsOf(s);
+	const row = currentRow(s);
+	const here = s.cursors[s.step];
+	if (mode === 'stack') {
+		const done = stackIntent(s, intent, row);
+		if (done) return done;
+	}
+	switch (intent) {
+		case 'up':
+		case 'down': {
+			const d = intent === 'up' ? -1 : 1;
+			if (mode === 'curve-pane') return setCursor(s, 'curve', Math.max(0, Math.min(s.doc.sliders.count - 1, s.cursors.curve + d)));
+			return {...setCursor(s, s.step, Math.max(0, Math.min(rows.length - 1, here + d))), refusal: null};
+		}
+		case 'prev-step':
+		case 'next-step': {
+			const i = stepIds.indexOf(s.step) + (intent === 'prev-step' ? -1 : 1);
+			return i < 0 || i >= stepIds.length ? s : goStep(s, stepIds[i]!);
+		}
+		case 'jump':
+			return goStep(s, stepIds[Number(input) - 1]!);
+		case 'pane':
+			if (s.isWide) return s.step === 'curve' ? s : {...s, pane: s.pane === 'step' ? 'curve' : 'step'};
+			if (s.step !== 'curve') return {...goStep(s, 'curve'), returnStep: s.step};
+			return goStep(s, s.returnStep ?? 'start');
+		case 'back':
+			if (mode === 'curve-pane') return {...s, pane: 'step'};
+			if (s.step === 'stack' && s.openLayer !== null) return setCursor({...s, openLayer: null, refusal: null}, 'stack', s.openLayer + 1);
+			if (s.step === 'start') return withNotice(s, 'This is the first step; q quits.');
+			return goStep(s, stepIds[stepIds.indexOf(s.step) - 1]!);
+		case 'enter':
+			return mode === 'curve-pane' || !row ? s : enterRow(s, row);
+		case 'nudge-up':
+		case 'nudge-down':
+		case 'coarse-up':
+		case 'coarse-down':
+			return row ? nudgeRow(s, row, intent.endsWith('up') ? 1 : -1, intent.startsWith('coarse')) : s;
+		case 'help':
+			return {...s, overlay: {kind: 'help'}};
+		case 'warnings':
+			return {...s, overlay: {kind: 'warnings'}};
+		case 'quit':
+			return askQuit(s);
+		case 'save':
+		case 'export':
+		case 'sweep':
+			return runCommand(s, intent);
+		default:
+			return s;
+	}
+}
+
+function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: Intent): ConsoleState {
+	const last = pickerTissues.length; // the custom row
+	switch (intent) {
+		case 'up':
+		case 'down':
+			return {...s, overlay: {...o, cursor: Math.max(0, Math.min(last, o.cursor + (intent === 'up' ? -1 : 1)))}};
+		case 'back':
+			return {...s, overlay: null};
+		case 'enter': {
+			const picked = pickerTissues[o.cursor];
+			const tissue = picked?.id ?? customCopy(s.doc.layers[o.layer]!.tissue);
+			const after = applyDoc({...s, overlay: null}, setLayerTissue(s.doc, o.layer, tissue), `l:${o.layer}`);
+			// Custom values are typed in the layer's own form, so open it on the first value.
+			if (!picked) return setCursor({...after, step: 'stack', openLayer: o.layer}, 'stack', 2);
+			return after;
+		}
+		default:
+			return s;
+	}
+}
+
+function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent): ConsoleState {
+	if (intent === 'no') return withNotice({...s, overlay: null}, o.then.kind === 'quit' ? 'Still here.' : 'Nothing changed.');
+	if (intent !== 'yes') return s;
+	const closed = {...s, overlay: null};
+	switch (o.then.kind) {
+		case 'quit':
+			return queue(closed, {kind: 'exit'});
+		case 'load':
+			return queue(closed, {kind: 'load', pointId: o.then.pointId});
+		case 'overwrite':
+			return queue(closed, {kind: 'save', name: o.then.name, overwrite: true});
+	}
+}
+
+function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
+	const mode = modeOf(s);
+	const resolved = resolveIntent(mode, input, key);
+	if (!resolved) return s;
+	const {intent} = resolved;
+	if (intent === 'exit-now') return queue(s, {kind: 'exit'});
+	const o = s.overlay;
+	switch (mode) {
+		case 'overlay':
+			return intent === 'back' || intent === 'help' ? {...s, overlay: null} : s;
+		case 'ask':
+			return askIntent(s, o as Overlay & {kind: 'ask'}, intent);
+		case 'tissue':
+			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent);
+		case 'edit-text':
+			return editTextIntent(s, intent, input);
+		case 'edit-number':
+			return editNumberIntent(s, intent, input);
+		case 'edit-list':
+			return sweepTypingIntent(s, intent, input);
+		case 'sweep':
+			return sweepIntent(s, intent) ?? (intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s);
+		default:
+			return clampCursor(browseIntent(s, intent, input, mode));
+	}
+}
+
+export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
+	switch (a.type) {
+		case 'key':
+			return keyPress(s, a.input, a.key);
+		case 'resize': {
+			const columns = a.columns ?? s.columns;
+			const rows = a.rows ?? s.rows;
+			const column = Math.min(s.sweep.column, maxColumnOffset(s.doc.sliders.count, s.sweep.isDelta, columns));
+			const sized = columns === s.columns && rows === s.rows ? s : {...s, columns, rows, sweep: {...s.sweep, column}};
+			return a.isWide === s.isWide ? sized : {...sized, isWide: a.isWide, pane: 'step', returnStep: null};
+		}
+		case 'effects-taken':
+			return {...s, effects: s.effects.slice(a.count)};
+		case 'loaded':
+			return withNotice(
+				{
+					...s,
+					doc: a.plan,
+					origin: {name: a.name, layers: structuredClone(a.plan.layers)},
+					dirty: false,
+					step: 'stack',
+					cursors: {...s.cursors, stack: 0, probe: 0, usual: 0, curve: 0},
+					openLayer: null,
+					editing: null,
+					refusal: null,
+					presetName: a.isPreset ? a.name : null,
+				},
+				`Started from "${a.name}".`,
+				'done',
+			);
+		case 'saved':
+			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".`, 'done');
+		case 'save-exists':
+			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
+		case 'exported':
+			return withNotice(s, `Exported ${a.files.join(' and ')} here.`, 'done');
+		case 'sweep-exported':
+			return withNotice({...s, sweep: {...s.sweep, files: a.files}}, `Exported the table in ${a.files.length} formats (Markdown, CSV, JSON, SVG) here.`, 'done');
+		case 'failed':
+			return withNotice(s, a.message, 'warning');
+		case 'starting-points':
+			return clampCursor({...s, startingPoints: a.points, storeProblems: a.problems});
+	}
+}

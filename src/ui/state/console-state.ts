@@ -1,0 +1,121 @@
+/**
+ * The console's state as plain data: which step, which row, what is being typed, which question
+ * is open, and the plan itself. No React or Ink here.
+ */
+import type {PlanDocument} from '../../plan/plan-schema.js';
+import type {StartingPoint} from './starting-point.js';
+import {closedSweep, type SweepState} from './sweep-state.js';
+
+export const stepIds = ['start', 'stack', 'probe', 'usual', 'curve'] as const;
+export type StepId = (typeof stepIds)[number];
+
+/** Titles are ours; the short form is for the step bar at 80 columns. */
+export const stepTitles: Record<StepId, {readonly title: string; readonly short: string}> = {
+	start: {title: 'Starting plan', short: 'Start'},
+	stack: {title: 'Tissue stack', short: 'Stack'},
+	probe: {title: 'Probe & system', short: 'Probe'},
+	usual: {title: 'Usual gains', short: 'Usual'},
+	curve: {title: 'Curve & save', short: 'Curve'},
+};
+
+/** What a yes answer goes on to do. */
+export type FollowUp =
+	| {readonly kind: 'quit'}
+	| {readonly kind: 'load'; readonly pointId: string}
+	| {readonly kind: 'overwrite'; readonly name: string};
+
+export type Overlay =
+	| {readonly kind: 'help'}
+	| {readonly kind: 'warnings'}
+	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
+	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
+	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number};
+
+/** Side effects asked for by the reducer and carried out by the app (then reported back). */
+export type Effect =
+	| {readonly kind: 'exit'}
+	| {readonly kind: 'load'; readonly pointId: string}
+	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
+	| {readonly kind: 'export'}
+	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean};
+
+export interface Editing {
+	/** The row being edited (row ids are stable while the plan's shape is). */
+	readonly rowId: string;
+	readonly text: string;
+	/** True until the first key: typing then replaces the shown text instead of appending (Backspace edits it). */
+	readonly isFresh: boolean;
+}
+
+export interface Notice {
+	readonly text: string;
+	readonly tone: 'done' | 'warning' | 'info';
+}
+
+export interface ConsoleState {
+	readonly doc: PlanDocument;
+	/** The starting point the plan came from: its layers are the "standard" for usual gains. */
+	readonly origin: {readonly name: string; readonly layers: PlanDocument['layers']};
+	readonly step: StepId;
+	readonly cursors: Readonly<Record<StepId, number>>;
+	/** Which pane has the keys when both are shown (100 columns and wider). */
+	readonly pane: 'step' | 'curve';
+	/** Narrow layout: where Tab goes back to after showing the curve. */
+	readonly returnStep: StepId | null;
+	readonly isWide: boolean;
+	/** Terminal size, for views that scroll (the fat sweep's columns and pages). */
+	readonly columns: number;
+	readonly rows: number;
+	/** Tissue stack: the layer whose details are open, or null for the stack itself. */
+	readonly openLayer: number | null;
+	readonly editing: Editing | null;
+	/** A refusal shown beside a field until the next edit or move. */
+	readonly refusal: {readonly rowId: string; readonly message: string} | null;
+	readonly overlay: Overlay | null;
+	readonly dirty: boolean;
+	readonly notice: Notice | null;
+	readonly startingPoints: readonly StartingPoint[];
+	readonly storeProblems: readonly string[];
+	readonly effects: readonly Effect[];
+	/** Last preset name saved or loaded, offered again when saving. */
+	readonly presetName: string | null;
+	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
+	readonly sweep: SweepState;
+}
+
+export interface InitialOptions {
+	readonly doc: PlanDocument;
+	readonly originName: string;
+	readonly startingPoints: readonly StartingPoint[];
+	readonly storeProblems?: readonly string[];
+	readonly notices?: readonly string[];
+	readonly isWide: boolean;
+	/** Terminal size. @default 100x30 when wide, else 80x24 */
+	readonly columns?: number;
+	readonly rows?: number;
+}
+
+export function createInitialState(o: InitialOptions): ConsoleState {
+	return {
+		doc: o.doc,
+		origin: {name: o.originName, layers: structuredClone(o.doc.layers)},
+		step: 'start',
+		cursors: {start: 0, stack: 0, probe: 0, usual: 0, curve: 0},
+		pane: 'step',
+		returnStep: null,
+		isWide: o.isWide,
+		columns: o.columns ?? (o.isWide ? 100 : 80),
+		rows: o.rows ?? (o.isWide ? 30 : 24),
+		openLayer: null,
+		editing: null,
+		refusal: null,
+		overlay: null,
+		dirty: false,
+		notice: o.notices?.length ? {text: o.notices.join(' '), tone: 'info'} : null,
+		startingPoints: o.startingPoints,
+		storeProblems: o.storeProblems ?? [],
+		effects: [],
+		presetName: null,
+		sweep: closedSweep,
+	};
+}

@@ -1,0 +1,305 @@
+/**
+ * Every editable field of a plan, in one registry: its label, unit, range (from the plan format's
+ * `limits`), nudge steps, how to read it from a document and how to write it back. Pure.
+ */
+import {noiseBudgetFromPhantom} from '../../engine/noise-budget.js';
+import {defaultNoiseBudgetDb, limits, type CustomTissue, type PlanDocument} from '../../plan/plan-schema.js';
+import {formatNumber, type NumberSpec} from './number-field.js';
+import {fatLayerIndex} from '../../plan/fat-layer.js';
+import {clonePlan, setFatThickness, setSliderCount, type Reference} from '../../plan/plan-edits.js';
+
+export type NumberKey =
+	| 'fat'
+	| 'thickness'
+	| 'speedMps'
+	| 'densityKgM3'
+	| 'alphaDbPerCmMhz'
+	| 'exponent'
+	| 'centerMhz'
+	| 'bandwidthFraction'
+	| 'scattererExponent'
+	| 'depthCm'
+	| 'assumedSpeedMps'
+	| 'sliderCount'
+	| 'sliderMinDb'
+	| 'sliderMaxDb'
+	| 'rampDbPerCmMhz'
+	| 'masterMinDb'
+	| 'masterMaxDb'
+	| 'masterBaseDb'
+	| 'noiseBudgetDb'
+	| 'phantomCenterMhz'
+	| 'phantomDepthCm'
+	| 'phantomAlpha'
+	| 'refMasterDb'
+	| 'refSliderDb';
+
+export type ChoiceKey = 'harmonic' | 'knots' | 'ends' | 'noiseSource' | 'reference';
+
+interface NumberField {
+	readonly spec: NumberSpec;
+	/** undefined: the field does not apply to this document (no such layer, no phantom). */
+	get(doc: PlanDocument, index: number): number | undefined;
+	set(doc: PlanDocument, index: number, value: number): PlanDocument;
+	/** A refusal that depends on other fields (low below high); undefined when fine. */
+	check?(doc: PlanDocument, index: number, value: number): string | undefined;
+}
+
+const spec = (label: string, unit: string, limit: NumberSpec['limit'], step: number, coarse: number, decimals: number, integer = false): NumberSpec => ({
+	label,
+	unit,
+	limit,
+	step,
+	coarse,
+	decimals,
+	integer,
+});
+
+/** The phantom slope range of the plan format (it has no entry in `limits`). */
+const phantomAlphaLimit = {min: 0.05, max: 2} as const;
+
+function custom(doc: PlanDocument, index: number): CustomTissue | undefined {
+	const t = doc.layers[index]?.tissue;
+	return t !== undefined && typeof t !== 'string' ? t : undefined;
+}
+
+function customField(key: 'speedMps' | 'densityKgM3' | 'alphaDbPerCmMhz' | 'exponent', s: NumberSpec): NumberField {
+	return {
+		spec: s,
+		get: (doc, i) => custom(doc, i)?.[key],
+		set(doc, i, v) {
+			const next = clonePlan(doc);
+			const t = custom(next, i);
+			if (t) t[key] = v;
+			return next;
+		},
+	};
+}
+
+function edit(doc: PlanDocument, change: (d: PlanDocument) => void): PlanDocument {
+	const next = clonePlan(doc);
+	change(next);
+	return next;
+}
+
+const db = (x: number) => `${formatNumber(x, {decimals: 1})} dB`;
+
+export const numberFields: Record<NumberKey, NumberField> = {
+	fat: {
+		spec: spec('Fat thickness (measured)', 'cm', limits.thicknessCm, 0.5, 2, 1),
+		get: (doc) => doc.layers[fatLayerIndex(doc) ?? -1]?.thicknessCm,
+		set: (doc, _i, v) => setFatThickness(doc, v),
+	},
+	thickness: {
+		spec: spec('Thickness', 'cm', limits.thicknessCm, 0.1, 1, 2),
+		get: (doc, i) => doc.layers[i]?.thicknessCm,
+		set: (doc, i, v) => edit(doc, (d) => void (d.layers[i]!.thicknessCm = v)),
+	},
+	speedMps: customField('speedMps', spec('Speed c', 'm/s', limits.speedMps, 5, 50, 1)),
+	densityKgM3: customField('densityKgM3', spec('Density rho', 'kg/m³', limits.densityKgM3, 10, 100, 1)),
+	alphaDbPerCmMhz: customField('alphaDbPerCmMhz', spec('Attenuation a0', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.5, 3)),
+	exponent: customField('exponent', spec('Exponent n', '', limits.exponent, 0.05, 0.25, 2)),
+	centerMhz: {
+		spec: spec('Centre frequency', 'MHz', limits.centerMhz, 0.5, 2, 2),
+		get: (doc) => doc.probe.centerMhz,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.centerMhz = v)),
+	},
+	bandwidthFraction: {
+		spec: spec('Bandwidth (x f0)', '', limits.bandwidthFraction, 0.05, 0.2, 2),
+		get: (doc) => doc.probe.bandwidthFraction,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.bandwidthFraction = v)),
+	},
+	scattererExponent: {
+		spec: spec('Scatterer exponent m', '', limits.scattererExponent, 0.5, 1, 2),
+		get: (doc) => doc.scattererExponent,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.scattererExponent = v)),
+	},
+	depthCm: {
+		spec: spec('Display depth', 'cm', limits.depthCm, 0.5, 2, 1),
+		get: (doc) => doc.display.depthCm,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.display.depthCm = v)),
+		check: (doc, _i, v) =>
+			doc.targetDepthCm !== undefined && v < doc.targetDepthCm ? `must be at least the plan's target depth (${doc.targetDepthCm} cm)` : undefined,
+	},
+	assumedSpeedMps: {
+		spec: spec('Assumed speed', 'm/s', limits.assumedSpeedMps, 5, 20, 1),
+		get: (doc) => doc.display.assumedSpeedMps,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.display.assumedSpeedMps = v)),
+	},
+	sliderCount: {
+		spec: spec('Slider count', '', limits.sliderCount, 1, 4, 0, true),
+		get: (doc) => doc.sliders.count,
+		set: (doc, _i, v) => setSliderCount(doc, v),
+	},
+	sliderMinDb: {
+		spec: spec('Slider low end', 'dB', limits.sliderDb, 1, 5, 1),
+		get: (doc) => doc.sliders.minDb,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.sliders.minDb = v)),
+		check: (doc, _i, v) => (v < doc.sliders.maxDb ? undefined : `must be below the slider high end (${db(doc.sliders.maxDb)})`),
+	},
+	sliderMaxDb: {
+		spec: spec('Slider high end', 'dB', limits.sliderDb, 1, 5, 1),
+		get: (doc) => doc.sliders.maxDb,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.sliders.maxDb = v)),
+		check: (doc, _i, v) => (v > doc.sliders.minDb ? undefined : `must be above the slider low end (${db(doc.sliders.minDb)})`),
+	},
+	rampDbPerCmMhz: {
+		spec: spec('Built-in ramp', 'dB/cm/MHz', limits.rampDbPerCmMhz, 0.05, 0.25, 2),
+		get: (doc) => doc.sliders.rampDbPerCmMhz,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.sliders.rampDbPerCmMhz = v)),
+	},
+	masterMinDb: {
+		spec: spec('Master low end', 'dB', limits.masterDb, 1, 5, 1),
+		get: (doc) => doc.masterGain.minDb,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.masterGain.minDb = v)),
+		check: (doc, _i, v) => {
+			if (v >= doc.masterGain.maxDb) return `must be below the master high end (${db(doc.masterGain.maxDb)})`;
+			const base = doc.masterGain.baseDb;
+			return base !== undefined && v > base ? `must not be above the master skin level (${db(base)})` : undefined;
+		},
+	},
+	masterMaxDb: {
+		spec: spec('Master high end', 'dB', limits.masterDb, 1, 5, 1),
+		get: (doc) => doc.masterGain.maxDb,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.masterGain.maxDb = v)),
+		check: (doc, _i, v) => {
+			if (v <= doc.masterGain.minDb) return `must be above the master low end (${db(doc.masterGain.minDb)})`;
+			const base = doc.masterGain.baseDb;
+			return base !== undefined && v < base ? `must not be below the master skin level (${db(base)})` : undefined;
+		},
+	},
+	masterBaseDb: {
+		// The master gain that shows the tissue under the skin right with sliders centred (default mid-range).
+		spec: spec('Master skin level', 'dB', limits.masterDb, 1, 5, 1),
+		get: (doc) => doc.masterGain.baseDb ?? (doc.masterGain.minDb + doc.masterGain.maxDb) / 2,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.masterGain.baseDb = v)),
+		check: (doc, _i, v) =>
+			v < doc.masterGain.minDb || v > doc.masterGain.maxDb ? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}` : undefined,
+	},
+	noiseBudgetDb: {
+		spec: spec('Noise budget', 'dB', limits.noiseBudgetDb, 1, 5, 1),
+		get: (doc) => (doc.phantomCalibration ? undefined : (doc.noiseBudgetDb ?? defaultNoiseBudgetDb)),
+		set: (doc, _i, v) => edit(doc, (d) => void (d.noiseBudgetDb = v)),
+	},
+	phantomCenterMhz: {
+		spec: spec('Phantom frequency', 'MHz', limits.centerMhz, 0.5, 2, 2),
+		get: (doc) => doc.phantomCalibration?.centerMhz,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.phantomCalibration!.centerMhz = v)),
+	},
+	phantomDepthCm: {
+		spec: spec('Phantom reach', 'cm', limits.phantomDepthCm, 0.5, 2, 1),
+		get: (doc) => doc.phantomCalibration?.depthCm,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.phantomCalibration!.depthCm = v)),
+	},
+	phantomAlpha: {
+		spec: spec('Phantom slope', 'dB/cm/MHz', phantomAlphaLimit, 0.05, 0.2, 2),
+		get: (doc) => doc.phantomCalibration?.alphaDbPerCmMhz,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.phantomCalibration!.alphaDbPerCmMhz = v)),
+	},
+	refMasterDb: {
+		spec: {...spec('Usual master', 'dB', limits.masterDb, 1, 5, 1), isFixed: true},
+		get: (doc) => doc.reference?.masterGainDb,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.reference!.masterGainDb = v)),
+		check: (doc, _i, v) =>
+			v < doc.masterGain.minDb || v > doc.masterGain.maxDb ? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}` : undefined,
+	},
+	refSliderDb: {
+		spec: {...spec('Usual slider', 'dB', limits.sliderDb, 1, 5, 1), isFixed: true},
+		get: (doc, i) => doc.reference?.slidersDb[i],
+		set: (doc, i, v) => edit(doc, (d) => void (d.reference!.slidersDb[i] = v)),
+		check: (doc, _i, v) =>
+			v < doc.sliders.minDb || v > doc.sliders.maxDb ? `must be within the slider range, ${db(doc.sliders.minDb)} to ${db(doc.sliders.maxDb)}` : undefined,
+	},
+};
+
+export interface ChoiceOption {
+	readonly value: string;
+	readonly text: string;
+}
+
+export interface ChoiceContext {
+	/** The usual settings to start from when comparison is switched on. */
+	readonly standardReference: () => Reference;
+}
+
+interface ChoiceField {
+	readonly label: string;
+	readonly options: readonly ChoiceOption[];
+	get(doc: PlanDocument): string;
+	set(doc: PlanDocument, value: string, ctx: ChoiceContext): PlanDocument;
+}
+
+export const choiceFields: Record<ChoiceKey, ChoiceField> = {
+	harmonic: {
+		label: 'Harmonic receive',
+		options: [
+			{value: 'off', text: 'off (receive at f0)'},
+			{value: 'on', text: 'on (receive at 2 f0)'},
+		],
+		get: (doc) => (doc.probe.harmonic ? 'on' : 'off'),
+		set: (doc, v) => edit(doc, (d) => void (d.probe.harmonic = v === 'on')),
+	},
+	knots: {
+		label: 'Slider positions',
+		options: [
+			{value: 'band-centres', text: 'mid-band'},
+			{value: 'band-edges', text: 'skin to bottom'},
+		],
+		get: (doc) => doc.sliders.knots,
+		set: (doc, v) => edit(doc, (d) => void (d.sliders.knots = v as PlanDocument['sliders']['knots'])),
+	},
+	ends: {
+		label: 'Past the end sliders',
+		options: [
+			{value: 'flat', text: 'held level'},
+			{value: 'extrapolate', text: 'slope carried on'},
+		],
+		get: (doc) => doc.sliders.ends,
+		set: (doc, v) => edit(doc, (d) => void (d.sliders.ends = v as PlanDocument['sliders']['ends'])),
+	},
+	noiseSource: {
+		label: 'Noise budget from',
+		options: [
+			{value: 'budget', text: 'a typed value'},
+			{value: 'phantom', text: 'a phantom reach'},
+		],
+		get: (doc) => (doc.phantomCalibration ? 'phantom' : 'budget'),
+		set: (doc, v) =>
+			edit(doc, (d) => {
+				if (v === 'phantom' && !d.phantomCalibration) {
+					d.phantomCalibration = {centerMhz: d.probe.centerMhz, depthCm: 16, alphaDbPerCmMhz: 0.5};
+					delete d.noiseBudgetDb;
+				} else if (v === 'budget' && d.phantomCalibration) {
+					// Keep the budget the calibration gave, so switching does not move the curve.
+					d.noiseBudgetDb = Math.round(derivedNoiseBudgetDb(d) * 10) / 10;
+					delete d.phantomCalibration;
+				}
+			}),
+	},
+	reference: {
+		label: 'Compare to usual',
+		options: [
+			{value: 'off', text: 'no'},
+			{value: 'on', text: 'yes'},
+		],
+		get: (doc) => (doc.reference ? 'on' : 'off'),
+		set: (doc, v, ctx) =>
+			edit(doc, (d) => {
+				if (v === 'on' && !d.reference) d.reference = ctx.standardReference();
+				if (v === 'off') delete d.reference;
+			}),
+	},
+};
+
+/** The budget the engine will use (typed, default, or from the phantom), dB. */
+export function derivedNoiseBudgetDb(doc: PlanDocument): number {
+	if (!doc.phantomCalibration) return doc.noiseBudgetDb ?? defaultNoiseBudgetDb;
+	return noiseBudgetFromPhantom(doc.phantomCalibration, doc.probe, doc.scattererExponent);
+}
+
+/** The next option after the current one (wrapping), or the one before. */
+export function cycleChoice(field: ChoiceField, current: string, direction: 1 | -1): string {
+	const i = field.options.findIndex((o) => o.value === current);
+	const n = field.options.length;
+	return field.options[(((i < 0 ? 0 : i) + direction) % n + n) % n]!.value;
+}

@@ -1,0 +1,85 @@
+/**
+ * The words and numbers a row shows, pure, so views stay thin and tests can check them directly.
+ */
+import {libraryTissue} from '../../engine/tissue-library.js';
+import type {Tissue} from '../../engine/types.js';
+import type {PlanDocument} from '../../plan/plan-schema.js';
+import {describeRange} from '../../plan/plan-schema.js';
+import type {ConsoleState} from './console-state.js';
+import {formatNumber} from './number-field.js';
+import {choiceFields, numberFields} from './plan-fields.js';
+import type {Row} from './step-rows.js';
+
+export interface RowText {
+	readonly label: string;
+	readonly value: string;
+}
+
+const kindWord = {demo: 'built in', template: 'template', preset: 'saved'} as const;
+
+export function tissueOf(doc: PlanDocument, index: number): Tissue | undefined {
+	const t = doc.layers[index]?.tissue;
+	if (t === undefined) return undefined;
+	return typeof t === 'string' ? libraryTissue(t) : {...t, source: t.source ?? 'custom values entered by the user'};
+}
+
+/** "a0 0.6  n 1  c 1440  rho 911" with the units left to the column header. */
+export function tissueNumbers(t: Tissue): string {
+	return `a0 ${t.alphaDbPerCmMhz}  n ${t.exponent}  c ${t.speedMps}  rho ${t.densityKgM3}`;
+}
+
+/** One decimal, or two when the thickness has them: 5.0, 1.25. */
+export function thicknessText(cm: number): string {
+	return Number.isInteger(Math.round(cm * 1000) / 100) ? cm.toFixed(1) : cm.toFixed(2);
+}
+
+export function numberLabel(row: Row & {kind: 'number'}): string {
+	if (row.key === 'refSliderDb') return `Usual slider ${row.index + 1}`;
+	return numberFields[row.key].spec.label;
+}
+
+export function rowText(s: ConsoleState, row: Row): RowText {
+	switch (row.kind) {
+		case 'number': {
+			const field = numberFields[row.key];
+			const v = field.get(s.doc, row.index);
+			const unit = field.spec.unit ? ` ${field.spec.unit}` : '';
+			if (v === undefined) return {label: numberLabel(row), value: row.key === 'fat' ? 'no fat layer (Enter adds one)' : '-'};
+			// Columns of fixed-decimal values (the usual gains) line up on the decimal point.
+			const text = formatNumber(v, field.spec);
+			return {label: numberLabel(row), value: `${field.spec.isFixed ? text.padStart(6) : text}${unit}`};
+		}
+		case 'choice': {
+			const field = choiceFields[row.key];
+			const current = field.get(s.doc);
+			return {label: field.label, value: field.options.find((o) => o.value === current)?.text ?? current};
+		}
+		case 'tissue-label': {
+			const t = s.doc.layers[row.index]?.tissue;
+			return {label: 'Name', value: typeof t === 'string' ? t : (t?.label ?? '')};
+		}
+		case 'start':
+			return {label: row.point.name, value: kindWord[row.point.kind]};
+		case 'layer': {
+			const l = s.doc.layers[row.index]!;
+			const t = tissueOf(s.doc, row.index);
+			const isLast = row.index === s.doc.layers.length - 1;
+			return {label: `${row.index + 1} ${t?.label ?? '?'}`, value: `${thicknessText(l.thicknessCm)} cm${isLast ? ' +' : ''}`};
+		}
+		case 'action':
+			if (row.action === 'pick-tissue' && s.openLayer !== null) return {label: 'Tissue', value: `${tissueOf(s.doc, s.openLayer)?.label ?? '?'} (Enter to change)`};
+			return {label: `[ ${row.label} ]`, value: ''};
+		case 'slider':
+			return {label: `Slider ${row.index + 1}`, value: ''};
+	}
+}
+
+/** The allowed range of the row being typed into, for the status line. */
+export function rangeHint(row: Row | undefined): string | undefined {
+	if (row?.kind === 'number') {
+		const spec = numberFields[row.key].spec;
+		return `${numberLabel(row)}: ${spec.integer ? 'a whole number ' : ''}${describeRange(spec.limit, spec.unit)}`;
+	}
+	if (row?.kind === 'tissue-label') return 'Tissue name: 1 to 60 characters';
+	return undefined;
+}

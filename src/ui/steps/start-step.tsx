@@ -1,0 +1,43 @@
+/** Step 1: where the plan starts, the built-in demo, the region templates and saved presets. */
+import {Box, Text} from 'ink';
+import type {ConsoleState} from '../state/console-state.js';
+import {FieldList, windowNote} from './field-list.js';
+import {rowsOf} from '../state/step-rows.js';
+import {useTheme} from '../kit/theme-context.js';
+import {clip} from '../kit/text-fit.js';
+
+export interface StepProps {
+	readonly state: ConsoleState;
+	readonly width: number;
+	readonly height: number;
+	readonly isFocused: boolean;
+}
+
+export function StartStep({state, width, height, isFocused}: StepProps) {
+	const theme = useTheme();
+	const rows = rowsOf(state, 'start');
+	const problems = state.storeProblems.slice(0, 2);
+	const point = rows[state.cursors.start];
+	const about = point?.kind === 'start' ? `  region: ${point.point.region}` : '';
+	const listHeight = height - 3 - problems.length;
+	const now = `Now: "${state.doc.name}" [${state.doc.region}]${state.dirty ? ', changed' : ''}`;
+	return (
+		<Box flexDirection="column" width={width}>
+			<Text wrap="truncate" {...theme.current}>
+				{clip(`1 Starting plan: a region template or a saved preset${windowNote(state, rows, state.cursors.start, listHeight)}`, width)}
+			</Text>
+			<Text wrap="truncate" {...theme.muted}>
+				{clip(now, width)}
+			</Text>
+			<FieldList state={state} rows={rows} cursor={state.cursors.start} width={width} height={listHeight} isFocused={isFocused} labelWidth={width - 13} />
+			<Text wrap="truncate" {...theme.muted}>
+				{clip(about, width)}
+			</Text>
+			{problems.map((p) => (
+				<Text key={p} wrap="truncate" {...theme.warning}>
+					{clip(`! ${p}`, width)}
+				</Text>
+			))}
+		</Box>
+	);
+}
