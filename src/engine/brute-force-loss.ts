@@ -30,14 +30,16 @@ function pathLengths(plan: EnginePlan, displayedCm: number): number[] {
 export function bruteForceAttenuationDb(plan: EnginePlan, displayedCm: readonly number[], options: BruteForceOptions = {}): number[] {
 	const points = options.points ?? 20000;
 	const {centerMhz: f0, bandwidthFraction: b, harmonic} = plan.probe;
+	const p = plan.probe.spectrumSteepness ?? 2;
 	const m = plan.scattererExponent;
-	const sigma = (b * f0) / (2 * Math.sqrt(1.2 * Math.log(10)));
-	const legs: {center: number; sigma: number; weight: number; passes: number}[] = harmonic
+	// Half the −6 dB width of the pulse-echo amplitude spectrum.
+	const half = (b * f0) / 2;
+	const legs: {center: number; half: number; weight: number; passes: number}[] = harmonic
 		? [
-				{center: f0, sigma, weight: 0, passes: 1},
-				{center: 2 * f0, sigma: 2 * sigma, weight: m, passes: 1},
+				{center: f0, half, weight: 0, passes: 1},
+				{center: 2 * f0, half: 2 * half, weight: m, passes: 1},
 			]
-		: [{center: f0, sigma, weight: m, passes: 2}];
+		: [{center: f0, half, weight: m, passes: 2}];
 
 	return displayedCm.map((d) => {
 		const lengths = pathLengths(plan, d);
@@ -50,15 +52,16 @@ export function bruteForceAttenuationDb(plan: EnginePlan, displayedCm: readonly 
 		};
 		let total = 0;
 		for (const leg of legs) {
-			if (leg.sigma === 0) {
+			if (leg.half === 0) {
 				total += leg.passes * oneWayDb(leg.center);
 				continue;
 			}
-			const fMax = leg.center + 12 * leg.sigma;
+			// Far enough up that the spectrum has fallen by more than 200 dB of power.
+			const fMax = leg.center + leg.half * (200 / 6) ** (1 / p) + leg.half * leg.weight;
 			const h = fMax / points;
 			// Log domain, so deep paths do not underflow to zero.
 			const logAt = (f: number, withPath: boolean) =>
-				-((f - leg.center) ** 2) / (2 * leg.sigma ** 2) +
+				-0.6 * Math.log(10) * (Math.abs(f - leg.center) / leg.half) ** p +
 				(leg.weight ? leg.weight * Math.log(f) : 0) -
 				(withPath ? (Math.log(10) / 10) * leg.passes * oneWayDb(f) : 0);
 			const logIntegral = (withPath: boolean) => {

@@ -22,13 +22,13 @@ export interface PhantomCalibration {
 
 export function noiseBudgetFromPhantom(
 	cal: PhantomCalibration,
-	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'harmonic'>,
+	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'harmonic' | 'spectrumSteepness'>,
 	scattererExponent: number,
 ): number {
 	const phantom = {label: 'calibration phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: cal.alphaDbPerCmMhz, exponent: 1};
 	const model = new PathModel(
 		[{tissue: phantom, thicknessCm: cal.depthCm}],
-		{centerMhz: cal.centerMhz, bandwidthFraction: probe.bandwidthFraction, harmonic: probe.harmonic},
+		{...probe, centerMhz: cal.centerMhz},
 		scattererExponent,
 		1540,
 	);

@@ -46,7 +46,7 @@ export class PathModel {
 	) {
 		this.spans = layerSpans(layers, assumedSpeedMps);
 		this.exponents = [...new Set(layers.map((l) => l.tissue.exponent))];
-		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, probe.harmonic).map(
+		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, probe.harmonic, probe.spectrumSteepness).map(
 			(b) => new BandLossCalculator(b),
 		);
 		this.termsAtTop = [];

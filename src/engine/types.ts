@@ -79,6 +79,12 @@ export interface EnginePlan {
 		readonly centerMhz: number;
 		/** −6 dB full width of the pulse-echo amplitude spectrum / centre frequency; 0 = narrowband. */
 		readonly bandwidthFraction: number;
+		/**
+		 * Steepness p of the pulse-echo amplitude spectrum |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p):
+		 * −6 dB at the same half-width for every p; 2 (the default) is the Gaussian, real probes sit
+		 * around 3–7 (steeper skirts, no low-frequency tail).
+		 */
+		readonly spectrumSteepness?: number;
 		/** Receive at 2·f0 (the outward path at f0, the return path at 2·f0). */
 		readonly harmonic: boolean;
 	};

@@ -23,6 +23,7 @@ export const limits = {
 	exponent: {min: 1, max: 2.5},
 	centerMhz: {min: 0, max: 50, exclusiveMin: true},
 	bandwidthFraction: {min: 0, max: 1.5},
+	spectrumSteepness: {min: 1, max: 10},
 	scattererExponent: {min: 0, max: 6},
 	depthCm: {min: 0, max: 40, exclusiveMin: true},
 	assumedSpeedMps: {min: 1400, max: 1700},
@@ -149,6 +150,8 @@ export const planSchema = z
 		probe: z.strictObject({
 			centerMhz: ranged(limits.centerMhz, 'MHz'),
 			bandwidthFraction: ranged(limits.bandwidthFraction).default(0.6),
+			/** Skirt steepness of the pulse-echo spectrum; absent = 2, the Gaussian (see README). */
+			spectrumSteepness: ranged(limits.spectrumSteepness).optional(),
 			harmonic: z.boolean({error: 'must be true or false'}).default(false),
 		}, {error: 'must be an object with centerMhz'}),
 		scattererExponent: ranged(limits.scattererExponent).default(0),

@@ -2,6 +2,7 @@
  * Turns a validated plan document into the engine's plain input: tissue ids become full records,
  * a phantom calibration becomes a noise budget.
  */
+import {gaussianSteepness} from '../engine/echo-spectrum.js';
 import {noiseBudgetFromPhantom} from '../engine/noise-budget.js';
 import type {EnginePlan, Layer, Tissue} from '../engine/types.js';
 import {
@@ -40,6 +41,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 	const probe = {
 		centerMhz: doc.probe.centerMhz,
 		bandwidthFraction: doc.probe.bandwidthFraction,
+		spectrumSteepness: doc.probe.spectrumSteepness ?? gaussianSteepness,
 		harmonic: doc.probe.harmonic,
 	};
 	const noiseBudgetDb = doc.phantomCalibration
