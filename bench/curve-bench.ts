@@ -124,4 +124,33 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 	note('same depths, brute-force 20,000-point integration', `${median(vs.b.map((m) => m.cpuMs)).toFixed(0)} ms CPU`);
 	target('brute force ÷ fast path, alternated', `${median(vs.cpuRatios).toFixed(0)}× (pairs ${ratioList(vs.cpuRatios)})`, '≥ 50×', median(vs.cpuRatios) >= 50);
 	target('fast path against brute force, largest difference', `${maxDiff.toFixed(5)} dB`, '≤ 0.05 dB', maxDiff <= 0.05);
+
+	await shapeAndModeComparison(plan);
+}
+
+/** Spectrum steepnesses the fast path must match the brute force for (2 is the Gaussian). */
+export const benchSteepnesses = [1, 2, 4, 7, 10] as const;
+
+/**
+ * Fast path against brute force for every spectrum shape and receive mode on the ten-layer plan,
+ * at 1 cm steps (the brute force costs seconds per pass): alternated, medians of the pair ratios.
+ */
+async function shapeAndModeComparison(base: EnginePlan): Promise<void> {
+	const depths = sampleDepths(30, 1);
+	for (const harmonic of [false, true]) {
+		for (const steepness of benchSteepnesses) {
+			const plan: EnginePlan = {...base, probe: {...base.probe, harmonic, spectrumSteepness: steepness}};
+			const fast = () => {
+				const m = pathModelOf(plan);
+				return depths.map((d) => m.at(d).attenuationDb);
+			};
+			const brute = () => bruteForceAttenuationDb(plan, depths, {points: 20000});
+			const vs = await alternate(fast, brute, 3, 1);
+			const reference = brute();
+			const maxDiff = Math.max(...fast().map((v, i) => Math.abs(v - reference[i]!)));
+			const name = `${harmonic ? 'harmonic' : 'fundamental'}, steepness ${steepness}, ${depths.length} depths`;
+			target(`${name}: brute force ÷ fast path`, `${median(vs.cpuRatios).toFixed(0)}×`, '≥ 50×', median(vs.cpuRatios) >= 50);
+			target(`${name}: largest difference`, `${maxDiff.toFixed(5)} dB`, '≤ 0.05 dB', maxDiff <= 0.05);
+		}
+	}
 }
