@@ -217,15 +217,21 @@ class BandIntegrand {
 	}
 }
 
-/** ∫ exp(g(f) − gPeak) df and ∫ f·exp(g(f) − gPeak) df over [a, b] by Gauss–Legendre. */
-function panel(ig: BandIntegrand, a: number, b: number, gPeak: number): [number, number] {
+/** A smooth, slowly varying log-factor multiplying the integrand (the tissue harmonic's build-up),
+ * bounded above by `maxNp` over the band relative to its value at the envelope's peak. */
+export interface LogFactor {
+	(f: number): number;
+}
+
+/** ∫ exp(g(f) + x(f) − gPeak) df and ∫ f·exp(…) df over [a, b] by Gauss–Legendre. */
+function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, extra?: LogFactor): [number, number] {
 	const half = (b - a) / 2;
 	const mid = (a + b) / 2;
 	let s0 = 0;
 	let s1 = 0;
 	for (let i = 0; i < glNodes.length; i++) {
 		const f = mid + half * glNodes[i]!;
-		const v = glWeights[i]! * Math.exp(ig.log(f) - gPeak);
+		const v = glWeights[i]! * Math.exp(ig.log(f) + (extra ? extra(f) : 0) - gPeak);
 		s0 += v;
 		s1 += v * f;
 	}
@@ -277,10 +283,25 @@ function panelEdges(fp: number, edge: number, shoulder: number, kink: number): n
 	return edges.sort((a, b) => (edge > fp ? a - b : b - a));
 }
 
-/** ln ∫ integrand df and the centroid, integrating around the peak. */
-function logIntegral(ig: BandIntegrand, halfWidth: number, f0: number, steepness: number, peakGuess?: number): {logMass: number; centroid: number; peak: number} {
+/** The window reaches this much further when a build-up factor multiplies the integrand. */
+const extraWindowNp = 12;
+
+/**
+ * ln ∫ integrand df and the centroid, integrating around the peak. With `extra`, the window and the
+ * panels come from the (log-concave) envelope, widened, and the factor is applied on the nodes.
+ */
+function logIntegral(
+	ig: BandIntegrand,
+	halfWidth: number,
+	f0: number,
+	steepness: number,
+	peakGuess?: number,
+	extra?: LogFactor,
+): {logMass: number; centroid: number; peak: number} {
 	const fp = ig.peak(peakGuess);
-	const gPeak = ig.log(fp > 0 ? fp : Number.MIN_VALUE);
+	const gEnvelope = ig.log(fp > 0 ? fp : Number.MIN_VALUE);
+	// Scale by the factor at the peak so the exponentials stay near 1.
+	const gPeak = gEnvelope + (extra ? extra(fp > 0 ? fp : Number.MIN_VALUE) : 0);
 	const c = ig.curvature(fp > 0 ? fp : 1e-9);
 	// Width scale of the peak: the curvature where it is meaningful, never wider than the spectrum.
 	let w = Number.isFinite(c) && c < 0 ? Math.min(halfWidth, 1 / Math.sqrt(-c)) : halfWidth;
@@ -290,16 +311,16 @@ function logIntegral(ig: BandIntegrand, halfWidth: number, f0: number, steepness
 	let m1 = 0;
 	for (const dir of [1, -1] as const) {
 		if (dir < 0 && fp === 0) continue;
-		const edge = fallPoint(ig, fp, gPeak, dir, step, windowDropNp, 4);
+		const edge = fallPoint(ig, fp, gEnvelope, dir, step, windowDropNp + (extra ? extraWindowNp : 0), 4);
 		if (edge === fp) continue;
 		// A Gaussian needs no shoulder panel (one panel per side is exact to < 0.001 dB).
-		const shoulder = steepness > 2 ? fallPoint(ig, fp, gPeak, dir, step, 1, 0.6) : edge;
+		const shoulder = steepness > 2 || extra ? fallPoint(ig, fp, gEnvelope, dir, step, 1, 0.6) : edge;
 		const edges = panelEdges(fp, edge, shoulder, steepness < 2 ? f0 : fp);
 		for (let i = 1; i < edges.length; i++) {
 			const a = Math.min(edges[i - 1]!, edges[i]!);
 			const b = Math.max(edges[i - 1]!, edges[i]!);
 			if (b <= a) continue;
-			const [s0, s1] = panel(ig, a, b, gPeak);
+			const [s0, s1] = panel(ig, a, b, gPeak, extra);
 			m0 += s0;
 			m1 += s1;
 		}
@@ -308,6 +329,12 @@ function logIntegral(ig: BandIntegrand, halfWidth: number, f0: number, steepness
 }
 
 const emptyPath: PathTerms = {exponents: [], coefficients: []};
+
+/** ln ∫ band integrand × e^extra df over f > 0 and its centroid (the tissue harmonic's integral). */
+export function bandLogMass(band: Band, terms: PathTerms, extra?: LogFactor, peakGuess?: number): {logMass: number; centroidMhz: number; peak: number} {
+	const r = logIntegral(new BandIntegrand(band, terms), band.halfWidthMhz, band.centerMhz, band.steepness, peakGuess, extra);
+	return {logMass: r.logMass, centroidMhz: r.centroid, peak: r.peak};
+}
 
 /**
  * Caches the no-path normalisation of each band, so each depth costs one integral per band.

@@ -42,11 +42,17 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		centerMhz: doc.probe.centerMhz,
 		bandwidthFraction: doc.probe.bandwidthFraction,
 		spectrumSteepness: doc.probe.spectrumSteepness ?? gaussianSteepness,
-		harmonic: doc.probe.harmonic,
+		receive: doc.probe.receive ?? 'fundamental',
 	};
 	const noiseBudgetDb = doc.phantomCalibration
 		? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
 		: (doc.noiseBudgetDb ?? defaultNoiseBudgetDb);
+	// The default budget is a fundamental figure; a stated one is for the mode it says (fundamental if it does not).
+	const noiseBudgetReceive = doc.phantomCalibration
+		? (doc.phantomCalibration.receive ?? 'fundamental')
+		: doc.noiseBudgetDb !== undefined
+			? (doc.noiseBudgetReceive ?? 'fundamental')
+			: 'fundamental';
 	return {
 		name: doc.name,
 		region: doc.region,
@@ -61,6 +67,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 			baseDb: doc.masterGain.baseDb ?? (doc.masterGain.minDb + doc.masterGain.maxDb) / 2,
 		},
 		noiseBudgetDb,
+		noiseBudgetReceive,
 	};
 }
 

@@ -20,7 +20,7 @@ function layered(steepness: number, bandwidthFraction: number, harmonic = false)
 		{tissue: tissue('liver'), thicknessCm: 8},
 		{tissue: tissue('spleen'), thicknessCm: 20},
 	], {centerMhz: 3.5, bandwidthFraction, depthCm: 24});
-	return {...p, scattererExponent: 1.4, probe: {...p.probe, harmonic, spectrumSteepness: steepness}};
+	return {...p, scattererExponent: 1.4, probe: {...p.probe, receive: harmonic ? 'scatterer-harmonic' : 'fundamental', spectrumSteepness: steepness}};
 }
 
 describe('spectrum shape |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p)', () => {
