@@ -437,7 +437,7 @@ function uncalibratedCost(
 	const alphaWith = (range: number, rampShift: number): number => {
 		const map = logLevelMap(range);
 		const levelOf = (m: BandMeasurement) => map.levelDb(m.meanGrey);
-		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * (plan.probe.harmonic ? 3 : 2) * plan.probe.centerMhz * d);
+		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * ((plan.probe.receive ?? 'fundamental') !== 'fundamental' ? 3 : 2) * plan.probe.centerMhz * d);
 		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
 		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf);
 		const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);

@@ -4,7 +4,7 @@ import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
 import {limits} from '../plan/plan-schema.js';
 import {targetDepthOf} from '../plan/plan-target.js';
 import {cautionLine} from '../report/cautions.js';
-import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
+import {ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
 import {numberListOption, numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
@@ -36,7 +36,7 @@ export function registerLadderCommand(program: Command): void {
 							marginDb: margin,
 							highestReachingMhz: ladder.highestReachingMhz,
 							rungs: ladder.rungs.map((r) => ({...r, penetrationDepthCm: r.penetrationDepthCm === null ? null : Number(r.penetrationDepthCm.toFixed(3))})),
-							notes: [ladderSimplification, ...(plan.probe.harmonic ? [harmonicSimplification] : [])],
+							notes: [ladderSimplification, ...(receiveModeNote(plan.probe.receive) ? [receiveModeNote(plan.probe.receive)!] : [])],
 							caution: cautionLine,
 						},
 						null,
@@ -52,7 +52,8 @@ export function registerLadderCommand(program: Command): void {
 			}
 			lines.push(ladder.highestReachingMhz === null ? '  no frequency in the list reaches the target' : `  highest frequency that reaches it: ${ladder.highestReachingMhz} MHz`);
 			lines.push(`  ${ladderSimplification}`);
-			if (plan.probe.harmonic) lines.push(`  ${harmonicSimplification}`);
+			const modeNote = receiveModeNote(plan.probe.receive);
+			if (modeNote) lines.push(`  ${modeNote}`);
 			lines.push(`  ${cautionLine}`);
 			process.stdout.write(lines.join('\n') + '\n');
 		});

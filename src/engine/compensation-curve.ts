@@ -9,7 +9,7 @@
 import {PathModel, type Barrier} from './path-model.js';
 import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
-import {harmonicSimplification} from './model-notes.js';
+import {receiveWarnings} from './receive-notes.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit, Tissue} from './types.js';
 
@@ -62,7 +62,8 @@ function spreadLayers(layers: readonly Layer[], end: 'low' | 'high', centerMhz: 
  * round trip at the slider bank's ramp slope (out at f0 and back at f0, or at 2·f0 with harmonic receive).
  */
 export function builtInRampDb(plan: EnginePlan, displayedCm: number): number {
-	const legsMhz = plan.probe.harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
+	const harmonic = (plan.probe.receive ?? 'fundamental') !== 'fundamental';
+	const legsMhz = harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
 	return plan.sliders.rampDbPerCmMhz * legsMhz * displayedCm;
 }
 
@@ -179,6 +180,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		depthsCm: samples.map((s) => s.displayedDepthCm),
 		targetDb: samples.map((s) => controlTargetDb(plan, s)),
 		usableDepthCm,
+		fitFromCm: nominal.referenceDisplayedCm,
 		bank: plan.sliders,
 		displayDepthCm: depthCm,
 		master: plan.masterGain,
@@ -204,7 +206,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 			depthCm: fit.residualAtCm,
 		});
 	}
-	if (plan.probe.harmonic) warnings.push({code: 'harmonic-simplified', severity: 'note', message: harmonicSimplification});
+	warnings.push(...receiveWarnings(plan));
 	for (const span of nominal.spans) {
 		const c = span.layer.tissue.speedMps;
 		const misdrawn = span.stretch - 1;

@@ -1,17 +1,23 @@
 /**
  * Broadband echo loss: how much of a pulse's energy survives a power-law attenuating path.
  *
- * The pulse-echo power spectrum is a Gaussian P0(f) ∝ exp(−(f − f0)²/(2σ²)) on f > 0, weighted by
- * the scatterer's f^m. The path multiplies it by 10^(−k·E(f)/10), where E(f) = Σ A_j·f^(n_j) is the
+ * The pulse-echo amplitude spectrum is a generalized normal window
+ * |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p) on f > 0: −6 dB at f0 ± B·f0/2 for every steepness p, and
+ * p = 2 is the Gaussian P0(f) ∝ exp(−(f − f0)²/(2σ²)) (the window form of Garcia 2022, Comput Methods
+ * Programs Biomed 218:106726, from memory; there −6.02 dB). The power spectrum |H|² is weighted by the
+ * scatterer's f^m. The path multiplies it by 10^(−k·E(f)/10), where E(f) = Σ A_j·f^(n_j) is the
  * one-way attenuation (dB) accumulated over the layers crossed and k = 2 for a round trip.
  * Because high frequencies die first the surviving spectrum slides down (spectral downshift), so
  * the loss is smaller than the narrowband 2·α(f0)·z (Kuc 1984, IEEE Trans ASSP 32(1):1–6; closed
  * form for n = 1: L = A·(f0 + fc), fc = f0 − 0.4605·σ²·A).
  *
  * The integral is evaluated with Gauss–Legendre quadrature on a window placed around the
- * integrand's peak. With n ≥ 1 and m ≥ 0 the log-integrand is concave, so the peak is unique and
- * the window [peak − …, peak + …] that ends where the integrand has fallen by e^−36 holds all of
- * the mass. This stays exact deep in tissue, where the spectrum piles up against 0 MHz and a
+ * integrand's peak. With n ≥ 1, m ≥ 0 and p ≥ 1 the log-integrand is concave (|x|^p is convex for
+ * p ≥ 1, so −c·|x|^p is concave; f^n with n ≥ 1 is convex; m·ln f is concave), so the peak is unique,
+ * the integrand falls monotonically on each side of it, and the window that ends where it has fallen
+ * by e^−36 holds all of the mass. The window edges are found by expanding and then bisecting on the
+ * fall itself, so they do not depend on the spectrum's shape, and the panels are split at f0 (where
+ * |x|^p has no second derivative for p < 2) and at the shoulders of flat-topped spectra. This stays exact deep in tissue, where the spectrum piles up against 0 MHz and a
  * fixed frequency grid (or a quadrature over all real f) goes wrong.
  */
 
@@ -24,9 +30,34 @@ const windowDropNp = 36;
  * against the brute-force reference (see the engine tests and bench). */
 const nodesPerPanel = 24;
 
+/** ln of the power spectrum |H|² at x = (f − f0)/half-width: −(6/10)·ln10·|x|^p, so −6 dB (of power
+ * and of amplitude alike) at |x| = 1. */
+const spectrumNp = 0.6 * ln10;
+
+/** Steepness of today's Gaussian (and the plan default). */
+export const gaussianSteepness = 2;
+
+/**
+ * The steepness to pick when a data sheet gives only the −6 dB fractional bandwidth B: the p that
+ * makes the response vanish at 0 MHz (2^−126 of its peak), p = ln 126 / ln(2/B), as one published
+ * simulator does (Garcia 2022, Comput Methods Programs Biomed 218:106726; the rule read from its
+ * source, citation from memory). 4.0 / 5.3 / 7.0 for 60 / 80 / 100 %; kept within 1–10.
+ */
+export function steepnessForBandwidth(bandwidthFraction: number): number {
+	if (bandwidthFraction <= 0) return gaussianSteepness;
+	const p = Math.log(126) / Math.log(2 / bandwidthFraction);
+	return p > 0 && Number.isFinite(p) ? Math.min(10, Math.max(1, p)) : 10;
+}
+
 /** σ of the Gaussian POWER spectrum from a −6 dB fractional bandwidth: σ = B·f0 / (2·√(1.2·ln10)). */
 export function sigmaFromBandwidth(centerMhz: number, bandwidthFraction: number): number {
 	return (bandwidthFraction * centerMhz) / (2 * Math.sqrt(1.2 * ln10));
+}
+
+/** ln of the pulse-echo power spectrum (peak 0) at f, for half-width h = B·f0/2 and steepness p. */
+export function logSpectrum(f: number, centerMhz: number, halfWidthMhz: number, steepness: number): number {
+	const x = Math.abs(f - centerMhz) / halfWidthMhz;
+	return -spectrumNp * (steepness === 2 ? x * x : x ** steepness);
 }
 
 /** One-way path attenuation E(f) = Σ coefficient·f^exponent (dB), grouped by distinct exponent. */
@@ -39,8 +70,10 @@ export interface PathTerms {
 /** One frequency band that crosses the path: a transmit leg, a receive leg or both. */
 export interface Band {
 	readonly centerMhz: number;
-	/** σ of the power spectrum, MHz; 0 = narrowband. */
-	readonly sigmaMhz: number;
+	/** Half the −6 dB width of the pulse-echo amplitude spectrum (B·f0/2), MHz; 0 = narrowband. */
+	readonly halfWidthMhz: number;
+	/** Steepness p of the spectrum's skirts (2: Gaussian). */
+	readonly steepness: number;
 	/** Scatterer weighting f^m applied on this band. */
 	readonly weightExponent: number;
 	/** How many times the band crosses the path: 2 for a round trip, 1 for one leg. */
@@ -120,97 +153,188 @@ const glWeights: number[] = [];
 
 /** A band with the path already fixed: evaluates the log-integrand and its derivatives. */
 class BandIntegrand {
+	private readonly f0: number;
+	private readonly h: number;
+	private readonly p: number;
+	private readonly m: number;
+	private readonly k: number;
+
 	constructor(
-		private readonly band: Band,
+		band: Band,
 		private readonly terms: PathTerms,
-	) {}
+	) {
+		this.f0 = band.centerMhz;
+		this.h = band.halfWidthMhz;
+		this.p = band.steepness;
+		this.m = band.weightExponent;
+		this.k = kappa * band.legs;
+	}
 
 	/** ln of the integrand at f > 0. */
 	log(f: number): number {
-		const {centerMhz: f0, sigmaMhz: s, weightExponent: m, legs} = this.band;
-		const d = f - f0;
+		const x = Math.abs(f - this.f0) / this.h;
 		const lnF = Math.log(f);
-		return -(d * d) / (2 * s * s) + (m === 0 ? 0 : m * lnF) - kappa * legs * pathDbAt(this.terms, f, lnF);
+		const shape = this.p === 2 ? x * x : x ** this.p;
+		return -spectrumNp * shape + (this.m === 0 ? 0 : this.m * lnF) - this.k * pathDbAt(this.terms, f, lnF);
 	}
 
 	slope(f: number): number {
-		const {centerMhz: f0, sigmaMhz: s, weightExponent: m, legs} = this.band;
-		return -(f - f0) / (s * s) + (m === 0 ? 0 : m / f) - kappa * legs * pathSlope(this.terms, f);
+		const d = f - this.f0;
+		const x = Math.abs(d) / this.h;
+		const p = this.p;
+		const shape = p === 2 ? (2 * d) / (this.h * this.h) : (Math.sign(d) * p * x ** (p - 1)) / this.h;
+		return -spectrumNp * shape + (this.m === 0 ? 0 : this.m / f) - this.k * pathSlope(this.terms, f);
 	}
 
+	/** Second derivative; −∞ at f0 when p < 2 (the kink of |x|^p). */
 	curvature(f: number): number {
-		const {sigmaMhz: s, weightExponent: m, legs} = this.band;
-		return -1 / (s * s) - (m === 0 ? 0 : m / (f * f)) - kappa * legs * pathCurvature(this.terms, f);
+		const x = Math.abs(f - this.f0) / this.h;
+		const p = this.p;
+		const shape = p === 2 ? 2 : p === 1 ? 0 : p * (p - 1) * x ** (p - 2);
+		return (-spectrumNp * shape) / (this.h * this.h) - (this.m === 0 ? 0 : this.m / (f * f)) - this.k * pathCurvature(this.terms, f);
 	}
 
-	/** Peak of the (log-concave) integrand on f ≥ 0: bracketed Newton on the slope. */
+	/** Peak of the (log-concave) integrand on f ≥ 0: bracketed Newton on the slope, bisection where
+	 * Newton cannot step (a kink at f0 or a flat top). */
 	peak(start?: number): number {
-		const {centerMhz: f0, sigmaMhz: s, weightExponent: m} = this.band;
+		const {f0, h, m} = this;
 		if (m === 0 && this.slope(0) <= 0) return 0;
 		let lo = 0;
-		let hi = Math.max(f0, s) + 10 * s + m * s;
+		let hi = f0 + 12 * h + 2 * m * h + 1;
 		let f = Math.min(Math.max(start ?? f0, 1e-6), hi);
-		for (let it = 0; it < 100; it++) {
+		for (let it = 0; it < 200; it++) {
 			const g = this.slope(f);
+			if (g === 0) return f;
 			if (g > 0) lo = f;
 			else hi = f;
-			let next = f - g / this.curvature(f);
+			const c = this.curvature(f);
+			let next = Number.isFinite(c) && c < 0 ? f - g / c : Number.NaN;
 			if (!(next > lo && next < hi)) next = (lo + hi) / 2;
-			if (Math.abs(next - f) <= 1e-12 * Math.max(1, f)) return next;
+			if (Math.abs(next - f) <= 1e-12 * Math.max(1, f) || hi - lo <= 1e-13 * Math.max(1, f)) return next;
 			f = next;
 		}
 		return f;
 	}
 }
 
-/** ∫ exp(g(f) − gPeak) df and ∫ f·exp(g(f) − gPeak) df over [a, b] by Gauss–Legendre. */
-function panel(ig: BandIntegrand, a: number, b: number, gPeak: number): [number, number] {
+/** A smooth, slowly varying log-factor multiplying the integrand (the tissue harmonic's build-up),
+ * bounded above by `maxNp` over the band relative to its value at the envelope's peak. */
+export interface LogFactor {
+	(f: number): number;
+}
+
+/** ∫ exp(g(f) + x(f) − gPeak) df and ∫ f·exp(…) df over [a, b] by Gauss–Legendre. */
+function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, extra?: LogFactor): [number, number] {
 	const half = (b - a) / 2;
 	const mid = (a + b) / 2;
 	let s0 = 0;
 	let s1 = 0;
 	for (let i = 0; i < glNodes.length; i++) {
 		const f = mid + half * glNodes[i]!;
-		const v = glWeights[i]! * Math.exp(ig.log(f) - gPeak);
+		const v = glWeights[i]! * Math.exp(ig.log(f) + (extra ? extra(f) : 0) - gPeak);
 		s0 += v;
 		s1 += v * f;
 	}
 	return [s0 * half, s1 * half];
 }
 
-/** ln ∫ integrand df and the centroid, integrating around the peak. */
-function logIntegral(ig: BandIntegrand, sigma: number, peakGuess?: number): {logMass: number; centroid: number; peak: number} {
-	const fp = ig.peak(peakGuess);
-	const gPeak = ig.log(fp > 0 ? fp : Number.MIN_VALUE);
-	const c = ig.curvature(fp > 0 ? fp : 1e-9);
-	// Width scale of the peak; at the 0 MHz edge the decay rate sets it instead.
-	let w = Number.isFinite(c) && c < 0 ? 1 / Math.sqrt(-c) : sigma;
-	if (fp === 0) w = Math.min(sigma, 1 / Math.max(1e-12, -ig.slope(Number.MIN_VALUE)));
-	const reach = (dir: 1 | -1): number => {
-		let k = 4;
-		for (;;) {
-			const f = fp + dir * k * w;
-			if (dir < 0 && f <= 0) return 0;
-			if (ig.log(f) - gPeak < -windowDropNp || k > 1e6) return f;
-			k *= 1.6;
+/**
+ * Where, going from the peak in one direction, the log-integrand has fallen by about `dropNp`
+ * (anywhere within `toleranceNp` of it will do): expand from `step` until past it, then bisect.
+ * Log-concavity makes the fall monotone on each side. Returns 0 on the left when the fall never
+ * gets that far above 0 MHz.
+ */
+function fallPoint(ig: BandIntegrand, fp: number, gPeak: number, dir: 1 | -1, step: number, dropNp: number, toleranceNp: number): number {
+	const fall = (f: number) => gPeak - ig.log(f > 0 ? f : Number.MIN_VALUE);
+	let near = fp;
+	let far: number;
+	for (let k = step; ; k *= 2) {
+		const f = fp + dir * k;
+		if (dir < 0 && f <= 0) {
+			if (fall(0) < dropNp) return 0;
+			far = 0;
+			break;
 		}
-	};
-	const right = reach(1);
-	const left = fp > 0 ? reach(-1) : 0;
+		const g = fall(f);
+		if (Math.abs(g - dropNp) <= toleranceNp) return f;
+		if (g > dropNp || k > 1e6) {
+			far = f;
+			break;
+		}
+		near = f;
+	}
+	for (let it = 0; it < 60; it++) {
+		const mid = (near + far) / 2;
+		const g = fall(mid);
+		if (Math.abs(g - dropNp) <= toleranceNp) return mid;
+		if (g > dropNp) far = mid;
+		else near = mid;
+	}
+	return far;
+}
+
+/** Panel edges from the peak out to one window edge: the shoulder where the integrand has fallen by
+ * 1 Np and, when it lies between, the spectrum's centre `kink` (f0 for p < 2, where |x|^p has a corner). */
+function panelEdges(fp: number, edge: number, shoulder: number, kink: number): number[] {
+	const edges = [fp, shoulder, edge].filter((v, i, all) => i === 0 || Math.abs(v - all[i - 1]!) > 0);
+	const lo = Math.min(fp, edge);
+	const hi = Math.max(fp, edge);
+	if (kink > lo && kink < hi && !edges.includes(kink)) edges.push(kink);
+	return edges.sort((a, b) => (edge > fp ? a - b : b - a));
+}
+
+/** The window reaches this much further when a build-up factor multiplies the integrand. */
+const extraWindowNp = 12;
+
+/**
+ * ln ∫ integrand df and the centroid, integrating around the peak. With `extra`, the window and the
+ * panels come from the (log-concave) envelope, widened, and the factor is applied on the nodes.
+ */
+function logIntegral(
+	ig: BandIntegrand,
+	halfWidth: number,
+	f0: number,
+	steepness: number,
+	peakGuess?: number,
+	extra?: LogFactor,
+): {logMass: number; centroid: number; peak: number} {
+	const fp = ig.peak(peakGuess);
+	const gEnvelope = ig.log(fp > 0 ? fp : Number.MIN_VALUE);
+	// Scale by the factor at the peak so the exponentials stay near 1.
+	const gPeak = gEnvelope + (extra ? extra(fp > 0 ? fp : Number.MIN_VALUE) : 0);
+	const c = ig.curvature(fp > 0 ? fp : 1e-9);
+	// Width scale of the peak: the curvature where it is meaningful, never wider than the spectrum.
+	let w = Number.isFinite(c) && c < 0 ? Math.min(halfWidth, 1 / Math.sqrt(-c)) : halfWidth;
+	if (fp === 0) w = Math.min(halfWidth, 1 / Math.max(1e-12, -ig.slope(Number.MIN_VALUE)));
+	const step = w / 4;
 	let m0 = 0;
 	let m1 = 0;
-	if (fp > left) {
-		const [a0, a1] = panel(ig, left, fp, gPeak);
-		m0 += a0;
-		m1 += a1;
+	for (const dir of [1, -1] as const) {
+		if (dir < 0 && fp === 0) continue;
+		const edge = fallPoint(ig, fp, gEnvelope, dir, step, windowDropNp + (extra ? extraWindowNp : 0), 4);
+		if (edge === fp) continue;
+		// A Gaussian needs no shoulder panel (one panel per side is exact to < 0.001 dB).
+		const shoulder = steepness > 2 || extra ? fallPoint(ig, fp, gEnvelope, dir, step, 1, 0.6) : edge;
+		const edges = panelEdges(fp, edge, shoulder, steepness < 2 ? f0 : fp);
+		for (let i = 1; i < edges.length; i++) {
+			const a = Math.min(edges[i - 1]!, edges[i]!);
+			const b = Math.max(edges[i - 1]!, edges[i]!);
+			if (b <= a) continue;
+			const [s0, s1] = panel(ig, a, b, gPeak, extra);
+			m0 += s0;
+			m1 += s1;
+		}
 	}
-	const [b0, b1] = panel(ig, fp, right, gPeak);
-	m0 += b0;
-	m1 += b1;
 	return {logMass: gPeak + Math.log(m0), centroid: m1 / m0, peak: fp};
 }
 
 const emptyPath: PathTerms = {exponents: [], coefficients: []};
+
+/** ln ∫ band integrand × e^extra df over f > 0 and its centroid (the tissue harmonic's integral). */
+export function bandLogMass(band: Band, terms: PathTerms, extra?: LogFactor, peakGuess?: number): {logMass: number; centroidMhz: number; peak: number} {
+	const r = logIntegral(new BandIntegrand(band, terms), band.halfWidthMhz, band.centerMhz, band.steepness, peakGuess, extra);
+	return {logMass: r.logMass, centroidMhz: r.centroid, peak: r.peak};
+}
 
 /**
  * Caches the no-path normalisation of each band, so each depth costs one integral per band.
@@ -221,7 +345,8 @@ export class BandLossCalculator {
 	private lastPeak: number | undefined;
 
 	constructor(readonly band: Band) {
-		this.reference = band.sigmaMhz > 0 ? logIntegral(new BandIntegrand(band, emptyPath), band.sigmaMhz) : undefined;
+		this.reference =
+			band.halfWidthMhz > 0 ? logIntegral(new BandIntegrand(band, emptyPath), band.halfWidthMhz, band.centerMhz, band.steepness) : undefined;
 	}
 
 	/** Loss and surviving centroid after `terms` (one-way dB coefficients) is crossed `legs` times. */
@@ -230,7 +355,7 @@ export class BandLossCalculator {
 		if (!this.reference) {
 			return {lossDb: band.legs * pathDb(terms, band.centerMhz), centroidMhz: band.centerMhz};
 		}
-		const r = logIntegral(new BandIntegrand(band, terms), band.sigmaMhz, this.lastPeak);
+		const r = logIntegral(new BandIntegrand(band, terms), band.halfWidthMhz, band.centerMhz, band.steepness, this.lastPeak);
 		this.lastPeak = r.peak > 0 ? r.peak : undefined;
 		return {lossDb: (-10 / ln10) * (r.logMass - this.reference.logMass), centroidMhz: r.centroid};
 	}
@@ -242,13 +367,14 @@ export function probeBands(
 	bandwidthFraction: number,
 	scattererExponent: number,
 	harmonic: boolean,
+	steepness = gaussianSteepness,
 ): Band[] {
-	const sigma = sigmaFromBandwidth(centerMhz, bandwidthFraction);
-	if (!harmonic) return [{centerMhz, sigmaMhz: sigma, weightExponent: scattererExponent, legs: 2}];
+	const halfWidthMhz = (bandwidthFraction * centerMhz) / 2;
+	if (!harmonic) return [{centerMhz, halfWidthMhz, steepness, weightExponent: scattererExponent, legs: 2}];
 	// Simplification (stated in outputs): the harmonic is taken as present from the skin, the outward
 	// leg sees the transmit band and the return leg a band at 2·f0 with the same fractional width.
 	return [
-		{centerMhz, sigmaMhz: sigma, weightExponent: 0, legs: 1},
-		{centerMhz: 2 * centerMhz, sigmaMhz: 2 * sigma, weightExponent: scattererExponent, legs: 1},
+		{centerMhz, halfWidthMhz, steepness, weightExponent: 0, legs: 1},
+		{centerMhz: 2 * centerMhz, halfWidthMhz: 2 * halfWidthMhz, steepness, weightExponent: scattererExponent, legs: 1},
 	];
 }

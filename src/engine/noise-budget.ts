@@ -9,7 +9,7 @@
  * scanner settings are the same.
  */
 import {PathModel} from './path-model.js';
-import type {EnginePlan} from './types.js';
+import type {EnginePlan, ReceiveMode} from './types.js';
 
 export interface PhantomCalibration {
 	/** Probe centre frequency used in the phantom, MHz. */
@@ -18,17 +18,20 @@ export interface PhantomCalibration {
 	readonly depthCm: number;
 	/** Phantom attenuation slope, dB/cm/MHz, linear in f. */
 	readonly alphaDbPerCmMhz: number;
+	/** Receive mode the reach was measured in; absent = fundamental. The budget is worked out in
+	 * that mode: a reach measured in fundamental does not give the harmonic budget. */
+	readonly receive?: ReceiveMode;
 }
 
 export function noiseBudgetFromPhantom(
 	cal: PhantomCalibration,
-	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'harmonic'>,
+	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'spectrumSteepness'>,
 	scattererExponent: number,
 ): number {
 	const phantom = {label: 'calibration phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: cal.alphaDbPerCmMhz, exponent: 1};
 	const model = new PathModel(
 		[{tissue: phantom, thicknessCm: cal.depthCm}],
-		{centerMhz: cal.centerMhz, bandwidthFraction: probe.bandwidthFraction, harmonic: probe.harmonic},
+		{bandwidthFraction: probe.bandwidthFraction, spectrumSteepness: probe.spectrumSteepness, centerMhz: cal.centerMhz, receive: cal.receive ?? 'fundamental'},
 		scattererExponent,
 		1540,
 	);

@@ -4,8 +4,16 @@
  */
 import {BandLossCalculator, probeBands, type PathTerms} from './echo-spectrum.js';
 import {barrierReflection, reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
-import {layerSpans, spanAtDisplayed, trueDepthAt, type LayerSpan} from './layer-geometry.js';
-import type {EnginePlan, Layer} from './types.js';
+import {displayedDepthOf, layerSpans, spanAtDisplayed, trueDepthAt, type LayerSpan} from './layer-geometry.js';
+import {
+	buildUpStrength,
+	harmonicNearFieldFloorCm,
+	harmonicReferenceCm,
+	TissueHarmonicCalculator,
+	type BuildUpPath,
+	type BuildUpSegment,
+} from './tissue-harmonic.js';
+import type {EnginePlan, Layer, ReceiveMode} from './types.js';
 
 /** One-way α0 (dB/cm/MHzⁿ) at or above which a layer is an absorber that shadows everything
  * beyond it at diagnostic frequencies (bone ≥ 13, lung 40; tendon 1.3). Common practice, no source. */
@@ -36,6 +44,9 @@ export class PathModel {
 	/** Per layer: round-trip interface loss accumulated above its top, dB. */
 	private readonly interfaceAtTop: number[];
 	private readonly bands: BandLossCalculator[];
+	/** Tissue-harmonic receive: the build-up calculator and its level at the reference depth. */
+	private readonly harmonic: {calculator: TissueHarmonicCalculator; referenceLogPower: number} | null = null;
+	readonly receive: ReceiveMode;
 	readonly barrier: Barrier | null;
 
 	constructor(
@@ -46,7 +57,8 @@ export class PathModel {
 	) {
 		this.spans = layerSpans(layers, assumedSpeedMps);
 		this.exponents = [...new Set(layers.map((l) => l.tissue.exponent))];
-		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, probe.harmonic).map(
+		this.receive = probe.receive ?? 'fundamental';
+		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, this.receive === 'scatterer-harmonic', probe.spectrumSteepness).map(
 			(b) => new BandLossCalculator(b),
 		);
 		this.termsAtTop = [];
@@ -72,6 +84,37 @@ export class PathModel {
 			}
 		});
 		this.barrier = barrier;
+		if (this.receive === 'tissue-harmonic') {
+			const calculator = new TissueHarmonicCalculator(probe.centerMhz, (probe.bandwidthFraction * probe.centerMhz) / 2, probe.spectrumSteepness ?? 2, scattererExponent);
+			const referenceLogPower = calculator.level(this.buildUpPathAt(harmonicReferenceCm)).logPower;
+			this.harmonic = {calculator, referenceLogPower};
+		}
+	}
+
+	/** The layers crossed down to a true depth, for the harmonic build-up. */
+	private buildUpPathAt(trueCm: number): BuildUpPath {
+		const span = this.spans.find((s) => trueCm <= s.trueBottomCm) ?? this.spans[this.spans.length - 1]!;
+		const terms = this.termsAt(span, trueCm);
+		const segments: BuildUpSegment[] = [];
+		for (const s of this.spans) {
+			if (s.index > span.index) break;
+			const t = s.layer.tissue;
+			const last = s.index === span.index;
+			segments.push({
+				strength: buildUpStrength(t),
+				lengthCm: (last ? trueCm : s.trueBottomCm) - s.trueTopCm,
+				alphaDbPerCmMhz: t.alphaDbPerCmMhz,
+				exponent: t.exponent,
+				bottom: last ? terms.coefficients : this.termsAtTop[s.index + 1]!,
+			});
+		}
+		return {terms, segments};
+	}
+
+	/** Displayed depth the fit and the penetration search start from: below the harmonic's build-up
+	 * reference for tissue-harmonic receive, the skin otherwise. */
+	get referenceDisplayedCm(): number {
+		return this.harmonic ? displayedDepthOf(this.spans, harmonicReferenceCm) : 0;
 	}
 
 	/** One-way path terms to a true depth inside a given span. */
@@ -89,6 +132,16 @@ export class PathModel {
 		const terms = this.termsAt(span, trueCm);
 		let attenuationDb = 0;
 		let echoCenterMhz = 0;
+		if (this.harmonic) {
+			const level = this.harmonic.calculator.level(this.buildUpPathAt(Math.max(trueCm, harmonicNearFieldFloorCm)));
+			return {
+				trueDepthCm: trueCm,
+				layerIndex: span.index,
+				attenuationDb: (-10 / Math.log(10)) * (level.logPower - this.harmonic.referenceLogPower),
+				interfaceLossDb: this.interfaceAtTop[span.index]!,
+				echoCenterMhz: level.centroidMhz,
+			};
+		}
 		for (const band of this.bands) {
 			const l = band.loss(terms);
 			attenuationDb += l.lossDb;
@@ -111,12 +164,28 @@ export class PathModel {
 
 	/**
 	 * Displayed depth where the loss first reaches `budgetDb`, searched up to `maxCm`; null if it
-	 * never does. The loss only grows with depth, so bisection is safe.
+	 * never does. The fundamental loss only grows with depth, so bisection is safe. The tissue
+	 * harmonic's falls first (build-up) and then grows, so the search starts at its reference depth
+	 * and steps down to the first crossing before bisecting.
 	 */
 	depthForLoss(budgetDb: number, maxCm: number): number | null {
-		if (this.lossAt(maxCm) <= budgetDb) return null;
 		let lo = 0;
 		let hi = maxCm;
+		if (this.harmonic) {
+			const start = Math.min(this.referenceDisplayedCm, maxCm);
+			let crossed = false;
+			for (let d = start; d < maxCm + 0.25; d += 0.25) {
+				const x = Math.min(d, maxCm);
+				if (this.lossAt(x) > budgetDb) {
+					hi = x;
+					crossed = true;
+					break;
+				}
+				lo = x;
+			}
+			if (!crossed) return null;
+			if (hi === start) return start;
+		} else if (this.lossAt(maxCm) <= budgetDb) return null;
 		while (hi - lo > 1e-5) {
 			const mid = (lo + hi) / 2;
 			if (this.lossAt(mid) > budgetDb) hi = mid;

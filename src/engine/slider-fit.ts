@@ -27,6 +27,9 @@ export interface FitRequest {
 	readonly targetDb: readonly number[];
 	/** Samples deeper than this displayed depth (cm) are not fitted (blocked / below noise). */
 	readonly usableDepthCm: number;
+	/** Samples shallower than this displayed depth (cm) are not fitted either (the tissue harmonic's
+	 * build-up zone); absent = from the skin. */
+	readonly fitFromCm?: number;
 	readonly bank: SliderBank;
 	/** Current displayed depth, cm (sets the knot positions). */
 	readonly displayDepthCm: number;
@@ -184,12 +187,13 @@ function usableSamples(req: FitRequest): Samples {
 	const depths: number[] = [];
 	const targets: number[] = [];
 	const limit = req.usableDepthCm;
+	const from = req.fitFromCm ?? 0;
 	if (!(limit > 0)) return {depths, targets};
 	const count = Math.min(req.depthsCm.length, req.targetDb.length);
 	for (let i = 0; i < count; i++) {
 		const d = req.depthsCm[i]!;
 		const t = req.targetDb[i]!;
-		if (Number.isFinite(d) && Number.isFinite(t) && d <= limit) {
+		if (Number.isFinite(d) && Number.isFinite(t) && d <= limit && d >= from) {
 			depths.push(d);
 			targets.push(t);
 		}

@@ -21,6 +21,7 @@
  * - Lin 1988: Lin T, Ophir J, Potter G, Ultrasound Med Biol 14(8):729 (attenuation vs liver fat; from memory).
  * - Imbault 2017: Phys Med Biol 62:3582 (speed of sound falls with liver fat; from memory).
  */
+import {nonlinearityById} from './nonlinearity.js';
 import type {Tissue} from './types.js';
 
 /** Every attenuation band is at least this wide either side (Madsen et al. 1986: labs agree to ~20 %). */
@@ -263,12 +264,18 @@ export const tissueIds = Object.keys(library) as TissueId[];
 /** Look up a library tissue by id; undefined when the id is unknown. */
 export function libraryTissue(id: string): Tissue | undefined {
 	if (!Object.hasOwn(library, id)) return undefined;
-	return {id, ...library[id as TissueId]};
+	return withNonlinearity(id as TissueId);
+}
+
+/** A library record with its B/A and the B/A's source (nonlinearity.ts). */
+function withNonlinearity(id: TissueId): Tissue {
+	const n = nonlinearityById[id];
+	return {id, ...library[id], ...(n ? {nonlinearityBA: n.ba, nonlinearitySource: n.source} : {})};
 }
 
 /** All library tissues with their ids. */
 export function allLibraryTissues(): Tissue[] {
-	return tissueIds.map((id) => ({id, ...library[id]}));
+	return tissueIds.map(withNonlinearity);
 }
 
 /** Acoustic impedance Z = ρ·c, MRayl. */

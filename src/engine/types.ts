@@ -17,6 +17,15 @@ export interface TissueSpread {
 	readonly exponent?: Range;
 }
 
+/**
+ * What the probe listens to:
+ * - `fundamental`: the echo at the transmit band;
+ * - `tissue-harmonic`: the second harmonic the tissue itself builds up on the way down (quasi-linear
+ *   plane-wave build-up, Cobb 1983), received at 2·f0;
+ * - `scatterer-harmonic`: a harmonic made at the scatterer (contrast agents): out at f0, back at 2·f0.
+ */
+export type ReceiveMode = 'fundamental' | 'tissue-harmonic' | 'scatterer-harmonic';
+
 /** Acoustic properties of one medium. */
 export interface Tissue {
 	/** Library id (`fat`, `liver` …); absent for a custom tissue. */
@@ -33,6 +42,10 @@ export interface Tissue {
 	/** Where the values come from (author, year, table), for traceability. */
 	readonly source?: string;
 	readonly spread?: TissueSpread;
+	/** Acoustic nonlinearity parameter B/A (drives the tissue harmonic); absent = soft-tissue default. */
+	readonly nonlinearityBA?: number;
+	/** Where the B/A comes from. */
+	readonly nonlinearitySource?: string;
 }
 
 /** One layer of the stack, from the skin down. */
@@ -79,8 +92,14 @@ export interface EnginePlan {
 		readonly centerMhz: number;
 		/** −6 dB full width of the pulse-echo amplitude spectrum / centre frequency; 0 = narrowband. */
 		readonly bandwidthFraction: number;
-		/** Receive at 2·f0 (the outward path at f0, the return path at 2·f0). */
-		readonly harmonic: boolean;
+		/**
+		 * Steepness p of the pulse-echo amplitude spectrum |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p):
+		 * −6 dB at the same half-width for every p; 2 (the default) is the Gaussian, real probes sit
+		 * around 3–7 (steeper skirts, no low-frequency tail).
+		 */
+		readonly spectrumSteepness?: number;
+		/** What the probe receives; absent = fundamental. */
+		readonly receive?: ReceiveMode;
 	};
 	/** Echo power of the reference scatterer ∝ f^m (0: frequency independent; 4: Rayleigh). */
 	readonly scattererExponent: number;
@@ -102,6 +121,9 @@ export interface EnginePlan {
 	};
 	/** Largest round-trip loss (dB) the system can still lift above its noise floor. */
 	readonly noiseBudgetDb: number;
+	/** Receive mode the noise budget was measured or stated for; absent = fundamental. A budget
+	 * for another mode than the probe's is used as it stands, with a warning. */
+	readonly noiseBudgetReceive?: ReceiveMode;
 }
 
 /** Why a depth gives no useful echo. */
@@ -111,7 +133,8 @@ export type WarningCode =
 	| 'below-noise-floor'
 	| 'slider-range-exceeded'
 	| 'speed-mismatch'
-	| 'harmonic-simplified';
+	| 'harmonic-simplified'
+	| 'budget-receive-mismatch';
 
 export interface CurveWarning {
 	readonly code: WarningCode;

@@ -24,3 +24,29 @@ export function migratePlanV1(input: unknown): unknown {
 		: input['layers'];
 	return {...input, format: currentFormat, layers};
 }
+
+/**
+ * `probe.harmonic` (true: out at f0, back at 2·f0), in /1 and /2 files alike, becomes
+ * `probe.receive`. `true` maps to `tissue-harmonic`: the old flag was meant for tissue harmonic
+ * imaging, which the old model described poorly. A noise budget or phantom calibration given in
+ * such a plan was meant for that receive mode, so it is marked so. A non-boolean flag is left for
+ * the schema to refuse.
+ */
+export function migrateHarmonicFlag(input: unknown): unknown {
+	if (!isRecord(input) || !isRecord(input['probe'])) return input;
+	const probe = input['probe'];
+	if (typeof probe['harmonic'] !== 'boolean' || 'receive' in probe) return input;
+	const {harmonic, ...rest} = probe;
+	const out: Record<string, unknown> = {...input, probe: harmonic ? {...rest, receive: 'tissue-harmonic'} : rest};
+	if (harmonic) {
+		const cal = input['phantomCalibration'];
+		if (isRecord(cal) && !('receive' in cal)) out['phantomCalibration'] = {...cal, receive: 'tissue-harmonic'};
+		if (input['noiseBudgetDb'] !== undefined && !('noiseBudgetReceive' in input)) out['noiseBudgetReceive'] = 'tissue-harmonic';
+	}
+	return out;
+}
+
+/** Every migration step, oldest first: what the plan schema reads. */
+export function migratePlanInput(input: unknown): unknown {
+	return migrateHarmonicFlag(migratePlanV1(input));
+}

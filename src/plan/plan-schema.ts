@@ -7,9 +7,10 @@
  * message names the field path and the allowed range.
  */
 import {z} from 'zod';
+import {softTissueNonlinearityBA} from '../engine/nonlinearity.js';
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {Tissue} from '../engine/types.js';
-import {migratePlanV1} from './plan-migration.js';
+import {migratePlanInput} from './plan-migration.js';
 
 export const planFormat = 'evenecho-plan/2';
 
@@ -23,6 +24,8 @@ export const limits = {
 	exponent: {min: 1, max: 2.5},
 	centerMhz: {min: 0, max: 50, exclusiveMin: true},
 	bandwidthFraction: {min: 0, max: 1.5},
+	spectrumSteepness: {min: 1, max: 10},
+	nonlinearityBA: {min: 0, max: 20},
 	scattererExponent: {min: 0, max: 6},
 	depthCm: {min: 0, max: 40, exclusiveMin: true},
 	assumedSpeedMps: {min: 1400, max: 1700},
@@ -64,8 +67,14 @@ const customTissueSchema = z.strictObject({
 	densityKgM3: ranged(limits.densityKgM3, 'kg/m³'),
 	alphaDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
 	exponent: ranged(limits.exponent),
+	/** Acoustic nonlinearity B/A (tissue harmonic); absent = the soft-tissue default. */
+	nonlinearityBA: ranged(limits.nonlinearityBA).optional(),
 	source: z.string().max(300, {error: 'must be at most 300 characters'}).optional(),
 });
+
+/** What the probe receives (see ReceiveMode in the engine). */
+export const receiveModes = ['fundamental', 'tissue-harmonic', 'scatterer-harmonic'] as const;
+const receiveSchema = z.enum(receiveModes, {error: 'must be "fundamental", "tissue-harmonic" or "scatterer-harmonic"'});
 
 const tissueIdSchema = z.string({error: 'must be a library tissue id or a custom tissue object'}).refine((id) => libraryTissue(id) !== undefined, {
 	error: (issue) => `unknown tissue id "${String(issue.input)}"; known ids: ${tissueIds.join(', ')}`,
@@ -126,6 +135,8 @@ const phantomSchema = z.strictObject({
 	centerMhz: ranged(limits.centerMhz, 'MHz'),
 	depthCm: ranged(limits.phantomDepthCm, 'cm'),
 	alphaDbPerCmMhz: ranged({min: 0.05, max: 2}, 'dB/cm/MHz'),
+	/** Receive mode the reach was measured in; absent = fundamental. */
+	receive: receiveSchema.optional(),
 });
 
 const referenceSchema = z.strictObject({
@@ -149,7 +160,10 @@ export const planSchema = z
 		probe: z.strictObject({
 			centerMhz: ranged(limits.centerMhz, 'MHz'),
 			bandwidthFraction: ranged(limits.bandwidthFraction).default(0.6),
-			harmonic: z.boolean({error: 'must be true or false'}).default(false),
+			/** Skirt steepness of the pulse-echo spectrum; absent = 2, the Gaussian (see README). */
+			spectrumSteepness: ranged(limits.spectrumSteepness).optional(),
+			/** Absent = fundamental. Older plans' `harmonic` flag is migrated (plan-migration.ts). */
+			receive: receiveSchema.optional(),
 		}, {error: 'must be an object with centerMhz'}),
 		scattererExponent: ranged(limits.scattererExponent).default(0),
 		display: z
@@ -161,6 +175,8 @@ export const planSchema = z
 		sliders: sliderSchema.default({count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: defaultRampDbPerCmMhz}),
 		masterGain: masterSchema.default({minDb: 0, maxDb: 60}),
 		noiseBudgetDb: ranged(limits.noiseBudgetDb, 'dB').optional(),
+		/** Receive mode `noiseBudgetDb` was stated for; absent = fundamental. */
+		noiseBudgetReceive: receiveSchema.optional(),
 		phantomCalibration: phantomSchema.optional(),
 		/** Depth the exam must reach (the frequency ladder's target); defaults to the display depth. */
 		targetDepthCm: ranged(limits.depthCm, 'cm').optional(),
@@ -218,7 +234,7 @@ export function formatIssues(error: z.ZodError): string[] {
 
 /** Checks a parsed JSON value against the plan format. */
 export function parsePlanDocument(input: unknown): ParseResult<PlanDocument> {
-	const r = planSchema.safeParse(migratePlanV1(input));
+	const r = planSchema.safeParse(migratePlanInput(input));
 	return r.success ? {ok: true, value: r.data} : {ok: false, errors: formatIssues(r.error)};
 }
 
@@ -229,5 +245,9 @@ export function resolveTissue(t: LayerDocument['tissue']): Tissue {
 		if (!found) throw new Error(`unknown tissue id ${t}`); // unreachable after validation
 		return found;
 	}
-	return {...t, source: t.source ?? 'custom values entered by the user'};
+	return {
+		...t,
+		source: t.source ?? 'custom values entered by the user',
+		...(t.nonlinearityBA === undefined ? {nonlinearitySource: `soft-tissue default ${softTissueNonlinearityBA} (not given)`} : {}),
+	};
 }

@@ -2,6 +2,7 @@
  * Turns a validated plan document into the engine's plain input: tissue ids become full records,
  * a phantom calibration becomes a noise budget.
  */
+import {gaussianSteepness} from '../engine/echo-spectrum.js';
 import {noiseBudgetFromPhantom} from '../engine/noise-budget.js';
 import type {EnginePlan, Layer, Tissue} from '../engine/types.js';
 import {
@@ -40,11 +41,18 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 	const probe = {
 		centerMhz: doc.probe.centerMhz,
 		bandwidthFraction: doc.probe.bandwidthFraction,
-		harmonic: doc.probe.harmonic,
+		spectrumSteepness: doc.probe.spectrumSteepness ?? gaussianSteepness,
+		receive: doc.probe.receive ?? 'fundamental',
 	};
 	const noiseBudgetDb = doc.phantomCalibration
 		? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
 		: (doc.noiseBudgetDb ?? defaultNoiseBudgetDb);
+	// The default budget is a fundamental figure; a stated one is for the mode it says (fundamental if it does not).
+	const noiseBudgetReceive = doc.phantomCalibration
+		? (doc.phantomCalibration.receive ?? 'fundamental')
+		: doc.noiseBudgetDb !== undefined
+			? (doc.noiseBudgetReceive ?? 'fundamental')
+			: 'fundamental';
 	return {
 		name: doc.name,
 		region: doc.region,
@@ -59,6 +67,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 			baseDb: doc.masterGain.baseDb ?? (doc.masterGain.minDb + doc.masterGain.maxDb) / 2,
 		},
 		noiseBudgetDb,
+		noiseBudgetReceive,
 	};
 }
 

@@ -23,7 +23,7 @@ export function curveSummary(r: CurveResult): string {
 	const bw = p.probe.bandwidthFraction > 0 ? `${Math.round(p.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
 	out.push(`evenecho  ${p.name}  [${p.region}]`);
 	out.push(
-		`probe ${p.probe.centerMhz} MHz${p.probe.harmonic ? ` (harmonic receive ${2 * p.probe.centerMhz} MHz)` : ''}, ${bw}, scatterer f^${p.scattererExponent}; display ${p.display.depthCm} cm at ${p.display.assumedSpeedMps} m/s`,
+		`probe ${p.probe.centerMhz} MHz${(p.probe.receive ?? 'fundamental') !== 'fundamental' ? ` (${p.probe.receive} receive at ${2 * p.probe.centerMhz} MHz)` : ''}, ${bw}${(p.probe.spectrumSteepness ?? 2) !== 2 ? `, spectrum steepness ${p.probe.spectrumSteepness}` : ''}, scatterer f^${p.scattererExponent}; display ${p.display.depthCm} cm at ${p.display.assumedSpeedMps} m/s`,
 	);
 	out.push('');
 	out.push('Layers, skin down        true cm  c m/s  rho    Z MRayl  a0 dB/cm/MHz^n  n');

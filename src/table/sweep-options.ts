@@ -54,17 +54,23 @@ export function parseLayerNumber(option: string, text: string): number {
 	return Number(t);
 }
 
-/** `fundamental`, `harmonic` or `both`. */
+/** `fundamental`, `tissue-harmonic` (or `harmonic`), `scatterer-harmonic`, or `both` (fundamental and tissue harmonic). */
 export function parseReceive(text: string): ReceiveMode[] {
 	switch (text.trim()) {
 		case 'fundamental':
 			return ['fundamental'];
 		case 'harmonic':
-			return ['harmonic'];
+		case 'tissue-harmonic':
+			return ['tissue-harmonic'];
+		case 'scatterer-harmonic':
+			return ['scatterer-harmonic'];
 		case 'both':
-			return ['fundamental', 'harmonic'];
+			return ['fundamental', 'tissue-harmonic'];
 		default:
-			throw new SweepError('receive', `--receive: must be fundamental, harmonic or both (got "${text}")`);
+			throw new SweepError(
+				'receive',
+				`--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both (got "${text}")`,
+			);
 	}
 }
 

@@ -6,7 +6,8 @@
  * both call {@link resolveSweep} / {@link runSweep} (or {@link buildTable} for both in one step) and
  * hand the result to one of the formatters (table-markdown, table-csv, table-json, table-svg).
  */
-import {harmonicSimplification, ladderSimplification} from '../engine/model-notes.js';
+import {harmonicSimplification, ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
+import type {ReceiveMode} from '../engine/types.js';
 import {computeCurve} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
@@ -30,8 +31,8 @@ export const marginLimit: Limit = {min: 0, max: 100};
 /** Most entries in the `--ladder` list. */
 export const maxLadderLength = 200;
 
-export type ReceiveMode = 'fundamental' | 'harmonic';
-export const receiveModes: readonly ReceiveMode[] = ['fundamental', 'harmonic'];
+export type {ReceiveMode};
+export const receiveModes: readonly ReceiveMode[] = ['fundamental', 'tissue-harmonic', 'scatterer-harmonic'];
 
 export {harmonicSimplification, ladderSimplification};
 
@@ -258,12 +259,12 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	let receive: ReceiveMode[];
 	if (spec.receive !== undefined) {
 		if (spec.receive.length === 0 || spec.receive.some((r) => !receiveModes.includes(r))) {
-			throw new SweepError('receive', '--receive: must be fundamental, harmonic or both');
+			throw new SweepError('receive', '--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both');
 		}
 		if (new Set(spec.receive).size !== spec.receive.length) throw new SweepError('receive', '--receive: each mode once');
 		receive = [...spec.receive];
 	} else {
-		receive = [doc.probe.harmonic ? 'harmonic' : 'fundamental'];
+		receive = [doc.probe.receive ?? 'fundamental'];
 	}
 
 	const swaps: ResolvedSwap[] = [];
@@ -381,12 +382,12 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 		if (i === sweep.layerIndex && layerCm !== null && layerCm !== l.thicknessCm) out = {...out, thicknessCm: layerCm};
 		return out;
 	});
-	return {...doc, layers, probe: {...doc.probe, centerMhz: combo.centerMhz, harmonic: combo.receive === 'harmonic'}};
+	return {...doc, layers, probe: {...doc.probe, centerMhz: combo.centerMhz, receive: combo.receive}};
 }
 
 /** Everything the ladder depends on except the frequency. */
 function ladderKey(plan: EnginePlan, targetCm: number): string {
-	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.harmonic, plan.probe.bandwidthFraction, plan.noiseBudgetDb]);
+	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.receive, plan.probe.bandwidthFraction, plan.probe.spectrumSteepness, plan.noiseBudgetDb]);
 }
 
 function tissueUses(sweep: ResolvedSweep): TissueUse[] {
@@ -409,7 +410,7 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 	const ladders = new Map<string, {mhz: number | null; penetrationCm: number | null}>();
 	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
 	const rows: TableRow[] = [];
-	let anyHarmonic = false;
+	const modeNotes = new Set<string>();
 
 	for (const combo of combinations(sweep)) {
 		for (const layerCm of layerValues) {
@@ -426,7 +427,8 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 				ladders.set(key, highest);
 			}
 			const settings = settingsOf(r.fit);
-			anyHarmonic ||= plan.probe.harmonic;
+			const modeNote = receiveModeNote(plan.probe.receive);
+			if (modeNote) modeNotes.add(modeNote);
 			rows.push({
 				index: rows.length + 1,
 				layerCm,
@@ -458,7 +460,7 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 	}
 
 	const notes = [ladderSimplification];
-	if (anyHarmonic) notes.unshift(harmonicSimplification);
+	notes.unshift(...modeNotes);
 	return {
 		sweep,
 		rows,

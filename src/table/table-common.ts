@@ -37,7 +37,7 @@ export function plain(x: number): string {
 }
 
 export function receiveLabel(r: ReceiveMode): string {
-	return r === 'harmonic' ? 'harmonic' : 'fundamental';
+	return r;
 }
 
 /** What the warning codes in a table mean (our wording). */
@@ -47,7 +47,8 @@ export const warningLegend: Record<WarningCode, string> = {
 	'below-noise-floor': 'the echo falls below the noise floor within the display: gain there lifts noise, not signal',
 	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
 	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
-	'harmonic-simplified': 'harmonic receive: out at f0, back at 2·f0; the build-up of the harmonic with depth is not modelled',
+	'harmonic-simplified': 'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
+	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
 };
 
 /** Distinct warning codes in a table, in the legend's order. */
@@ -98,7 +99,7 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	}
 	const bw = doc.probe.bandwidthFraction > 0 ? `${plain(doc.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
 	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${s.freqSwept && !(s.freqMhz.length === 1 && s.freqMhz[0] === doc.probe.centerMhz) ? ` (the plan has ${plain(doc.probe.centerMhz)} MHz)` : ''}, ${bw}`]);
-	out.push(['Receive', s.receive.length === 2 ? 'fundamental and harmonic (2·f0)' : s.receive[0] === 'harmonic' ? 'harmonic (2·f0)' : 'fundamental']);
+	out.push(['Receive', s.receive.map((r) => (r === 'fundamental' ? 'fundamental' : `${r} (2·f0)`)).join(', ')]);
 	for (const w of s.swaps) {
 		out.push([`Layer ${w.layer} tissue`, w.choices.map((c) => c.record.label + (c.from ? ` (${c.from})` : '')).join(', ')]);
 	}
@@ -126,7 +127,7 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 		const own = s.layerIndex !== null ? `layer ${s.layerIndex + 1} at ${plain(doc.layers[s.layerIndex]!.thicknessCm)} cm, ` : '';
 		out.push([
 			'Deltas',
-			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ${doc.probe.harmonic ? 'harmonic' : 'fundamental'}): master ${fixed(ref.masterGainDb, 1)} dB, sliders ${ref.slidersDb.map((x) => signed(x, 1)).join(' ')} dB`,
+			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ${doc.probe.receive ?? 'fundamental'}): master ${fixed(ref.masterGainDb, 1)} dB, sliders ${ref.slidersDb.map((x) => signed(x, 1)).join(' ')} dB`,
 		]);
 	}
 	if (o.generatedAt) out.push(['Generated', o.generatedAt]);

@@ -140,12 +140,12 @@ describe('traceability', () => {
 });
 
 describe('harmonic receive', () => {
-	it('the curve states the simplification in text and JSON', () => {
+	it('an older plan\'s harmonic flag becomes tissue-harmonic receive, and the curve states the model in text and JSON', () => {
 		const p = demo();
-		p.probe = {centerMhz: 2.5, bandwidthFraction: 0.6, harmonic: true};
+		(p as {probe: unknown}).probe = {centerMhz: 2.5, bandwidthFraction: 0.6, harmonic: true};
 		const path = planFile('harmonic.json', p);
-		expect(runCli(['curve', path]).stdout).toContain('build-up with depth is not modelled');
+		expect(runCli(['curve', path]).stdout).toContain('builds up along the way down');
 		const w = JSON.parse(runCli(['curve', path, '--format', 'json']).stdout).warnings.find((x: {code: string}) => x.code === 'harmonic-simplified');
-		expect(w).toMatchObject({severity: 'note', message: expect.stringMatching(/receive at 2·f0/)});
+		expect(w).toMatchObject({severity: 'note', message: expect.stringMatching(/Cobb 1983/)});
 	});
 });

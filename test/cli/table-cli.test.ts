@@ -53,10 +53,10 @@ describe('rows agree with evenecho curve', () => {
 		const t = tableJsonSchema.parse(JSON.parse(r.stdout)) as TableJson;
 		expect(t.rows).toHaveLength(8);
 		for (const row of t.rows) {
-			const plan = structuredClone(protocolPlan) as typeof protocolPlan & {probe: {harmonic?: boolean}};
+			const plan = structuredClone(protocolPlan) as typeof protocolPlan & {probe: {receive?: string}};
 			plan.layers[1]!.thicknessCm = row.layerCm!;
 			plan.probe.centerMhz = row.centerMhz;
-			plan.probe.harmonic = row.receive === 'harmonic';
+			plan.probe.receive = row.receive;
 			const c = runCli(['curve', write(`row-${row.row}.json`, plan), '--format', 'json']);
 			expect(c.status).toBe(0);
 			const curve = JSON.parse(c.stdout) as {masterGainDb: number; sliders: {depthCm: number; gainDb: number}[]; residualDb: number; penetrationDepthCm: number | null; warnings: {code: string; severity: string}[]};
@@ -111,9 +111,9 @@ describe('formats and determinism', () => {
 		expect(svg).toContain('Caution: Starting point only');
 	});
 
-	it('--receive harmonic states the harmonic simplification', () => {
+	it('--receive harmonic (tissue harmonic) states the harmonic model', () => {
 		for (const format of ['markdown', 'json', 'svg']) {
-			expect(table(planPath, '--receive', 'harmonic', '--format', format).stdout).toContain('build-up with depth is not modelled');
+			expect(table(planPath, '--receive', 'harmonic', '--format', format).stdout).toContain('builds up along the way down');
 		}
 	});
 
@@ -199,7 +199,7 @@ describe('bad sweeps: exit 2, the option and range named, nothing on stdout, no 
 		['--layer outside the plan', ['--fat', '1', '--layer', '9'], /--layer: must be a whole number from 1 to 4/],
 		['--layer on the deepest layer', ['--fat', '1', '--layer', '4'], /--fat: layer 4 is the deepest layer/],
 		['--layer not a number', ['--layer', 'two'], /--layer: must be a whole layer number/],
-		['--receive unknown', ['--receive', 'loud'], /--receive: must be fundamental, harmonic or both/],
+		['--receive unknown', ['--receive', 'loud'], /--receive: must be fundamental, tissue-harmonic \(or harmonic\), scatterer-harmonic or both/],
 		['--swap unknown tissue', ['--swap', '4=marble'], /--swap: unknown tissue "marble" for layer 4/],
 		['--swap malformed', ['--swap', 'liver'], /--swap: "liver" has no "="/],
 		['--margin negative', ['--margin', '-3'], /--margin: must be a number from 0 to 100 dB/],

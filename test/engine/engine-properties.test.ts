@@ -25,7 +25,7 @@ const arbProbe = fc.record({
 	centerMhz: fc.double({min: 1, max: 15, noNaN: true}),
 	bandwidthFraction: fc.oneof(fc.constant(0), fc.double({min: 0.05, max: 1.2, noNaN: true})),
 	scattererExponent: fc.oneof(fc.constant(0), fc.double({min: 0, max: 4, noNaN: true})),
-	harmonic: fc.boolean(),
+	receive: fc.constantFrom('fundamental' as const, 'tissue-harmonic' as const, 'scatterer-harmonic' as const),
 });
 const arbPlan = fc.record({layers: arbLayers, probe: arbProbe, depthCm: fc.double({min: 2, max: 30, noNaN: true})}).map(
 	({layers, probe, depthCm}): EnginePlan =>
@@ -34,9 +34,13 @@ const arbPlan = fc.record({layers: arbLayers, probe: arbProbe, depthCm: fc.doubl
 			bandwidthFraction: probe.bandwidthFraction,
 			scattererExponent: probe.scattererExponent,
 			depthCm,
-			probe: {centerMhz: probe.centerMhz, bandwidthFraction: probe.bandwidthFraction, harmonic: probe.harmonic},
+			probe: {centerMhz: probe.centerMhz, bandwidthFraction: probe.bandwidthFraction, receive: probe.receive},
 		}),
 );
+
+/** Plans whose loss only grows with depth: the tissue harmonic builds up first (dark near field),
+ * so the monotone properties are for the other receive modes; tissue-harmonic.test.ts has its own. */
+const arbMonotonePlan = arbPlan.filter((p) => p.probe.receive !== 'tissue-harmonic');
 
 const runs = {numRuns: 60};
 
@@ -66,7 +70,7 @@ describe('engine properties', () => {
 
 	it('a lossless, impedance-matched stand-off at the assumed speed only shifts the curve by its thickness', () => {
 		fc.assert(
-			fc.property(arbPlan, fc.double({min: 0.2, max: 3, noNaN: true}), (p, t) => {
+			fc.property(arbMonotonePlan, fc.double({min: 0.2, max: 3, noNaN: true}), (p, t) => {
 				const first = p.layers[0]!.tissue;
 				const z = first.speedMps * first.densityKgM3;
 				const pad = custom('matched pad', 1540, z / 1540, 0);
@@ -80,7 +84,7 @@ describe('engine properties', () => {
 
 	it('compensation never decreases with depth', () => {
 		fc.assert(
-			fc.property(arbPlan, (p) => {
+			fc.property(arbMonotonePlan, (p) => {
 				const r = computeCurve(p, {stepCm: 0.25});
 				for (let i = 1; i < r.samples.length; i++) {
 					expect(r.samples[i]!.compensationDb).toBeGreaterThanOrEqual(r.samples[i - 1]!.compensationDb - 1e-9);
@@ -141,7 +145,7 @@ describe('engine properties', () => {
 describe('fast broadband path against brute-force integration over f > 0', () => {
 	it('agrees to 0.05 dB at every depth, including deep paths where the spectrum piles up near 0 MHz', () => {
 		fc.assert(
-			fc.property(arbPlan, (p) => {
+			fc.property(arbMonotonePlan, (p) => {
 				const depths = [0.5, p.display.depthCm / 4, p.display.depthCm / 2, p.display.depthCm];
 				const model = pathModelOf(p);
 				const reference = bruteForceAttenuationDb(p, depths, {points: 20000});

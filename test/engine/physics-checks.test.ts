@@ -189,7 +189,7 @@ describe('penetration from a phantom measurement (derived, methods-and-checks ca
 
 	for (const bandwidth of [0, 0.6]) {
 		it(`DOP 16 cm in a 0.5 dB/cm/MHz phantom at 3.5 MHz ⇒ the patient reaches true 13.06 cm, displayed 13.29 cm (bandwidth ${bandwidth})`, () => {
-			const budget = noiseBudgetFromPhantom({centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}, {bandwidthFraction: bandwidth, harmonic: false}, 0);
+			const budget = noiseBudgetFromPhantom({centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}, {bandwidthFraction: bandwidth}, 0);
 			const p = plan(layers, {centerMhz: 3.5, bandwidthFraction: bandwidth, depthCm: 20, noiseBudgetDb: budget});
 			const r = computeCurve(p);
 			expect(r.penetrationDepthCm).not.toBeNull();

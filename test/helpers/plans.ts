@@ -44,7 +44,7 @@ export function plan(layers: Layer[], overrides: Partial<EnginePlan> & {centerMh
 		name: 'test plan',
 		region: 'test',
 		layers,
-		probe: {centerMhz, bandwidthFraction, harmonic: false},
+		probe: {centerMhz, bandwidthFraction, receive: 'fundamental'},
 		scattererExponent: 0,
 		display: {depthCm, assumedSpeedMps: 1540},
 		sliders: {count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: 0},

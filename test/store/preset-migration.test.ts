@@ -63,7 +63,8 @@ describe('record version 1 → 2', () => {
 		expect(r.plan.sliders).toMatchObject({count: 6, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat'});
 		expect(r.plan.display).toEqual({depthCm: 4, assumedSpeedMps: 1540});
 		expect(r.plan.noiseBudgetDb).toBe(55);
-		expect(r.plan.probe.harmonic).toBe(false);
+		// The v1 harmonic flag false migrates to no receive field (fundamental).
+		expect(r.plan.probe.receive).toBeUndefined();
 	});
 
 	it('keeps the minimal v1 record (no optional fields) working', () => {

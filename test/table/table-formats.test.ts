@@ -24,7 +24,7 @@ const oddTissue = {label: 'Cyst, "simple" | <odd> & \'x\'', speedMps: 1550, dens
 const spec: SweepSpec = {
 	fatCm: [1, 4, 8],
 	freqMhz: [2.5, 5],
-	receive: ['fundamental', 'harmonic'],
+	receive: ['fundamental', 'tissue-harmonic'],
 	swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: oddTissue, from: 'layer 2 of preset "test-pelvis"'}]}],
 };
 const table = buildTable(template(), spec, {keepCurves: true});
@@ -100,7 +100,7 @@ describe('JSON', () => {
 			sweptLayer: {layer: 2, label: 'Fat (subcutaneous)', planThicknessCm: 2},
 			layerCm: [1, 4, 8],
 			centerMhz: [2.5, 5],
-			receive: ['fundamental', 'harmonic'],
+			receive: ['fundamental', 'tissue-harmonic'],
 			swaps: [{layer: 4, tissues: ['Liver', oddTissue.label]}],
 			ladderMhz: [2.5, 5],
 			marginDb: 0,
@@ -178,7 +178,7 @@ describe('SVG', () => {
 		const all = textsOf(svg.text).join('\n');
 		expect(all.replace(/\n/g, ' ')).toContain(cautionLine);
 		expect(all.replace(/\n/g, ' ')).toContain(modelVersion);
-		expect(all.replace(/\n/g, ' ')).toContain('build-up with depth is not modelled');
+		expect(all.replace(/\n/g, ' ')).toContain('builds up along the way down');
 		expect(all).toMatch(/Breast USCT 2016/);
 		expect(text).toContain('below the noise floor or a barrier');
 		expect(text).toContain('target depth');
@@ -240,7 +240,7 @@ describe('Markdown', () => {
 		expect(text).toContain('## Tissues used');
 		expect(text).toMatch(/\| layer 2 \| Fat \(subcutaneous\) \| swept \| 1440 \| 911 \| 0\.6 \| 1 \| c: in-vivo breast fat via Park 2023 Table 7/);
 		expect(text).toContain('taken from layer 2 of preset "test-pelvis"');
-		expect(text).toContain('build-up with depth is not modelled');
+		expect(text).toContain('builds up along the way down');
 	});
 
 	it('the main table has a header, an alignment row and one line per row, each with the same number of cells', () => {

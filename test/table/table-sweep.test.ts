@@ -54,7 +54,7 @@ describe('sweep definition', () => {
 	});
 
 	it('multiplies the sweeps: frequency, then receive mode, then swaps, with the habitus innermost', () => {
-		const t = buildTable(template(), {fatCm: [1, 4, 8], freqMhz: [2.5, 5], receive: ['fundamental', 'harmonic'], swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]}]});
+		const t = buildTable(template(), {fatCm: [1, 4, 8], freqMhz: [2.5, 5], receive: ['fundamental', 'tissue-harmonic'], swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]}]});
 		expect(t.rows).toHaveLength(3 * 2 * 2 * 2);
 		expect(t.sweep.rowCount).toBe(24);
 		const key = (r: (typeof t.rows)[number]) => `${r.centerMhz}/${r.receive}/${r.swapLabels[0]}/${r.layerCm}`;
@@ -65,7 +65,7 @@ describe('sweep definition', () => {
 			'2.5/fundamental/Spleen/1',
 			'2.5/fundamental/Spleen/4',
 			'2.5/fundamental/Spleen/8',
-			'2.5/harmonic/Liver/1',
+			'2.5/tissue-harmonic/Liver/1',
 		]);
 		expect(t.rows.map((r) => r.index)).toEqual(Array.from({length: 24}, (_, i) => i + 1));
 	});
@@ -73,7 +73,7 @@ describe('sweep definition', () => {
 	it('each variant changes only the swept layer thickness, the probe frequency, the receive mode and the swapped tissue', () => {
 		const doc = template();
 		const before = structuredClone(doc);
-		const t = buildTable(doc, {fatCm: [6], freqMhz: [5], receive: ['harmonic'], swaps: [{layer: 3, choices: [{tissue: 'muscle-along'}]}]});
+		const t = buildTable(doc, {fatCm: [6], freqMhz: [5], receive: ['tissue-harmonic'], swaps: [{layer: 3, choices: [{tissue: 'muscle-along'}]}]});
 		expect(doc).toEqual(before);
 		const v = t.rows[0]!.doc;
 		expect(v.layers.map((l) => [l.tissue, l.thicknessCm])).toEqual([
@@ -82,14 +82,14 @@ describe('sweep definition', () => {
 			['muscle-along', 1],
 			['liver', 20],
 		]);
-		expect(v.probe).toEqual({...doc.probe, centerMhz: 5, harmonic: true});
+		expect(v.probe).toEqual({...doc.probe, centerMhz: 5, receive: 'tissue-harmonic'});
 		expect({...v, layers: doc.layers, probe: doc.probe}).toEqual(doc);
 		// The variant is a valid plan file as it stands.
 		expect(parsePlanDocument(JSON.parse(JSON.stringify(v))).ok).toBe(true);
 	});
 
 	it('every row is the engine result for its own variant (same sliders, master, residual, penetration, warnings)', () => {
-		const t = buildTable(template(), {fatCm: [1, 5], freqMhz: [2, 7.5], receive: ['fundamental', 'harmonic']});
+		const t = buildTable(template(), {fatCm: [1, 5], freqMhz: [2, 7.5], receive: ['fundamental', 'tissue-harmonic']});
 		for (const row of t.rows) {
 			const r = computeCurve(resolvePlan(row.doc), {stepCm: 0.1});
 			expect(row.slidersDb).toEqual(r.fit.sliders.map((s) => s.gainDb));
@@ -190,8 +190,10 @@ describe('physics seen through the table', () => {
 		expect(t.rows.at(-1)!.penetrationDepthCm).not.toBeNull();
 	});
 
-	it('harmonic receive at the same f0 meets the noise floor sooner: the return leg is attenuated at 2·f0 (Szabo 2004, harmonic imaging chapter, from memory)', () => {
-		const t = buildTable(template({display: {depthCm: 30, assumedSpeedMps: 1540}}), {receive: ['fundamental', 'harmonic']});
+	it('tissue-harmonic receive at the same f0 meets the noise floor sooner: the way down costs 2·α(f0), the way back α(2·f0) (Cobb 1983 plane-wave build-up, formula via a textbook excerpt)', () => {
+		const doc = template({display: {depthCm: 30, assumedSpeedMps: 1540}});
+		// A steep spectrum (the README's pick for 60 %): a Gaussian's low tail would flatten the deep harmonic loss.
+		const t = buildTable({...doc, probe: {...doc.probe, spectrumSteepness: 4}}, {receive: ['fundamental', 'tissue-harmonic']});
 		const [fund, harm] = t.rows;
 		expect(harm!.penetrationDepthCm).not.toBeNull();
 		expect(harm!.penetrationDepthCm!).toBeLessThan(fund!.penetrationDepthCm ?? Infinity);
@@ -268,9 +270,12 @@ describe('parsing typed options', () => {
 	});
 
 	it('reads --receive and --swap forms', () => {
-		expect(parseReceive('both')).toEqual(['fundamental', 'harmonic']);
-		expect(parseReceive('harmonic')).toEqual(['harmonic']);
-		expect(sweepError(() => parseReceive('on')).message).toBe('--receive: must be fundamental, harmonic or both (got "on")');
+		expect(parseReceive('both')).toEqual(['fundamental', 'tissue-harmonic']);
+		expect(parseReceive('harmonic')).toEqual(['tissue-harmonic']);
+		expect(parseReceive('scatterer-harmonic')).toEqual(['scatterer-harmonic']);
+		expect(sweepError(() => parseReceive('on')).message).toBe(
+			'--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both (got "on")',
+		);
 		expect(parseSwap('4=liver, spleen')).toEqual({layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]});
 		const lookup = (preset: string, m: number) => (preset === 'user:my-pelvis' ? {tissue: 'urine' as const, from: `layer ${m} of preset "${preset}"`} : undefined);
 		expect(parseSwap('3=user:my-pelvis:2', lookup)).toEqual({layer: 3, choices: [{tissue: 'urine', from: 'layer 2 of preset "user:my-pelvis"'}]});
@@ -286,7 +291,7 @@ describe('parsing typed options', () => {
 		expect(parseSweepText({fat: '1,2', freq: '3', receive: 'both', delta: true, margin: '3', step: '0.2', swap: ['4=spleen'], layer: '2', ladder: '2:4:1'})).toEqual({
 			fatCm: [1, 2],
 			freqMhz: [3],
-			receive: ['fundamental', 'harmonic'],
+			receive: ['fundamental', 'tissue-harmonic'],
 			delta: true,
 			marginDb: 3,
 			stepCm: 0.2,

@@ -181,7 +181,7 @@ describe('console: step 2, tissue stack', () => {
 });
 
 describe('console: step 3, probe and system', () => {
-	it('nudges with + and ], toggles harmonic, and calibrates the noise budget from a phantom', async () => {
+	it('nudges with + and ], switches to tissue-harmonic receive, and calibrates the noise budget from a phantom', async () => {
 		const {app} = await open();
 		await press(app, '3');
 		expect(selectedLine(app)).toContain('3.5 MHz');
@@ -191,9 +191,9 @@ describe('console: step 3, probe and system', () => {
 		expect(selectedLine(app)).toContain('6 MHz');
 		await press(app, '-', '[');
 		expect(selectedLine(app)).toContain('3.5 MHz');
-		await moveTo(app, keys.down, 'Harmonic receive');
+		await moveTo(app, keys.down, 'Receive');
 		await press(app, keys.enter);
-		expect(selectedLine(app)).toContain('on (receive at 2 f0)');
+		expect(selectedLine(app)).toContain('tissue harmonic (at 2 f0)');
 		await moveTo(app, keys.down, 'Noise budget from');
 		await press(app, keys.enter);
 		expect(frame(app)).toContain('Phantom reach');

@@ -27,7 +27,11 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 			return m ? `i ${m[1]} drawn ${m[3]} (${m[2]} m/s)` : `i ${w.message}`;
 		}
 		case 'harmonic-simplified':
-			return 'i harmonic receive: simplified (no build-up with depth)';
+			return r.plan.probe.receive === 'scatterer-harmonic'
+				? 'i scatterer harmonic: out at f0, back at 2 f0'
+				: 'i tissue harmonic: built up from the skin, fitted from 1 cm';
+		case 'budget-receive-mismatch':
+			return `! noise budget is for ${r.plan.noiseBudgetReceive ?? 'fundamental'}, not this receive mode`;
 	}
 }
 

@@ -231,13 +231,14 @@ interface ChoiceField {
 
 export const choiceFields: Record<ChoiceKey, ChoiceField> = {
 	harmonic: {
-		label: 'Harmonic receive',
+		label: 'Receive',
 		options: [
-			{value: 'off', text: 'off (receive at f0)'},
-			{value: 'on', text: 'on (receive at 2 f0)'},
+			{value: 'fundamental', text: 'fundamental (at f0)'},
+			{value: 'tissue-harmonic', text: 'tissue harmonic (at 2 f0)'},
+			{value: 'scatterer-harmonic', text: 'scatterer harmonic (contrast)'},
 		],
-		get: (doc) => (doc.probe.harmonic ? 'on' : 'off'),
-		set: (doc, v) => edit(doc, (d) => void (d.probe.harmonic = v === 'on')),
+		get: (doc) => doc.probe.receive ?? 'fundamental',
+		set: (doc, v) => edit(doc, (d) => void (d.probe.receive = v as NonNullable<typeof d.probe.receive>)),
 	},
 	knots: {
 		label: 'Slider positions',

@@ -24,7 +24,8 @@ export const shortCodes: Record<WarningCode, {readonly code: string; readonly me
 	'below-noise-floor': {code: `${glyph.noise}noise`, means: 'echo under the noise floor inside the display'},
 	'slider-range-exceeded': {code: '!sliders', means: 'the controls miss the curve by over 2 dB'},
 	'speed-mismatch': {code: '!speed', means: 'a layer is drawn thicker or thinner'},
-	'harmonic-simplified': {code: 'i harmonic', means: 'harmonic receive, simplified model'},
+	'harmonic-simplified': {code: 'i harmonic', means: 'harmonic receive (see the notes for the model)'},
+	'budget-receive-mismatch': {code: '!budget', means: 'noise budget measured in another receive mode'},
 };
 
 export type ColumnKind = 'slider' | 'master-delta' | 'master' | 'fit' | 'floor' | 'fmax' | 'warnings';
