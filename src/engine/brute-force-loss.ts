@@ -11,14 +11,25 @@ export interface BruteForceOptions {
 	readonly points?: number;
 }
 
-/** True depth and per-layer true path lengths for a displayed depth, found by walking the layers. */
+/** Each layer's thickness along the beam: d / cos θ with sin θ / c the same in every layer (Snell). */
+function beamThickness(plan: EnginePlan): number[] {
+	const angle = ((plan.probe.angleDeg ?? 0) * Math.PI) / 180;
+	const c1 = plan.layers[0]!.tissue.speedMps;
+	return plan.layers.map((l) => {
+		const s = (Math.sin(angle) * l.tissue.speedMps) / c1;
+		return s < 1 ? l.thicknessCm / Math.sqrt(1 - s * s) : l.thicknessCm;
+	});
+}
+
+/** Per-layer path lengths along the beam for a displayed depth, found by walking the layers. */
 function pathLengths(plan: EnginePlan, displayedCm: number): number[] {
 	const c0 = plan.display.assumedSpeedMps;
 	const lengths: number[] = [];
+	const thickness = beamThickness(plan);
 	let shownLeft = displayedCm;
 	plan.layers.forEach((layer, i) => {
 		const last = i === plan.layers.length - 1;
-		const shownThickness = (layer.thicknessCm * c0) / layer.tissue.speedMps;
+		const shownThickness = (thickness[i]! * c0) / layer.tissue.speedMps;
 		const shownHere = last ? shownLeft : Math.min(shownLeft, shownThickness);
 		lengths.push(Math.max(0, (shownHere * layer.tissue.speedMps) / c0));
 		shownLeft -= Math.max(0, shownHere);
@@ -26,11 +37,12 @@ function pathLengths(plan: EnginePlan, displayedCm: number): number[] {
 	return lengths;
 }
 
-/** Per-layer true path lengths down to a true depth. */
+/** Per-layer path lengths down to a path length along the beam. */
 function lengthsToTrue(plan: EnginePlan, trueCm: number): number[] {
 	let top = 0;
-	return plan.layers.map((l, i) => {
-		const bottom = i === plan.layers.length - 1 ? Number.POSITIVE_INFINITY : top + l.thicknessCm;
+	const thickness = beamThickness(plan);
+	return plan.layers.map((_, i) => {
+		const bottom = i === plan.layers.length - 1 ? Number.POSITIVE_INFINITY : top + thickness[i]!;
 		const len = Math.max(0, Math.min(trueCm, bottom) - top);
 		top = bottom;
 		return len;

@@ -6,6 +6,7 @@
  * TGC should undo propagation losses only (attenuation and interfaces); differences in intrinsic
  * echogenicity between layers carry diagnostic contrast and are left alone.
  */
+import {lateralShiftMm, refractedAnglesDeg} from './beam-angle.js';
 import {PathModel, type Barrier} from './path-model.js';
 import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
@@ -126,9 +127,45 @@ export function pathModelOf(plan: EnginePlan, layers: readonly Layer[] = plan.la
 	return new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
 }
 
+/** Smallest sideways shift worth a note, mm. */
+const refractionNoteMm = 1;
+
+/** The refraction artefact of an oblique beam: where the deepest usable target is drawn sideways. */
+function refractionNote(plan: EnginePlan, usableDepthCm: number, model: PathModel): CurveWarning | null {
+	const angle = plan.probe.angleDeg ?? 0;
+	if (angle === 0) return null;
+	// Depth normal to the layers of the point at the usable displayed depth along the beam.
+	const span = model.spans.find((s) => usableDepthCm <= s.shownBottomCm) ?? model.spans[model.spans.length - 1]!;
+	const along = span.trueTopCm + (usableDepthCm - span.shownTopCm) / span.stretch;
+	const angles = refractedAnglesDeg(plan.layers, angle);
+	let normal = 0;
+	for (const s of model.spans) {
+		const take = Math.min(along, s.trueBottomCm) - s.trueTopCm;
+		if (take <= 0) break;
+		normal += take * Math.cos(((angles[s.index] ?? 0) * Math.PI) / 180);
+	}
+	const mm = lateralShiftMm(plan.layers, angle, normal);
+	if (mm === null || mm < refractionNoteMm) return null;
+	return {
+		code: 'refraction-shift',
+		severity: 'note',
+		message: `At ${angle}° the beam bends at each boundary (Snell's law) while the scanner draws along a straight line: a target at ${usableDepthCm.toFixed(1)} cm is drawn about ${mm.toFixed(1)} mm sideways of where it is (refraction artefact). Path lengths follow the bent beam.`,
+		depthCm: usableDepthCm,
+	};
+}
+
 function barrierWarning(b: Barrier, plan: EnginePlan): CurveWarning {
 	const label = plan.layers[b.layerIndex]?.tissue.label ?? 'layer';
 	const depth = b.displayedCm.toFixed(1);
+	if (b.criticalAngleDeg !== undefined) {
+		const above = plan.layers[b.layerIndex - 1]?.tissue.label ?? 'layer';
+		return {
+			code: b.kind,
+			severity: 'warning',
+			message: `At ${plan.probe.angleDeg}° the beam meets ${above} → ${label} at ${depth} cm beyond its critical angle (${b.criticalAngleDeg.toFixed(1)}°): no energy crosses, nothing returns from beyond. Tilt the probe towards the normal; gain cannot help.`,
+			depthCm: b.displayedCm,
+		};
+	}
 	const message =
 		b.kind === 'strong-reflector'
 			? `${label} from ${depth} cm reflects ${(b.value * 100).toFixed(0)} % of the intensity: no useful echoes beyond it. Gain is held flat there; more gain cannot restore what does not return.`
@@ -207,6 +244,8 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		});
 	}
 	warnings.push(...receiveWarnings(plan));
+	const shift = refractionNote(plan, usableDepthCm, nominal);
+	if (shift) warnings.push(shift);
 	for (const span of nominal.spans) {
 		const c = span.layer.tissue.speedMps;
 		const misdrawn = span.stretch - 1;

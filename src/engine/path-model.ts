@@ -3,6 +3,7 @@
  * spectrum plus the transmission loss of every boundary crossed, both round trip.
  */
 import {BandLossCalculator, probeBands, type PathTerms} from './echo-spectrum.js';
+import {criticalAngleDeg, layersAlongBeam, obliqueRoundTripLossDb, refractedAnglesDeg} from './beam-angle.js';
 import {barrierReflection, reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
 import {displayedDepthOf, layerSpans, spanAtDisplayed, trueDepthAt, type LayerSpan} from './layer-geometry.js';
 import {
@@ -34,6 +35,8 @@ export interface Barrier {
 	readonly layerIndex: number;
 	/** Reflected intensity fraction (reflector) or α0 (absorber). */
 	readonly value: number;
+	/** Set when the beam's angle is past the boundary's critical angle (total reflection), degrees. */
+	readonly criticalAngleDeg?: number;
 }
 
 export class PathModel {
@@ -55,7 +58,10 @@ export class PathModel {
 		scattererExponent: number,
 		assumedSpeedMps: number,
 	) {
-		this.spans = layerSpans(layers, assumedSpeedMps);
+		const angleDeg = probe.angleDeg ?? 0;
+		const angles = refractedAnglesDeg(layers, angleDeg);
+		// Thickness along the beam (d / cos θ): the path, and the displayed depth, run along it.
+		this.spans = layerSpans(layersAlongBeam(layers, angleDeg), assumedSpeedMps);
 		this.exponents = [...new Set(layers.map((l) => l.tissue.exponent))];
 		this.receive = probe.receive ?? 'fundamental';
 		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, this.receive === 'scatterer-harmonic', probe.spectrumSteepness).map(
@@ -77,8 +83,17 @@ export class PathModel {
 			if (!below) return;
 			terms = [...terms];
 			terms[this.exponents.indexOf(t.exponent)]! += t.alphaDbPerCmMhz * span.layer.thicknessCm;
+			const incidence = angles[i] ?? 90;
+			if (angles[i + 1] === null) {
+				// Past the critical angle: total reflection, nothing crosses; everything beyond is held.
+				if (!barrier) {
+					const critical = criticalAngleDeg(t, below.layer.tissue) ?? 90;
+					barrier = {kind: 'strong-reflector', displayedCm: span.shownBottomCm, layerIndex: i + 1, value: 1, criticalAngleDeg: critical};
+				}
+				return;
+			}
 			const r = reflectionCoefficient(t, below.layer.tissue);
-			iface += roundTripTransmissionLossDb(r);
+			iface += angleDeg === 0 ? roundTripTransmissionLossDb(r) : obliqueRoundTripLossDb(t, below.layer.tissue, incidence);
 			if (!barrier && r >= barrierReflection) {
 				barrier = {kind: 'strong-reflector', displayedCm: span.shownBottomCm, layerIndex: i + 1, value: r};
 			}

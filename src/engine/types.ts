@@ -100,6 +100,8 @@ export interface EnginePlan {
 		readonly spectrumSteepness?: number;
 		/** What the probe receives; absent = fundamental. */
 		readonly receive?: ReceiveMode;
+		/** Beam angle from the layer normal in the first layer, degrees (layers parallel); absent = 0. */
+		readonly angleDeg?: number;
 	};
 	/** Echo power of the reference scatterer ∝ f^m (0: frequency independent; 4: Rayleigh). */
 	readonly scattererExponent: number;
@@ -134,7 +136,8 @@ export type WarningCode =
 	| 'slider-range-exceeded'
 	| 'speed-mismatch'
 	| 'harmonic-simplified'
-	| 'budget-receive-mismatch';
+	| 'budget-receive-mismatch'
+	| 'refraction-shift';
 
 export interface CurveWarning {
 	readonly code: WarningCode;

@@ -26,6 +26,7 @@ export const limits = {
 	bandwidthFraction: {min: 0, max: 1.5},
 	spectrumSteepness: {min: 1, max: 10},
 	nonlinearityBA: {min: 0, max: 20},
+	angleDeg: {min: 0, max: 80},
 	scattererExponent: {min: 0, max: 6},
 	depthCm: {min: 0, max: 40, exclusiveMin: true},
 	assumedSpeedMps: {min: 1400, max: 1700},
@@ -164,6 +165,8 @@ export const planSchema = z
 			spectrumSteepness: ranged(limits.spectrumSteepness).optional(),
 			/** Absent = fundamental. Older plans' `harmonic` flag is migrated (plan-migration.ts). */
 			receive: receiveSchema.optional(),
+			/** Beam angle from the layer normal in the first layer, degrees; absent = 0. */
+			angleDeg: ranged(limits.angleDeg, '°').optional(),
 		}, {error: 'must be an object with centerMhz'}),
 		scattererExponent: ranged(limits.scattererExponent).default(0),
 		display: z

@@ -43,6 +43,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		bandwidthFraction: doc.probe.bandwidthFraction,
 		spectrumSteepness: doc.probe.spectrumSteepness ?? gaussianSteepness,
 		receive: doc.probe.receive ?? 'fundamental',
+		angleDeg: doc.probe.angleDeg ?? 0,
 	};
 	const noiseBudgetDb = doc.phantomCalibration
 		? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
