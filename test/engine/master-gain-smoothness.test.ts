@@ -4,7 +4,7 @@
  * between neighbouring habitus rows cannot be followed at the scanner.
  */
 import {describe, expect, it} from 'vitest';
-import {abdomenPlan} from '../helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/plans.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {resolvePlan} from '../../src/plan/resolve-plan.js';
 
