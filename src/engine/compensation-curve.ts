@@ -127,6 +127,33 @@ export function pathModelOf(plan: EnginePlan, layers: readonly Layer[] = plan.la
 	return new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
 }
 
+/** Fat under the skin beyond which a plan gets the body-wall note, cm (the issue's "about 3 cm";
+ * common practice, no source). */
+const thickWallCm = 3;
+
+/** Fat in the first layers under the skin (skin itself passed over), cm. */
+function bodyWallFatCm(plan: EnginePlan): number {
+	let fat = 0;
+	for (const l of plan.layers.slice(0, -1)) {
+		const t = l.tissue;
+		if (t.id === 'skin') continue;
+		if (t.id === 'fat' || (!t.id && /fat|adipose/i.test(t.label))) fat += l.thicknessCm;
+		else break;
+	}
+	return fat;
+}
+
+/** One line for a thick body wall: what changes, and what gain cannot fix. */
+function bodyWallNote(plan: EnginePlan): CurveWarning | null {
+	const fat = bodyWallFatCm(plan);
+	if (fat <= thickWallCm) return null;
+	return {
+		code: 'thick-body-wall',
+		severity: 'note',
+		message: `${fat.toFixed(1)} cm of fat under the skin: fat and liver lose about the same per cm, so the slider shape barely changes; what changes is depth (the target sits deeper, so the highest frequency that reaches it falls, and the sliders follow the displayed depth, fat drawn about 7 % thick). Gain cannot fix the clutter and aberration the body wall adds; tissue harmonic receive reduces them (Pinton, Trahey & Dahl 2011, IEEE TUFFC; Dahl & Sheth 2014, Ultrasound Med Biol; citations not verified here).`,
+	};
+}
+
 /** Smallest sideways shift worth a note, mm. */
 const refractionNoteMm = 1;
 
@@ -244,6 +271,8 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		});
 	}
 	warnings.push(...receiveWarnings(plan));
+	const wall = bodyWallNote(plan);
+	if (wall) warnings.push(wall);
 	const shift = refractionNote(plan, usableDepthCm, nominal);
 	if (shift) warnings.push(shift);
 	for (const span of nominal.spans) {

@@ -137,7 +137,8 @@ export type WarningCode =
 	| 'speed-mismatch'
 	| 'harmonic-simplified'
 	| 'budget-receive-mismatch'
-	| 'refraction-shift';
+	| 'refraction-shift'
+	| 'thick-body-wall';
 
 export interface CurveWarning {
 	readonly code: WarningCode;

@@ -48,7 +48,8 @@ export const warningLegend: Record<WarningCode, string> = {
 	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
 	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
 	'harmonic-simplified': 'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
- 'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
+	'thick-body-wall': 'over 3 cm of fat under the skin: depth and reach change, the slider shape barely does; gain cannot fix body-wall clutter',
+	'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
 	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
 };
 

@@ -30,6 +30,8 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 			return r.plan.probe.receive === 'scatterer-harmonic'
 				? 'i scatterer harmonic: out at f0, back at 2 f0'
 				: 'i tissue harmonic: built up from the skin, fitted from 1 cm';
+		case 'thick-body-wall':
+			return 'i thick body wall: reach changes; gain cannot fix wall clutter';
 		case 'refraction-shift':
 			return `i oblique beam: targets drawn sideways (refraction)`;
 		case 'budget-receive-mismatch':

@@ -26,6 +26,7 @@ export const shortCodes: Record<WarningCode, {readonly code: string; readonly me
 	'speed-mismatch': {code: '!speed', means: 'a layer is drawn thicker or thinner'},
 	'harmonic-simplified': {code: 'i harmonic', means: 'harmonic receive (see the notes for the model)'},
 	'budget-receive-mismatch': {code: '!budget', means: 'noise budget measured in another receive mode'},
+	'thick-body-wall': {code: 'i wall', means: 'thick fat: reach changes, wall clutter stays'},
 	'refraction-shift': {code: 'i refract', means: 'an oblique beam draws deep targets sideways'},
 };
 
