@@ -9,12 +9,13 @@ import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
-import {maxTableRows, resolveSweep, runSweep, SweepError, type TissueChoice} from '../table/sweep.js';
+import {maxTableRows, resolveSweep, SweepError, type TissueChoice} from '../table/sweep.js';
+import {runSweepInParallel} from '../table/sweep-parallel.js';
 import {parseSweepText, type PresetLayerLookup} from '../table/sweep-options.js';
 import type {TableFormatOptions} from '../table/table-common.js';
-import {tableCsv} from '../table/table-csv.js';
-import {tableJsonText} from '../table/table-json.js';
-import {tableMarkdown} from '../table/table-markdown.js';
+import {tableCsvChunks} from '../table/table-csv.js';
+import {tableJsonChunks} from '../table/table-json.js';
+import {tableMarkdownChunks} from '../table/table-markdown.js';
 import {checkSvgSweep, maxSvgLines, maxSvgPanels, tableSvg} from '../table/table-svg.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
@@ -117,7 +118,7 @@ export function registerTableCommand(program: Command): void {
 					}
 				: undefined;
 
-			let text: string;
+			let chunks: Iterable<string>;
 			try {
 				const spec = parseSweepText(
 					{
@@ -138,16 +139,18 @@ export function registerTableCommand(program: Command): void {
 				const bar = createProgressBar(process.stderr);
 				let table;
 				try {
-					table = runSweep(sweep, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
+					table = await runSweepInParallel(sweep, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
 				} finally {
 					bar.finish();
 				}
 				const fo: TableFormatOptions = {source, ...(opts.timestamp ? {generatedAt: new Date().toISOString()} : {})};
-				text = format === 'csv' ? tableCsv(table) : format === 'json' ? tableJsonText(table, fo) : format === 'svg' ? tableSvg(table, fo) : tableMarkdown(table, fo);
+				chunks =
+					format === 'csv' ? tableCsvChunks(table) : format === 'json' ? tableJsonChunks(table, fo) : format === 'svg' ? [tableSvg(table, fo)] : tableMarkdownChunks(table, fo);
 			} catch (error) {
 				if (error instanceof SweepError) throw new UsageError(error.message);
 				throw error;
 			}
-			process.stdout.write(text);
+			// Written a few hundred rows at a time: a 20,000-row table is never one string in memory.
+			for (const chunk of chunks) process.stdout.write(chunk);
 		});
 }

@@ -12,7 +12,7 @@ import {computeCurve} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
-import type {CurveWarning, EnginePlan, Tissue} from '../engine/types.js';
+import type {CurveWarning, EnginePlan, SliderFit, Tissue} from '../engine/types.js';
 import {fatLayerIndex} from '../plan/fat-layer.js';
 import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
 import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
@@ -368,6 +368,111 @@ function* combinations(sweep: ResolvedSweep): Generator<Combination> {
 	}
 }
 
+/** One row's place in the sweep: its number, combination and value of the swept layer. */
+export interface RowSpot {
+	readonly index: number;
+	readonly combo: Combination;
+	readonly layerCm: number | null;
+}
+
+/** Every row's place, in row order (frequency, then receive mode, then swaps, then the layer). */
+export function* rowSpots(sweep: ResolvedSweep): Generator<RowSpot> {
+	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
+	let index = 0;
+	for (const combo of combinations(sweep)) {
+		for (const layerCm of layerValues) yield {index: ++index, combo, layerCm};
+	}
+}
+
+/**
+ * Rows that share everything but the frequency: row i belongs to group (i − 1) mod this. Rows of one
+ * group share one frequency ladder, so a group is never split between workers.
+ */
+export function rowsPerFrequency(sweep: ResolvedSweep): number {
+	return sweep.rowCount / sweep.freqMhz.length;
+}
+
+/** The highest-reaching frequency (and where it meets the noise floor) of each ladder already climbed. */
+export type LadderCache = Map<string, {readonly mhz: number | null; readonly penetrationCm: number | null}>;
+
+/** What the engine gives for one row (plain data, so a worker thread can send it back). */
+export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'>;
+
+/** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
+export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
+	const doc = variantDoc(sweep, spot.combo, spot.layerCm);
+	const plan = resolvePlan(doc);
+	const r = computeCurve(plan, {stepCm: sweep.stepCm});
+	const targetCm = targetDepthOf(doc, plan);
+	const key = ladderKey(plan, targetCm);
+	let highest = ladders.get(key);
+	if (highest === undefined) {
+		const ladder = frequencyLadder(plan, sweep.ladderMhz, targetCm, sweep.marginDb);
+		const rung = ladder.rungs.find((g) => g.centerMhz === ladder.highestReachingMhz);
+		highest = {mhz: ladder.highestReachingMhz, penetrationCm: rung?.penetrationDepthCm ?? null};
+		ladders.set(key, highest);
+	}
+	const settings = settingsOf(r.fit);
+	return {
+		slidersDb: settings.slidersDb,
+		masterGainDb: settings.masterGainDb,
+		residualDb: r.fit.residualDb,
+		residualAtCm: r.fit.residualAtCm,
+		penetrationDepthCm: r.penetrationDepthCm,
+		blockedDepthCm: r.blockedDepthCm,
+		usableDepthCm: r.usableDepthCm,
+		noiseBudgetDb: plan.noiseBudgetDb,
+		targetDepthCm: targetCm,
+		highestReachingMhz: highest.mhz,
+		highestReachingPenetrationCm: highest.penetrationCm,
+		// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
+		warnings: r.warnings.filter((w) => w.severity === 'warning'),
+		...(keepCurves ? {curve: {depthsCm: r.samples.map((s) => s.displayedDepthCm), compensationDb: r.samples.map((s) => s.compensationDb)}} : {}),
+	};
+}
+
+/**
+ * A row from its place and values. Its plan document and engine plan are made again when asked
+ * for: a 20,000-row table would otherwise hold 20,000 of each.
+ */
+export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues, reference: GainSettings): TableRow {
+	const {combo, layerCm} = spot;
+	return {
+		index: spot.index,
+		layerCm,
+		centerMhz: combo.centerMhz,
+		receive: combo.receive,
+		swapLabels: sweep.swaps.map((s, k) => s.choices[combo.swapPicks[k]!]!.record.label),
+		get doc() {
+			return variantDoc(sweep, combo, layerCm);
+		},
+		get plan() {
+			return resolvePlan(variantDoc(sweep, combo, layerCm));
+		},
+		...values,
+		...(sweep.delta ? {delta: settingsDelta({slidersDb: values.slidersDb, masterGainDb: values.masterGainDb}, reference)} : {}),
+	};
+}
+
+/** The standard habitus: the input plan fitted as it is. */
+export function referenceFitOf(sweep: ResolvedSweep): SliderFit {
+	return computeCurve(resolvePlan(sweep.doc), {stepCm: sweep.stepCm}).fit;
+}
+
+/** The table around its rows. */
+export function tableOf(sweep: ResolvedSweep, rows: readonly TableRow[], referenceFit: SliderFit): ProtocolTable {
+	const notes = [ladderSimplification];
+	notes.unshift(...new Set(sweep.receive.map(receiveModeNote).filter((n): n is string => n !== null)));
+	return {
+		sweep,
+		rows,
+		knotDepthsCm: referenceFit.sliders.map((s) => s.depthCm),
+		reference: settingsOf(referenceFit),
+		tissues: tissueUses(sweep),
+		notes,
+	};
+}
+
 /** The plan document of one combination. */
 export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: number | null): PlanDocument {
 	const doc = sweep.doc;
@@ -386,11 +491,11 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 }
 
 /** Everything the ladder depends on except the frequency. */
-function ladderKey(plan: EnginePlan, targetCm: number): string {
+export function ladderKey(plan: EnginePlan, targetCm: number): string {
 	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.receive, plan.probe.bandwidthFraction, plan.probe.spectrumSteepness, plan.noiseBudgetDb]);
 }
 
-function tissueUses(sweep: ResolvedSweep): TissueUse[] {
+export function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 	const swapped = new Set(sweep.swaps.map((s) => s.layer));
 	// A swapped layer never carries the plan's own tissue in any row: list only its choices.
 	const out: TissueUse[] = sweep.doc.layers.flatMap((l, i) =>
@@ -404,71 +509,15 @@ function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 
 /** Runs a checked sweep. Pure and synchronous; `onProgress` is called after every row. */
 export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): ProtocolTable {
-	const stepCm = sweep.stepCm;
-	const referenceFit = computeCurve(resolvePlan(sweep.doc), {stepCm}).fit;
+	const referenceFit = referenceFitOf(sweep);
 	const reference = settingsOf(referenceFit);
-	const ladders = new Map<string, {mhz: number | null; penetrationCm: number | null}>();
-	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
+	const ladders: LadderCache = new Map();
 	const rows: TableRow[] = [];
-	const modeNotes = new Set<string>();
-
-	for (const combo of combinations(sweep)) {
-		for (const layerCm of layerValues) {
-			const doc = variantDoc(sweep, combo, layerCm);
-			const plan = resolvePlan(doc);
-			const r = computeCurve(plan, {stepCm});
-			const targetCm = targetDepthOf(doc, plan);
-			const key = ladderKey(plan, targetCm);
-			let highest = ladders.get(key);
-			if (highest === undefined) {
-				const ladder = frequencyLadder(plan, sweep.ladderMhz, targetCm, sweep.marginDb);
-				const rung = ladder.rungs.find((g) => g.centerMhz === ladder.highestReachingMhz);
-				highest = {mhz: ladder.highestReachingMhz, penetrationCm: rung?.penetrationDepthCm ?? null};
-				ladders.set(key, highest);
-			}
-			const settings = settingsOf(r.fit);
-			const modeNote = receiveModeNote(plan.probe.receive);
-			if (modeNote) modeNotes.add(modeNote);
-			rows.push({
-				index: rows.length + 1,
-				layerCm,
-				centerMhz: combo.centerMhz,
-				receive: combo.receive,
-				swapLabels: sweep.swaps.map((s, k) => s.choices[combo.swapPicks[k]!]!.record.label),
-				doc,
-				plan,
-				slidersDb: settings.slidersDb,
-				masterGainDb: settings.masterGainDb,
-				...(sweep.delta ? {delta: settingsDelta(settings, reference)} : {}),
-				residualDb: r.fit.residualDb,
-				residualAtCm: r.fit.residualAtCm,
-				penetrationDepthCm: r.penetrationDepthCm,
-				blockedDepthCm: r.blockedDepthCm,
-				usableDepthCm: r.usableDepthCm,
-				noiseBudgetDb: plan.noiseBudgetDb,
-				targetDepthCm: targetCm,
-				highestReachingMhz: highest.mhz,
-				highestReachingPenetrationCm: highest.penetrationCm,
-				// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
-				warnings: r.warnings.filter((w) => w.severity === 'warning'),
-				...(options.keepCurves
-					? {curve: {depthsCm: r.samples.map((s) => s.displayedDepthCm), compensationDb: r.samples.map((s) => s.compensationDb)}}
-					: {}),
-			});
-			options.onProgress?.(rows.length, sweep.rowCount);
-		}
+	for (const spot of rowSpots(sweep)) {
+		rows.push(tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference));
+		options.onProgress?.(rows.length, sweep.rowCount);
 	}
-
-	const notes = [ladderSimplification];
-	notes.unshift(...modeNotes);
-	return {
-		sweep,
-		rows,
-		knotDepthsCm: referenceFit.sliders.map((s) => s.depthCm),
-		reference,
-		tissues: tissueUses(sweep),
-		notes,
-	};
+	return tableOf(sweep, rows, referenceFit);
 }
 
 /** Checks and runs a sweep in one step (throws {@link SweepError} on a bad spec). */

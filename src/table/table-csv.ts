@@ -55,3 +55,11 @@ export function csvCells(t: ProtocolTable, r: TableRow): string[] {
 export function tableCsv(t: ProtocolTable): string {
 	return stringify([csvHeader(t), ...t.rows.map((r) => csvCells(t, r))], {record_delimiter: '\r\n'});
 }
+
+/** The same text as {@link tableCsv} in pieces of `rowsPerChunk` rows. */
+export function* tableCsvChunks(t: ProtocolTable, rowsPerChunk = 500): Generator<string> {
+	yield stringify([csvHeader(t)], {record_delimiter: '\r\n'});
+	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
+		yield stringify(t.rows.slice(i, i + rowsPerChunk).map((r) => csvCells(t, r)), {record_delimiter: '\r\n'});
+	}
+}

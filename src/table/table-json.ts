@@ -124,6 +124,11 @@ function rowJson(t: ProtocolTable, r: TableRow): TableJson['rows'][number] {
 
 /** The document as a plain object (what `--format json` prints). */
 export function tableJson(t: ProtocolTable, o: TableFormatOptions = {}): TableJson {
+	return {...tableJsonHead(t, o), rows: t.rows.map((r) => rowJson(t, r))};
+}
+
+/** Everything but the rows, in the document's key order (`rows` comes last). */
+function tableJsonHead(t: ProtocolTable, o: TableFormatOptions): Omit<TableJson, 'rows'> {
 	const s = t.sweep;
 	const doc = s.doc;
 	return {
@@ -181,11 +186,31 @@ export function tableJson(t: ProtocolTable, o: TableFormatOptions = {}): TableJs
 			highestReachingPenetrationCm: 'where that frequency meets the noise floor, displayed cm; null if none reaches or beyond 40 cm',
 			highestReachingMhz: 'highest ladder frequency reaching the target depth within the noise budget less the margin; null if none',
 		},
-		rows: t.rows.map((r) => rowJson(t, r)),
 	};
 }
 
 /** `--format json` text: two-space indent, trailing newline. */
 export function tableJsonText(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	return JSON.stringify(tableJson(t, o), null, 2) + '\n';
+}
+
+/** Rows per chunk of the chunked formats: big enough to write efficiently, small enough to hold. */
+export const rowsPerChunk = 500;
+
+/**
+ * The same text as {@link tableJsonText} in pieces, a few hundred rows each, so a 20,000-row table
+ * is written out without ever being one string.
+ */
+export function* tableJsonChunks(t: ProtocolTable, o: TableFormatOptions = {}): Generator<string> {
+	const head = JSON.stringify({...tableJsonHead(t, o), rows: []}, null, 2);
+	if (!t.rows.length) {
+		yield head + '\n';
+		return;
+	}
+	yield head.slice(0, -'[]\n}'.length) + '[\n';
+	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
+		const part = t.rows.slice(i, i + rowsPerChunk).map((r) => '    ' + JSON.stringify(rowJson(t, r), null, 2).replaceAll('\n', '\n    '));
+		yield part.join(',\n') + (i + rowsPerChunk < t.rows.length ? ',\n' : '\n');
+	}
+	yield '  ]\n}\n';
 }

@@ -121,6 +121,11 @@ function habitusLadderTable(t: ProtocolTable): string[] {
 }
 
 export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): string {
+	return [...tableMarkdownChunks(t, o)].join('');
+}
+
+/** The Markdown text in pieces: the head, the rows a few hundred at a time, the notes. */
+export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {}, rowsPerChunk = 500): Generator<string> {
 	const s = t.sweep;
 	const out: string[] = [];
 	out.push(`# Depth-gain protocol table: ${markdownText(s.doc.name)}`);
@@ -160,7 +165,12 @@ export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): str
 	out.push(s.delta ? '## Starting settings (sliders and master as deltas from the standard habitus)' : '## Starting settings');
 	out.push('');
 	const cols = markdownColumns(t);
-	out.push(...tableLines(cols.header, cols.align, t.rows.map(cols.cells)));
+	out.push(...tableLines(cols.header, cols.align, []));
+	yield out.join('\n') + '\n';
+	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
+		yield tableLines(cols.header, cols.align, t.rows.slice(i, i + rowsPerChunk).map(cols.cells)).slice(2).join('\n') + '\n';
+	}
+	out.length = 0;
 	out.push('');
 	out.push(
 		`Sliders in dB at their knot depths (displayed cm)${s.delta ? ', as the row minus the standard habitus' : ''}; "Fit ± dB" is the worst gap between the fitted controls and the curve; "Noise floor at" is the displayed depth where the echo meets the noise floor.`,
@@ -185,5 +195,5 @@ export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): str
 	out.push('');
 	for (const n of t.notes) out.push(`- ${markdownText(n)}`);
 	out.push(`- ${markdownText(cautionLine)}`);
-	return out.join('\n') + '\n';
+	yield out.join('\n') + '\n';
 }
