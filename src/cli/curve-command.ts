@@ -5,6 +5,7 @@ import {settingsDelta, settingsOf, type SettingsDelta} from '../engine/plan-diff
 import type {CurveResult} from '../engine/types.js';
 import {curveCsv, curveJson} from '../report/curve-json.js';
 import {curveSummary, signedDb} from '../report/curve-summary.js';
+import {printable} from '../files/printable.js';
 import {numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
@@ -19,13 +20,13 @@ interface Comparison {
 }
 
 /** Fits the second plan too and takes the differences; both must have the same slider bank. */
-function comparedWith(result: CurveResult, path: string, stepCm: number): Comparison {
-	const other = computeCurve(readPlanFile(path).plan, {stepCm});
+async function comparedWith(result: CurveResult, path: string, stepCm: number): Promise<Comparison> {
+	const other = computeCurve((await readPlanFile(path)).plan, {stepCm});
 	const a = result.plan;
 	const b = other.plan;
 	if (a.sliders.count !== b.sliders.count || a.display.depthCm !== b.display.depthCm || a.sliders.knots !== b.sliders.knots) {
 		throw new UsageError(
-			`--against: ${path} must have the same display depth, slider count and knot placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
+			`--against: ${printable(path)} must have the same display depth, slider count and knot placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
 		);
 	}
 	return {name: b.name, delta: settingsDelta(settingsOf(result.fit), settingsOf(other.fit)), knotsCm: result.fit.sliders.map((s) => s.depthCm)};
@@ -55,14 +56,14 @@ export function registerCurveCommand(program: Command): void {
 		.option('--format <format>', 'text, json or csv', 'text')
 		.option('--step <cm>', 'sample spacing in displayed depth, cm (0.01 to 5)', '0.1')
 		.option('--against <plan>', 'a second plan (e.g. the region\'s standard habitus): print per-slider differences from it')
-		.action((planPath: string, opts: {format: string; step: string; against?: string}) => {
+		.action(async (planPath: string, opts: {format: string; step: string; against?: string}) => {
 			if (!(formats as readonly string[]).includes(opts.format)) {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
 			}
 			const stepCm = numberOption('step', opts.step, {min: 0.01, max: 5}, 'cm');
-			const {plan} = readPlanFile(planPath);
+			const {plan} = await readPlanFile(planPath);
 			const result = computeCurve(plan, {stepCm});
-			const against = opts.against === undefined ? undefined : comparedWith(result, opts.against, stepCm);
+			const against = opts.against === undefined ? undefined : await comparedWith(result, opts.against, stepCm);
 			if (opts.format === 'json') {
 				process.stdout.write(JSON.stringify(against ? {...curveJson(result), against: deltaJson(against)} : curveJson(result), null, 2) + '\n');
 			} else if (opts.format === 'csv') {

@@ -1,7 +1,7 @@
 /** `evenecho ladder PLAN.json`: penetration per probe frequency, and the highest that reaches the target. */
 import type {Command} from 'commander';
 import {frequencyLadder, ladderSearchCm} from '../engine/frequency-ladder.js';
-import {limits} from '../plan/plan-schema.js';
+import {limits, targetDepthLimit} from '../plan/plan-schema.js';
 import {targetDepthOf} from '../plan/plan-target.js';
 import {cautionLine} from '../report/cautions.js';
 import {ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
@@ -15,15 +15,16 @@ export function registerLadderCommand(program: Command): void {
 		.description('penetration at each probe frequency and the highest frequency that reaches the target depth')
 		.argument('<plan>', 'plan file (JSON) or - for standard input')
 		.option('--freqs <list>', 'frequencies in MHz: "2,3.5,5" or from:to:step', '1:15:0.5')
-		.option('--target <cm>', 'displayed depth that must be reached (default: the plan\'s target, else its display depth)')
+		.option('--target <cm>', 'displayed depth that must be reached, up to the plan\'s display depth (default: the plan\'s target, else its display depth)')
 		.option('--margin <dB>', 'dB that must be left above the noise floor at the target', '0')
 		.option('--format <format>', 'text or json', 'text')
-		.action((planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
+		.action(async (planPath: string, opts: {freqs: string; target?: string; margin: string; format: string}) => {
 			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
 			const freqs = numberListOption('freqs', opts.freqs, limits.centerMhz, 'MHz', 200);
 			const margin = numberOption('margin', opts.margin, {min: 0, max: 100}, 'dB');
-			const target = opts.target === undefined ? undefined : numberOption('target', opts.target, {min: 0.1, max: ladderSearchCm}, 'cm');
-			const {doc, plan} = readPlanFile(planPath);
+			const {doc, plan} = await readPlanFile(planPath);
+			// The same rule as a plan's own targetDepthCm: within the display depth.
+			const target = opts.target === undefined ? undefined : numberOption('target', opts.target, targetDepthLimit(plan.display.depthCm), 'cm (the plan\'s display depth)');
 			const targetCm = target ?? targetDepthOf(doc, plan);
 			const ladder = frequencyLadder(plan, freqs, targetCm, margin);
 			if (opts.format === 'json') {

@@ -1,41 +1,31 @@
 /**
- * Reads a plan from a file or standard input ("-") and validates it. Everything that can go wrong
- * becomes a UsageError naming the file and the field.
+ * Reads a plan from a file or standard input ("-") and validates it. The file layer does the
+ * reading (regular files only, 1 MB cap, UTF-8 with or without a byte-order mark, duplicate keys
+ * refused); everything that can go wrong becomes a UsageError naming the file and the field.
  */
-import {readFileSync, statSync} from 'node:fs';
 import type {EnginePlan} from '../engine/types.js';
+import {maxPlanBytes} from '../files/bounded-read.js';
+import {FileRefusedError} from '../files/file-errors.js';
+import {readJsonInput} from '../files/json-input.js';
+import {printable} from '../files/printable.js';
 import {parsePlan} from '../plan/resolve-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import {UsageError} from '../errors/usage-error.js';
 
-/** Plans are small; anything bigger is not a plan. */
-export const maxPlanBytes = 1_000_000;
+export {maxPlanBytes};
 
-export function readJsonFile(path: string, what = 'file'): unknown {
-	let text: string;
+/** Any JSON input of the CLI: the file layer's refusals become UsageErrors (exit code 2). */
+export async function readJsonInputOrRefuse(path: string, what = 'plan'): Promise<unknown> {
 	try {
-		if (path === '-') {
-			text = readFileSync(0, 'utf8');
-		} else {
-			const size = statSync(path).size;
-			if (size > maxPlanBytes) throw new UsageError(`${path}: ${what} is ${size} bytes; the limit is ${maxPlanBytes}`);
-			text = readFileSync(path, 'utf8');
-		}
+		return (await readJsonInput(path, {maxBytes: maxPlanBytes, what})).value;
 	} catch (error) {
-		if (error instanceof UsageError) throw error;
-		const code = (error as NodeJS.ErrnoException).code;
-		throw new UsageError(`${path === '-' ? 'standard input' : path}: cannot read ${what}${code ? ` (${code})` : ''}`);
-	}
-	if (text.length > maxPlanBytes) throw new UsageError(`${path}: ${what} is larger than ${maxPlanBytes} bytes`);
-	try {
-		return JSON.parse(text) as unknown;
-	} catch (error) {
-		throw new UsageError(`${path === '-' ? 'standard input' : path}: not valid JSON (${(error as Error).message})`);
+		if (error instanceof FileRefusedError) throw new UsageError(error.message);
+		throw error;
 	}
 }
 
-export function readPlanFile(path: string): {doc: PlanDocument; plan: EnginePlan} {
-	const r = parsePlan(readJsonFile(path, 'plan'));
-	if (!r.ok) throw new UsageError(`${path === '-' ? 'standard input' : path}: not a valid plan`, r.errors);
+export async function readPlanFile(path: string): Promise<{doc: PlanDocument; plan: EnginePlan}> {
+	const r = parsePlan(await readJsonInputOrRefuse(path, 'plan'));
+	if (!r.ok) throw new UsageError(`${path === '-' ? 'standard input' : printable(path)}: not a valid plan`, r.errors);
 	return r.value;
 }

@@ -5,6 +5,7 @@
  */
 import {basename} from 'node:path';
 import type {Command} from 'commander';
+import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
@@ -102,8 +103,8 @@ export function registerTableCommand(program: Command): void {
 				doc = entry.plan;
 				source = kindOf(entry);
 			} else {
-				doc = readPlanFile(planPath!).doc;
-				source = planPath === '-' ? 'plan from standard input' : `plan file ${basename(planPath!)}`;
+				doc = (await readPlanFile(planPath!)).doc;
+				source = planPath === '-' ? 'plan from standard input' : `plan file ${printable(basename(planPath!))}`;
 			}
 
 			const presetLayer: PresetLayerLookup | undefined = store

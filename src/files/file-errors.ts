@@ -14,6 +14,8 @@ export type FileRefusalCode =
 	| 'changed'
 	| 'not-owned'
 	| 'encoding'
+	| 'not-json'
+	| 'json-refused'
 	| 'unreadable'
 	| 'unwritable';
 

@@ -8,6 +8,8 @@
  */
 import {z} from 'zod';
 import {softTissueNonlinearityBA} from '../engine/nonlinearity.js';
+import {printable} from '../files/printable.js';
+import {safeText} from '../files/text-field.js';
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {Tissue} from '../engine/types.js';
 import {migratePlanInput} from './plan-migration.js';
@@ -47,6 +49,18 @@ export const defaultRampDbPerCmMhz = 0.5;
 
 export type Limit = {readonly min: number; readonly max: number; readonly exclusiveMin?: boolean};
 
+/**
+ * The one rule for a target depth, whether a plan's own `targetDepthCm` or `ladder --target`: a
+ * displayed depth within the display (deeper is not on the screen the table is for).
+ */
+export function targetDepthLimit(displayDepthCm: number): Limit {
+	return {min: 0, max: displayDepthCm, exclusiveMin: true};
+}
+
+export function withinLimit(value: number, l: Limit): boolean {
+	return value <= l.max && (l.exclusiveMin ? value > l.min : value >= l.min);
+}
+
 /** "from 0 to 50 MHz" / "above 0 and up to 50 MHz". */
 export function describeRange(l: Limit, unit = ''): string {
 	const u = unit ? ` ${unit}` : '';
@@ -63,14 +77,14 @@ function ranged(l: Limit, unit = '', integer = false) {
 }
 
 const customTissueSchema = z.strictObject({
-	label: z.string({error: 'must be text of 1 to 60 characters'}).min(1, {error: 'must be text of 1 to 60 characters'}).max(60, {error: 'must be text of 1 to 60 characters'}),
+	label: safeText(z.string({error: 'must be text of 1 to 60 characters'}).min(1, {error: 'must be text of 1 to 60 characters'}).max(60, {error: 'must be text of 1 to 60 characters'})),
 	speedMps: ranged(limits.speedMps, 'm/s'),
 	densityKgM3: ranged(limits.densityKgM3, 'kg/m³'),
 	alphaDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
 	exponent: ranged(limits.exponent),
 	/** Acoustic nonlinearity B/A (tissue harmonic); absent = the soft-tissue default. */
 	nonlinearityBA: ranged(limits.nonlinearityBA).optional(),
-	source: z.string().max(300, {error: 'must be at most 300 characters'}).optional(),
+	source: safeText(z.string().max(300, {error: 'must be at most 300 characters'})).optional(),
 });
 
 /** What the probe receives (see ReceiveMode in the engine). */
@@ -78,7 +92,7 @@ export const receiveModes = ['fundamental', 'tissue-harmonic', 'scatterer-harmon
 const receiveSchema = z.enum(receiveModes, {error: 'must be "fundamental", "tissue-harmonic" or "scatterer-harmonic"'});
 
 const tissueIdSchema = z.string({error: 'must be a library tissue id or a custom tissue object'}).refine((id) => libraryTissue(id) !== undefined, {
-	error: (issue) => `unknown tissue id "${String(issue.input)}"; known ids: ${tissueIds.join(', ')}`,
+	error: (issue) => `unknown tissue id "${printable(String(issue.input), 60)}"; known ids: ${tissueIds.join(', ')}`,
 });
 
 /**
@@ -151,9 +165,9 @@ export const defaultNoiseBudgetDb = 65;
 export const planSchema = z
 	.strictObject({
 		format: z.literal(planFormat, {error: `must be "${planFormat}" (or "evenecho-plan/1", read and migrated)`}).default(planFormat),
-		name: z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'}).default('Untitled plan'),
-		region: z.string({error: 'must be text of 1 to 40 characters'}).min(1, {error: 'must be text of 1 to 40 characters'}).max(40, {error: 'must be text of 1 to 40 characters'}).default('custom'),
-		note: z.string().max(2000, {error: 'must be at most 2000 characters'}).optional(),
+		name: safeText(z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'})).default('Untitled plan'),
+		region: safeText(z.string({error: 'must be text of 1 to 40 characters'}).min(1, {error: 'must be text of 1 to 40 characters'}).max(40, {error: 'must be text of 1 to 40 characters'})).default('custom'),
+		note: safeText(z.string().max(2000, {error: 'must be at most 2000 characters'}), {multiline: true}).optional(),
 		layers: z
 			.array(layerSchema, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
 			.min(limits.layers.min, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
@@ -204,7 +218,7 @@ export const planSchema = z
 		error: 'must have one value per slider (sliders.count)',
 		path: ['reference', 'slidersDb'],
 	})
-	.refine((p) => p.targetDepthCm === undefined || p.targetDepthCm <= p.display.depthCm, {
+	.refine((p) => p.targetDepthCm === undefined || withinLimit(p.targetDepthCm, targetDepthLimit(p.display.depthCm)), {
 		error: 'must not be deeper than display.depthCm',
 		path: ['targetDepthCm'],
 	})
@@ -227,11 +241,12 @@ export type ParseResult<T> = {ok: true; value: T} | {ok: false; errors: string[]
 /** Human-readable, one line per problem: `layers.2.thicknessCm: must be a number above 0 and up to 50 cm`. */
 export function formatIssues(error: z.ZodError): string[] {
 	return error.issues.map((issue) => {
-		const path = issue.path.length ? issue.path.map(String).join('.') : '(plan)';
+		// Keys and messages can quote the file's own text: shown printable, never raw.
+		const path = issue.path.length ? issue.path.map((p) => printable(String(p), 60)).join('.') : '(plan)';
 		if (issue.code === 'unrecognized_keys') {
-			return `${path}: unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${k}"`).join(', ')}`;
+			return `${path}: unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.map((k) => `"${printable(k, 60)}"`).join(', ')}`;
 		}
-		return `${path}: ${issue.message}`;
+		return `${path}: ${printable(issue.message, 400)}`;
 	});
 }
 
