@@ -4,6 +4,8 @@
  * side and never prompt. Bad input: one message on stderr, exit code 2, nothing on stdout.
  */
 import {CommanderError} from 'commander';
+import {FileRefusedError} from '../files/file-errors.js';
+import {printable} from '../files/printable.js';
 import {buildProgram} from './program.js';
 import {badInputExit, UsageError} from '../errors/usage-error.js';
 
@@ -13,19 +15,26 @@ function reportAndExit(error: unknown): never {
 		for (const d of error.details) process.stderr.write(`  ${d}\n`);
 		process.exit(badInputExit);
 	}
+	if (error instanceof FileRefusedError) {
+		process.stderr.write(`evenecho: ${error.message}\n`);
+		process.exit(badInputExit);
+	}
 	if (error instanceof CommanderError) {
 		process.exit(error.exitCode === 0 ? 0 : badInputExit);
 	}
 	// Not the user's fault: still no stack trace unless asked for.
-	process.stderr.write(`evenecho: internal error: ${(error as Error)?.message ?? String(error)}\n`);
+	process.stderr.write(`evenecho: internal error: ${printable((error as Error)?.message ?? String(error), 400)}\n`);
 	if (process.env['EVENECHO_DEBUG']) process.stderr.write(`${(error as Error)?.stack ?? ''}\n`);
 	process.exit(1);
 }
 
 // A reader that stops early (`evenecho … | head`) is not an error: end quietly, no stack trace.
+// Any other failure to write the output (a full disk) is said plainly; commands that report
+// success on standard error wait for their output to be written first (see write-output.ts).
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
 	if (error.code === 'EPIPE') process.exit(0);
-	reportAndExit(error);
+	process.stderr.write(`evenecho: cannot write the output${error.code === 'ENOSPC' ? ' (the device is full)' : error.code ? ` (${error.code})` : ''}; it is incomplete\n`);
+	process.exit(1);
 });
 
 try {

@@ -13,6 +13,7 @@ import {presetSlug} from '../store/safe-name.js';
 import {loadTemplates} from '../store/templates.js';
 import {readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
+import {writeOutput} from './write-output.js';
 
 const formats = ['text', 'json'] as const;
 type Format = (typeof formats)[number];
@@ -30,11 +31,11 @@ function say(message: string): void {
  * Opens the store for one command and prints its notices afterwards, also when the command fails.
  * Loaded on demand so that other commands do not pay for `conf` at start-up.
  */
-async function withStore<T>(work: (store: PresetStore) => T): Promise<T> {
+async function withStore<T>(work: (store: PresetStore) => T | Promise<T>): Promise<T> {
 	const {openPresetStore} = await import('../store/preset-store.js');
 	const store = openPresetStore();
 	try {
-		return work(store);
+		return await work(store);
 	} finally {
 		for (const notice of store.notices) say(`note: ${notice}`);
 	}
@@ -154,7 +155,7 @@ export function registerPresetsCommand(program: Command): void {
 		.requiredOption('--from <plan>', 'plan file (JSON, format evenecho-plan/1) or - for standard input')
 		.option('--force', 'replace your preset of the same name')
 		.action(async (name: string, opts: {from: string; force?: boolean}) => {
-			const {doc} = readPlanFile(opts.from);
+			const {doc} = await readPlanFile(opts.from);
 			await withStore((store) => {
 				const saved = store.save(name, doc, {overwrite: opts.force === true});
 				say(`saved "${saved.name}" as ${saved.id} (${saved.file})`);
@@ -210,10 +211,10 @@ export function registerPresetsCommand(program: Command): void {
 		.argument('[presets...]', 'ids or names (templates too)')
 		.option('--force', 'replace the file if it exists')
 		.action(async (file: string, queries: string[], opts: {force?: boolean}) => {
-			await withStore((store) => {
+			await withStore(async (store) => {
 				if (file === '-') {
 					const bundle = store.exportBundle(queries);
-					process.stdout.write(bundle.text);
+					await writeOutput(bundle.text);
 					say(`exported ${countOf(bundle.presets.length)}`);
 					return;
 				}

@@ -1,6 +1,7 @@
 /** The `evenecho` program: options, sub-commands and the console as the default action. */
 import {Command} from 'commander';
 import {commandList, commandNamed} from './command-list.js';
+import {groupAction, refuseRepeatedOptions, unknownCommandError} from './command-rules.js';
 
 /**
  * The program for a command line: the sub-command it runs fully defined (loaded now), every other
@@ -23,9 +24,13 @@ export async function buildProgram(args: readonly string[] = [], full = false): 
 	}
 	const help = program.createHelp();
 	program.configureHelp({subcommandTerm: (cmd) => terms.get(cmd.name()) ?? help.subcommandTerm(cmd)});
-	program.action(async () => {
+	program.allowExcessArguments(true).action(async () => {
+		const [word] = program.args;
+		if (word !== undefined) throw unknownCommandError(program, word);
 		const {openConsole} = await import('../ui/open-console.js');
 		await openConsole();
 	});
+	for (const group of program.commands.filter((c) => c.commands.length > 0)) groupAction(group);
+	refuseRepeatedOptions(program);
 	return program;
 }
