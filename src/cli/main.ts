@@ -10,13 +10,14 @@ import {buildProgram} from './program.js';
 import {badInputExit, UsageError} from '../errors/usage-error.js';
 
 function reportAndExit(error: unknown): never {
+	// Messages quote file names, keys and values: made printable once more here, the last door.
 	if (error instanceof UsageError) {
-		process.stderr.write(`evenecho: ${error.message}\n`);
-		for (const d of error.details) process.stderr.write(`  ${d}\n`);
+		process.stderr.write(`evenecho: ${printable(error.message, 2000)}\n`);
+		for (const d of error.details) process.stderr.write(`  ${printable(d, 2000)}\n`);
 		process.exit(badInputExit);
 	}
 	if (error instanceof FileRefusedError) {
-		process.stderr.write(`evenecho: ${error.message}\n`);
+		process.stderr.write(`evenecho: ${printable(error.message, 2000)}\n`);
 		process.exit(badInputExit);
 	}
 	if (error instanceof CommanderError) {

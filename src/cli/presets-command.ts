@@ -9,9 +9,10 @@ import {computeCurve} from '../engine/compensation-curve.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 import {curveSummary} from '../report/curve-summary.js';
 import type {Preset, PresetStore, PresetSummary} from '../store/preset-store.js';
+import {printable, printableLines} from '../files/printable.js';
 import {presetSlug} from '../store/safe-name.js';
 import {loadTemplates} from '../store/templates.js';
-import {readPlanFile} from './read-plan-file.js';
+import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 import {writeOutput} from './write-output.js';
 
@@ -23,8 +24,9 @@ function parseFormat(value: string): Format {
 	return value as Format;
 }
 
+/** Messages quote names and file paths: printable, so nothing from a file drives the terminal. */
 function say(message: string): void {
-	process.stderr.write(`evenecho: ${message}\n`);
+	process.stderr.write(`evenecho: ${printable(message, 2000)}\n`);
 }
 
 /**
@@ -46,7 +48,7 @@ const pad = (s: string, n: number) => s + ' '.repeat(Math.max(0, n - width(s)));
 
 /** The `list` table: one preset a line, templates first. */
 export function presetTable(presets: readonly PresetSummary[]): string {
-	const rows = [['id', 'name', 'region', 'kind'], ...presets.map((p) => [p.id, p.name, p.region, p.isTemplate ? 'template' : 'user preset'])];
+	const rows = [['id', 'name', 'region', 'kind'], ...presets.map((p) => [printable(p.id), printable(p.name), printable(p.region), p.isTemplate ? 'template' : 'user preset'])];
 	const widths = [0, 1, 2].map((c) => Math.max(...rows.map((r) => width(r[c]!))));
 	return rows.map((r) => r.map((cell, c) => (c < 3 ? pad(cell, widths[c]! + 2) : cell)).join('').trimEnd()).join('\n') + '\n';
 }
@@ -70,16 +72,16 @@ function wrap(text: string, indent = '  ', columns = 80): string {
 /** The text form of `show`: who the preset is, its note, then the curve it gives. */
 export function presetDescription(p: Preset): string {
 	const out: string[] = [];
-	out.push(`${p.id}  "${p.name}"  [${p.region}]`);
+	out.push(`${printable(p.id)}  "${printable(p.name)}"  [${printable(p.region)}]`);
 	out.push(
 		p.isTemplate
 			? `  built-in template, read-only (${p.file}); "evenecho presets copy ${p.id} <name>" makes your own copy`
 			: `  user preset (${p.file})${p.savedAt ? `, saved ${p.savedAt}` : ''}${p.migratedFrom ? `; stored as record version ${p.migratedFrom}, read as the current version` : ''}`,
 	);
-	for (const problem of p.problems ?? []) out.push(`  ! ${problem}`);
+	for (const problem of p.problems ?? []) out.push(`  ! ${printable(problem, 400)}`);
 	if (p.plan.note) {
 		out.push('');
-		out.push(wrap(p.plan.note));
+		out.push(wrap(printableLines(p.plan.note)));
 	}
 	out.push('');
 	return out.join('\n') + '\n' + curveSummary(computeCurve(resolvePlan(p.plan)));
@@ -229,8 +231,12 @@ export function registerPresetsCommand(program: Command): void {
 		.argument('<file>', 'plan or bundle file, or -')
 		.option('--force', 'replace your presets of the same names')
 		.action(async (file: string, opts: {force?: boolean}) => {
+			// Read first (asynchronously for standard input, so signals work while it waits).
+			const value = await readJsonInputOrRefuse(file, 'preset file').catch((error: unknown) => {
+				throw error instanceof UsageError ? new UsageError(`${error.message}; nothing was imported`) : error;
+			});
 			await withStore((store) => {
-				const imported = store.importFrom(file, {overwrite: opts.force === true});
+				const imported = store.importDocument(value, file === '-' ? 'standard input' : printable(file), {overwrite: opts.force === true});
 				say(`imported ${countOf(imported.length)}: ${imported.map((p) => `"${p.name}" (${p.id})`).join(', ')}`);
 				for (const p of imported) process.stdout.write(`${p.id}\n`);
 			});

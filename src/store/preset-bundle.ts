@@ -9,6 +9,7 @@
  * Both are untrusted: every entry is checked in full, and any problem refuses the whole file.
  */
 import {z} from 'zod';
+import {safeText} from '../files/text-field.js';
 import {planFormatV1} from '../plan/plan-migration.js';
 import {formatIssues, parsePlanDocument, planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {checkPresetName, presetSlug} from './safe-name.js';
@@ -22,7 +23,7 @@ export const maxBundlePresets = 500;
 const bundleSchema = z.strictObject(
 	{
 		format: z.literal(bundleFormat),
-		exportedAt: z.string({error: 'must be an ISO time'}).max(40, {error: 'must be an ISO time'}).optional(),
+		exportedAt: safeText(z.string({error: 'must be an ISO time'}).max(40, {error: 'must be an ISO time'})).optional(),
 		presets: z
 			.array(z.unknown(), {error: `must be a list of 1 to ${maxBundlePresets} plans`})
 			.min(1, {error: `must be a list of 1 to ${maxBundlePresets} plans`})

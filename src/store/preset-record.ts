@@ -12,6 +12,7 @@
  * v2 the next time that preset is saved.
  */
 import {z} from 'zod';
+import {safeText} from '../files/text-field.js';
 import {formatIssues, parsePlanDocument, planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {checkPresetName} from './safe-name.js';
 import {PresetStoreError} from './store-errors.js';
@@ -25,7 +26,7 @@ const recordV2Schema = z.strictObject({
 	record: z.literal(recordMarker, {error: `must be "${recordMarker}"`}),
 	version: z.literal(currentRecordVersion),
 	name: z.string({error: 'must be the preset name'}),
-	savedAt: z.string().max(40, {error: 'must be an ISO time'}).optional(),
+	savedAt: safeText(z.string().max(40, {error: 'must be an ISO time'})).optional(),
 	plan: z.unknown(),
 });
 

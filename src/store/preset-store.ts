@@ -4,8 +4,11 @@
  *
  * Storage design, and why:
  * - `conf` decides where the store lives (its standard per-user config folder, or `cwd` =
- *   `EVENECHO_HOME` for tests and shared drives) and keeps the store's small settings file
- *   (`config.json`: the layout and the newest record version written).
+ *   `EVENECHO_HOME` for tests and shared drives); the small settings file (`config.json`: the
+ *   layout and the newest record version written) is read and written by the file layer
+ *   (settings-file.ts). The store's folders must be real folders of the user's own.
+ * - Every file is read and written through src/files: regular files only, never through a link,
+ *   capped reads, the one atomic writer.
  * - Each user preset is its own file, `presets/<slug>.json`, written to a temporary file, flushed,
  *   and then renamed (replace) or hard-linked (create only if absent) into place. Two processes
  *   saving different presets therefore never touch the same file, so neither can lose the other's
@@ -13,22 +16,32 @@
  *   is needed, so no lock can go stale after a crash, and a crash mid-write leaves at most a
  *   stray temporary file (skipped, and swept after an hour), never a half-written preset. One
  *   shared JSON file (conf's usual way) would need a lock around every read-modify-write.
+ * - Deleting or renaming away a preset checks that the file is still the one read (inode and
+ *   SHA-256, guarded-change.ts), so a save landing in between is kept. A multi-preset import is one
+ *   journalled batch (file-batch.ts): a crash half way is rolled back when the store next opens.
  * - Damage is contained to one file. A preset file that is not JSON at all is moved aside to
  *   `<file>.damaged-<time>` and a notice says so; one that is JSON but no longer validates (a
  *   tissue id since removed, a hand edit out of range) is left untouched and reported. A damaged
  *   `config.json` is moved aside the same way and rewritten. `clearInvalidConfig` stays off.
  */
-import Conf from 'conf';
-import {linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, unlinkSync} from 'node:fs';
-import {dirname, join, resolve} from 'node:path';
+import {readdirSync} from 'node:fs';
+import {join, resolve} from 'node:path';
+import {entryAt, isTempName, writeFileAtomic} from '../files/atomic-write.js';
+import {maxPlanBytes, readRegularFile, type FileIdentity} from '../files/bounded-read.js';
+import {commitBatch, recoverBatches, type BatchPause} from '../files/file-batch.js';
+import {FileRefusedError, errnoOf} from '../files/file-errors.js';
+import {moveAsideIfUnchanged, removeIfUnchanged, replaceIfUnchanged, type PausePoint} from '../files/guarded-change.js';
+import {parseJsonBytes, readJsonFile} from '../files/json-input.js';
+import {checkOwnedFolder} from '../files/owned-folder.js';
+import {printable} from '../files/printable.js';
+import {sweepTemps} from '../files/temp-sweep.js';
 import {parsePlanDocument, type PlanDocument} from '../plan/plan-schema.js';
-import {commitExclusive, commitReplace, createFileAtomic, isTempName, removeQuietly, writeFileAtomic, writeTemp} from './atomic-file.js';
 import {decodeImport, encodeBundle, type NamedPlan} from './preset-bundle.js';
 import {currentRecordVersion, decodeRecord, encodeRecord, type DecodedRecord} from './preset-record.js';
-import {checkPresetName, presetSlug, printable, slugOfUserId, userIdPrefix} from './safe-name.js';
+import {checkPresetName, presetSlug, userIdPrefix} from './safe-name.js';
+import {readSettings, settingsPath, storeHomeOf, writeSettings} from './settings-file.js';
 import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNotFoundError, PresetStoreError, TemplateReadOnlyError} from './store-errors.js';
 import {loadTemplates, type Template} from './templates.js';
-import {parseUntrustedJson, readBoundedText} from './untrusted-json.js';
 
 /** One line of `list`. User ids start with `user:`; template ids never do. */
 export interface PresetSummary {
@@ -54,6 +67,17 @@ export interface Preset extends PresetSummary {
 export interface StoreOptions {
 	/** The store's folder; default `EVENECHO_HOME`, else conf's standard per-user folder. */
 	readonly home?: string;
+	/**
+	 * Tests only: called at the points where another process could act, so a test can land a rival
+	 * write (or end the process) exactly there, without timing.
+	 */
+	readonly pauseAt?: StorePause;
+}
+
+/** Test-only pause points: a guarded delete or replace (rename, delete) and each file of an import. */
+export interface StorePause {
+	readonly guarded?: PausePoint;
+	readonly batch?: BatchPause;
 }
 
 export interface WriteOptions {
@@ -61,28 +85,20 @@ export interface WriteOptions {
 	readonly overwrite?: boolean;
 }
 
-/** Stray temporary files older than this are left over from a crash and removed. */
-const staleTempMs = 60 * 60 * 1000;
 const storeLayout = 'one-file-per-preset';
-
-type Settings = Record<string, unknown>;
 
 interface UserEntry {
 	readonly id: string;
 	readonly slug: string;
 	readonly file: string;
 	readonly record: DecodedRecord;
+	/** Who the file was when read: deletes and renames check it is still that file. */
+	readonly identity: FileIdentity;
 }
 
 type Match = {kind: 'template'; template: Template} | {kind: 'user'; entry: UserEntry; entries: readonly UserEntry[]};
 
-function errnoCode(error: unknown): string | undefined {
-	return (error as NodeJS.ErrnoException | undefined)?.code;
-}
-
-function isPlainObject(value: unknown): value is Record<string, unknown> {
-	return value !== null && typeof value === 'object' && !Array.isArray(value);
-}
+const errnoCode = errnoOf;
 
 function timestamp(): string {
 	return `${new Date().toISOString().replace(/[:.]/g, '-')}-${process.pid}`;
@@ -90,32 +106,12 @@ function timestamp(): string {
 
 /**
  * Moves a damaged file aside, byte for byte, to `<file>.damaged-<time>` (which the store never
- * reads). If the file changed between our read and the move (another process replaced it with a
- * good one), the move is undone. Returns the backup path, or undefined when nothing was moved.
+ * reads), only if it is still the file that was read: a good file another process wrote meanwhile
+ * stays. Returns the backup path, or undefined when nothing was moved.
  */
-function moveAside(file: string, seenText: string): string | undefined {
+function moveAside(file: string, seen: FileIdentity): string | undefined {
 	const backup = `${file}.damaged-${timestamp()}`;
-	try {
-		renameSync(file, backup);
-	} catch {
-		return undefined; // Gone already: another process dealt with it.
-	}
-	let moved: string | undefined;
-	try {
-		moved = readFileSync(backup, 'utf8').replace(/^\uFEFF/, '');
-	} catch {
-		moved = undefined;
-	}
-	if (moved !== undefined && moved !== seenText) {
-		try {
-			linkSync(backup, file);
-			unlinkSync(backup);
-			return undefined;
-		} catch {
-			// A newer file took the name meanwhile: keep this one as the backup.
-		}
-	}
-	return backup;
+	return moveAsideIfUnchanged(file, backup, seen) === 'done' ? backup : undefined;
 }
 
 /**
@@ -125,7 +121,7 @@ function moveAside(file: string, seenText: string): string | undefined {
 export function openPresetStore(options: StoreOptions = {}): PresetStore {
 	// An empty value means "not set", never the current folder.
 	const home = options.home || process.env['EVENECHO_HOME'] || undefined;
-	return new PresetStore(home === undefined ? undefined : resolve(home));
+	return new PresetStore(home === undefined ? undefined : resolve(home), options.pauseAt);
 }
 
 /** Templates and user presets; see the module comment for how user presets are stored. */
@@ -136,65 +132,62 @@ export class PresetStore {
 	readonly presetsDir: string;
 	/** Things the store did or found that the user should hear about (backups made, …). */
 	readonly notices: string[] = [];
-	readonly #conf: Conf<Settings> | undefined;
+	/** The settings file (`<home>/config.json`). */
+	readonly #settingsFile: string;
 	/** Set when the folder cannot be used; writes are refused with this message. */
 	readonly #unusable: string | undefined;
+	readonly #pause: StorePause;
 
 	/** Use `openPresetStore`. */
-	constructor(home: string | undefined) {
-		let damaged: {problem: string; text: string} | undefined;
-		let conf: Conf<Settings> | undefined;
+	constructor(home: string | undefined, pause: StorePause = {}) {
+		this.#pause = pause;
+		this.#settingsFile = settingsPath(home);
+		this.home = storeHomeOf(this.#settingsFile);
+		this.presetsDir = join(this.home, 'presets');
 		let unusable: string | undefined;
 		try {
-			conf = new Conf<Settings>({
-				projectName: 'evenecho',
-				configName: 'config',
-				...(home !== undefined ? {cwd: home} : {}),
-				// Never wipe a file the user may need; a damaged one is moved aside below instead.
-				clearInvalidConfig: false,
-				deserialize: (text: string): Settings => {
-					const parsed = parseUntrustedJson(text.replace(/^\uFEFF/, ''));
-					if (parsed.ok && isPlainObject(parsed.value)) {
-						damaged = undefined;
-						return parsed.value;
-					}
-					damaged = {problem: parsed.ok ? 'not a JSON object' : parsed.problem, text: text.replace(/^\uFEFF/, '')};
-					return {};
-				},
-			});
+			checkOwnedFolder(this.home, {create: true});
+			checkOwnedFolder(this.presetsDir, {create: false});
 		} catch (error) {
-			unusable = `the preset store at ${home ?? 'the standard per-user config folder'} cannot be opened (${errnoCode(error) ?? (error as Error).message})`;
+			if (!(error instanceof FileRefusedError)) throw error;
+			unusable = `the preset store cannot be opened: ${error.message}`;
 		}
-		this.#conf = conf;
 		this.#unusable = unusable;
-		this.home = conf ? dirname(conf.path) : (home ?? '');
-		this.presetsDir = join(this.home, 'presets');
 		if (unusable) {
 			this.notices.push(`${unusable}; only the templates are available, and saving is not possible until that is fixed`);
 			return;
 		}
-		if (damaged && conf) {
-			const backup = moveAside(conf.path, damaged.text);
-			if (backup) this.notices.push(`the store's settings file ${conf.path} was damaged (${damaged.problem}); kept it as ${backup} and started a fresh one; your presets are not affected`);
-		}
+		// What a crash may have left: an import half done, stray temporary files, held files.
+		this.notices.push(...recoverBatches(this.presetsDir));
+		for (const name of sweepTemps(this.presetsDir)) this.notices.push(`${printable(name)} was put back after an interrupted change`);
+		sweepTemps(this.home);
 		this.#ensureSettings();
 	}
 
-	/** Records the layout and version once; a store written by a newer program is flagged. */
+	/** Records the layout and version once; a store written by a newer program is flagged; a damaged settings file is kept aside. */
 	#ensureSettings(): void {
-		const conf = this.#conf;
-		if (!conf) return;
-		try {
-			const settings = conf.store;
-			const written = typeof settings['recordVersion'] === 'number' ? settings['recordVersion'] : undefined;
-			if (written !== undefined && written > currentRecordVersion) {
-				this.notices.push(`this preset store was last written by a newer evenecho (record version ${written}); presets it wrote may not load here and are left unchanged`);
+		const file = this.#settingsFile;
+		const read = readSettings(file);
+		if (read.kind === 'refused') {
+			this.notices.push(`the store's settings file: ${read.problem}; left as it is`);
+			return;
+		}
+		let settings: Record<string, unknown> = read.kind === 'ok' ? read.settings : {};
+		if (read.kind === 'damaged') {
+			const backup = read.identity ? moveAside(file, read.identity) : undefined;
+			if (backup) this.notices.push(`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ${printable(backup)} and started a fresh one; your presets are not affected`);
+			settings = {};
+		}
+		const written = typeof settings['recordVersion'] === 'number' ? settings['recordVersion'] : undefined;
+		if (written !== undefined && written > currentRecordVersion) {
+			this.notices.push(`this preset store was last written by a newer evenecho (record version ${written}); presets it wrote may not load here and are left unchanged`);
+		}
+		if (settings['layout'] !== storeLayout || written === undefined || written < currentRecordVersion) {
+			try {
+				writeSettings(file, {...settings, layout: storeLayout, recordVersion: Math.max(written ?? 0, currentRecordVersion)});
+			} catch {
+				// A read-only store (e.g. a shared drive) still lists; writes report their own error.
 			}
-			if (settings['layout'] !== storeLayout || written === undefined || written < currentRecordVersion) {
-				conf.set({layout: storeLayout, recordVersion: Math.max(written ?? 0, currentRecordVersion)});
-			}
-		} catch {
-			// A read-only store (e.g. a shared drive) still lists; writes report their own error.
 		}
 	}
 
@@ -257,28 +250,43 @@ export class PresetStore {
 
 	/**
 	 * Gives a user preset a new name (and so a new id). The new file is in place before the old one
-	 * goes, so a crash in between leaves both rather than neither.
+	 * goes, so a crash in between leaves both rather than neither; the old one goes only if it is
+	 * still the file that was read, so a save landing in between is kept.
 	 * @throws TemplateReadOnlyError for a template; PresetExistsError when the new name is taken.
 	 */
 	rename(from: string, to: string, options: WriteOptions = {}): Preset {
+		const match = this.#match(from);
+		if (!match) throw new PresetNotFoundError(printable(from));
+		if (match.kind === 'template') throw new TemplateReadOnlyError(match.template.id, 'renamed');
 		const source = this.get(from);
-		if (source.isTemplate) throw new TemplateReadOnlyError(source.id, 'renamed');
+		const {entry} = match;
 		const newName = checkPresetName(to, 'new name');
 		const newSlug = presetSlug(newName);
-		const oldFile = source.file;
 		const savedAt = new Date();
 		const text = encodeRecord(newName, source.plan, savedAt);
-		if (newSlug === slugOfUserId(source.id)) {
-			this.#writeRecord(newSlug, text, true);
+		this.#requireUsable();
+		if (newSlug === entry.slug) {
+			// Same file (the name changes only in case or punctuation): replace it if unchanged.
+			const outcome = this.#guarded(() => replaceIfUnchanged(entry.file, text, entry.identity, this.#pause.guarded));
+			if (outcome !== 'done') throw new PresetStoreError(`${entry.id} was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; nothing was renamed; run the command again`);
 		} else {
 			this.#writeRecord(newSlug, text, options.overwrite === true);
-			try {
-				unlinkSync(oldFile);
-			} catch (error) {
-				if (errnoCode(error) !== 'ENOENT') this.notices.push(`renamed, but the old file ${oldFile} could not be removed (${errnoCode(error) ?? 'error'}); it now shows as a second preset`);
+			const outcome = this.#guarded(() => removeIfUnchanged(entry.file, entry.identity, this.#pause.guarded));
+			if (outcome === 'changed') {
+				this.notices.push(`${entry.id} was saved again by another process while it was being renamed; that newer version is kept under its old name, beside the renamed copy`);
 			}
 		}
 		return this.#written(newSlug, newName, source.plan, savedAt);
+	}
+
+	/** Runs a guarded change; the file layer's refusals become store errors. */
+	#guarded<T>(work: () => T): T {
+		try {
+			return work();
+		} catch (error) {
+			if (error instanceof FileRefusedError) throw new PresetStoreError(`${error.message}`);
+			throw error;
+		}
 	}
 
 	/** Copies a template or user preset under a new name, as a user preset. */
@@ -296,10 +304,10 @@ export class PresetStore {
 		if (match.kind === 'template') throw new TemplateReadOnlyError(match.template.id, 'deleted');
 		const {entry} = match;
 		this.#requireUsable();
-		try {
-			unlinkSync(entry.file);
-		} catch (error) {
-			if (errnoCode(error) !== 'ENOENT') throw new PresetStoreError(`cannot delete ${entry.file} (${errnoCode(error) ?? 'error'}); nothing was changed`);
+		// Only the file that was read: a save landing in between is kept, and the delete refused.
+		const outcome = this.#guarded(() => removeIfUnchanged(entry.file, entry.identity, this.#pause.guarded));
+		if (outcome === 'changed') {
+			throw new PresetStoreError(`${entry.id} was saved again by another process after it was read; nothing was deleted; run the command again to delete the new version`);
 		}
 		const name = entry.record.name ?? entry.slug;
 		return {id: entry.id, name, region: entry.record.status === 'ok' ? entry.record.plan.region : '', isTemplate: false};
@@ -335,34 +343,45 @@ export class PresetStore {
 		const bundle = this.exportBundle(idsOrNames);
 		const file = resolve(path);
 		try {
-			if (options.overwrite) writeFileAtomic(file, bundle.text);
-			else if (!createFileAtomic(file, bundle.text)) throw new PresetStoreError(`${file} already exists; use --force to replace it`);
+			writeFileAtomic(file, bundle.text, {replace: options.overwrite === true});
 		} catch (error) {
-			if (error instanceof PresetStoreError) throw error;
-			throw new PresetStoreError(`cannot write ${file} (${errnoCode(error) ?? (error as Error).message}); nothing was written`);
+			if (!(error instanceof FileRefusedError)) throw error;
+			if (error.code === 'exists') throw new PresetStoreError(`${printable(file)} already exists; use --force to replace it`);
+			throw new PresetStoreError(error.message);
 		}
 		return {file, presets: bundle.presets};
 	}
 
 	/**
-	 * Imports one plan (its `name` becomes the preset name) or a bundle from a file ("-": standard
-	 * input). The file is untrusted: size cap, strict schema, no prototype keys, safe names. Any
-	 * problem refuses the whole file and leaves the store as it was.
+	 * Imports one plan (its `name` becomes the preset name) or a bundle from a file. The file is
+	 * untrusted: size cap, strict schema, no prototype keys, safe names. Any problem refuses the
+	 * whole file and leaves the store as it was. (The CLI reads standard input itself, without
+	 * blocking, and calls `importDocument`.)
 	 * @throws PresetImportError listing every problem; PresetExistsError when names are taken.
 	 */
 	importFrom(path: string, options: WriteOptions = {}): Preset[] {
-		const where = path === '-' ? 'standard input' : path;
-		const text = readBoundedText(path);
-		if (!text.ok) throw new PresetImportError(`${where}: ${text.problem}; nothing was imported`);
-		const json = parseUntrustedJson(text.text);
-		if (!json.ok) throw new PresetImportError(`${where}: ${json.problem}; nothing was imported`);
-		const decoded = decodeImport(json.value);
+		let value: unknown;
+		try {
+			value = readJsonFile(path, {maxBytes: maxPlanBytes, what: 'preset file'}).value;
+		} catch (error) {
+			if (error instanceof FileRefusedError) throw new PresetImportError(`${error.message}; nothing was imported`);
+			throw error;
+		}
+		return this.importDocument(value, printable(path), options);
+	}
+
+	/**
+	 * Imports an already parsed plan or bundle; `where` names it in messages. All or nothing: the
+	 * files are written as one journalled batch, so even a crash half way leaves none of them.
+	 */
+	importDocument(value: unknown, where: string, options: WriteOptions = {}): Preset[] {
+		const decoded = decodeImport(value);
 		if (!decoded.ok) throw new PresetImportError(`${where}: not a valid preset file; nothing was imported`, decoded.problems);
 		this.#requireUsable();
 		const overwrite = options.overwrite === true;
 		const targets = decoded.items.map((item) => ({item, slug: presetSlug(item.name), file: join(this.presetsDir, `${presetSlug(item.name)}.json`)}));
 		if (!overwrite) {
-			const taken = targets.filter((t) => exists(t.file));
+			const taken = targets.filter((t) => entryAt(t.file) !== undefined);
 			if (taken.length) {
 				const first = taken[0]!;
 				throw new PresetExistsError(
@@ -374,27 +393,20 @@ export class PresetStore {
 			}
 		}
 		this.#ensurePresetsDir();
-		// Stage every file first, so a full disk stops the import before anything is replaced.
-		const staged: Array<{temp: string; file: string; slug: string}> = [];
 		const savedAt = new Date();
 		try {
-			for (const t of targets) staged.push({temp: writeTemp(t.file, encodeRecord(t.item.name, t.item.plan, savedAt)), file: t.file, slug: t.slug});
+			commitBatch(
+				this.presetsDir,
+				targets.map((t) => ({name: `${t.slug}.json`, data: encodeRecord(t.item.name, t.item.plan, savedAt)})),
+				{replace: overwrite, ...(this.#pause.batch ? {pause: this.#pause.batch} : {})},
+			);
 		} catch (error) {
-			for (const s of staged) removeQuietly(s.temp);
-			throw new PresetStoreError(`cannot write to ${this.presetsDir} (${errnoCode(error) ?? (error as Error).message}); nothing was imported`);
-		}
-		const created: string[] = [];
-		for (const [i, s] of staged.entries()) {
-			if (overwrite) {
-				commitReplace(s.temp, s.file);
-			} else if (commitExclusive(s.temp, s.file)) {
-				created.push(s.file);
-			} else {
-				// Another process saved this name just now: undo this import's own new files.
-				for (const rest of staged.slice(i + 1)) removeQuietly(rest.temp);
-				for (const f of created) removeQuietly(f);
-				throw this.#existsError(s.slug, `${where}: "${targets[i]!.item.name}" was saved by another process meanwhile; nothing was imported`);
+			if (!(error instanceof FileRefusedError)) throw error;
+			if (error.code === 'exists') {
+				const raced = targets.find((t) => entryAt(t.file) !== undefined);
+				throw this.#existsError(raced?.slug ?? targets[0]!.slug, `${where}: ${raced ? `"${raced.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`);
 			}
+			throw new PresetStoreError(`${where}: ${error.message.replace(/; nothing was written$/, '')}; nothing was imported`);
 		}
 		return targets.map((t) => this.#written(t.slug, t.item.name, t.item.plan, savedAt));
 	}
@@ -419,9 +431,10 @@ export class PresetStore {
 	#ensurePresetsDir(): void {
 		this.#requireUsable();
 		try {
-			mkdirSync(this.presetsDir, {recursive: true});
+			checkOwnedFolder(this.presetsDir, {create: true});
 		} catch (error) {
-			throw new PresetStoreError(`cannot create ${this.presetsDir} (${errnoCode(error) ?? 'error'}); nothing was saved`);
+			if (error instanceof FileRefusedError) throw new PresetStoreError(`${error.message}; nothing was saved`);
+			throw error;
 		}
 	}
 
@@ -429,18 +442,13 @@ export class PresetStore {
 	#writeRecord(slug: string, text: string, overwrite: boolean): void {
 		this.#ensurePresetsDir();
 		const file = join(this.presetsDir, `${slug}.json`);
-		let created: boolean;
 		try {
-			if (overwrite) {
-				writeFileAtomic(file, text);
-				created = true;
-			} else {
-				created = createFileAtomic(file, text);
-			}
+			writeFileAtomic(file, text, {replace: overwrite});
 		} catch (error) {
-			throw new PresetStoreError(`cannot write ${file} (${errnoCode(error) ?? (error as Error).message}); nothing was saved`);
+			if (!(error instanceof FileRefusedError)) throw error;
+			if (error.code === 'exists') throw this.#existsError(slug);
+			throw new PresetStoreError(`${error.message.replace(/; nothing was written$/, '')}; nothing was saved`);
 		}
-		if (!created) throw this.#existsError(slug);
 	}
 
 	#existsError(slug: string, message?: string): PresetExistsError {
@@ -475,21 +483,22 @@ export class PresetStore {
 		if (this.#unusable) return {entries: [], problems};
 		let names: string[];
 		try {
+			// Never through a link: a presets folder swapped for one since the store opened is refused.
+			if (!checkOwnedFolder(this.presetsDir, {create: false})) return {entries: [], problems};
 			names = readdirSync(this.presetsDir).sort();
 		} catch (error) {
-			if (errnoCode(error) !== 'ENOENT') problems.push(`cannot read ${this.presetsDir} (${errnoCode(error) ?? 'error'}); showing templates only`);
+			const why = error instanceof FileRefusedError ? error.message : `cannot read ${printable(this.presetsDir)} (${errnoCode(error) ?? 'error'})`;
+			problems.push(`${why}; showing templates only`);
 			return {entries: [], problems};
 		}
+		// Leftovers of a crash in another process since this store opened.
+		if (names.some(isTempName)) sweepTemps(this.presetsDir);
 		const entries: UserEntry[] = [];
 		for (const fileName of names) {
-			if (isTempName(fileName)) {
-				sweepIfStale(join(this.presetsDir, fileName));
-				continue;
-			}
-			if (fileName.startsWith('.') || !fileName.endsWith('.json')) continue;
+			if (isTempName(fileName) || fileName.startsWith('.') || !fileName.endsWith('.json')) continue;
 			const stem = fileName.slice(0, -'.json'.length);
 			if (presetSlug(stem) !== stem) {
-				problems.push(`${join(this.presetsDir, fileName)}: not a preset file name (lower-case letters, digits and hyphens); left as it is`);
+				problems.push(`${printable(join(this.presetsDir, fileName))}: not a preset file name (lower-case letters, digits and hyphens); left as it is`);
 				continue;
 			}
 			const entry = this.#readEntry(fileName, problems);
@@ -504,19 +513,30 @@ export class PresetStore {
 		const slug = fileName.slice(0, -'.json'.length);
 		const id = userIdPrefix + slug;
 		const file = join(this.presetsDir, fileName);
-		const text = readBoundedText(file);
-		if (!text.ok) {
-			if (text.code !== 'ENOENT') problems.push(`user preset ${id} (${file}) ${text.problem}; left as it is`);
+		let read;
+		try {
+			// Regular files only, never through a link, capped: a FIFO or device here is reported, not opened.
+			read = readRegularFile(file, {maxBytes: maxPlanBytes, followLinks: false, what: 'preset file'});
+		} catch (error) {
+			if (!(error instanceof FileRefusedError)) throw error;
+			if (error.code !== 'not-found') problems.push(`user preset ${id}: ${error.message}; left as it is`);
 			return undefined;
 		}
-		const json = parseUntrustedJson(text.text);
-		if (!json.ok && json.kind === 'syntax') {
-			const backup = moveAside(file, text.text);
-			if (backup) this.notices.push(`user preset file ${file} was damaged (${json.problem}); kept it as ${backup}; the other presets are not affected`);
-			return undefined;
+		const identity = read.identity!;
+		let record: DecodedRecord;
+		try {
+			record = decodeRecord(parseJsonBytes(file, read.bytes, identity).value);
+		} catch (error) {
+			if (!(error instanceof FileRefusedError)) throw error;
+			if (error.code === 'not-json' || error.code === 'encoding') {
+				const backup = moveAside(file, identity);
+				const problem = error.message.slice(error.message.indexOf(': ') + 2);
+				if (backup) this.notices.push(`user preset file ${printable(file)} was damaged (${problem}); kept it as ${printable(backup)}; the other presets are not affected`);
+				return undefined;
+			}
+			record = {status: 'invalid', problems: [error.message.slice(error.message.indexOf(': ') + 2)]};
 		}
-		const record: DecodedRecord = json.ok ? decodeRecord(json.value) : {status: 'invalid', problems: [json.problem]};
-		return {id, slug, file, record};
+		return {id, slug, file, record, identity};
 	}
 
 	#userPreset(entry: UserEntry, all?: readonly UserEntry[]): Preset {
@@ -554,23 +574,6 @@ function checkPlan(plan: PlanDocument, name: string): PlanDocument {
 	const parsed = parsePlanDocument({...plan, name});
 	if (!parsed.ok) throw new PresetImportError(`the plan for "${name}" does not validate; nothing was saved`, parsed.errors);
 	return parsed.value;
-}
-
-function exists(file: string): boolean {
-	try {
-		statSync(file);
-		return true;
-	} catch {
-		return false;
-	}
-}
-
-function sweepIfStale(file: string): void {
-	try {
-		if (Date.now() - statSync(file).mtimeMs > staleTempMs) unlinkSync(file);
-	} catch {
-		// Another process may be sweeping or committing it.
-	}
 }
 
 /** Hand-copied files can carry the same name under two ids; say so rather than pick silently. */

@@ -6,7 +6,11 @@
  * are the same preset. That keeps lookups predictable and lets the file system's exclusive create
  * settle who wins when two processes save the same name at once.
  */
+import {printable} from '../files/printable.js';
+import {slug} from '../files/slug.js';
 import {PresetNameError} from './store-errors.js';
+
+export {printable};
 
 /** Length of a preset name, in characters. */
 export const presetNameLimits = {minLength: 1, maxLength: 60} as const;
@@ -29,18 +33,9 @@ function escapeForClass(chars: string): string {
 /** Human-readable statement of the rule, for messages and help. */
 export const presetNameRule = `${presetNameLimits.minLength} to ${presetNameLimits.maxLength} characters: letters, digits, spaces and ${[...punctuation].join(' ')}, starting with a letter or digit`;
 
-/** The file-name form of a name: lower case, accents dropped, other characters as single hyphens. */
+/** The file-name form of a name (the project's one slug rule, src/files/slug.ts). */
 export function presetSlug(name: string): string {
-	// Lower, upper, lower: a case fold for letters with several lower-case forms (ᲀ/в, ẞ/ß/ss).
-	return name
-		.normalize('NFKD')
-		.toLowerCase()
-		.toUpperCase()
-		.toLowerCase()
-		.normalize('NFKD')
-		.replace(/\p{M}/gu, '')
-		.replace(/[^\p{L}\p{N}]+/gu, '-')
-		.replace(/^-+|-+$/g, '');
+	return slug(name);
 }
 
 /**
@@ -60,8 +55,8 @@ export function checkPresetName(input: unknown, field = 'name'): string {
 	const slug = presetSlug(name);
 	// Some compatibility characters decompose to marks only, which leaves nothing to name a file.
 	if (!slug) throw new PresetNameError(`${field}: "${printable(name)}" has no letters or digits that can name a file; use ordinary letters or digits`);
-	if (reservedSlugs.has(slug)) throw new PresetNameError(`${field}: "${name}" is reserved as a file name on Windows; choose another name`);
-	if (Buffer.byteLength(slug, 'utf8') > maxSlugBytes) throw new PresetNameError(`${field}: "${name}" is too long once written as a file name; shorten it`);
+	if (reservedSlugs.has(slug)) throw new PresetNameError(`${field}: "${printable(name)}" is reserved as a file name on Windows; choose another name`);
+	if (Buffer.byteLength(slug, 'utf8') > maxSlugBytes) throw new PresetNameError(`${field}: "${printable(name)}" is too long once written as a file name; shorten it`);
 	return name;
 }
 
@@ -70,10 +65,4 @@ export function slugOfUserId(id: string): string | undefined {
 	if (!id.startsWith(userIdPrefix)) return undefined;
 	const slug = id.slice(userIdPrefix.length);
 	return slug.length > 0 && presetSlug(slug) === slug ? slug : undefined;
-}
-
-/** Control characters shown as escapes so a hostile name cannot rewrite the terminal. */
-export function printable(text: string, max = 80): string {
-	const cut = [...text].length > max ? [...text].slice(0, max).join('') + '…' : text;
-	return cut.replace(/[\p{Cc}\p{Cf}]/gu, (c) => `\\u${c.codePointAt(0)!.toString(16).padStart(4, '0')}`);
 }

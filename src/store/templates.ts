@@ -6,7 +6,9 @@ import {readdirSync, readFileSync} from 'node:fs';
 import {dirname, join} from 'node:path';
 import {fileURLToPath} from 'node:url';
 import {parsePlanDocument, type PlanDocument} from '../plan/plan-schema.js';
-import {parseUntrustedJson, readBoundedText} from './untrusted-json.js';
+import {maxPlanBytes} from '../files/bounded-read.js';
+import {FileRefusedError} from '../files/file-errors.js';
+import {readJsonFile} from '../files/json-input.js';
 
 /** Template ids are plain slugs, so they can never look like a user id (`user:…`). */
 export const templateIdPattern = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
@@ -64,13 +66,15 @@ export function loadTemplates(dir?: string): {templates: Template[]; problems: s
 			problems.push(`template ${file}: the file name must be lower-case letters, digits and hyphens; skipped`);
 			continue;
 		}
-		const text = readBoundedText(file);
-		const json = text.ok ? parseUntrustedJson(text.text) : text;
-		if (!json.ok) {
-			problems.push(`template ${id} (${file}): ${json.problem}; skipped`);
+		let value: unknown;
+		try {
+			value = readJsonFile(file, {maxBytes: maxPlanBytes, followLinks: false, what: 'template'}).value;
+		} catch (error) {
+			if (!(error instanceof FileRefusedError)) throw error;
+			problems.push(`template ${id}: ${error.message}; skipped`);
 			continue;
 		}
-		const plan = parsePlanDocument(json.value);
+		const plan = parsePlanDocument(value);
 		if (!plan.ok) {
 			problems.push(`template ${id} (${file}) does not validate; skipped: ${plan.errors.join('; ')}`);
 			continue;

@@ -10,7 +10,7 @@ import {demoPlan} from '../../src/plan/demo-plan.js';
 import {decodeRecord} from '../../src/store/preset-record.js';
 import {openPresetStore} from '../../src/store/preset-store.js';
 import {PresetImportError, PresetNameError, PresetStoreError} from '../../src/store/store-errors.js';
-import {maxPresetFileBytes} from '../../src/store/untrusted-json.js';
+import {maxPlanBytes as maxPresetFileBytes} from '../../src/files/bounded-read.js';
 import {assertBuilt, cleanTempHomes, repoRoot, runCli, snapshotDir, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
@@ -156,7 +156,7 @@ describe('hostile import files leave the store unchanged', () => {
 	it('refuses a file over the size cap without parsing it', () => {
 		const {error, text} = importing(Buffer.alloc(maxPresetFileBytes + 10, 0x20));
 		expect(error).toBeInstanceOf(PresetImportError);
-		expect(text).toMatch(new RegExp(`${maxPresetFileBytes + 10} bytes; the limit is ${maxPresetFileBytes}`));
+		expect(text).toMatch(new RegExp(`${(maxPresetFileBytes + 10).toLocaleString('en-US')} bytes; over the limit of ${maxPresetFileBytes.toLocaleString('en-US')} bytes`));
 	});
 
 	it('refuses a __proto__ key anywhere, naming where', () => {
@@ -191,13 +191,13 @@ describe('hostile import files leave the store unchanged', () => {
 
 	it('a bad name never reaches the terminal raw', () => {
 		const {text} = importing(JSON.stringify({...good(), name: 'esc\u001b[2Jape'}));
-		expect(text).toMatch(/name: contains control characters/);
+		expect(text).toMatch(/name: contains a control or invisible formatting character/);
 		expect(text).not.toContain('\u001b');
 	});
 
 	it('refuses terminal control sequences hidden in other text fields (region, note)', () => {
-		expect(importing(JSON.stringify({...good(), region: 'x\u001b]0;owned\u0007'})).text).toMatch(/region: contains control characters/);
-		expect(importing(JSON.stringify({...good(), note: 'fine\u202eenil'})).text).toMatch(/note: contains control characters/);
+		expect(importing(JSON.stringify({...good(), region: 'x\u001b]0;owned\u0007'})).text).toMatch(/region: contains a control or invisible formatting character/);
+		expect(importing(JSON.stringify({...good(), note: 'fine\u202eenil'})).text).toMatch(/note: contains a control or invisible formatting character/);
 	});
 
 	it('refuses a plan without a name (import takes the name from the file)', () => {
