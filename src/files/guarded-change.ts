@@ -112,3 +112,25 @@ export function replaceIfUnchanged(path: string, data: string | Uint8Array, expe
 	removeQuietly(held);
 	return 'done';
 }
+
+/**
+ * Moves `path` to `backup` (a damaged file kept for the user) if it is still the file read as
+ * `expected`; a good file written meanwhile stays where it is.
+ */
+export function moveAsideIfUnchanged(path: string, backup: string, expected: FileIdentity): GuardedOutcome {
+	const held = take(path);
+	if (!held) return 'gone';
+	if (!sameFile(held, expected)) {
+		putBack(held, path);
+		return 'changed';
+	}
+	try {
+		linkSync(held, backup);
+	} catch {
+		putBack(held, path);
+		return 'changed';
+	}
+	removeQuietly(held);
+	syncFolder(dirname(path));
+	return 'done';
+}
