@@ -103,7 +103,7 @@ describe('bad input: exit 2, the field named, nothing on stdout', () => {
 	it('missing file', () => {
 		const r = runCli(['curve', join(dir, 'nope.json')]);
 		expect(r.status).toBe(2);
-		expect(r.stderr).toMatch(/nope\.json: cannot read plan \(ENOENT\)/);
+		expect(r.stderr).toMatch(/nope\.json: no such file/);
 	});
 
 	it('bad --format and --step', () => {

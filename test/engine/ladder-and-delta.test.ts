@@ -44,7 +44,7 @@ describe('frequency ladder', () => {
 			[['--freqs', '2,-1'], /--freqs: .*above 0 and up to 50 MHz/],
 			[['--freqs', '2,abc'], /--freqs: "abc" is not a number/],
 			[['--margin', '-3'], /--margin: must be a number from 0 to 100 dB/],
-			[['--target', '99'], /--target: must be a number from 0.1 to 40 cm/],
+			[['--target', '99'], /--target: must be a number above 0 and up to \d+ cm \(the plan's display depth\)/],
 		] as const) {
 			const r = runCli(['ladder', path, ...args]);
 			expect(r.status).toBe(2);
