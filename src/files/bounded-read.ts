@@ -14,6 +14,8 @@ import {printable} from './printable.js';
 
 /** Plan files, preset files, bundles and the settings file: all small text. */
 export const maxPlanBytes = 1_000_000;
+/** Image files (DICOM, PNG, JPEG): the image readers pass this as `maxBytes`. */
+export const maxImageBytes = 64 * 1024 * 1024;
 
 export interface ReadLimits {
 	/** Most bytes accepted; one more means the input is refused as too large. */
