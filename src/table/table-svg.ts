@@ -10,7 +10,8 @@
 import {computeCurve, modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import {SweepError, type ProtocolTable, type ResolvedSweep, type TableRow} from './sweep.js';
-import {fixed, inputLines, plain, roundTo, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
+import {roundTo} from '../plan/rounding.js';
+import {fixed, inputLines, plain, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 
 /** Most groups (frequency × receive × swap) in one chart. */

@@ -4,12 +4,15 @@
  * between neighbouring habitus rows cannot be followed at the scanner.
  */
 import {describe, expect, it} from 'vitest';
-import {abdomenPlan} from '../helpers/abdomen-plan.js';
+import {abdomenPlanJson} from '../fixtures/plans.js';
+import {parsePlanDocument, type PlanDocument} from '../../src/plan/plan-schema.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {resolvePlan} from '../../src/plan/resolve-plan.js';
 
 function masterAt(fatCm: number, centerMhz: number): number {
-	const doc = abdomenPlan();
+	const parsed = parsePlanDocument(abdomenPlanJson());
+	if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+	const doc: PlanDocument = parsed.value;
 	const layers = doc.layers.map((l) => (l.tissue === 'fat' ? {...l, thicknessCm: fatCm} : l));
 	return computeCurve(resolvePlan({...doc, layers, probe: {...doc.probe, centerMhz}})).fit.masterGainDb;
 }

@@ -177,14 +177,14 @@ describe('a plan the schema refuses never reaches the state', () => {
 	const fortyLayers = () => {
 		const s = start();
 		const doc = structuredClone(s.doc);
-		doc.layers = Array.from({length: 40}, (_, i) => ({tissue: i === 39 ? 'liver' : 'soft-tissue', thicknessCm: 0.5}));
+		doc.layers = Array.from({length: 40}, (_, i) => ({tissue: i === 39 ? 'liver' : 'soft-tissue', thicknessCm: 0.5, thicknessAs: 'true' as const}));
 		return {...s, doc};
 	};
 
 	it('applyDoc keeps the old plan and puts the refusal beside the row', () => {
 		const s = fortyLayers();
 		const next = structuredClone(s.doc);
-		next.layers.push({tissue: 'liver', thicknessCm: 1});
+		next.layers.push({tissue: 'liver', thicknessCm: 1, thicknessAs: 'true'});
 		const after = applyDoc(s, next, 'a:add-layer');
 		expect(after.doc).toBe(s.doc);
 		expect(after.dirty).toBe(false);
