@@ -6,7 +6,7 @@
  * multi-line fields), invisible format characters such as bidi overrides, line/paragraph
  * separators, and unpaired surrogates.
  */
-import {z} from 'zod';
+import type {z} from 'zod';
 
 const singleLine = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/u;
 const multiLine = /(?![\t\n])[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/u;
