@@ -20,8 +20,9 @@ export interface RowEchoes {
 	readonly blockedDepthCm: number | null;
 }
 
-/** Rows in tissue between skin and the display depth; rows above the skin show no echo either. */
-export function rowEchoes(plan: EnginePlan, height: number, rows: RowsToDepth): RowEchoes {
+/** Rows in tissue between skin and the display depth; rows above the skin show no echo either, nor
+ * any row with the probe in air (nothing coupled: noise only). */
+export function rowEchoes(plan: EnginePlan, height: number, rows: RowsToDepth, probeInAir = false): RowEchoes {
 	const model = pathModelOf(plan);
 	const blockedDepthCm = model.barrier ? model.barrier.displayedCm : null;
 	const depthCm = new Float64Array(height);
@@ -29,7 +30,7 @@ export function rowEchoes(plan: EnginePlan, height: number, rows: RowsToDepth): 
 	for (let r = 0; r < height; r++) {
 		const d = rows.topRowCm + r * rows.cmPerRow;
 		depthCm[r] = d;
-		const blocked = d < 0 || (blockedDepthCm !== null && d > blockedDepthCm);
+		const blocked = probeInAir || d < 0 || (blockedDepthCm !== null && d > blockedDepthCm);
 		lossDb[r] = blocked ? Number.NaN : model.lossAt(d);
 	}
 	return {depthCm, lossDb, blockedDepthCm};

@@ -25,13 +25,14 @@ export interface FramedImage {
 const surroundGrey = 8;
 const frameGrey = 96;
 const textGrey = 235;
-const topMarginPx = 24;
-const bottomMarginPx = 14;
+/** Fixed margins around the region, px: a 600×480 picture holds a 490×440 region. */
+export const frameMargins = {left: 40, right: 70, top: 24, bottom: 16} as const;
+const topMarginPx = frameMargins.top;
+const bottomMarginPx = frameMargins.bottom;
 
 /** Puts the region into a bordered picture with a depth scale (cm) and a text line. */
 export function frameImage(region: Uint8Array, width: number, height: number, depthCm: number, caption: string): FramedImage {
-	const left = Math.max(20, Math.round(0.1 * width));
-	const right = Math.max(28, Math.round(0.12 * width));
+	const {left, right} = frameMargins;
 	const W = left + width + right;
 	const H = topMarginPx + height + bottomMarginPx;
 	const grey = new Uint8Array(W * H).fill(surroundGrey);

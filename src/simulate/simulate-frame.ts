@@ -27,6 +27,8 @@ export interface FrameRequest {
 	readonly seed: number;
 	/** Burned-in text line of a framed (realistic) picture. */
 	readonly caption?: string;
+	/** Probe held in air: no echo at all, only the scanner's noise. */
+	readonly probeInAir?: boolean;
 	/** Re-use fields made earlier for the same size and probe (a gain change never re-draws speckle). */
 	readonly fields?: SpeckleFields;
 }
@@ -72,7 +74,7 @@ export function simulateFrame(req: FrameRequest): SimulatedFrame {
 	const settings = req.settings ?? centredSettings(plan, scanner);
 	const fields = req.fields ?? speckleFor(plan, width, height, req.seed);
 	const regionRows: RowsToDepth = {topRowCm: 0, cmPerRow: plan.display.depthCm / height};
-	const rows = rowEchoes(plan, height, regionRows);
+	const rows = rowEchoes(plan, height, regionRows, req.probeInAir ?? false);
 	const gains = rowGainsDb(plan, scanner, settings, rows.depthCm);
 	const image = echoImage(fields, rows, scanner.noiseBudgetDb);
 	const region = greyImage(image, gains, scanner.display, scanner.smoothingPx);
