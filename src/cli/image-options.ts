@@ -1,6 +1,9 @@
 /** Options shared by the picture commands: sizes, seed, output files and folders. */
 import {existsSync, mkdirSync, rmdirSync, statSync} from 'node:fs';
-import {FileExistsError, writeFileSet, type OutputFile} from '../image/write-file-set.js';
+import {join} from 'node:path';
+import {writeFileAtomic} from '../files/atomic-write.js';
+import {commitBatch, type BatchEntry} from '../files/file-batch.js';
+import {FileRefusedError} from '../files/file-errors.js';
 import {numberOption} from './option-values.js';
 import {UsageError} from './usage-error.js';
 
@@ -35,18 +38,27 @@ export function outputFolder(dir: string): boolean {
 	}
 }
 
-/** Writes every file or none; refusals name `option`. */
-export function writeOutputs(option: string, files: readonly OutputFile[], force: boolean): void {
+/** One file written atomically; refusals name `option`. */
+export function writeOutputFile(option: string, path: string, bytes: Uint8Array, force: boolean): void {
+	try {
+		writeFileAtomic(path, bytes, {replace: force});
+	} catch (error) {
+		if (error instanceof FileRefusedError) throw new UsageError(`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace it)' : ''}`);
+		throw error;
+	}
+}
+
+/** Files written into one folder as one change (all or none); refusals name `option`. */
+export function writeOutputBatch(option: string, dir: string, files: readonly BatchEntry[], force: boolean): void {
 	if (!force) {
-		const taken = files.filter((f) => existsSync(f.path)).map((f) => f.path);
-		if (taken.length > 0) throw new UsageError(`--${option}: ${taken.join(', ')} already exist${taken.length === 1 ? 's' : ''}; nothing written (add --force to replace)`);
+		const taken = files.filter((f) => existsSync(join(dir, f.name))).map((f) => f.name);
+		if (taken.length > 0) throw new UsageError(`--${option}: ${taken.join(', ')} already exist${taken.length === 1 ? 's' : ''} in ${dir}; nothing written (add --force to replace)`);
 	}
 	try {
-		writeFileSet(files, force);
+		commitBatch(dir, files, {replace: force});
 	} catch (error) {
-		if (error instanceof FileExistsError) throw new UsageError(`--${option}: ${error.path} appeared while writing; nothing written (add --force to replace)`);
-		const code = (error as NodeJS.ErrnoException).code;
-		throw new UsageError(`--${option}: cannot write ${files[0] ? files[0].path : 'the files'} (${code ?? (error as Error).message}); nothing written`);
+		if (error instanceof FileRefusedError) throw new UsageError(`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace)' : ''}`);
+		throw error;
 	}
 }
 

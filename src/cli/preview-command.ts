@@ -8,7 +8,7 @@ import {previewPicture} from '../simulate/preview-picture.js';
 import {defaultDynamicRangeDb} from '../simulate/scanner-behaviour.js';
 import {pictureModeFromEnv} from '../ui/picture/picture-cells.js';
 import {illustrationLabel, panelChrome, panelLines, panelLegend} from '../ui/picture/picture-panels.js';
-import {choiceOption, dynamicRangeLimit, pixelLimit, seedLimit, wholeNumberOption, writeOutputs} from './image-options.js';
+import {choiceOption, dynamicRangeLimit, pixelLimit, seedLimit, wholeNumberOption, writeOutputFile} from './image-options.js';
 import {numberOption} from './option-values.js';
 import {readPlanFile} from './read-plan-file.js';
 
@@ -51,7 +51,7 @@ export function registerPreviewCommand(program: Command): void {
 					{width: pic.width, height: pic.height, channels: 1, data: pic.grey},
 					{Title: `evenecho preview: ${plan.name}`, Description: illustrationLabel, Software: 'evenecho'},
 				);
-				writeOutputs('png', [{path: resolve(opts.png), bytes}], opts.force === true);
+				writeOutputFile('png', resolve(opts.png), bytes, opts.force === true);
 				process.stdout.write(`Wrote ${opts.png} (${pic.width}×${pic.height}, ${panel === 'both' ? 'both panels' : panel}). ${illustrationLabel}\n`);
 				return;
 			}

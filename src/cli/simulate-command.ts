@@ -3,13 +3,13 @@
  * a ready scanner session file, or one patient image with the settings it was taken at. Every file
  * is written or none.
  */
-import {join, resolve} from 'node:path';
+import {resolve} from 'node:path';
 import type {Command} from 'commander';
 import {derivedUid, encodeUltrasoundDicom} from '../image/dicom-writer.js';
 import {encodePng} from '../image/png-writer.js';
-import type {OutputFile} from '../image/write-file-set.js';
+import type {BatchEntry} from '../files/file-batch.js';
 import {patientImage, phantomSeries, type DemoSet} from '../simulate/demo-images.js';
-import {choiceOption, outputFolder, removeEmptyFolder, seedLimit, wholeNumberOption, writeOutputs} from './image-options.js';
+import {choiceOption, outputFolder, removeEmptyFolder, seedLimit, wholeNumberOption, writeOutputBatch} from './image-options.js';
 import {readPlanFile} from './read-plan-file.js';
 
 const kinds = ['phantom-series', 'patient'] as const;
@@ -29,13 +29,13 @@ function jsonBytes(value: unknown): Uint8Array {
 }
 
 /** Image files of a demo set in the chosen format. */
-function imageFiles(set: DemoSet, dir: string, format: (typeof formats)[number], kind: string, seed: number, planName: string): OutputFile[] {
+function imageFiles(set: DemoSet, format: (typeof formats)[number], kind: string, seed: number, planName: string): BatchEntry[] {
 	const studyUid = derivedUid('study', kind, planName, seed);
 	const seriesUid = derivedUid('series', kind, planName, seed);
 	return set.images.map((img, k) => {
 		const pixels = {width: img.width, height: img.height, channels: img.channels, data: img.data};
 		if (format === 'png') {
-			return {path: join(dir, `${img.name}.png`), bytes: encodePng(pixels, {Description: illustration, Comment: `${img.role}, master gain ${img.masterGainDb} dB`})};
+			return {name: `${img.name}.png`, data: encodePng(pixels, {Description: illustration, Comment: `${img.role}, master gain ${img.masterGainDb} dB`})};
 		}
 		const bytes = encodeUltrasoundDicom({
 			image: pixels,
@@ -47,7 +47,7 @@ function imageFiles(set: DemoSet, dir: string, format: (typeof formats)[number],
 			seriesDescription: kind === 'patient' ? 'evenecho demo patient (simulated)' : 'evenecho demo phantom series (simulated)',
 			comments: `${illustration} ${img.role}, master gain ${img.masterGainDb} dB${img.slider ? `, slider ${img.slider} at full travel` : ''}`,
 		});
-		return {path: join(dir, `${img.name}.dcm`), bytes};
+		return {name: `${img.name}.dcm`, data: bytes};
 	});
 }
 
@@ -74,17 +74,17 @@ export function registerSimulateCommand(program: Command): void {
 			const dir = resolve(opts.out);
 			const extension = format === 'dicom' ? 'dcm' : 'png';
 			const set = kind === 'patient' ? patientImage(plan, seed, extension) : phantomSeries(plan, seed, extension);
-			const files: OutputFile[] = imageFiles(set, dir, format, kind, seed, plan.name);
-			if (set.session) files.push({path: join(dir, 'session.json'), bytes: jsonBytes(set.session)});
-			if (set.appliedSettings) files.push({path: join(dir, 'applied-settings.json'), bytes: jsonBytes(set.appliedSettings)});
-			files.push({path: join(dir, 'truth.json'), bytes: jsonBytes(set.truth)});
+			const files: BatchEntry[] = imageFiles(set, format, kind, seed, plan.name);
+			if (set.session) files.push({name: 'session.json', data: jsonBytes(set.session)});
+			if (set.appliedSettings) files.push({name: 'applied-settings.json', data: jsonBytes(set.appliedSettings)});
+			files.push({name: 'truth.json', data: jsonBytes(set.truth)});
 			const created = outputFolder(dir);
 			try {
-				writeOutputs('out', files, opts.force === true);
+				writeOutputBatch('out', dir, files, opts.force === true);
 			} catch (error) {
 				if (created) removeEmptyFolder(dir);
 				throw error;
 			}
-			process.stdout.write(`Wrote ${files.length} files to ${opts.out}: ${files.map((f) => f.path.slice(dir.length + 1)).join(', ')}.\n${illustration}\n`);
+			process.stdout.write(`Wrote ${files.length} files to ${opts.out}: ${files.map((f) => f.name).join(', ')}.\n${illustration}\n`);
 		});
 }

@@ -9,7 +9,13 @@ export interface PixelImage {
 	readonly data: Uint8Array;
 }
 
+/** tEXt holds Latin-1 only: dashes become '-', anything else outside it '?'. */
+function latin1(text: string): string {
+	return text.replace(/[\u2012-\u2015]/g, '-').replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
+}
+
 /** PNG bytes; `text` becomes tEXt chunks (keywords as PNG defines, e.g. Description). */
 export function encodePng(image: PixelImage, text: Record<string, string> = {}): Uint8Array {
-	return encode({width: image.width, height: image.height, data: image.data, depth: 8, channels: image.channels, text});
+	const chunks = Object.fromEntries(Object.entries(text).map(([k, v]) => [k, latin1(v)]));
+	return encode({width: image.width, height: image.height, data: image.data, depth: 8, channels: image.channels, text: chunks});
 }
