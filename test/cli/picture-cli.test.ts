@@ -26,7 +26,7 @@ describe('evenecho preview', () => {
 		const png = decode(readFileSync(out));
 		expect([png.width, png.height, png.channels, png.depth]).toEqual([64, 96, 1, 8]);
 		expect(png.text['Description']).toMatch(/Illustration/);
-	});
+	}, 60_000);
 
 	it('same seed, same bytes; both panels side by side', () => {
 		const a = join(root, 'a.png');
@@ -35,7 +35,7 @@ describe('evenecho preview', () => {
 		expect(runCli(['preview', planPath, '--png', b, '--width', '40', '--height', '50']).status).toBe(0);
 		expect(readFileSync(a).equals(readFileSync(b))).toBe(true);
 		expect(decode(readFileSync(a)).width).toBe(2 * 40 + 8);
-	});
+	}, 60_000);
 
 	it('draws in the terminal with plain characters when piped, with the scale, marks and label', () => {
 		const r = runCli(['preview', planPath, '--width', '30', '--height', '40']);
@@ -45,7 +45,7 @@ describe('evenecho preview', () => {
 		expect(r.stdout).toContain('<1');
 		expect(r.stdout).toMatch(/Illustration: a uniform tissue/);
 		expect(r.stdout).not.toContain('\u001B[');
-	});
+	}, 60_000);
 
 	for (const [args, option] of [
 		[['--width', '0'], '--width'],
@@ -105,7 +105,7 @@ describe('evenecho simulate', () => {
 		expect(truth.scanner.greyMap.length).toBeGreaterThan(20);
 		expect(truth.penetrationCm).toBeGreaterThan(10);
 		expect(truth.penetrationCm).toBeLessThan(16);
-	});
+	}, 60_000);
 
 	it('phantom-series, PNG: a pixel scale whose top row lies above the skin (the border), grey and RGB mixed', () => {
 		const dir = join(root, 'series-png');
@@ -115,7 +115,7 @@ describe('evenecho simulate', () => {
 		expect(session.pixelScale.topRowCm).toBeCloseTo(-24 * (16 / 440), 6);
 		const channels = new Set(readdirSync(dir).filter((n) => n.endsWith('.png')).map((n) => decode(readFileSync(join(dir, n))).channels));
 		expect([...channels].sort()).toEqual([1, 3]);
-	});
+	}, 60_000);
 
 	it('patient: the image, the applied settings {sliders, masterGainDb} and the truth with the changed attenuation', () => {
 		const dir = join(root, 'patient');
@@ -129,7 +129,7 @@ describe('evenecho simulate', () => {
 		expect(truth.trueAlphaDbPerCmMhz).not.toBe(truth.plannedAlphaDbPerCmMhz);
 		const ds = dicomParser.parseDicom(readFileSync(join(dir, 'patient.dcm')));
 		expect(ds.string('x00280004')).toBe('RGB');
-	});
+	}, 60_000);
 
 	it('same seed, same bytes', () => {
 		const a = join(root, 'same-a');
@@ -137,7 +137,7 @@ describe('evenecho simulate', () => {
 		expect(runCli(['simulate', planPath, '--out', a, '--kind', 'patient', '--format', 'png']).status).toBe(0);
 		expect(runCli(['simulate', planPath, '--out', b, '--kind', 'patient', '--format', 'png']).status).toBe(0);
 		expect(readFileSync(join(a, 'patient.png')).equals(readFileSync(join(b, 'patient.png')))).toBe(true);
-	});
+	}, 60_000);
 
 	it('refuses existing files without --force: exit 2 naming --out, every file untouched', () => {
 		const dir = join(root, 'series-dicom');
@@ -149,32 +149,37 @@ describe('evenecho simulate', () => {
 		expect(readFileSync(join(dir, 'g18.dcm')).equals(before)).toBe(true);
 		expect(readFileSync(join(dir, 'truth.json'), 'utf8')).toBe('mine');
 		expect(readdirSync(dir).filter((n) => n.startsWith('.'))).toEqual([]);
-	});
+	}, 60_000);
 
-	it('refuses an unwritable --out and an unknown --kind/--format, nothing written', () => {
-		const locked = join(root, 'locked');
+	it('refuses an unknown --kind or --format: exit 2 naming it, no folder made', () => {
 		const kind = runCli(['simulate', planPath, '--out', join(root, 'unused'), '--kind', 'nope']);
 		expect(kind.status).toBe(2);
 		expect(kind.stderr).toContain('--kind');
-		expect(existsSync(join(root, 'unused'))).toBe(false);
 		const format = runCli(['simulate', planPath, '--out', join(root, 'unused'), '--format', 'tiff']);
 		expect(format.status).toBe(2);
 		expect(format.stderr).toContain('--format');
+		expect(existsSync(join(root, 'unused'))).toBe(false);
+	}, 60_000);
+
+	it('refuses a missing --out and one whose parent does not exist', () => {
 		const missing = runCli(['simulate', planPath]);
 		expect(missing.status).toBe(2);
 		expect(missing.stderr).toContain('--out');
 		const deep = runCli(['simulate', planPath, '--out', join(root, 'no', 'such', 'dir')]);
 		expect(deep.status).toBe(2);
 		expect(deep.stderr).toContain('--out');
-		// A read-only folder (root ignores permissions, so this part only runs where they apply).
+	}, 60_000);
+
+	it('refuses an unwritable --out, nothing written (only where permissions apply: not as root)', () => {
+		const locked = join(root, 'locked');
 		mkdirSync(locked);
 		chmodSync(locked, 0o500);
 		const r = runCli(['simulate', planPath, '--out', locked, '--kind', 'patient']);
+		chmodSync(locked, 0o700);
 		if (process.getuid?.() !== 0) {
 			expect(r.status).toBe(2);
 			expect(r.stderr).toContain('--out');
 			expect(readdirSync(locked)).toEqual([]);
 		}
-		chmodSync(locked, 0o700);
-	});
+	}, 60_000);
 });
