@@ -31,7 +31,8 @@ const round = (v: number, digits = 3) => Number(v.toFixed(digits));
 function levelForMeanGrey(scanner: ScannerBehaviour, grey: number): number {
 	let lo = scanner.display.topDb - scanner.display.dynamicRangeDb - 20;
 	let hi = scanner.display.topDb + 20;
-	for (let i = 0; i < 50; i++) {
+	// 30 halvings of a 100 dB bracket: 1e-7 dB.
+	for (let i = 0; i < 30; i++) {
 		const mid = (lo + hi) / 2;
 		if (meanGreyOfSpeckle(scanner.display, mid) < grey) lo = mid;
 		else hi = mid;
