@@ -92,7 +92,8 @@ export function phantomPlan(plan: EnginePlan): EnginePlan {
 export function realisticScanner(plan: EnginePlan, dynamicRangeDb = defaultDynamicRangeDb): ScannerBehaviour {
 	const c = realisticConstants;
 	const depthCm = plan.display.depthCm;
-	const legsMhz = plan.probe.harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
+	const harmonic = (plan.probe.receive ?? 'fundamental') !== 'fundamental';
+	const legsMhz = harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
 	const focus = c.focusAtFraction * depthCm;
 	const width = c.focusWidthFraction * depthCm;
 	const noiseBudgetDb = pathModelOf(phantomPlan(plan)).lossAt(c.penetrationFraction * depthCm);
