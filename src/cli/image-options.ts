@@ -5,7 +5,7 @@ import {writeFileAtomic} from '../files/atomic-write.js';
 import {commitBatch, type BatchEntry} from '../files/file-batch.js';
 import {FileRefusedError} from '../files/file-errors.js';
 import {numberOption} from './option-values.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 /** Picture sizes, px: big enough to show speckle, small enough to stay a picture and not a memory test. */
 export const pixelLimit = {min: 8, max: 4096} as const;

@@ -11,7 +11,7 @@ import {encodePng} from '../../src/image/png-writer.js';
 import {greyToRgb} from '../../src/simulate/colour-overlay.js';
 import {realisticScanner} from '../../src/simulate/scanner-behaviour.js';
 import {simulateFrame} from '../../src/simulate/simulate-frame.js';
-import {abdomenPlan} from '../helpers/abdomen-plan.js';
+import {abdomenPlan} from '../helpers/plans.js';
 import {resolvePlan} from '../../src/plan/resolve-plan.js';
 
 const plan = resolvePlan(abdomenPlan());

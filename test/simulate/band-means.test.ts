@@ -13,7 +13,7 @@ import {createPictureCache} from '../../src/simulate/plan-picture.js';
 import {settingsOfFit} from '../../src/simulate/row-gains.js';
 import {plainScanner, realisticScanner} from '../../src/simulate/scanner-behaviour.js';
 import {simulateFrame, type SimulatedFrame} from '../../src/simulate/simulate-frame.js';
-import {boneAndNoisePlanJson} from '../helpers/bone-and-noise-plan.js';
+import {boneAndNoisePlanJson} from '../fixtures/plans.js';
 import {matched, plan} from '../helpers/plans.js';
 
 function engineOf(json: unknown) {
