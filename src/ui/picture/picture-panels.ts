@@ -9,7 +9,7 @@ import {pictureLines, type PictureMode} from './picture-cells.js';
 
 export const panelTitles: Record<PanelKind, string> = {
 	ramp: 'built-in ramp only',
-	plan: 'this plan (sliders + master)',
+	plan: 'this plan',
 };
 
 export const illustrationLabel = 'Illustration: a uniform tissue under this model, not a prediction of the patient\'s image.';
@@ -80,5 +80,5 @@ export function panelLines(
 
 /** The legend under the panels: what each mark means, in words. */
 export function panelLegend(): string {
-	return `cm down the left; <n slider n's knot; ~ noise floor; # no echo below (barrier)`;
+	return 'cm at left  <n slider n  ~ noise floor  # barrier';
 }
