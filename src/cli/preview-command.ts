@@ -36,13 +36,13 @@ export function registerPreviewCommand(program: Command): void {
 		.option('--seed <n>', 'speckle seed, a whole number; the same seed gives the same bytes', '1')
 		.option('--dynamic-range <db>', `display dynamic range, ${dynamicRangeLimit.min} to ${dynamicRangeLimit.max} dB`, String(defaultDynamicRangeDb))
 		.option('--force', 'replace an existing PNG')
-		.action((planPath: string, opts: PreviewOptions) => {
+		.action(async (planPath: string, opts: PreviewOptions) => {
 			const panel = choiceOption('panel', opts.panel, panels);
 			const width = opts.width === undefined ? undefined : wholeNumberOption('width', opts.width, pixelLimit, 'px');
 			const height = opts.height === undefined ? undefined : wholeNumberOption('height', opts.height, pixelLimit, 'px');
 			const seed = wholeNumberOption('seed', opts.seed, seedLimit, '');
 			const dynamicRangeDb = numberOption('dynamic-range', opts.dynamicRange, dynamicRangeLimit, 'dB');
-			const {plan} = readPlanFile(planPath);
+			const {plan} = await readPlanFile(planPath);
 			const result = computeCurve(plan);
 			const cache = createPictureCache(seed);
 			if (opts.png !== undefined) {

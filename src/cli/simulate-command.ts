@@ -66,11 +66,11 @@ export function registerSimulateCommand(program: Command): void {
 		.option('--format <format>', 'dicom (Ultrasound Image Storage) or png', 'dicom')
 		.option('--seed <n>', 'speckle seed, a whole number; the same seed gives the same bytes', '1')
 		.option('--force', 'replace files that already exist')
-		.action((planPath: string, opts: SimulateOptions) => {
+		.action(async (planPath: string, opts: SimulateOptions) => {
 			const kind = choiceOption('kind', opts.kind, kinds);
 			const format = choiceOption('format', opts.format, formats);
 			const seed = wholeNumberOption('seed', opts.seed, seedLimit, '');
-			const {plan} = readPlanFile(planPath);
+			const {plan} = await readPlanFile(planPath);
 			const dir = resolve(opts.out);
 			const extension = format === 'dicom' ? 'dcm' : 'png';
 			const set = kind === 'patient' ? patientImage(plan, seed, extension) : phantomSeries(plan, seed, extension);
