@@ -40,6 +40,18 @@ export const commandList: readonly CommandEntry[] = [
 			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, receive mode and tissue swaps',
 		register: async () => (await import('./table-command.js')).registerTableCommand,
 	},
+	{
+		name: 'preview',
+		term: 'preview [options] <plan>',
+		description: 'a simulated B-mode illustration of a plan: the built-in ramp alone and the plan\'s sliders, in the terminal or as PNG',
+		register: async () => (await import('./preview-command.js')).registerPreviewCommand,
+	},
+	{
+		name: 'simulate',
+		term: 'simulate [options] <plan>',
+		description: 'write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image',
+		register: async () => (await import('./simulate-command.js')).registerSimulateCommand,
+	},
 ];
 
 /**

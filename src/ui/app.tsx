@@ -84,6 +84,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 					isFocused={state.pane === 'curve' && !isCurveStep}
 					slider={isCurveStep && state.cursors.curve >= curve.fit.sliders.length ? -1 : slider}
 					isPlotOnly={isCurveStep}
+					picture={state.picture}
 				/>
 			</Box>
 		);

@@ -9,12 +9,12 @@ import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 
 const layers: readonly (readonly string[])[] = [
 	['errors'],
-	['engine', 'files'],
-	['plan', 'analysis'],
+	['engine', 'files', 'image'],
+	['plan', 'analysis', 'simulate'],
 	['report'],
 	['table', 'store'],
 	['ui/kit'],
-	['ui/state'],
+	['ui/state', 'ui/picture'],
 	['ui/frame', 'ui/plot'],
 	['ui/steps', 'ui/sweep'],
 	['ui/effects'],

@@ -5,6 +5,8 @@ import type {CurveResult} from '../../engine/types.js';
 import {signedDb} from '../../report/curve-summary.js';
 import {masterText, reachText} from '../state/curve-facts.js';
 import {sliderDeliveredDb} from '../kit/depth-plot.js';
+import {PictureView} from '../picture/picture-view.js';
+import type {PictureChoice} from '../state/console-state.js';
 import {PlotView} from './plot-view.js';
 import {useTheme} from '../kit/theme-context.js';
 import {clip} from '../kit/text-fit.js';
@@ -20,6 +22,8 @@ export interface CurvePaneProps {
 	readonly slider: number;
 	/** Plot only, no summary lines (the curve step shows those itself). */
 	readonly isPlotOnly?: boolean;
+	/** The simulated picture (both panels) in place of the plot. */
+	readonly picture?: PictureChoice;
 }
 
 export function sliderReadout(curve: CurveResult, delta: SettingsDelta | null, k: number): string {
@@ -30,7 +34,7 @@ export function sliderReadout(curve: CurveResult, delta: SettingsDelta | null, k
 	return `slider ${k + 1} at ${s.depthCm.toFixed(1)} cm: ${signedDb(s.gainDb)} dB (gives ${total.toFixed(1)})${vs}`;
 }
 
-export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isPlotOnly}: CurvePaneProps) {
+export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isPlotOnly, picture = 'off'}: CurvePaneProps) {
 	const theme = useTheme();
 	const title = isFocused ? '> Live curve: Up/Down pick a slider, Tab returns' : '  Live curve (Tab to look closer)';
 	return (
@@ -38,7 +42,11 @@ export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isP
 			<Text wrap="truncate" {...(isFocused ? theme.current : theme.muted)}>
 				{clip(title, width)}
 			</Text>
-			<PlotView curve={curve} width={width} height={plotRows} {...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})} />
+			{picture === 'off' ? (
+				<PlotView curve={curve} width={width} height={plotRows} {...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})} />
+			) : (
+				<PictureView curve={curve} kinds={['ramp', 'plan']} width={width} height={plotRows} />
+			)}
 			{isPlotOnly ? null : (
 				<>
 					<Text wrap="truncate">{clip(isFocused ? sliderReadout(curve, delta, slider) : masterText(curve, delta), width)}</Text>

@@ -5,7 +5,7 @@
  */
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import type {ConsoleState, Overlay, StepId} from './console-state.js';
-import {stepIds} from './console-state.js';
+import {nextPicture, stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
 import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
@@ -217,6 +217,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return {...s, overlay: {kind: 'help'}};
 		case 'warnings':
 			return {...s, overlay: {kind: 'warnings'}};
+		case 'picture':
+			return {...s, picture: nextPicture(s.picture, s.isWide)};
 		case 'quit':
 			return askQuit(s);
 		case 'save':

@@ -52,6 +52,16 @@ export interface Notice {
 	readonly tone: 'done' | 'warning' | 'info';
 }
 
+/** What stands where the curve plot is: the plot, or the simulated picture (both panels when
+ * wide; on a narrow screen this plan's or the ramp's alone). */
+export type PictureChoice = 'off' | 'plan' | 'ramp';
+
+/** The next choice for the picture key: wide off → both → off; narrow off → plan → ramp → off. */
+export function nextPicture(p: PictureChoice, isWide: boolean): PictureChoice {
+	if (p === 'off') return 'plan';
+	return isWide || p === 'ramp' ? 'off' : 'ramp';
+}
+
 export interface ConsoleState {
 	readonly doc: PlanDocument;
 	/** The starting point the plan came from: its layers are the "standard" for usual gains. */
@@ -63,6 +73,8 @@ export interface ConsoleState {
 	/** Narrow layout: where Tab goes back to after showing the curve. */
 	readonly returnStep: StepId | null;
 	readonly isWide: boolean;
+	/** The picture in place of the curve plot (key p). */
+	readonly picture: PictureChoice;
 	/** Terminal size, for views that scroll (the fat sweep's columns and pages). */
 	readonly columns: number;
 	readonly rows: number;
@@ -104,6 +116,7 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		pane: 'step',
 		returnStep: null,
 		isWide: o.isWide,
+		picture: 'off',
 		columns: o.columns ?? (o.isWide ? 100 : 80),
 		rows: o.rows ?? (o.isWide ? 30 : 24),
 		openLayer: null,

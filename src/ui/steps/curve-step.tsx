@@ -9,6 +9,7 @@ import type {ConsoleState} from '../state/console-state.js';
 import {fitLine, masterLine, reachText, shortWarning} from '../state/curve-facts.js';
 import {wrapWords} from '../kit/layout.js';
 import type {Layout} from '../kit/layout.js';
+import {PictureView} from '../picture/picture-view.js';
 import {PlotView} from '../plot/plot-view.js';
 import {RowLine} from '../kit/row-line.js';
 import {SliderTable} from '../plot/slider-table.js';
@@ -90,7 +91,11 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 	return (
 		<Box flexDirection="column" width={width}>
 			<Box flexDirection="row" width={width} height={sideRows}>
-				<PlotView curve={curve} width={layout.plotWidth} height={sideRows - 2} {...(slider >= 0 ? {selectedSlider: slider} : {})} />
+				{state.picture === 'off' ? (
+					<PlotView curve={curve} width={layout.plotWidth} height={sideRows - 2} {...(slider >= 0 ? {selectedSlider: slider} : {})} />
+				) : (
+					<PictureView curve={curve} kinds={[state.picture]} width={layout.plotWidth} height={sideRows - 2} />
+				)}
 				<Box width={1} />
 				<Box flexDirection="column" width={tableWidth}>
 					{facts(tableWidth)}
