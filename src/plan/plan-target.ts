@@ -33,3 +33,17 @@ export function describeTarget(doc: PlanDocument, layerLabel?: (index: number) =
 	if (doc.targetDepthCm !== undefined) return `${plain(doc.targetDepthCm)} cm`;
 	return `the display depth (${plain(doc.display.depthCm)} cm)`;
 }
+
+/**
+ * The same target, given another way: 0 makes it a fixed depth (where it is now, within the
+ * display); K makes it follow layer K, keeping its present depth as far as it lies below that
+ * layer's top. Pure; returns a new document.
+ */
+export function setTargetLayer(doc: PlanDocument, layer: number, plan: EnginePlan): PlanDocument {
+	const now = targetDepthOf(doc, plan);
+	const {targetDepthCm: _fixed, targetBelowLayer: _follow, ...rest} = doc;
+	if (layer <= 0) return {...rest, targetDepthCm: Math.min(now, doc.display.depthCm)};
+	const spans = layerSpans(plan.layers, plan.display.assumedSpeedMps);
+	const top = spans[Math.min(layer, spans.length) - 1]!.shownTopCm;
+	return {...rest, targetBelowLayer: {layer, depthCm: Math.max(0, Math.round((now - top) * 100) / 100)}};
+}

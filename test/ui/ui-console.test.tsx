@@ -97,7 +97,7 @@ describe('console: step 2, tissue stack', () => {
 	it('sets the measured fat thickness by typing', async () => {
 		const {app} = await open();
 		await press(app, '2');
-		expect(selectedLine(app)).toContain('Fat thickness (measured)');
+		expect(selectedLine(app)).toContain('Fat, measured on screen');
 		await press(app, keys.enter);
 		await type(app, '7.5');
 		await press(app, keys.enter);
@@ -123,7 +123,8 @@ describe('console: step 2, tissue stack', () => {
 		await press(app, keys.shiftUp);
 		expect(selectedLine(app)).toContain('2 Generic soft tissue');
 		await press(app, 'x');
-		expect(frame(app)).not.toContain('Generic soft tissue');
+		expect(frame(app)).not.toMatch(/\d Generic soft tissue +\d/);
+		expect(frame(app)).toContain('Removed layer 2 Generic soft tissue; u brings it back.');
 		// Remove down to one layer, then once more.
 		await moveTo(app, keys.up, '1 stand-off pad');
 		await press(app, 'x', 'x', 'x');
@@ -240,15 +241,17 @@ describe('console: refusing bad values', () => {
 		expect(frame(app)).toContain('must be below the slider high end (15 dB)');
 	});
 
-	it('refuses a display depth shallower than the template target depth', async () => {
+	it('a display shallower than a fixed target brings the target up with it (the thin-child case)', async () => {
 		const {app} = await open();
 		await moveTo(app, keys.down, 'Upper abdomen');
 		await press(app, keys.enter, '3');
 		await moveTo(app, keys.down, 'Display depth');
 		await press(app, keys.enter);
-		await type(app, '10');
+		await type(app, '8');
 		await press(app, keys.enter);
-		expect(frame(app)).toContain("must be at least the plan's target depth (15 cm)");
+		expect(selectedLine(app)).toMatch(/Display depth +8 cm/);
+		await press(app, keys.down, keys.down);
+		expect(selectedLine(app)).toMatch(/Target depth +8 cm/);
 	});
 });
 

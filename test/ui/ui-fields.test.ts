@@ -51,7 +51,10 @@ describe('number fields', () => {
 	it('format with at most the field decimals', () => {
 		expect(formatNumber(16, {decimals: 1})).toBe('16');
 		expect(formatNumber(0.55, {decimals: 2})).toBe('0.55');
-		expect(formatNumber(3.456, {decimals: 2})).toBe('3.46');
+		// More places only when the value has them, so what is shown reads back as what is stored.
+		expect(formatNumber(3.456, {decimals: 2})).toBe('3.456');
+		expect(formatNumber(0.0014, {decimals: 3})).toBe('0.0014');
+		expect(formatNumber(0.1 + 0.2, {decimals: 2})).toBe('0.3');
 	});
 });
 

@@ -23,11 +23,18 @@ export function helpLines(columnWidth: number): Line[][] {
 
 /** Splits sections into two columns of about equal length (sections are never split). */
 export function twoColumns(sections: Line[][]): [Line[], Line[]] {
-	const total = sections.reduce((n, s) => n + s.length, 0);
-	const left: Line[] = [];
-	const right: Line[] = [];
-	for (const s of sections) (left.length + s.length <= Math.ceil(total / 2) + 1 && right.length === 0 ? left : right).push(...s);
-	return [left, right];
+	// The split point (between whole sections) that makes the longer column shortest.
+	let best = 0;
+	let bestHeight = Infinity;
+	for (let k = 0; k <= sections.length; k++) {
+		const left = sections.slice(0, k).reduce((n, s) => n + s.length, 0);
+		const right = sections.slice(k).reduce((n, s) => n + s.length, 0);
+		if (Math.max(left, right) < bestHeight) {
+			bestHeight = Math.max(left, right);
+			best = k;
+		}
+	}
+	return [sections.slice(0, best).flat(), sections.slice(best).flat()];
 }
 
 export function HelpOverlay({width, height}: HelpOverlayProps) {

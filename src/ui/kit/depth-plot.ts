@@ -6,6 +6,7 @@
  *   ~  background of depths below the noise floor      #  background of depths below a barrier
  */
 import {deliveredCompensationDb} from '../../engine/compensation-curve.js';
+import {clip} from './text-fit.js';
 import type {CurveResult} from '../../engine/types.js';
 
 export interface PlotOptions {
@@ -40,10 +41,26 @@ function fit(text: string, width: number): string {
 	return text.length > width ? text.slice(0, width) : text.padEnd(width);
 }
 
-function legendFor(width: number): string {
-	const long = `${glyph.curve} need ${glyph.band} spread ${glyph.slider} slider ${glyph.noise} noise ${glyph.blocked} blocked`;
-	const short = `${glyph.curve}need ${glyph.band}spread ${glyph.slider}slider ${glyph.noise}noise ${glyph.blocked}blocked`;
-	return fit(long.length <= width ? long : short, width);
+/** The legend names what the plot can show: `@` when a slider is chosen, `~` and `#` when they occur. */
+function legendFor(width: number, marks: {selected: boolean; noise: boolean; blocked: boolean}): string {
+	const entries = (words: Record<string, string>, gap: string) =>
+		[
+			`${glyph.curve}${gap}${words['need']}`,
+			`${glyph.band}${gap}${words['band']}`,
+			`${glyph.slider}${gap}slider`,
+			marks.selected ? `${glyph.selected}${gap}${words['selected']}` : '',
+			marks.noise ? `${glyph.noise}${gap}noise` : '',
+			marks.blocked ? `${glyph.blocked}${gap}${words['blocked']}` : '',
+		]
+			.filter(Boolean)
+			.join(' ');
+	const candidates = [
+		entries({need: 'need', band: 'spread', selected: 'chosen', blocked: 'blocked'}, ' '),
+		entries({need: 'need', band: 'band', selected: 'this', blocked: 'block'}, ' '),
+		entries({need: 'need', band: 'spread', selected: 'chosen', blocked: 'blocked'}, ''),
+		entries({need: 'need', band: 'band', selected: 'this', blocked: 'block'}, ''),
+	];
+	return fit(candidates.find((l) => l.length <= width) ?? candidates[3]!, width);
 }
 
 /** Depth steps a row may span, cm: round numbers first, so the row labels read 0, 1.5, 3 … */
@@ -101,7 +118,7 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 		let row = Math.max(next, rowOf(first.displayedDepthCm));
 		while (row < height && notes[row]) row++;
 		if (row >= height) return;
-		notes[row] = layer.tissue.label.split(' (')[0]!;
+		notes[row] = clip(layer.tissue.label, note);
 		next = row + 1;
 	});
 	r.fit.sliders.forEach((s, k) => {
@@ -126,5 +143,5 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	if (midDb > lowDb && midDb < highDb && grid >= 20) put(midDb);
 	const axis = fit(`${'cm'.padStart(labelWidth)} ${axisCells.join('')}  dB`, o.width);
 	// No trailing blanks: Ink tokenises every character it is given, spaces included.
-	return {axis: axis.trimEnd(), rows: rows.map((l) => fit(l, o.width).trimEnd()), legend: legendFor(o.width).trimEnd(), lowDb, highDb};
+	return {axis: axis.trimEnd(), rows: rows.map((l) => fit(l, o.width).trimEnd()), legend: legendFor(o.width, {selected: o.selectedSlider !== undefined, noise: r.penetrationDepthCm !== null, blocked: r.blockedDepthCm !== null}).trimEnd(), lowDb, highDb};
 }

@@ -11,7 +11,8 @@ import {formatNumber, nudge} from './number-field.js';
 import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
 import {choiceFields, cycleChoice, numberFields} from './plan-fields.js';
 import type {StartingPoint} from './starting-point.js';
-import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, setCursor, withNotice} from './state-helpers.js';
+import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, remember, setCursor, travel, withNotice} from './state-helpers.js';
+import {tissueOf} from './row-text.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
@@ -90,6 +91,11 @@ function enterRow(s: ConsoleState, row: Row): ConsoleState {
 	}
 }
 
+/** The open layer's first custom value row (its name), where typing custom values starts. */
+function firstCustomRow(s: ConsoleState): number {
+	return Math.max(0, rowsOf(s, 'stack').findIndex((r) => r.kind === 'tissue-label'));
+}
+
 function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleState {
 	switch (row.action) {
 		case 'add-layer': {
@@ -103,7 +109,7 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 			if (s.openLayer === null) return s;
 			const layer = s.openLayer;
 			const after = applyDoc(s, setLayerTissue(s.doc, layer, customCopy(s.doc.layers[layer]!.tissue)), row.id);
-			return setCursor(after, 'stack', 2);
+			return setCursor(after, 'stack', firstCustomRow(after));
 		}
 		case 'fill-reference': {
 			const next = structuredClone(s.doc);
@@ -156,10 +162,21 @@ function stackIntent(s: ConsoleState, intent: Intent, row: Row | undefined): Con
 			const after = applyDoc(s, addLayer(s.doc, below), row?.id ?? 'a:add-layer');
 			return after.doc === s.doc ? after : setCursor(after, 'stack', below + 2);
 		}
-		case 'layer-remove':
+		case 'layer-remove': {
 			if (layer === undefined) return s;
 			if (s.doc.layers.length <= 1) return {...s, refusal: {rowId: row!.id, message: 'refused: a plan needs at least one layer'}};
-			return clampCursor(applyDoc(s, removeLayer(s.doc, layer), row!.id));
+			const gone = `${layer + 1} ${tissueOf(s.doc, layer)?.label ?? 'layer'}`;
+			const after = clampCursor(applyDoc(s, removeLayer(s.doc, layer), row!.id));
+			return after.doc === s.doc ? after : withNotice(after, `Removed layer ${gone}; u brings it back.`);
+		}
+		case 'thickness-mode': {
+			if (layer === undefined) return s;
+			const mode = s.doc.layers[layer]!.thicknessAs === 'displayed' ? 'true' : 'displayed';
+			const next = structuredClone(s.doc);
+			next.layers[layer]!.thicknessAs = mode;
+			const word = mode === 'displayed' ? 'as measured on screen' : 'as true thickness';
+			return withNotice(applyDoc(s, next, row!.id), `Layer ${layer + 1}: the same number now read ${word}.`);
+		}
 		case 'layer-up':
 		case 'layer-down': {
 			if (layer === undefined) return s;
@@ -195,12 +212,20 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			const i = stepIds.indexOf(s.step) + (intent === 'prev-step' ? -1 : 1);
 			return i < 0 || i >= stepIds.length ? s : goStep(s, stepIds[i]!);
 		}
-		case 'jump':
-			return goStep(s, stepIds[Number(input) - 1]!);
+		case 'jump': {
+			const step = stepIds[Number(input) - 1]!;
+			// Jumping to the curve remembers where from, so Tab goes back there (not to step 1).
+			const from = step === 'curve' && s.step !== 'curve' ? s.step : s.step === 'curve' ? s.returnStep : null;
+			return {...goStep(s, step), returnStep: step === 'curve' ? from : null};
+		}
 		case 'pane':
 			if (s.isWide) return s.step === 'curve' ? s : {...s, pane: s.pane === 'step' ? 'curve' : 'step'};
 			if (s.step !== 'curve') return {...goStep(s, 'curve'), returnStep: s.step};
-			return goStep(s, s.returnStep ?? 'start');
+			if (s.returnStep === null) return withNotice(s, 'Tab goes back to the step you came from; here use 1-4 or ← for a step.');
+			return goStep(s, s.returnStep);
+		case 'undo':
+		case 'redo':
+			return travel(s, intent);
 		case 'back':
 			if (mode === 'curve-pane') return {...s, pane: 'step'};
 			if (s.step === 'stack' && s.openLayer !== null) return setCursor({...s, openLayer: null, refusal: null}, 'stack', s.openLayer + 1);
@@ -243,7 +268,10 @@ function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: In
 			const tissue = picked?.id ?? customCopy(s.doc.layers[o.layer]!.tissue);
 			const after = applyDoc({...s, overlay: null}, setLayerTissue(s.doc, o.layer, tissue), `l:${o.layer}`);
 			// Custom values are typed in the layer's own form, so open it on the first value.
-			if (!picked) return setCursor({...after, step: 'stack', openLayer: o.layer}, 'stack', 2);
+			if (!picked) {
+				const opened = {...after, step: 'stack' as const, openLayer: o.layer};
+				return setCursor(opened, 'stack', firstCustomRow(opened));
+			}
 			return after;
 		}
 		default:
@@ -308,7 +336,7 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		case 'loaded':
 			return withNotice(
 				{
-					...s,
+					...remember(s),
 					doc: a.plan,
 					origin: {name: a.name, layers: structuredClone(a.plan.layers)},
 					dirty: false,

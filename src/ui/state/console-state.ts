@@ -93,7 +93,17 @@ export interface ConsoleState {
 	readonly presetName: string | null;
 	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
 	readonly sweep: SweepState;
+	/** Plans before (past, oldest first) and after (future, next first) the current one, for undo and redo. */
+	readonly history: PlanHistory;
 }
+
+export interface PlanHistory {
+	readonly past: readonly PlanDocument[];
+	readonly future: readonly PlanDocument[];
+}
+
+/** How many plan edits undo reaches back. */
+export const historyLimit = 200;
 
 export interface InitialOptions {
 	readonly doc: PlanDocument;
@@ -130,5 +140,6 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		effects: [],
 		presetName: null,
 		sweep: closedSweep,
+		history: {past: [], future: []},
 	};
 }

@@ -59,7 +59,10 @@ export type Intent =
 	| 'yes'
 	| 'no'
 	| 'erase'
-	| 'type';
+	| 'type'
+	| 'undo'
+	| 'redo'
+	| 'thickness-mode';
 
 export type Section = 'Moving around' | 'Changing a value' | 'Typing a value' | 'Tissue stack' | 'The plan' | 'Questions';
 
@@ -88,8 +91,14 @@ export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
 	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep'], pick: (_i, k) => when(k.escape, 'back')},
-	{keys: 'y', hint: 'yes', help: 'answer yes', section: 'Questions', modes: ['ask'], pick: (i, k) => when((i === 'y' || i === 'Y') && plain(k), 'yes')},
-	{keys: 'n  Esc', hint: 'no', help: 'answer no', section: 'Questions', modes: ['ask'], pick: (i, k) => when(k.escape || ((i === 'n' || i === 'N') && plain(k)), 'no')},
+	{
+		keys: 'y  n Esc',
+		hint: 'yes, n no',
+		help: 'answer yes / no',
+		section: 'Questions',
+		modes: ['ask'],
+		pick: (i, k) => ((i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : undefined),
+	},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
@@ -113,9 +122,17 @@ export const bindings: readonly Binding[] = [
 	{keys: 'a', hint: 'add', help: 'add a layer below', section: 'Tissue stack', modes: ['stack'], pick: is('a', 'layer-add')},
 	{keys: 'x', hint: 'remove', help: 'remove the layer', section: 'Tissue stack', modes: ['stack'], pick: is('x', 'layer-remove')},
 	{keys: 't', hint: 'tissue', help: 'tissue from the library', section: 'Tissue stack', modes: ['stack'], pick: is('t', 'tissue')},
+	{
+		keys: 'u  Ctrl+R',
+		hint: 'undo',
+		help: 'undo / redo an edit',
+		section: 'The plan',
+		modes: browsing,
+		pick: (i, k) => (i === 'u' && plain(k) ? 'undo' : k.ctrl && i === 'r' ? 'redo' : undefined),
+	},
+	{keys: 'm', hint: 'screen/true', help: 'thickness screen/true', section: 'Tissue stack', modes: ['stack'], pick: is('m', 'thickness-mode')},
 	{keys: 's', hint: 'save', help: 'save as a preset', section: 'The plan', modes: browsing, pick: is('s', 'save')},
-	{keys: 'e', hint: 'export', help: 'export JSON + summary', section: 'The plan', modes: browsing, pick: is('e', 'export')},
-	{keys: 'e', hint: 'export', help: 'sweep: md csv json svg', section: 'The plan', modes: ['sweep'], pick: is('e', 'export')},
+	{keys: 'e', hint: 'export', help: 'export plan or table', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('e', 'export')},
 	{keys: 'f', help: 'fat thickness sweep', section: 'The plan', modes: browsing, pick: is('f', 'sweep')},
 	{keys: 'p', help: 'picture of the plan / curve plot', section: 'The plan', modes: browsing, pick: is('p', 'picture')},
 	{keys: 'w', help: 'warnings in full', section: 'The plan', modes: browsing, pick: is('w', 'warnings')},

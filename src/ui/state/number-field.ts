@@ -47,15 +47,28 @@ export function parseEntry(text: string, spec: NumberSpec): Checked {
 
 /** One step up or down; refused (value unchanged) when it would leave the range. */
 export function nudge(value: number, spec: NumberSpec, direction: 1 | -1, isCoarse = false): Checked {
-	const next = roundTo(value + direction * (isCoarse ? spec.coarse : spec.step), spec.integer ? 0 : spec.decimals);
+	// Keep the value's own precision: 0.0014 + 0.05 is 0.0514, not 0.051.
+	const places = spec.integer ? 0 : Math.max(spec.decimals, decimalsOf(value));
+	const next = roundTo(value + direction * (isCoarse ? spec.coarse : spec.step), places);
 	if (!isInRange(next, spec)) return {ok: false, message: `${formatNumber(next, spec)} refused: ${rangeMessage(spec)}`};
 	return {ok: true, value: next};
 }
 
-/** At most `decimals` places, trailing zeros dropped: 3.5, 16, 0.55. */
+/** Decimal places a value really has (binary noise ignored), at most 6. */
+export function decimalsOf(value: number): number {
+	if (!Number.isFinite(value)) return 0;
+	const text = String(Number(value.toPrecision(12)));
+	const dot = text.indexOf('.');
+	return dot < 0 || text.includes('e') ? 0 : Math.min(6, text.length - dot - 1);
+}
+
+/**
+ * `decimals` places, trailing zeros dropped (3.5, 16, 0.55); more when the value has more, so what
+ * is shown reads back as the stored value (a custom α0 of 0.0014 shows 0.0014, not 0.001).
+ */
 export function formatNumber(value: number, spec: Pick<NumberSpec, 'decimals' | 'isFixed'>): string {
 	if (!Number.isFinite(value)) return String(value);
-	const s = value.toFixed(spec.decimals);
+	const s = value.toFixed(spec.isFixed ? spec.decimals : Math.max(spec.decimals, decimalsOf(value)));
 	return spec.isFixed || !s.includes('.') ? s : s.replace(/\.?0+$/, '');
 }
 

@@ -4,6 +4,8 @@
  */
 import {noiseBudgetFromPhantom} from '../../engine/noise-budget.js';
 import {defaultNoiseBudgetDb, limits, type CustomTissue, type PlanDocument} from '../../plan/plan-schema.js';
+import {setTargetLayer} from '../../plan/plan-target.js';
+import {resolvePlan} from '../../plan/resolve-plan.js';
 import {formatNumber, type NumberSpec} from './number-field.js';
 import {fatLayerIndex} from '../../plan/fat-layer.js';
 import {clonePlan, setFatThickness, setSliderCount, type Reference} from '../../plan/plan-edits.js';
@@ -32,7 +34,12 @@ export type NumberKey =
 	| 'phantomDepthCm'
 	| 'phantomAlpha'
 	| 'refMasterDb'
-	| 'refSliderDb';
+	| 'refSliderDb'
+	| 'targetLayer'
+	| 'target'
+	| 'measuredAlpha'
+	| 'measuredLow'
+	| 'measuredHigh';
 
 export type ChoiceKey = 'harmonic' | 'knots' | 'ends' | 'noiseSource' | 'reference';
 
@@ -86,7 +93,7 @@ const db = (x: number) => `${formatNumber(x, {decimals: 1})} dB`;
 
 export const numberFields: Record<NumberKey, NumberField> = {
 	fat: {
-		spec: spec('Fat thickness (measured)', 'cm', limits.thicknessCm, 0.5, 2, 1),
+		spec: spec('Fat, measured on screen', 'cm', limits.thicknessCm, 0.5, 2, 1),
 		get: (doc) => doc.layers[fatLayerIndex(doc) ?? -1]?.thicknessCm,
 		set: (doc, _i, v) => setFatThickness(doc, v),
 	},
@@ -117,9 +124,58 @@ export const numberFields: Record<NumberKey, NumberField> = {
 	depthCm: {
 		spec: spec('Display depth', 'cm', limits.depthCm, 0.5, 2, 1),
 		get: (doc) => doc.display.depthCm,
-		set: (doc, _i, v) => edit(doc, (d) => void (d.display.depthCm = v)),
+		// A fixed target deeper than the new display comes up with it (a thin child on a shallow display).
+		set: (doc, _i, v) =>
+			edit(doc, (d) => {
+				d.display.depthCm = v;
+				if (d.targetDepthCm !== undefined && d.targetDepthCm > v) d.targetDepthCm = v;
+			}),
+	},
+	measuredAlpha: {
+		spec: spec('a0 measured, this patient (0 = none)', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
+		get: (doc, i) => doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz,
+		set: (doc, i, v) =>
+			edit(doc, (d) => {
+				const l = d.layers[i]!;
+				if (v === 0) {
+					delete l.measuredAlpha;
+					return;
+				}
+				const m = l.measuredAlpha;
+				// A new measurement starts with ±20 % (Madsen et al. 1986: laboratories agree to about 20 %).
+				const low = m ? Math.min(m.lowDbPerCmMhz, v) : Math.round(v * 800) / 1000;
+				const high = m ? Math.max(m.highDbPerCmMhz, v) : Math.round(v * 1200) / 1000;
+				l.measuredAlpha = {alphaDbPerCmMhz: v, lowDbPerCmMhz: low, highDbPerCmMhz: high};
+			}),
+	},
+	measuredLow: {
+		spec: spec('  its interval, low', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
+		get: (doc, i) => doc.layers[i]?.measuredAlpha?.lowDbPerCmMhz,
+		set: (doc, i, v) => edit(doc, (d) => void (d.layers[i]!.measuredAlpha!.lowDbPerCmMhz = v)),
+		check: (doc, i, v) => (v > (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be above the measured value' : undefined),
+	},
+	measuredHigh: {
+		spec: spec('  its interval, high', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
+		get: (doc, i) => doc.layers[i]?.measuredAlpha?.highDbPerCmMhz,
+		set: (doc, i, v) => edit(doc, (d) => void (d.layers[i]!.measuredAlpha!.highDbPerCmMhz = v)),
+		check: (doc, i, v) => (v < (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be below the measured value' : undefined),
+	},
+	targetLayer: {
+		spec: spec('Target follows layer (0 = fixed)', '', {min: 0, max: limits.layers.max}, 1, 1, 0, true),
+		get: (doc) => doc.targetBelowLayer?.layer ?? 0,
+		set: (doc, _i, v) => setTargetLayer(doc, v, resolvePlan(doc)),
+		check: (doc, _i, v) => (v > doc.layers.length ? `must be 0 (a fixed depth) or a layer from 1 to ${doc.layers.length}` : undefined),
+	},
+	target: {
+		spec: spec('Target depth', 'cm', {min: 0, max: limits.depthCm.max}, 0.5, 2, 1),
+		get: (doc) => doc.targetBelowLayer?.depthCm ?? doc.targetDepthCm ?? doc.display.depthCm,
+		set: (doc, _i, v) =>
+			edit(doc, (d) => {
+				if (d.targetBelowLayer) d.targetBelowLayer.depthCm = v;
+				else d.targetDepthCm = v;
+			}),
 		check: (doc, _i, v) =>
-			doc.targetDepthCm !== undefined && v < doc.targetDepthCm ? `must be at least the plan's target depth (${doc.targetDepthCm} cm)` : undefined,
+			!doc.targetBelowLayer && v > doc.display.depthCm ? `must not be deeper than the display (${doc.display.depthCm} cm)` : undefined,
 	},
 	assumedSpeedMps: {
 		spec: spec('Assumed speed', 'm/s', limits.assumedSpeedMps, 5, 20, 1),

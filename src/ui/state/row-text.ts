@@ -5,6 +5,7 @@ import {libraryTissue} from '../../engine/tissue-library.js';
 import type {Tissue} from '../../engine/types.js';
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import {describeRange} from '../../plan/plan-schema.js';
+import {resolveLayer} from '../../plan/resolve-plan.js';
 import type {ConsoleState} from './console-state.js';
 import {formatNumber} from './number-field.js';
 import {choiceFields, numberFields} from './plan-fields.js';
@@ -17,10 +18,12 @@ export interface RowText {
 
 const kindWord = {demo: 'built in', template: 'template', preset: 'saved'} as const;
 
+/** The tissue a layer uses, with an α0 measured for this patient in place of the library's. */
 export function tissueOf(doc: PlanDocument, index: number): Tissue | undefined {
-	const t = doc.layers[index]?.tissue;
-	if (t === undefined) return undefined;
-	return typeof t === 'string' ? libraryTissue(t) : {...t, source: t.source ?? 'custom values entered by the user'};
+	const l = doc.layers[index];
+	if (l === undefined) return undefined;
+	if (typeof l.tissue === 'string' && !libraryTissue(l.tissue)) return undefined;
+	return resolveLayer(l, doc.display.assumedSpeedMps).tissue;
 }
 
 /** "a0 0.6  n 1  c 1440  rho 911" with the units left to the column header. */
@@ -33,8 +36,10 @@ export function thicknessText(cm: number): string {
 	return Number.isInteger(Math.round(cm * 1000) / 100) ? cm.toFixed(1) : cm.toFixed(2);
 }
 
-export function numberLabel(row: Row & {kind: 'number'}): string {
+export function numberLabel(row: Row & {kind: 'number'}, doc?: PlanDocument): string {
 	if (row.key === 'refSliderDb') return `Usual slider ${row.index + 1}`;
+	if (row.key === 'target' && doc?.targetBelowLayer) return `Target, below top of layer ${doc.targetBelowLayer.layer}`;
+	if (row.key === 'target' && doc && doc.targetDepthCm === undefined) return 'Target depth (= display)';
 	return numberFields[row.key].spec.label;
 }
 
@@ -44,10 +49,10 @@ export function rowText(s: ConsoleState, row: Row): RowText {
 			const field = numberFields[row.key];
 			const v = field.get(s.doc, row.index);
 			const unit = field.spec.unit ? ` ${field.spec.unit}` : '';
-			if (v === undefined) return {label: numberLabel(row), value: row.key === 'fat' ? 'no fat layer (Enter adds one)' : '-'};
+			if (v === undefined) return {label: numberLabel(row, s.doc), value: row.key === 'fat' ? 'no fat layer (Enter adds one)' : '-'};
 			// Columns of fixed-decimal values (the usual gains) line up on the decimal point.
 			const text = formatNumber(v, field.spec);
-			return {label: numberLabel(row), value: `${field.spec.isFixed ? text.padStart(6) : text}${unit}`};
+			return {label: numberLabel(row, s.doc), value: `${field.spec.isFixed ? text.padStart(6) : text}${unit}`};
 		}
 		case 'choice': {
 			const field = choiceFields[row.key];
@@ -64,7 +69,9 @@ export function rowText(s: ConsoleState, row: Row): RowText {
 			const l = s.doc.layers[row.index]!;
 			const t = tissueOf(s.doc, row.index);
 			const isLast = row.index === s.doc.layers.length - 1;
-			return {label: `${row.index + 1} ${t?.label ?? '?'}`, value: `${thicknessText(l.thicknessCm)} cm${isLast ? ' +' : ''}`};
+			// "screen": measured on the screen (displayed); "true": the real thickness. "+": goes on below.
+			const mode = l.thicknessAs === 'displayed' ? 'screen' : 'true';
+			return {label: `${row.index + 1} ${t?.label ?? '?'}`, value: `${thicknessText(l.thicknessCm)} cm ${mode}${isLast ? ' +' : ''}`};
 		}
 		case 'action':
 			if (row.action === 'pick-tissue' && s.openLayer !== null) return {label: 'Tissue', value: `${tissueOf(s.doc, s.openLayer)?.label ?? '?'} (Enter to change)`};

@@ -4,7 +4,7 @@
  */
 import {allLibraryTissues} from '../../engine/tissue-library.js';
 import {parsePlanDocument, type PlanDocument} from '../../plan/plan-schema.js';
-import type {ConsoleState, Effect, Notice, StepId} from './console-state.js';
+import {historyLimit, type ConsoleState, type Effect, type Notice, type StepId} from './console-state.js';
 import {numberFields} from './plan-fields.js';
 import {rowsOf, type Row} from './step-rows.js';
 
@@ -26,7 +26,28 @@ export function clampCursor(s: ConsoleState): ConsoleState {
 export function applyDoc(s: ConsoleState, next: PlanDocument, rowId: string): ConsoleState {
 	const r = parsePlanDocument(next);
 	if (!r.ok) return {...s, refusal: {rowId, message: r.errors[0] ?? 'refused'}};
-	return {...s, doc: r.value, dirty: true, refusal: null, editing: null, notice: null};
+	return {...remember(s), doc: r.value, dirty: true, refusal: null, editing: null, notice: null};
+}
+
+/** Keeps the current plan for undo (every plan edit goes through here), and drops the redo list. */
+export function remember(s: ConsoleState): ConsoleState {
+	const past = [...s.history.past, s.doc].slice(-historyLimit);
+	return {...s, history: {past, future: []}};
+}
+
+/** Steps back (`undo`) or forward (`redo`) through the plan's edits; a notice says what happened. */
+export function travel(s: ConsoleState, direction: 'undo' | 'redo'): ConsoleState {
+	const {past, future} = s.history;
+	if (direction === 'undo') {
+		const previous = past[past.length - 1];
+		if (!previous) return withNotice(s, 'Nothing to undo.');
+		const after = {...s, doc: previous, dirty: true, editing: null, refusal: null, history: {past: past.slice(0, -1), future: [s.doc, ...future]}};
+		return withNotice(clampCursor(after), `Undid one change (${past.length - 1} more to undo; Ctrl+R redoes).`);
+	}
+	const next = future[0];
+	if (!next) return withNotice(s, 'Nothing to redo.');
+	const after = {...s, doc: next, dirty: true, editing: null, refusal: null, history: {past: [...past, s.doc], future: future.slice(1)}};
+	return withNotice(clampCursor(after), `Redid one change (${future.length - 1} more to redo).`);
 }
 
 export function applyNumber(s: ConsoleState, row: Row & {kind: 'number'}, value: number): ConsoleState {

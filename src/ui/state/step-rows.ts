@@ -24,7 +24,8 @@ const action = (a: RowAction, label: string): Row => ({kind: 'action', id: `a:${
 function stackRows(s: ConsoleState): Row[] {
 	const i = s.openLayer;
 	if (i !== null && s.doc.layers[i]) {
-		const rows: Row[] = [action('pick-tissue', 'Tissue'), num('thickness', i)];
+		const rows: Row[] = [action('pick-tissue', 'Tissue'), num('thickness', i), num('measuredAlpha', i)];
+		if (s.doc.layers[i].measuredAlpha) rows.push(num('measuredLow', i), num('measuredHigh', i));
 		if (typeof s.doc.layers[i].tissue === 'string') rows.push(action('make-custom', 'Edit these values as a custom tissue'));
 		else rows.push({kind: 'tissue-label', id: `t:label:${i}`, index: i}, num('speedMps', i), num('densityKgM3', i), num('alphaDbPerCmMhz', i), num('exponent', i));
 		return rows;
@@ -39,6 +40,8 @@ function probeRows(s: ConsoleState): Row[] {
 		choice('harmonic'),
 		num('scattererExponent'),
 		num('depthCm'),
+		num('targetLayer'),
+		num('target'),
 		num('assumedSpeedMps'),
 		num('sliderCount'),
 		num('sliderMinDb'),

@@ -8,6 +8,11 @@ import {rowsOf, type Row} from '../state/step-rows.js';
 import {useTheme} from '../kit/theme-context.js';
 import {clip} from '../kit/text-fit.js';
 
+/** What the stack's columns and marks mean. */
+export const stackLegend =
+	'units: cm; a0 dB/cm/MHz^n, c m/s, rho kg/m³. screen: thickness as measured on the screen, ' +
+	'true: real thickness (m switches); +: the last layer goes on below the display';
+
 export function StackStep({state, width, height, isFocused}: StepProps) {
 	const theme = useTheme();
 	const rows = rowsOf(state, 'stack');
@@ -19,8 +24,11 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 	// The source gets whatever lines the list leaves free (at least one, at most five).
 	const sourceLines = Math.max(1, Math.min(5, height - rows.length - 6));
 	const detail = tissue ? [clip(`${tissue.label}: ${tissueNumbers(tissue)}`, width), ...wrapWords(`source: ${tissue.source ?? 'none given'}`, width).slice(0, sourceLines)] : [];
-	const columns = open === null ? '  units: cm; a0 dB/cm/MHz^n, c m/s, rho kg/m³' : '';
-	const lines = height - 1 - detail.length - (columns ? 1 : 0);
+	const legend =
+		open === null
+			? wrapWords(stackLegend, width - 2).map((l) => `  ${l}`)
+			: [];
+	const lines = height - 1 - detail.length - legend.length;
 	const note = windowNote(state, rows, cursor, lines);
 	const title =
 		open === null
@@ -37,11 +45,11 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 				{clip(title, width)}
 			</Text>
 			<FieldList state={state} rows={rows} cursor={cursor} width={width} height={lines} isFocused={isFocused} extra={extra} labelWidth={Math.min(30, Math.floor(width * 0.55))} />
-			{columns ? (
-				<Text wrap="truncate" {...theme.muted}>
-					{clip(columns, width)}
+			{legend.map((l, i) => (
+				<Text key={`legend-${i}`} wrap="truncate" {...theme.muted}>
+					{l}
 				</Text>
-			) : null}
+			))}
 			{detail.map((d, i) => (
 				<Text key={i} wrap="truncate" {...theme.muted}>
 					{d}
