@@ -45,6 +45,8 @@ export interface DicomFixture {
 	syntax?: string;
 	regions?: RegionFixture[];
 	extra?: Record<string, unknown>;
+	/** VRs for attributes whose dictionary VR is ambiguous (US or SS). */
+	vrMap?: Record<string, string>;
 }
 
 function regionItem(r: RegionFixture): Record<string, unknown> {
@@ -94,7 +96,7 @@ export function writeDicom(f: DicomFixture): Uint8Array {
 		...(f.regions ? {SequenceOfUltrasoundRegions: f.regions.map(regionItem)} : {}),
 		...f.extra,
 		PixelData: Array.isArray(f.pixels) ? f.pixels.map(copyBuffer) : copyBuffer(f.pixels),
-		_vrMap: {PixelData: bits > 8 ? 'OW' : 'OB'},
+		_vrMap: {PixelData: bits > 8 ? 'OW' : 'OB', ...f.vrMap},
 	};
 	const meta = {
 		FileMetaInformationVersion: new Uint8Array([0, 1]).buffer,

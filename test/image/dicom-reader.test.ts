@@ -161,6 +161,7 @@ describe('DICOM pixel data', () => {
 				pixels: grey,
 				photometric: 'PALETTE COLOR',
 				regions: [c42],
+				vrMap: {RedPaletteColorLookupTableDescriptor: 'US', GreenPaletteColorLookupTableDescriptor: 'US', BluePaletteColorLookupTableDescriptor: 'US'},
 				extra: {
 					RedPaletteColorLookupTableDescriptor: [entries, 0, 16],
 					GreenPaletteColorLookupTableDescriptor: [entries, 0, 16],
