@@ -50,6 +50,7 @@ export const warningLegend: Record<WarningCode, string> = {
 	'harmonic-simplified': 'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
  'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
 	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
+	'scanner-profile': 'the scanner\'s depth gain was measured from phantom images (a scanner profile) and replaces the assumed ramp',
 };
 
 /** Distinct warning codes in a table, in the legend's order. */

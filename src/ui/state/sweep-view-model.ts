@@ -27,6 +27,7 @@ export const shortCodes: Record<WarningCode, {readonly code: string; readonly me
 	'harmonic-simplified': {code: 'i harmonic', means: 'harmonic receive (see the notes for the model)'},
 	'budget-receive-mismatch': {code: '!budget', means: 'noise budget measured in another receive mode'},
 	'refraction-shift': {code: 'i refract', means: 'an oblique beam draws deep targets sideways'},
+	'scanner-profile': {code: 'i measured', means: 'depth gain measured on this scanner'},
 };
 
 export type ColumnKind = 'slider' | 'master-delta' | 'master' | 'fit' | 'floor' | 'fmax' | 'warnings';
