@@ -1,35 +1,21 @@
 /**
- * Reads one image file whole, refusing anything that is not a regular file (a FIFO, a device, a
- * folder) and anything over the size cap, before reading a byte of it. The open is non-blocking so
- * a FIFO cannot hang the reader.
+ * Reads one image file whole through the shared file layer: only a regular file (checked before a
+ * non-blocking open), capped at 64 MB before a byte is read. Refusals become ImageRefusal.
  */
-import {closeSync, constants, fstatSync, openSync, readSync} from 'node:fs';
+import {readRegularFile} from '../files/bounded-read.js';
+import {FileRefusedError} from '../files/file-errors.js';
 import {ImageRefusal, imageLimits} from './image-refusal.js';
 
 export function readImageBytes(path: string, label = path, maxBytes: number = imageLimits.maxFileBytes): Uint8Array {
-	let fd: number;
 	try {
-		fd = openSync(path, constants.O_RDONLY | constants.O_NONBLOCK);
+		const {bytes} = readRegularFile(path, {maxBytes, what: 'image'});
+		return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	} catch (error) {
-		const code = (error as NodeJS.ErrnoException).code;
-		const problem = code === 'ENOENT' ? 'no such file' : `cannot be read (${code ?? 'error'})`;
-		throw new ImageRefusal(label, problem);
-	}
-	try {
-		const stat = fstatSync(fd);
-		if (!stat.isFile()) throw new ImageRefusal(label, 'is not a regular file; give a DICOM or PNG image file');
-		if (stat.size > maxBytes) {
-			throw new ImageRefusal(label, `is ${stat.size} bytes; the limit for one image is ${maxBytes} bytes (64 MB)`);
+		if (error instanceof FileRefusedError) {
+			// The file layer names the path itself; keep the message, name the image as the session does.
+			const problem = error.message.includes(': ') ? error.message.slice(error.message.indexOf(': ') + 2) : error.message;
+			throw new ImageRefusal(label, problem);
 		}
-		const bytes = new Uint8Array(stat.size);
-		let read = 0;
-		while (read < stat.size) {
-			const n = readSync(fd, bytes, read, stat.size - read, read);
-			if (n === 0) break;
-			read += n;
-		}
-		return read === stat.size ? bytes : bytes.subarray(0, read);
-	} finally {
-		closeSync(fd);
+		throw error;
 	}
 }

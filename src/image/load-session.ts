@@ -7,7 +7,9 @@ import {dirname, isAbsolute, resolve} from 'node:path';
 import {CalibrationRefusal} from '../calibration/calibration-refusal.js';
 import type {CalibrationImage, CalibrationInput} from '../calibration/scanner-calibration.js';
 import {parseSession, type ScannerSession} from '../calibration/session-schema.js';
-import {parseUntrustedJson, readBoundedText} from '../store/untrusted-json.js';
+import {maxPlanBytes, readRegularFile} from '../files/bounded-read.js';
+import {FileRefusedError} from '../files/file-errors.js';
+import {parseStrictJson} from '../files/strict-json.js';
 import {ImageRefusal} from './image-refusal.js';
 import {readImageFile} from './read-image.js';
 
@@ -25,12 +27,17 @@ export interface LoadOptions {
 
 /** Reads and validates the session JSON only. */
 export function readSessionDocument(path: string): ScannerSession {
-	const read = readBoundedText(path);
-	if (!read.ok) throw new CalibrationRefusal(path, read.problem);
-	const json = parseUntrustedJson(read.text);
+	let text: string;
+	try {
+		text = readRegularFile(path, {maxBytes: maxPlanBytes, what: 'session file'}).bytes.toString('utf8').replace(/^\uFEFF/, '');
+	} catch (error) {
+		if (error instanceof FileRefusedError) throw new CalibrationRefusal('session', error.message);
+		throw error;
+	}
+	const json = parseStrictJson(text);
 	if (!json.ok) throw new CalibrationRefusal(path, json.problem);
 	const parsed = parseSession(json.value);
-	if (!parsed.ok) throw new CalibrationRefusal(parsed.errors[0]!.split(':')[0]!, parsed.errors.map((e) => e.slice(e.indexOf(':') + 2)).join('; ') + (parsed.errors.length > 1 ? ` (${parsed.errors.join('; ')})` : ''));
+	if (!parsed.ok) throw new CalibrationRefusal(`${path}`, parsed.errors.join('; '));
 	return parsed.value;
 }
 

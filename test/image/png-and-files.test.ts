@@ -70,6 +70,6 @@ describe('the bounded file reader', () => {
 		const fd = openSync(big, 'r+');
 		ftruncateSync(fd, 64 * 1024 * 1024 + 1);
 		closeSync(fd);
-		expect(refusal(() => readImageFile(big))).toContain('the limit for one image is 67108864 bytes');
+		expect(refusal(() => readImageFile(big))).toContain('over the limit of 67,108,864 bytes');
 	});
 });
