@@ -35,6 +35,8 @@ const knotSpacingGrey = 8;
 export const monotoneToleranceDb = 0.5;
 /** Bands two steps must share to be stitched together. */
 export const minSharedBands = 3;
+/** Largest run of greys no band mean fell in before the map there counts as guessed, grey levels. */
+export const maxGreyGap = 24;
 
 /** Piecewise-linear interpolation weights of x on ascending knots (clamped to the ends). */
 function weightsOn(knots: readonly number[], x: number): [number, number, number] {
@@ -92,6 +94,15 @@ function checkStitching(observations: readonly StepObservation[], gainsDb: reado
 export function fitGreyMap(observations: readonly StepObservation[], gainsDb: readonly number[]): GreyMapFit {
 	checkStitching(observations, gainsDb);
 	const greys = observations.map((o) => o.meanGrey);
+	const sorted = [...greys].sort((a, b) => a - b);
+	for (let i = 1; i < sorted.length; i++) {
+		if (sorted[i]! - sorted[i - 1]! > maxGreyGap) {
+			throw new CalibrationRefusal(
+				'gainSteps',
+				`the steps overlap too little to stitch one grey map: no depth band showed a grey between ${sorted[i - 1]!.toFixed(0)} and ${sorted[i]!.toFixed(0)}; add gain steps in between (about 3–6 dB apart)`,
+			);
+		}
+	}
 	const lo = Math.min(...greys);
 	const hi = Math.max(...greys);
 	const nKnots = Math.max(2, Math.ceil((hi - lo) / knotSpacingGrey) + 1);

@@ -40,6 +40,12 @@ export const commandList: readonly CommandEntry[] = [
 			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, receive mode and tissue swaps',
 		register: async () => (await import('./table-command.js')).registerTableCommand,
 	},
+	{
+		name: 'scanner',
+		term: 'scanner',
+		description: 'measure your scanner from phantom images and keep it as a profile plans can name (calibrate, list, show, delete, rename, export, import)',
+		register: async () => (await import('./scanner-command.js')).registerScannerCommand,
+	},
 ];
 
 /**

@@ -16,7 +16,7 @@ import {tableCsv} from '../table/table-csv.js';
 import {tableJsonText} from '../table/table-json.js';
 import {tableMarkdown} from '../table/table-markdown.js';
 import {checkSvgSweep, maxSvgLines, maxSvgPanels, tableSvg} from '../table/table-svg.js';
-import {readPlanFile} from './read-plan-file.js';
+import {readPlanFile, scannerForPlan} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['markdown', 'csv', 'json', 'svg'] as const;
@@ -138,7 +138,8 @@ export function registerTableCommand(program: Command): void {
 				const bar = createProgressBar(process.stderr);
 				let table;
 				try {
-					table = runSweep(sweep, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
+					const scanner = await scannerForPlan(doc);
+					table = runSweep(sweep, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total), ...(scanner ? {scanner} : {})});
 				} finally {
 					bar.finish();
 				}

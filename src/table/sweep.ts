@@ -15,7 +15,7 @@ import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {CurveWarning, EnginePlan, Tissue} from '../engine/types.js';
 import {fatLayerIndex} from '../plan/fat-layer.js';
 import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
-import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
+import {resolveLayer, resolvePlan, type PlanScanner} from '../plan/resolve-plan.js';
 import {describeTarget, targetDepthOf} from '../plan/plan-target.js';
 
 /** Most rows one table may have (all sweeps multiplied). */
@@ -175,6 +175,8 @@ export interface RunOptions {
 	readonly keepCurves?: boolean;
 	/** Called after each row, synchronously. */
 	readonly onProgress?: (done: number, total: number) => void;
+	/** The scanner profile the plan names, looked up by the caller; every row then uses it. */
+	readonly scanner?: PlanScanner;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -405,7 +407,7 @@ function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 /** Runs a checked sweep. Pure and synchronous; `onProgress` is called after every row. */
 export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): ProtocolTable {
 	const stepCm = sweep.stepCm;
-	const referenceFit = computeCurve(resolvePlan(sweep.doc), {stepCm}).fit;
+	const referenceFit = computeCurve(resolvePlan(sweep.doc, options.scanner), {stepCm}).fit;
 	const reference = settingsOf(referenceFit);
 	const ladders = new Map<string, {mhz: number | null; penetrationCm: number | null}>();
 	const layerValues: (number | null)[] = sweep.fatCm.length ? [...sweep.fatCm] : [null];
@@ -415,7 +417,7 @@ export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): Protoc
 	for (const combo of combinations(sweep)) {
 		for (const layerCm of layerValues) {
 			const doc = variantDoc(sweep, combo, layerCm);
-			const plan = resolvePlan(doc);
+			const plan = resolvePlan(doc, options.scanner);
 			const r = computeCurve(plan, {stepCm});
 			const targetCm = targetDepthOf(doc, plan);
 			const key = ladderKey(plan, targetCm);
