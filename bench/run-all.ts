@@ -12,6 +12,7 @@ const suites = {
 	curve: './curve-bench.js',
 	console: './console-bench.js',
 	table: './table-bench.js',
+	scanner: './scanner-bench.js',
 } as const;
 
 const asked = process.argv.slice(2).filter((a): a is keyof typeof suites => a in suites);
