@@ -29,7 +29,7 @@ function listing(home: string): string[] {
 }
 
 const plan = (scanner?: string) => ({
-	format: 'evenecho-plan/1',
+	format: 'evenecho-plan/2',
 	name: 'Invented patient, 4 cm fat',
 	layers: [{tissue: 'fat', thicknessCm: 4}, {tissue: 'liver', thicknessCm: 20}],
 	probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
