@@ -225,7 +225,7 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 	// Penetration: echo-to-noise 0 dB, i.e. (echo + noise) − noise = 3.01 dB.
 	let penetrationCm: number | null = null;
 	let pixelRatioPenetration: ScannerCalibration['pixelRatioPenetration'] = null;
-	if (noiseByBand && noiseByBand.size) {
+	if (noiseByBand?.size) {
 		const withNoise = bands.filter((b) => noiseByBand!.has(Math.round(b.depthCm / 0.5 - 0.5)));
 		const depths = withNoise.map((b) => b.depthCm);
 		const excess = smooth3(withNoise.map((b) => b.levelDb - noiseByBand!.get(Math.round(b.depthCm / 0.5 - 0.5))!));

@@ -8,8 +8,8 @@ import {Box, Text, useInput} from 'ink';
 import {useEffect, useState} from 'react';
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
-import {clip} from '../text-fit.js';
-import {useTheme} from '../theme-context.js';
+import {clip} from '../kit/text-fit.js';
+import {useTheme} from '../kit/theme-context.js';
 import {depthResponsePlot, greyMapPlot, penetrationPlot} from './calibration-plots.js';
 import {imageThumbnail} from './image-thumbnail.js';
 
