@@ -13,6 +13,7 @@ const suites = {
 	console: './console-bench.js',
 	table: './table-bench.js',
 	picture: './picture-bench.js',
+	scanner: './scanner-bench.js',
 } as const;
 
 const asked = process.argv.slice(2).filter((a): a is keyof typeof suites => a in suites);

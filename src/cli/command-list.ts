@@ -52,6 +52,12 @@ export const commandList: readonly CommandEntry[] = [
 		description: 'write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image',
 		register: async () => (await import('./simulate-command.js')).registerSimulateCommand,
 	},
+	{
+		name: 'scanner',
+		term: 'scanner',
+		description: 'measure your scanner from phantom images and keep it as a profile plans can name (calibrate, list, show, delete, rename, export, import)',
+		register: async () => (await import('./scanner-command.js')).registerScannerCommand,
+	},
 ];
 
 /**

@@ -7,7 +7,7 @@ import {curveCsv, curveJson} from '../report/curve-json.js';
 import {curveSummary, signedDb} from '../report/curve-summary.js';
 import {printable} from '../files/printable.js';
 import {numberOption} from './option-values.js';
-import {readPlanFile} from './read-plan-file.js';
+import {readMeasuredPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['text', 'json', 'csv'] as const;
@@ -21,7 +21,7 @@ interface Comparison {
 
 /** Fits the second plan too and takes the differences; both must have the same slider bank. */
 async function comparedWith(result: CurveResult, path: string, stepCm: number): Promise<Comparison> {
-	const other = computeCurve((await readPlanFile(path)).plan, {stepCm});
+	const other = computeCurve((await readMeasuredPlanFile(path)).plan, {stepCm});
 	const a = result.plan;
 	const b = other.plan;
 	if (a.sliders.count !== b.sliders.count || a.display.depthCm !== b.display.depthCm || a.sliders.knots !== b.sliders.knots) {
@@ -61,7 +61,7 @@ export function registerCurveCommand(program: Command): void {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
 			}
 			const stepCm = numberOption('step', opts.step, {min: 0.01, max: 5}, 'cm');
-			const {plan} = await readPlanFile(planPath);
+			const {plan} = await readMeasuredPlanFile(planPath);
 			const result = computeCurve(plan, {stepCm});
 			const against = opts.against === undefined ? undefined : await comparedWith(result, opts.against, stepCm);
 			if (opts.format === 'json') {

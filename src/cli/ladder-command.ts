@@ -6,7 +6,7 @@ import {targetDepthOf} from '../plan/plan-target.js';
 import {cautionLine} from '../report/cautions.js';
 import {ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
 import {numberListOption, numberOption} from './option-values.js';
-import {readPlanFile} from './read-plan-file.js';
+import {readMeasuredPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 
 export function registerLadderCommand(program: Command): void {
@@ -22,7 +22,7 @@ export function registerLadderCommand(program: Command): void {
 			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
 			const freqs = numberListOption('freqs', opts.freqs, limits.centerMhz, 'MHz', 200);
 			const margin = numberOption('margin', opts.margin, {min: 0, max: 100}, 'dB');
-			const {doc, plan} = await readPlanFile(planPath);
+			const {doc, plan} = await readMeasuredPlanFile(planPath);
 			// The same rule as a plan's own targetDepthCm: within the display depth.
 			const target = opts.target === undefined ? undefined : numberOption('target', opts.target, targetDepthLimit(plan.display.depthCm), 'cm (the plan\'s display depth)');
 			const targetCm = target ?? targetDepthOf(doc, plan);

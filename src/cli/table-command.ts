@@ -17,7 +17,7 @@ import {tableCsvChunks} from '../table/table-csv.js';
 import {tableJsonChunks} from '../table/table-json.js';
 import {tableMarkdownChunks} from '../table/table-markdown.js';
 import {checkSvgSweep, maxSvgLines, maxSvgPanels, tableSvg} from '../table/table-svg.js';
-import {readPlanFile} from './read-plan-file.js';
+import {readPlanFile, scannerForPlan} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['markdown', 'csv', 'json', 'svg'] as const;
@@ -139,7 +139,9 @@ export function registerTableCommand(program: Command): void {
 				const bar = createProgressBar(process.stderr);
 				let table;
 				try {
-					table = await runSweepInParallel(sweep, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
+					const scanner = await scannerForPlan(doc);
+					const swept = scanner ? {...sweep, scanner} : sweep;
+					table = await runSweepInParallel(swept, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
 				} finally {
 					bar.finish();
 				}

@@ -63,9 +63,27 @@ function spreadLayers(layers: readonly Layer[], end: 'low' | 'high', centerMhz: 
  * round trip at the slider bank's ramp slope (out at f0 and back at f0, or at 2·f0 with harmonic receive).
  */
 export function builtInRampDb(plan: EnginePlan, displayedCm: number): number {
+	if (plan.scanner) return measuredResponseDb(plan.scanner, displayedCm);
 	const harmonic = (plan.probe.receive ?? 'fundamental') !== 'fundamental';
 	const legsMhz = harmonic ? 3 * plan.probe.centerMhz : 2 * plan.probe.centerMhz;
 	return plan.sliders.rampDbPerCmMhz * legsMhz * displayedCm;
+}
+
+/**
+ * The measured depth response at a displayed depth, dB re the skin: linear between the measured
+ * depths, held at the end values outside them (nothing is known there, so nothing is invented).
+ */
+export function measuredResponseDb(r: NonNullable<EnginePlan['scanner']>, displayedCm: number): number {
+	const xs = r.depthsCm;
+	const ys = r.gainDb;
+	const n = xs.length;
+	if (!n) return 0;
+	if (displayedCm <= xs[0]!) return ys[0]!;
+	if (displayedCm >= xs[n - 1]!) return ys[n - 1]!;
+	let i = 1;
+	while (xs[i]! < displayedCm) i++;
+	const t = (displayedCm - xs[i - 1]!) / (xs[i]! - xs[i - 1]!);
+	return ys[i - 1]! + t * (ys[i]! - ys[i - 1]!);
 }
 
 /** What master gain + sliders must add at a sample: the compensation less the built-in ramp, on the
@@ -200,6 +218,18 @@ function barrierWarning(b: Barrier, plan: EnginePlan): CurveWarning {
 	return {code: b.kind, severity: 'warning', message, depthCm: b.displayedCm};
 }
 
+/** Says which measured depth response replaced the built-in ramp, and where the plan's settings differ from it. */
+export function scannerProfileNote(plan: EnginePlan): string {
+	const r = plan.scanner!;
+	const last = r.depthsCm[r.depthsCm.length - 1] ?? 0;
+	const differs: string[] = [];
+	if (Math.abs(r.centerMhz - plan.probe.centerMhz) > 1e-9) differs.push(`probe ${r.centerMhz} MHz there, ${plan.probe.centerMhz} MHz here`);
+	if (Math.abs(r.displayDepthCm - plan.display.depthCm) > 1e-9) differs.push(`display depth ${r.displayDepthCm} cm there, ${plan.display.depthCm} cm here`);
+	if (r.sliderCount !== plan.sliders.count) differs.push(`${r.sliderCount} sliders there, ${plan.sliders.count} here`);
+	const base = `Depth gain measured on "${r.label}" (${r.id}) replaces the assumed built-in ramp, held flat beyond ${last.toFixed(1)} cm; a measurement to confirm on the live image.`;
+	return differs.length ? `${base} Settings differ from the measurement (${differs.join('; ')}): re-measure for this probe, preset and depth.` : base;
+}
+
 /** Computes the whole compensation curve of a plan. Pure: same plan, same result. */
 export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): CurveResult {
 	const stepCm = options.stepCm ?? 0.1;
@@ -275,6 +305,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	if (wall) warnings.push(wall);
 	const shift = refractionNote(plan, usableDepthCm, nominal);
 	if (shift) warnings.push(shift);
+	if (plan.scanner) warnings.push({code: 'scanner-profile', severity: 'note', message: scannerProfileNote(plan)});
 	for (const span of nominal.spans) {
 		const c = span.layer.tissue.speedMps;
 		const misdrawn = span.stretch - 1;

@@ -82,6 +82,24 @@ export interface SliderBank {
 	readonly rampDbPerCmMhz: number;
 }
 
+/**
+ * A scanner's own depth gain measured from phantom images (a scanner profile): replaces the
+ * assumed built-in ramp. Valid for the probe, preset, depth and focus it was measured with.
+ */
+export interface ScannerResponse {
+	readonly id: string;
+	readonly label: string;
+	/** Displayed depths (ascending) and the scanner's gain there with sliders centred, dB re its shallowest point. */
+	readonly depthsCm: readonly number[];
+	readonly gainDb: readonly number[];
+	/** dB that full travel of one slider adds at its knot; null when not measured. */
+	readonly sliderTravelDb: number | null;
+	/** Settings it was measured at, to say when a plan differs. */
+	readonly centerMhz: number;
+	readonly displayDepthCm: number;
+	readonly sliderCount: number;
+}
+
 /** The whole setup for one patient and exam, already resolved (tissues are full records). */
 export interface EnginePlan {
 	readonly name: string;
@@ -126,6 +144,8 @@ export interface EnginePlan {
 	/** Receive mode the noise budget was measured or stated for; absent = fundamental. A budget
 	 * for another mode than the probe's is used as it stands, with a warning. */
 	readonly noiseBudgetReceive?: ReceiveMode;
+	/** Measured depth response that replaces the built-in ramp; absent = the ramp as assumed. */
+	readonly scanner?: ScannerResponse;
 }
 
 /** Why a depth gives no useful echo. */
@@ -138,7 +158,8 @@ export type WarningCode =
 	| 'harmonic-simplified'
 	| 'budget-receive-mismatch'
 	| 'refraction-shift'
-	| 'thick-body-wall';
+	| 'thick-body-wall'
+	| 'scanner-profile';
 
 export interface CurveWarning {
 	readonly code: WarningCode;

@@ -209,6 +209,11 @@ export const planSchema = z
 			.optional(),
 		/** The department's usual settings for this region, against which this plan is shown as deltas. */
 		reference: referenceSchema.optional(),
+		/** A scanner profile's id (`evenecho scanner list`): its measured depth response, noise budget and slider travel are used. */
+		scanner: z
+			.string({error: 'must be a scanner profile id (evenecho scanner list)'})
+			.regex(/^[a-z0-9][a-z0-9-]{0,63}$/, {error: 'must be a scanner profile id: lower-case letters, digits and hyphens, up to 64 (evenecho scanner list)'})
+			.optional(),
 	}, {error: 'must be a JSON object'})
 	.refine((p) => !(p.noiseBudgetDb !== undefined && p.phantomCalibration !== undefined), {
 		error: 'give either noiseBudgetDb or phantomCalibration, not both',

@@ -4,7 +4,7 @@
  */
 import {gaussianSteepness} from '../engine/echo-spectrum.js';
 import {noiseBudgetFromPhantom} from '../engine/noise-budget.js';
-import type {EnginePlan, Layer, Tissue} from '../engine/types.js';
+import type {EnginePlan, Layer, ScannerResponse, Tissue} from '../engine/types.js';
 import {
 	defaultNoiseBudgetDb,
 	type LayerDocument,
@@ -37,7 +37,19 @@ export function resolveLayer(l: LayerDocument, assumedSpeedMps: number): Layer {
 	return {tissue, thicknessCm};
 }
 
-export function resolvePlan(doc: PlanDocument): EnginePlan {
+/** What a plan takes from the scanner profile it names (looked up by the caller in the store). */
+export interface PlanScanner {
+	readonly response: ScannerResponse;
+	/** Measured noise budget; null when the profile had no in-air image. */
+	readonly noiseBudgetDb: number | null;
+}
+
+/**
+ * With `scanner` (the profile the plan names), its measured depth response replaces the built-in
+ * ramp, its noise budget replaces the typed or assumed one, and the sliders' range becomes ± the
+ * measured full travel, so fitted values are reachable on that scanner.
+ */
+export function resolvePlan(doc: PlanDocument, scanner?: PlanScanner): EnginePlan {
 	const probe = {
 		centerMhz: doc.probe.centerMhz,
 		bandwidthFraction: doc.probe.bandwidthFraction,
@@ -45,7 +57,8 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		receive: doc.probe.receive ?? 'fundamental',
 		angleDeg: doc.probe.angleDeg ?? 0,
 	};
-	const noiseBudgetDb = doc.phantomCalibration
+	const measuredBudget = scanner?.noiseBudgetDb ?? undefined;
+	const noiseBudgetDb = measuredBudget !== undefined ? measuredBudget : doc.phantomCalibration
 		? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
 		: (doc.noiseBudgetDb ?? defaultNoiseBudgetDb);
 	// The default budget is a fundamental figure; a stated one is for the mode it says (fundamental if it does not).
@@ -61,7 +74,7 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		probe,
 		scattererExponent: doc.scattererExponent,
 		display: doc.display,
-		sliders: doc.sliders,
+		sliders: scanner?.response.sliderTravelDb ? {...doc.sliders, minDb: -Math.abs(scanner.response.sliderTravelDb), maxDb: Math.abs(scanner.response.sliderTravelDb)} : doc.sliders,
 		masterGain: {
 			minDb: doc.masterGain.minDb,
 			maxDb: doc.masterGain.maxDb,
@@ -69,12 +82,13 @@ export function resolvePlan(doc: PlanDocument): EnginePlan {
 		},
 		noiseBudgetDb,
 		noiseBudgetReceive,
+		...(scanner ? {scanner: scanner.response} : {}),
 	};
 }
 
 /** Validate and resolve in one step. */
-export function parsePlan(input: unknown): ParseResult<{doc: PlanDocument; plan: EnginePlan}> {
+export function parsePlan(input: unknown, scanner?: PlanScanner): ParseResult<{doc: PlanDocument; plan: EnginePlan}> {
 	const r = parsePlanDocument(input);
 	if (!r.ok) return r;
-	return {ok: true, value: {doc: r.value, plan: resolvePlan(r.value)}};
+	return {ok: true, value: {doc: r.value, plan: resolvePlan(r.value, scanner)}};
 }

@@ -39,7 +39,13 @@ export function curveJson(r: CurveResult) {
 			blocked: s.blocked,
 			belowNoise: s.belowNoise,
 		})),
-		sliders: r.fit.sliders.map((s) => ({depthCm: round(s.depthCm), gainDb: round(s.gainDb, 2)})),
+		sliders: r.fit.sliders.map((s) => ({
+			depthCm: round(s.depthCm),
+			gainDb: round(s.gainDb, 2),
+			// With a measured scanner: the position as a fraction of full travel (−1…1, 0 = centred).
+			...(r.plan.scanner?.sliderTravelDb ? {travelFraction: round(s.gainDb / r.plan.scanner.sliderTravelDb, 3)} : {}),
+		})),
+		...(r.plan.scanner ? {scanner: {id: r.plan.scanner.id, label: r.plan.scanner.label, sliderTravelDb: r.plan.scanner.sliderTravelDb}} : {}),
 		masterGainDb: round(r.fit.masterGainDb, 2),
 		residualDb: round(r.fit.residualDb),
 		penetrationDepthCm: r.penetrationDepthCm === null ? null : round(r.penetrationDepthCm),

@@ -37,15 +37,19 @@ export function curveSummary(r: CurveResult): string {
 	out.push('');
 	const bank = p.sliders;
 	out.push(`Depth-gain starting point (${bank.count} sliders ${bank.minDb}..${bank.maxDb} dB at ${bank.knots}, ${bank.ends} ends)`);
+	const travel = p.scanner?.sliderTravelDb ?? null;
 	out.push(
-		bank.rampDbPerCmMhz > 0
-			? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
-			: '  sliders are absolute (no built-in ramp assumed)',
+		p.scanner
+			? `  sliders are offsets from the scanner's own depth gain, measured on "${p.scanner.label}" (${p.scanner.id})${travel ? `; full travel = ${f1(travel)} dB` : ''}`
+			: bank.rampDbPerCmMhz > 0
+				? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
+				: '  sliders are absolute (no built-in ramp assumed)',
 	);
-	out.push('  slider  depth cm  slider dB  compensates dB');
+	out.push(`  slider  depth cm  slider dB  compensates dB${travel ? '  of travel' : ''}`);
 	r.fit.sliders.forEach((s, i) => {
 		const delivered = deliveredCompensationDb(p, r.fit, s.depthCm);
-		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}`);
+		const fraction = travel ? `  ${lpad(travelFractionText(s.gainDb / travel), 9)}` : '';
+		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}${fraction}`);
 	});
 	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
 	out.push(
@@ -83,4 +87,10 @@ export function curveSummary(r: CurveResult): string {
 	out.push('Cautions');
 	for (const c of cautions) out.push(`  - ${c}`);
 	return out.join('\n') + '\n';
+}
+
+/** A slider position as a signed fraction of its full travel ("+0.35"; 0 = centred). */
+export function travelFractionText(fraction: number): string {
+	const v = Math.round(fraction * 100) / 100;
+	return `${v > 0 ? '+' : v < 0 ? '−' : ''}${Math.abs(v).toFixed(2)}`;
 }

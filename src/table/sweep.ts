@@ -15,7 +15,7 @@ import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {CurveWarning, EnginePlan, SliderFit, Tissue} from '../engine/types.js';
 import {fatLayerIndex} from '../plan/fat-layer.js';
 import {describeRange, limits, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
-import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
+import {resolveLayer, resolvePlan, type PlanScanner} from '../plan/resolve-plan.js';
 import {describeTarget, targetDepthOf} from '../plan/plan-target.js';
 
 /** Most rows one table may have (all sweeps multiplied). */
@@ -91,6 +91,8 @@ export interface ResolvedSwap {
 /** A spec with every default filled in and every value checked. */
 export interface ResolvedSweep {
 	readonly doc: PlanDocument;
+	/** The scanner profile the plan names, looked up by the caller; every row then uses it. */
+	readonly scanner?: PlanScanner;
 	/** 0-based index of the swept layer, or null when there is none (no `--fat`, no fat layer). */
 	readonly layerIndex: number | null;
 	/** Thicknesses of the swept layer, in row order ([the plan's own] when not swept; [] when no layer). */
@@ -401,7 +403,7 @@ export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'rece
 /** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
 export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
 	const doc = variantDoc(sweep, spot.combo, spot.layerCm);
-	const plan = resolvePlan(doc);
+	const plan = resolvePlan(doc, sweep.scanner);
 	const r = computeCurve(plan, {stepCm: sweep.stepCm});
 	const targetCm = targetDepthOf(doc, plan);
 	const key = ladderKey(plan, targetCm);
@@ -447,7 +449,7 @@ export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues,
 			return variantDoc(sweep, combo, layerCm);
 		},
 		get plan() {
-			return resolvePlan(variantDoc(sweep, combo, layerCm));
+			return resolvePlan(variantDoc(sweep, combo, layerCm), sweep.scanner);
 		},
 		...values,
 		...(sweep.delta ? {delta: settingsDelta({slidersDb: values.slidersDb, masterGainDb: values.masterGainDb}, reference)} : {}),
@@ -456,7 +458,7 @@ export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues,
 
 /** The standard habitus: the input plan fitted as it is. */
 export function referenceFitOf(sweep: ResolvedSweep): SliderFit {
-	return computeCurve(resolvePlan(sweep.doc), {stepCm: sweep.stepCm}).fit;
+	return computeCurve(resolvePlan(sweep.doc, sweep.scanner), {stepCm: sweep.stepCm}).fit;
 }
 
 /** The table around its rows. */

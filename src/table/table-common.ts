@@ -51,6 +51,7 @@ export const warningLegend: Record<WarningCode, string> = {
 	'thick-body-wall': 'over 3 cm of fat under the skin: depth and reach change, the slider shape barely does; gain cannot fix body-wall clutter',
 	'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
 	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
+	'scanner-profile': 'the scanner\'s depth gain was measured from phantom images (a scanner profile) and replaces the assumed ramp',
 };
 
 /** Distinct warning codes in a table, in the legend's order. */

@@ -9,14 +9,14 @@ import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 
 const layers: readonly (readonly string[])[] = [
 	['errors'],
-	['engine', 'files', 'image'],
-	['plan', 'analysis', 'simulate'],
-	['report'],
+	['engine', 'files'],
+	['plan', 'analysis', 'simulate', 'calibration'],
+	['report', 'image'],
 	['table', 'store'],
 	['ui/kit'],
 	['ui/state', 'ui/picture'],
 	['ui/frame', 'ui/plot'],
-	['ui/steps', 'ui/sweep'],
+	['ui/steps', 'ui/sweep', 'ui/scanner'],
 	['ui/effects'],
 	['ui'],
 	['cli'],

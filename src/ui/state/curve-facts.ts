@@ -36,6 +36,8 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 			return `i oblique beam: targets drawn sideways (refraction)`;
 		case 'budget-receive-mismatch':
 			return `! noise budget is for ${r.plan.noiseBudgetReceive ?? 'fundamental'}, not this receive mode`;
+		case 'scanner-profile':
+			return `i depth gain measured: ${r.plan.scanner?.label ?? 'scanner profile'}`;
 	}
 }
 

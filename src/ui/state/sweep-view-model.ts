@@ -28,6 +28,7 @@ export const shortCodes: Record<WarningCode, {readonly code: string; readonly me
 	'budget-receive-mismatch': {code: '!budget', means: 'noise budget measured in another receive mode'},
 	'thick-body-wall': {code: 'i wall', means: 'thick fat: reach changes, wall clutter stays'},
 	'refraction-shift': {code: 'i refract', means: 'an oblique beam draws deep targets sideways'},
+	'scanner-profile': {code: 'i measured', means: 'depth gain measured on this scanner'},
 };
 
 export type ColumnKind = 'slider' | 'master-delta' | 'master' | 'fit' | 'floor' | 'fmax' | 'warnings';
