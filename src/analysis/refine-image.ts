@@ -60,6 +60,8 @@ export interface RefineRequest {
 	readonly levelMap?: LevelMap;
 	/** The scanner's own depth gain; default: the plan's assumed ramp. */
 	readonly ownGain?: OwnDepthGain;
+	/** dB that one slider's full travel adds (a scanner profile's slider travel), to state changes in travel. */
+	readonly sliderTravelDb?: number | null;
 	/** Dynamic range assumed without a profile, dB. @default 60 */
 	readonly dynamicRangeDb?: number;
 }
@@ -125,11 +127,21 @@ export interface RefineResult {
 	/** The plan with the measured attenuation, and its curve (sliders and master to set). */
 	readonly refinedPlan: EnginePlan;
 	readonly refinedCurve: CurveResult;
-	readonly sliders: readonly {depthCm: number; gainDb: number; correctionDb: number}[];
+	readonly sliders: readonly RefinedSlider[];
 	readonly masterGainDb: number;
 	readonly masterCorrectionDb: number;
 	readonly uncalibrated: UncalibratedCost | null;
 	readonly warnings: readonly RefineWarning[];
+}
+
+export interface RefinedSlider {
+	readonly depthCm: number;
+	/** The slider to set, dB. */
+	readonly gainDb: number;
+	/** Change from the settings the image was taken with, dB. */
+	readonly correctionDb: number;
+	/** The change as a fraction of the slider's full travel, with a profile; null without. */
+	readonly correctionTravel: number | null;
 }
 
 export type RefineOutcome = RefineResult | {readonly ok: false; readonly problem: string};
@@ -343,7 +355,11 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const refinedPlan = attenuation ? withLayerAlpha(plan, layerIndex, attenuation.alphaDbPerCmMhz) : plan;
 	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planCurve;
 	const refinedSettings = settingsOfFit(refinedCurve.fit);
-	const sliders = refinedCurve.fit.sliders.map((s, k) => ({depthCm: s.depthCm, gainDb: s.gainDb, correctionDb: s.gainDb - (applied.slidersDb[k] ?? 0)}));
+	const travel = req.sliderTravelDb && req.sliderTravelDb > 0 ? req.sliderTravelDb : null;
+	const sliders: RefinedSlider[] = refinedCurve.fit.sliders.map((s, k) => {
+		const correctionDb = s.gainDb - (applied.slidersDb[k] ?? 0);
+		return {depthCm: s.depthCm, gainDb: s.gainDb, correctionDb, correctionTravel: travel ? correctionDb / travel : null};
+	});
 
 	const bands: RefinedBand[] = ev.bands.map((d) => {
 		const change = meanOver(d.samples, (z) => deliveredGainDb(plan, refinedSettings, own, z) - deliveredGainDb(plan, applied, own, z));
