@@ -13,6 +13,7 @@ import {abdomenPlanJson} from '../helpers/abdomen-plan.js';
 import {scenarioCase, scenarioFrame, scenarioPlan} from '../helpers/refine-scenario.js';
 import {speckleFrame} from '../helpers/speckle-frame.js';
 import {runCli} from '../helpers/run-cli.js';
+import {writeDicom} from '../helpers/dicom-fixture.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'evenecho-refine-'));
 const planPath = join(dir, 'plan.json');
@@ -99,6 +100,56 @@ describe('refine on a PNG still', () => {
 		expect(again.stderr).toMatch(/exists; not replaced/);
 		expect(readFileSync(out, 'utf8')).toBe(before);
 		expect(runCli(['refine', png, '--plan', planPath, ...scale, '--write-plan', out, '--force']).status).toBe(0);
+	});
+});
+
+/** The frame inside a bordered picture with burned-in marks, as scanners export it; the region says where. */
+function dicomOf(k: number, options: {rgb?: boolean; deltaY?: number} = {}): string {
+	const {frame} = scenarioFrame(plan, k);
+	const margin = 20;
+	const W = frame.width + 2 * margin;
+	const H = frame.height + 2 * margin;
+	const grey = new Uint8Array(W * H).fill(8);
+	for (let x = 0; x < W; x += 3) grey[5 * W + x] = 235; // burned-in text line
+	for (let y = 0; y < frame.height; y++) for (let x = 0; x < frame.width; x++) grey[(y + margin) * W + x + margin] = frame.grey[y * frame.width + x]!;
+	let pixels: Uint8Array = grey;
+	if (options.rgb) {
+		pixels = new Uint8Array(W * H * 3);
+		for (let i = 0; i < W * H; i++) pixels.set([grey[i]!, grey[i]!, grey[i]!], 3 * i);
+		// A yellow caliper mark inside the measured columns: colour, so masked, not measured.
+		for (let x = 0; x < 30; x++) pixels.set([230, 220, 20], 3 * ((margin + 150) * W + margin + 90 + x));
+	}
+	const bytes = writeDicom({
+		rows: H,
+		columns: W,
+		photometric: options.rgb ? 'RGB' : 'MONOCHROME2',
+		samples: options.rgb ? 3 : 1,
+		pixels,
+		regions: [{minX0: margin, minY0: margin, maxX1: margin + frame.width - 1, maxY1: margin + frame.height - 1, deltaY: options.deltaY ?? 0.05}],
+	});
+	const path = join(dir, `case${k}${options.rgb ? '-rgb' : ''}${options.deltaY ? '-scaled' : ''}.dcm`);
+	writeFileSync(path, bytes);
+	return path;
+}
+
+describe('refine on a DICOM still with an ultrasound region', () => {
+	it('MONOCHROME2 and RGB (with a colour mark in the measured columns) both hold the true α0', () => {
+		const truth = scenarioCase(5).alpha;
+		for (const rgb of [false, true]) {
+			const r = runCli(['refine', dicomOf(5, {rgb}), '--plan', planPath, '--format', 'json']);
+			expect(r.stderr).toBe('');
+			const j = JSON.parse(r.stdout);
+			expect(j.depthScale).toBe('the DICOM ultrasound region');
+			expect(j.attenuation.low).toBeLessThanOrEqual(truth);
+			expect(j.attenuation.high).toBeGreaterThanOrEqual(truth);
+			expect(Math.abs(j.attenuation.alphaDbPerCmMhz - truth)).toBeLessThan(0.08);
+		}
+	});
+
+	it('a region whose depth scale disagrees with the plan is refused', () => {
+		const r = runCli(['refine', dicomOf(5, {deltaY: 0.04}), '--plan', planPath]);
+		expect(r.status).toBe(2);
+		expect(r.stderr).toMatch(/12\.8 cm of depth but the plan's display depth is 16 cm/);
 	});
 });
 
