@@ -34,31 +34,14 @@ interface RefineOptions {
 	force?: boolean;
 }
 
-/** The plan document with the measured attenuation (its interval as the spread) for that layer. */
-export function planWithMeasuredLayer(doc: PlanDocument, r: RefineResult, imageName: string): PlanDocument {
+/** The plan document with the measured attenuation (and its 95 % interval) on that layer. */
+export function planWithMeasuredLayer(doc: PlanDocument, r: RefineResult): PlanDocument {
 	const a = r.attenuation;
 	if (!a) return doc;
-	const t = r.refinedPlan.layers[a.layerIndex]!.tissue;
-	const label = `${t.label.replace(/ \(measured\)$/, '').slice(0, 49)} (measured)`;
 	const round = (x: number) => Math.round(x * 1000) / 1000;
 	const alpha = round(a.alphaDbPerCmMhz);
-	const layers = doc.layers.map((l, i) =>
-		i === a.layerIndex
-			? {
-					...l,
-					tissue: {
-						label,
-						speedMps: t.speedMps,
-						densityKgM3: t.densityKgM3,
-						alphaDbPerCmMhz: alpha,
-						exponent: t.exponent,
-						source: `α0 measured by evenecho refine from ${imageName.slice(-120)} (95 % interval as spread); other values: ${(t.source ?? 'custom').slice(0, 100)}`,
-						spread: {alphaDbPerCmMhz: [Math.min(alpha, round(a.low)), Math.max(alpha, round(a.high))] as [number, number]},
-					},
-				}
-			: l,
-	);
-	return {...doc, format: planFormat, layers};
+	const measuredAlpha = {alphaDbPerCmMhz: alpha, lowDbPerCmMhz: Math.min(alpha, round(a.low)), highDbPerCmMhz: Math.max(alpha, round(a.high))};
+	return {...doc, format: planFormat, layers: doc.layers.map((l, i) => (i === a.layerIndex ? {...l, measuredAlpha} : l))};
 }
 
 async function confirmReplace(path: string): Promise<boolean> {
@@ -148,7 +131,7 @@ export function registerRefineCommand(program: Command): void {
 					replace = opts.force === true || (await confirmReplace(target));
 					if (!replace) throw new UsageError(`--write-plan: ${printable(target)} exists; not replaced (answer y when asked, or add --force)`);
 				}
-				const written = planWithMeasuredLayer(doc, outcome, imagePath);
+				const written = planWithMeasuredLayer(doc, outcome);
 				try {
 					writeFileAtomic(target, JSON.stringify(written, null, 2) + '\n', {replace});
 				} catch (error) {

@@ -79,16 +79,17 @@ describe('refine on a PNG still', () => {
 		expect(b.attenuation.alphaDbPerCmMhz).toBeCloseTo(a.attenuation.alphaDbPerCmMhz, 2);
 	});
 
-	it('--write-plan writes the plan with the measured α0 and its interval as spread, and refuses to replace unasked', () => {
+	it('--write-plan writes the plan with the measured α0 and its interval, and refuses to replace unasked', () => {
 		const out = join(dir, 'refined.json');
 		const r = runCli(['refine', png, '--plan', planPath, ...scale, '--write-plan', out, '--format', 'json']);
 		expect(r.status).toBe(0);
 		const written = JSON.parse(readFileSync(out, 'utf8'));
 		const j = JSON.parse(r.stdout);
-		const liver = written.layers[3].tissue;
-		expect(liver.alphaDbPerCmMhz).toBeCloseTo(j.attenuation.alphaDbPerCmMhz, 3);
-		expect(liver.spread.alphaDbPerCmMhz[0]).toBeCloseTo(j.attenuation.low, 3);
-		expect(liver.label).toMatch(/\(measured\)$/);
+		const liver = written.layers[3];
+		expect(liver.tissue).toBe('liver');
+		expect(liver.measuredAlpha.alphaDbPerCmMhz).toBeCloseTo(j.attenuation.alphaDbPerCmMhz, 3);
+		expect(liver.measuredAlpha.lowDbPerCmMhz).toBeCloseTo(j.attenuation.low, 3);
+		expect(liver.measuredAlpha.highDbPerCmMhz).toBeCloseTo(j.attenuation.high, 3);
 		// The written plan is a valid plan whose fit equals the refined sliders.
 		const curve = runCli(['curve', out, '--format', 'json']);
 		expect(curve.status).toBe(0);

@@ -1,9 +1,7 @@
 /** The settings file of `refine --applied`, checked against the plan's slider bank and master range. */
 import {describe, expect, it} from 'vitest';
 import {parseAppliedSettings} from '../../src/plan/applied-settings.js';
-import {parsePlanDocument} from '../../src/plan/plan-schema.js';
 import {scenarioPlan} from '../helpers/refine-scenario.js';
-import {abdomenPlanJson} from '../helpers/abdomen-plan.js';
 
 const plan = scenarioPlan();
 
@@ -27,19 +25,5 @@ describe('applied settings', () => {
 		const u = parseAppliedSettings({sliders: [0, 0, 0, 0, 0, 0, 0, 0], masterGainDb: 30, gain: 1}, plan);
 		expect(u.ok).toBe(false);
 		if (!u.ok) expect(u.errors[0]).toMatch(/unknown field "gain"/);
-	});
-});
-
-describe('a measured tissue in a plan', () => {
-	const measured = {label: 'Liver (measured)', speedMps: 1578, densityKgM3: 1060, alphaDbPerCmMhz: 0.72, exponent: 1.1};
-	const withLiver = (tissue: object) => abdomenPlanJson({layers: [{tissue: 'fat', thicknessCm: 2}, {tissue, thicknessCm: 20}]});
-
-	it('may carry its interval as the attenuation spread', () => {
-		expect(parsePlanDocument(withLiver({...measured, spread: {alphaDbPerCmMhz: [0.66, 0.78]}})).ok).toBe(true);
-	});
-	it('refuses a spread that does not hold the value', () => {
-		const r = parsePlanDocument(withLiver({...measured, spread: {alphaDbPerCmMhz: [0.2, 0.4]}}));
-		expect(r.ok).toBe(false);
-		if (!r.ok) expect(r.errors.join('\n')).toMatch(/spread\.alphaDbPerCmMhz: alphaDbPerCmMhz must lie within/);
 	});
 });
