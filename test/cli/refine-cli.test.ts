@@ -147,6 +147,30 @@ describe('refine on a DICOM still with an ultrasound region', () => {
 		}
 	});
 
+	it('--frame picks one frame of a multi-frame file; a frame that is not there is refused', () => {
+		const {frame} = scenarioFrame(plan, 6);
+		const applied = settingsOfFit(computeCurve(plan).fit);
+		const noise = speckleFrame({plan, truth: plan, applied, seed: 12, anechoic: true}).frame;
+		const pixels = new Uint8Array(2 * frame.width * frame.height);
+		pixels.set(noise.grey as Uint8Array, 0);
+		pixels.set(frame.grey as Uint8Array, frame.width * frame.height);
+		const path = join(dir, 'two-frames.dcm');
+		writeFileSync(
+			path,
+			writeDicom({rows: frame.height, columns: frame.width, frames: 2, pixels, regions: [{minX0: 0, minY0: 0, maxX1: frame.width - 1, maxY1: frame.height - 1, deltaY: 0.05}]}),
+		);
+		const second = runCli(['refine', path, '--plan', planPath, '--frame', '2', '--format', 'json']);
+		expect(second.stderr).toBe('');
+		expect(JSON.parse(second.stdout).frame).toBe(2);
+		expect(JSON.parse(second.stdout).attenuation).not.toBeNull();
+		const first = runCli(['refine', path, '--plan', planPath, '--frame', '1']);
+		expect(first.status).toBe(2);
+		expect(first.stderr).toMatch(/no tissue/);
+		const third = runCli(['refine', path, '--plan', planPath, '--frame', '3']);
+		expect(third.status).toBe(2);
+		expect(third.stderr).toMatch(/frame/i);
+	});
+
 	it('a region whose depth scale disagrees with the plan is refused', () => {
 		const r = runCli(['refine', dicomOf(5, {deltaY: 0.04}), '--plan', planPath]);
 		expect(r.status).toBe(2);
