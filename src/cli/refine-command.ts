@@ -19,7 +19,7 @@ import {planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {refineJson, refineText} from '../report/refine-report.js';
 import {numberOption} from './option-values.js';
 import {readJsonFile, readPlanFile} from './read-plan-file.js';
-import {UsageError} from './usage-error.js';
+import {UsageError} from '../errors/usage-error.js';
 
 interface RefineOptions {
 	plan: string;

@@ -9,7 +9,7 @@ import {encode} from 'fast-png';
 import {describe, expect, it} from 'vitest';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {settingsOfFit} from '../../src/analysis/applied-gain.js';
-import {abdomenPlanJson} from '../helpers/abdomen-plan.js';
+import {abdomenPlanJson} from '../helpers/plans.js';
 import {scenarioCase, scenarioFrame, scenarioPlan} from '../helpers/refine-scenario.js';
 import {speckleFrame} from '../helpers/speckle-frame.js';
 import {runCli} from '../helpers/run-cli.js';
