@@ -18,7 +18,7 @@ import {parseAppliedSettings} from '../plan/applied-settings.js';
 import {planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {refineJson, refineText} from '../report/refine-report.js';
 import {numberOption} from './option-values.js';
-import {readJsonFile, readPlanFile} from './read-plan-file.js';
+import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
 
 interface RefineOptions {
@@ -86,7 +86,7 @@ export function registerRefineCommand(program: Command): void {
 			const frameNumber = opts.frame === undefined ? undefined : numberOption('frame', opts.frame, {min: 1, max: 10000}, '');
 			if (frameNumber !== undefined && !Number.isInteger(frameNumber)) throw new UsageError('--frame: must be a whole number from 1');
 
-			const {doc, plan} = readPlanFile(opts.plan);
+			const {doc, plan} = await readPlanFile(opts.plan);
 			let layerIndex: number | undefined;
 			if (opts.layer !== undefined) {
 				const n = numberOption('layer', opts.layer, {min: 1, max: plan.layers.length}, '');
@@ -95,7 +95,7 @@ export function registerRefineCommand(program: Command): void {
 			}
 			let applied: {slidersDb: number[]; masterGainDb: number} | undefined;
 			if (opts.applied !== undefined) {
-				const s = parseAppliedSettings(readJsonFile(opts.applied, 'settings file'), plan);
+				const s = parseAppliedSettings(await readJsonInputOrRefuse(opts.applied, 'settings file'), plan);
 				if (!s.ok) throw new UsageError(`${printable(opts.applied)}: not valid settings for this plan`, s.errors);
 				applied = {slidersDb: [...s.value.sliders], masterGainDb: s.value.masterGainDb};
 			}
