@@ -64,7 +64,7 @@ function profiled(r: readonly number[], m: readonly number[], w: readonly number
 }
 
 /** Fits α′ of `layerIndex`; needs at least three bands. */
-export function fitLayerAttenuation(plan: EnginePlan, layerIndex: number, bands: readonly FitBand[]): AttenuationEstimate {
+export function fitLayerAttenuation(plan: EnginePlan, layerIndex: number, bands: readonly FitBand[], start?: number): AttenuationEstimate {
 	const planAlpha = plan.layers[layerIndex]!.tissue.alphaDbPerCmMhz;
 	const maxAlpha = Math.max(3, 6 * planAlpha);
 	const base = bandLosses(plan, layerIndex, planAlpha, bands);
@@ -77,7 +77,7 @@ export function fitLayerAttenuation(plan: EnginePlan, layerIndex: number, bands:
 	// Gauss–Newton on α′ with the offset projected out: the model is nearly linear in α′, so a few
 	// steps converge (the broadband curvature is what the iteration is for; shared notes C39).
 	const h = 1e-3;
-	let alpha = planAlpha;
+	let alpha = start ?? planAlpha;
 	let m = model(alpha);
 	let jac: number[] = [];
 	let info = 0;

@@ -60,6 +60,8 @@ export interface RefineRequest {
 	readonly levelMap?: LevelMap;
 	/** The scanner's own depth gain; default: the plan's assumed ramp. */
 	readonly ownGain?: OwnDepthGain;
+	/** dB that one slider's full travel adds (a scanner profile's slider travel), to state changes in travel. */
+	readonly sliderTravelDb?: number | null;
 	/** Dynamic range assumed without a profile, dB. @default 60 */
 	readonly dynamicRangeDb?: number;
 }
@@ -125,11 +127,21 @@ export interface RefineResult {
 	/** The plan with the measured attenuation, and its curve (sliders and master to set). */
 	readonly refinedPlan: EnginePlan;
 	readonly refinedCurve: CurveResult;
-	readonly sliders: readonly {depthCm: number; gainDb: number; correctionDb: number}[];
+	readonly sliders: readonly RefinedSlider[];
 	readonly masterGainDb: number;
 	readonly masterCorrectionDb: number;
 	readonly uncalibrated: UncalibratedCost | null;
 	readonly warnings: readonly RefineWarning[];
+}
+
+export interface RefinedSlider {
+	readonly depthCm: number;
+	/** The slider to set, dB. */
+	readonly gainDb: number;
+	/** Change from the settings the image was taken with, dB. */
+	readonly correctionDb: number;
+	/** The change as a fraction of the slider's full travel, with a profile; null without. */
+	readonly correctionTravel: number | null;
 }
 
 export type RefineOutcome = RefineResult | {readonly ok: false; readonly problem: string};
@@ -283,16 +295,19 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const dynamicRangeDb = req.dynamicRangeDb ?? 60;
 	const map = req.levelMap ?? logLevelMap(dynamicRangeDb);
 	const own = req.ownGain ?? assumedRamp;
-	const planCurve = computeCurve(plan);
-	const applied = req.applied ?? settingsOfFit(planCurve.fit);
+	let planCurve: CurveResult | undefined;
+	const planFit = () => (planCurve ??= computeCurve(plan));
+	const applied = req.applied ?? settingsOfFit(planFit().fit);
 
 	const mismatch = depthMismatch(plan, region);
 	if (mismatch) return {ok: false, problem: mismatch};
 
-	// Speckle cell size (median over the bands, so depth trends and structures do not inflate it)
+	// Speckle cell size (median over a few bands spread over the depth, so depth trends and structures do not inflate it)
 	// sets the mask's block size.
 	const valid = frame.valid ?? new Uint8Array(frame.width * frame.height).fill(1);
-	const areas = bandRows(region).map(
+	const allBands = bandRows(region);
+	const sampled = allBands.filter((_, i) => i % Math.max(1, Math.ceil(allBands.length / 5)) === 0);
+	const areas = sampled.map(
 		(b) => windowStatistics({grey: frame.grey, use: valid, width: frame.width, rows: b.rows, columns: region.columns}).cellAreaPx,
 	);
 	const cellAreaPx = areas.length ? median(areas) : 1;
@@ -341,9 +356,13 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		: null;
 
 	const refinedPlan = attenuation ? withLayerAlpha(plan, layerIndex, attenuation.alphaDbPerCmMhz) : plan;
-	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planCurve;
+	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planFit();
 	const refinedSettings = settingsOfFit(refinedCurve.fit);
-	const sliders = refinedCurve.fit.sliders.map((s, k) => ({depthCm: s.depthCm, gainDb: s.gainDb, correctionDb: s.gainDb - (applied.slidersDb[k] ?? 0)}));
+	const travel = req.sliderTravelDb && req.sliderTravelDb > 0 ? req.sliderTravelDb : null;
+	const sliders: RefinedSlider[] = refinedCurve.fit.sliders.map((s, k) => {
+		const correctionDb = s.gainDb - (applied.slidersDb[k] ?? 0);
+		return {depthCm: s.depthCm, gainDb: s.gainDb, correctionDb, correctionTravel: travel ? correctionDb / travel : null};
+	});
 
 	const bands: RefinedBand[] = ev.bands.map((d) => {
 		const change = meanOver(d.samples, (z) => deliveredGainDb(plan, refinedSettings, own, z) - deliveredGainDb(plan, applied, own, z));
@@ -392,7 +411,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 
 	let uncalibrated: UncalibratedCost | null = null;
 	if (!map.calibrated) {
-		uncalibrated = uncalibratedCost(req, ev, layerIndex, applied, own, measured, dynamicRangeDb, attenuation !== null);
+		uncalibrated = uncalibratedCost(req, layerIndex, applied, own, measured, dynamicRangeDb, attenuation?.alphaDbPerCmMhz ?? null);
 		const fmt = (r: readonly [number, number] | null) => (r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable');
 		warnings.unshift({
 			code: 'uncalibrated',
@@ -424,15 +443,14 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 /** Re-runs the fit with the dynamic range ±10 dB and the ramp ±0.1 dB/cm/MHz. */
 function uncalibratedCost(
 	req: RefineRequest,
-	_ev: Evaluated,
 	layerIndex: number,
 	applied: AppliedSettings,
 	own: OwnDepthGain,
 	measured: readonly BandMeasurement[],
 	dynamicRangeDb: number,
-	measurable: boolean,
+	measuredAlpha: number | null,
 ): UncalibratedCost {
-	if (!measurable) return {dynamicRangeDb, alphaAtRange: null, alphaAtRamp: null};
+	if (measuredAlpha === null) return {dynamicRangeDb, alphaAtRange: null, alphaAtRamp: null};
 	const {plan} = req;
 	const alphaWith = (range: number, rampShift: number): number => {
 		const map = logLevelMap(range);
@@ -441,7 +459,7 @@ function uncalibratedCost(
 		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
 		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf);
 		const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);
-		return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands).alphaDbPerCmMhz : Number.NaN;
+		return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands, measuredAlpha).alphaDbPerCmMhz : Number.NaN;
 	};
 	const pair = (a: number, b: number): readonly [number, number] | null =>
 		Number.isFinite(a) && Number.isFinite(b) ? [Math.min(a, b), Math.max(a, b)] : null;

@@ -110,23 +110,20 @@ export function maskNonSpeckle(frame: GreyFrame, region: MeasuredRegion, map: Le
 		blocks.push(line);
 	}
 
-	// Neighbourhood medians of level and SD, over blocks within ±1 cm of depth.
+	// Neighbourhood medians of level and SD: the median of the block rows' own medians within ±1 cm
+	// of depth (a structure filling part of a few rows does not move it).
 	const reach = Math.max(0, Math.round(maskThresholds.neighbourhoodCm / region.cmPerPixel / side));
-	const refLevel: number[] = [];
-	const refSd: number[] = [];
-	for (let i = 0; i < nRows; i++) {
-		const levels: number[] = [];
-		const sds: number[] = [];
-		for (let k = Math.max(0, i - reach); k <= Math.min(nRows - 1, i + reach); k++) {
-			for (const b of blocks[k]!) {
-				if (b.reason !== 'speckle') continue;
-				levels.push(b.level);
-				sds.push(b.sdDb);
-			}
-		}
-		refLevel.push(median(levels));
-		refSd.push(median(sds));
+	const rowLevel: number[] = [];
+	const rowSd: number[] = [];
+	for (const line of blocks) {
+		const speckle = line.filter((b) => b.reason === 'speckle');
+		rowLevel.push(median(speckle.map((b) => b.level)));
+		rowSd.push(median(speckle.map((b) => b.sdDb)));
 	}
+	const nearby = (values: number[], i: number) =>
+		median(values.slice(Math.max(0, i - reach), Math.min(nRows, i + reach + 1)).filter((v) => !Number.isNaN(v)));
+	const refLevel = blocks.map((_, i) => nearby(rowLevel, i));
+	const refSd = blocks.map((_, i) => nearby(rowSd, i));
 
 	for (let i = 0; i < nRows; i++) {
 		const ref = refLevel[i]!;

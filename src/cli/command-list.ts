@@ -34,6 +34,12 @@ export const commandList: readonly CommandEntry[] = [
 		register: async () => (await import('./presets-command.js')).registerPresetsCommand,
 	},
 	{
+		name: 'refine',
+		term: 'refine [options] <image>',
+		description: 'measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation',
+		register: async () => (await import('./refine-command.js')).registerRefineCommand,
+	},
+	{
 		name: 'table',
 		term: 'table [options] [plan]',
 		description:

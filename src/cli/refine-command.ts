@@ -1,0 +1,149 @@
+/**
+ * `evenecho refine IMAGE --plan PLAN`: measure one exported still of the patient, taken with known
+ * settings, against the plan; print the band levels, the slider and master corrections and the
+ * measured attenuation of one layer; optionally write the plan with that attenuation.
+ * Bad input: exit 2 naming the problem, nothing written.
+ */
+import {stdin, stdout} from 'node:process';
+import {createInterface} from 'node:readline/promises';
+import type {Command} from 'commander';
+import {frameFromImage} from '../analysis/frame-from-image.js';
+import {refineImage, type RefineResult} from '../analysis/refine-image.js';
+import {entryAt, writeFileAtomic} from '../files/atomic-write.js';
+import {FileRefusedError} from '../files/file-errors.js';
+import {printable} from '../files/printable.js';
+import {readImageFile} from '../image/read-image.js';
+import {ImageRefusal} from '../image/image-refusal.js';
+import {parseAppliedSettings} from '../plan/applied-settings.js';
+import {planFormat, type PlanDocument} from '../plan/plan-schema.js';
+import {refineJson, refineText} from '../report/refine-report.js';
+import {numberOption} from './option-values.js';
+import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
+import {UsageError} from '../errors/usage-error.js';
+
+interface RefineOptions {
+	plan: string;
+	applied?: string;
+	layer?: string;
+	frame?: string;
+	cmPerPixel?: string;
+	topCm?: string;
+	dynamicRange: string;
+	format: string;
+	writePlan?: string;
+	force?: boolean;
+}
+
+/** The plan document with the measured attenuation (and its 95 % interval) on that layer. */
+export function planWithMeasuredLayer(doc: PlanDocument, r: RefineResult): PlanDocument {
+	const a = r.attenuation;
+	if (!a) return doc;
+	const round = (x: number) => Math.round(x * 1000) / 1000;
+	const alpha = round(a.alphaDbPerCmMhz);
+	const measuredAlpha = {alphaDbPerCmMhz: alpha, lowDbPerCmMhz: Math.min(alpha, round(a.low)), highDbPerCmMhz: Math.max(alpha, round(a.high))};
+	return {...doc, format: planFormat, layers: doc.layers.map((l, i) => (i === a.layerIndex ? {...l, measuredAlpha} : l))};
+}
+
+async function confirmReplace(path: string): Promise<boolean> {
+	if (!stdin.isTTY || !stdout.isTTY) return false;
+	const rl = createInterface({input: stdin, output: process.stderr});
+	try {
+		const answer = await rl.question(`${printable(path)} exists. Replace it? [y/N] `);
+		return /^y(es)?$/i.test(answer.trim());
+	} finally {
+		rl.close();
+	}
+}
+
+export function registerRefineCommand(program: Command): void {
+	program
+		.command('refine')
+		.description('measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation')
+		.argument('<image>', 'DICOM still or PNG of the patient')
+		.requiredOption('--plan <plan>', 'the plan the image is compared with (JSON, or - for standard input)')
+		.option('--applied <settings>', 'SETTINGS.json: the sliders and master the image was taken with (default: the plan\'s own fit)')
+		.option('--layer <n>', 'layer whose attenuation is measured, 1 = under the skin (default: the deepest in the image)')
+		.option('--frame <k>', 'frame of a multi-frame DICOM, 1-based')
+		.option('--cm-per-pixel <cm>', 'depth scale for PNG (or a DICOM without ultrasound regions): cm per pixel')
+		.option('--top-cm <cm>', 'with --cm-per-pixel: displayed depth of the top edge of the first row, cm')
+		.option('--dynamic-range <dB>', 'without a scanner profile: the display\'s dynamic range assumed, dB', '60')
+		.option('--format <format>', 'text or json', 'text')
+		.option('--write-plan <file>', 'write the plan with the measured attenuation for that layer (asks before replacing)')
+		.option('--force', 'with --write-plan: replace an existing file without asking')
+		.action(async (imagePath: string, opts: RefineOptions) => {
+			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
+			const dynamicRangeDb = numberOption('dynamic-range', opts.dynamicRange, {min: 10, max: 120}, 'dB');
+			if ((opts.cmPerPixel === undefined) !== (opts.topCm === undefined)) {
+				throw new UsageError('--cm-per-pixel and --top-cm go together: give both or neither');
+			}
+			const pixelScale =
+				opts.cmPerPixel !== undefined && opts.topCm !== undefined
+					? {
+							cmPerPixel: numberOption('cm-per-pixel', opts.cmPerPixel, {min: 0.0001, max: 1}, 'cm'),
+							topRowCm: numberOption('top-cm', opts.topCm, {min: -10, max: 40}, 'cm'),
+						}
+					: undefined;
+			const frameNumber = opts.frame === undefined ? undefined : numberOption('frame', opts.frame, {min: 1, max: 10000}, '');
+			if (frameNumber !== undefined && !Number.isInteger(frameNumber)) throw new UsageError('--frame: must be a whole number from 1');
+
+			const {doc, plan} = await readPlanFile(opts.plan);
+			let layerIndex: number | undefined;
+			if (opts.layer !== undefined) {
+				const n = numberOption('layer', opts.layer, {min: 1, max: plan.layers.length}, '');
+				if (!Number.isInteger(n)) throw new UsageError(`--layer: must be a whole number from 1 to ${plan.layers.length}`);
+				layerIndex = n - 1;
+			}
+			let applied: {slidersDb: number[]; masterGainDb: number} | undefined;
+			if (opts.applied !== undefined) {
+				const s = parseAppliedSettings(await readJsonInputOrRefuse(opts.applied, 'settings file'), plan);
+				if (!s.ok) throw new UsageError(`${printable(opts.applied)}: not valid settings for this plan`, s.errors);
+				applied = {slidersDb: [...s.value.sliders], masterGainDb: s.value.masterGainDb};
+			}
+
+			let image;
+			try {
+				image = readImageFile(imagePath, {
+					...(frameNumber !== undefined ? {frame: frameNumber} : {}),
+					...(pixelScale ? {pixelScale} : {}),
+				});
+			} catch (error) {
+				if (error instanceof ImageRefusal || error instanceof FileRefusedError) throw new UsageError(error.message);
+				throw error;
+			}
+			const {frame, region, depthScale} = frameFromImage(image);
+			const outcome = refineImage({
+				frame,
+				region,
+				plan,
+				...(applied ? {applied} : {}),
+				...(layerIndex !== undefined ? {layerIndex} : {}),
+				dynamicRangeDb,
+			});
+			if (!outcome.ok) throw new UsageError(`${printable(imagePath)}: ${outcome.problem}`);
+
+			if (opts.writePlan !== undefined) {
+				if (!outcome.attenuation) {
+					throw new UsageError(`--write-plan: nothing measured to write (${outcome.cannotTell}); ${printable(opts.writePlan)} not written`);
+				}
+				const target = opts.writePlan;
+				let replace = false;
+				if (entryAt(target)) {
+					replace = opts.force === true || (await confirmReplace(target));
+					if (!replace) throw new UsageError(`--write-plan: ${printable(target)} exists; not replaced (answer y when asked, or add --force)`);
+				}
+				const written = planWithMeasuredLayer(doc, outcome);
+				try {
+					writeFileAtomic(target, JSON.stringify(written, null, 2) + '\n', {replace});
+				} catch (error) {
+					if (error instanceof FileRefusedError) throw new UsageError(`--write-plan: ${error.message}`);
+					throw error;
+				}
+			}
+			const source = {image: printable(imagePath), frame: frameNumber ?? null, plan: plan.name, depthScale};
+			if (opts.format === 'json') stdout.write(JSON.stringify(refineJson(outcome, source), null, 2) + '\n');
+			else {
+				stdout.write(refineText(outcome, source));
+				if (opts.writePlan !== undefined) stdout.write(`  Plan with the measured layer written to ${printable(opts.writePlan)}.\n`);
+			}
+		});
+}
