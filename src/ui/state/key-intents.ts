@@ -134,8 +134,8 @@ export const bindings: readonly Binding[] = [
 	{keys: 's', hint: 'save', help: 'save as a preset', section: 'The plan', modes: browsing, pick: is('s', 'save')},
 	{keys: 'e', hint: 'export', help: 'export plan or table', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('e', 'export')},
 	{keys: 'f', help: 'fat thickness sweep', section: 'The plan', modes: browsing, pick: is('f', 'sweep')},
-	{keys: 'p', help: 'picture of the plan / curve plot', section: 'The plan', modes: browsing, pick: is('p', 'picture')},
-	{keys: 'w', help: 'warnings in full', section: 'The plan', modes: browsing, pick: is('w', 'warnings')},
+	// One help line for both, so the overlay still fits 80×24 whole.
+	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep'], pick: is('?', 'help')},
 	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},
 ];
