@@ -198,7 +198,7 @@ describe('smaller rules', () => {
 	it('an unknown command is called that, with the list of commands', () => {
 		const top = runCli(['frobnicate']);
 		expect(top.status).toBe(2);
-		expect(top.stderr).toContain('unknown command "frobnicate"; the commands are: curve, ladder, presets, table');
+		expect(top.stderr).toContain('unknown command "frobnicate"; the commands are: curve, ladder, presets, refine, table, preview, simulate, scanner');
 		const sub = runCli(['presets', 'frobnicate']);
 		expect(sub.status).toBe(2);
 		expect(sub.stderr).toContain('unknown command "presets frobnicate"; the commands are: presets list, presets show');
