@@ -28,6 +28,7 @@ interface TableOptions {
 	fat?: string;
 	layer?: string;
 	freq?: string;
+	angle?: string;
 	receive?: string;
 	swap?: string[];
 	delta?: boolean;
@@ -53,7 +54,7 @@ function collect(value: string, previous: string[] | undefined): string[] {
 }
 
 const help = `
-Sweeps multiply: rows = --fat values × --freq values × receive modes × each --swap's tissues,
+Sweeps multiply: rows = --fat values × --freq values × --angle values × receive modes × each --swap's tissues,
 at most ${maxTableRows.toLocaleString('en-US')} rows. Values out of range, negative, repeated or not numbers are refused
 (exit code 2). The SVG chart draws one line per --fat value (at most ${maxSvgLines}) and one panel per
 frequency / receive mode / swapped tissue (at most ${maxSvgPanels}).
@@ -65,17 +66,19 @@ Output is deterministic: the same inputs give byte-identical output (no time sta
 Examples:
   evenecho table --preset upper-abdomen --fat 1,2,4,6,8 --freq 2.5,3.5,5
   evenecho table plan.json --fat 1,3,5 --receive both --delta --format csv > table.csv
+  evenecho table plan.json --fat 2,6 --angle 0,20,40
   evenecho table plan.json --fat 2,6 --swap 4=liver,spleen --format svg > curves.svg`;
 
 export function registerTableCommand(program: Command): void {
 	program
 		.command('table')
-		.description('default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, receive mode and tissue swaps')
+		.description('default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, beam angle, receive mode and tissue swaps')
 		.argument('[plan]', 'plan file (JSON, format evenecho-plan/1) or - for standard input; or use --preset')
 		.option('--preset <id>', 'a template or saved preset instead of a plan file: the id or name "evenecho presets list" shows')
 		.option('--fat <cm,...>', 'thicknesses of the subcutaneous layer, cm, each above 0 and up to 50: a list (1,2,4,6,8) or from:to:step (1:8:0.5)')
 		.option('--layer <n>', 'the layer --fat sets, 1 = just under the skin (default: the first layer of tissue "fat")')
 		.option('--freq <MHz,...>', 'probe centre frequencies, MHz, each above 0 and up to 50, as a list or from:to:step (default: the plan\'s)')
+		.option('--angle <deg,...>', 'beam angles from the layer normal, degrees, each from 0 to 80, as a list (0,15,30) or from:to:step (default: the plan\'s)')
 		.option('--receive <mode>', 'fundamental, tissue-harmonic (or harmonic), scatterer-harmonic (contrast agents) or both (fundamental and tissue-harmonic; default: the plan\'s)')
 		.option('--swap <n=tissues>', 'give layer n each tissue in turn: library tissue ids or PRESET:M (layer M of a preset), comma-separated; repeat for other layers', collect)
 		.option('--delta', 'show sliders and master gain as differences from the standard habitus (the plan as it is)')
@@ -125,6 +128,7 @@ export function registerTableCommand(program: Command): void {
 						...(opts.fat !== undefined ? {fat: opts.fat} : {}),
 						...(opts.layer !== undefined ? {layer: opts.layer} : {}),
 						...(opts.freq !== undefined ? {freq: opts.freq} : {}),
+						...(opts.angle !== undefined ? {angle: opts.angle} : {}),
 						...(opts.receive !== undefined ? {receive: opts.receive} : {}),
 						swap: opts.swap ?? [],
 						delta: opts.delta === true,

@@ -22,7 +22,7 @@ export function parseDecimal(text: string): number {
  */
 export function parseNumberList(option: string, text: string, limit: Limit, unit: string, maxLength = maxTableRows): number[] {
 	const range = describeRange(limit, unit);
-	const form = `a comma-separated list of numbers ${range} (e.g. ${option === 'fat' ? '1,2,4,6,8' : '2.5,3.5,5'}) or from:to:step`;
+	const form = `a comma-separated list of numbers ${range} (e.g. ${option === 'fat' ? '1,2,4,6,8' : option === 'angle' ? '0,15,30' : '2.5,3.5,5'}) or from:to:step`;
 	const trimmed = text.trim();
 	if (trimmed === '') throw new SweepError(option, `--${option}: no values given; expected ${form}`);
 	let values: number[];
@@ -123,6 +123,7 @@ export interface SweepText {
 	readonly fat?: string;
 	readonly layer?: string;
 	readonly freq?: string;
+	readonly angle?: string;
 	readonly receive?: string;
 	readonly swap?: readonly string[];
 	readonly delta?: boolean;
@@ -137,6 +138,7 @@ export function parseSweepText(t: SweepText, presetLayer?: PresetLayerLookup): S
 		...(t.fat !== undefined ? {fatCm: parseNumberList('fat', t.fat, limits.thicknessCm, 'cm')} : {}),
 		...(t.layer !== undefined ? {layer: parseLayerNumber('layer', t.layer)} : {}),
 		...(t.freq !== undefined ? {freqMhz: parseNumberList('freq', t.freq, limits.centerMhz, 'MHz')} : {}),
+		...(t.angle !== undefined ? {angleDeg: parseNumberList('angle', t.angle, limits.angleDeg, '°')} : {}),
 		...(t.receive !== undefined ? {receive: parseReceive(t.receive)} : {}),
 		...(t.swap?.length ? {swaps: t.swap.map((s) => parseSwap(s, presetLayer))} : {}),
 		...(t.delta ? {delta: true} : {}),

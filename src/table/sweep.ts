@@ -57,6 +57,8 @@ export interface SweepSpec {
 	readonly layer?: number;
 	/** Probe centre frequencies, MHz; default the plan's own. */
 	readonly freqMhz?: readonly number[];
+	/** Beam angles from the layer normal, degrees; default the plan's own. */
+	readonly angleDeg?: readonly number[];
 	/** Receive modes; default the plan's own. */
 	readonly receive?: readonly ReceiveMode[];
 	/** Tissue swaps, each an axis of its own. */
@@ -98,6 +100,9 @@ export interface ResolvedSweep {
 	readonly fatSwept: boolean;
 	readonly freqMhz: readonly number[];
 	readonly freqSwept: boolean;
+	/** Beam angles, degrees ([the plan's own] when not swept). */
+	readonly angleDeg: readonly number[];
+	readonly angleSwept: boolean;
 	readonly receive: readonly ReceiveMode[];
 	readonly swaps: readonly ResolvedSwap[];
 	readonly delta: boolean;
@@ -131,6 +136,8 @@ export interface TableRow {
 	/** Thickness of the swept layer, cm; null when there is no swept layer. */
 	readonly layerCm: number | null;
 	readonly centerMhz: number;
+	/** Beam angle from the layer normal, degrees. */
+	readonly angleDeg: number;
 	readonly receive: ReceiveMode;
 	/** Label of the tissue in each swap axis (same order as `sweep.swaps`). */
 	readonly swapLabels: readonly string[];
@@ -256,6 +263,10 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	if (freqSwept) checkNumberList('freq', spec.freqMhz!, limits.centerMhz, 'MHz');
 	const freqMhz = freqSwept ? [...spec.freqMhz!] : [doc.probe.centerMhz];
 
+	const angleSwept = spec.angleDeg !== undefined;
+	if (angleSwept) checkNumberList('angle', spec.angleDeg!, limits.angleDeg, '°');
+	const angleDeg = angleSwept ? [...spec.angleDeg!] : [doc.probe.angleDeg ?? 0];
+
 	let receive: ReceiveMode[];
 	if (spec.receive !== undefined) {
 		if (spec.receive.length === 0 || spec.receive.some((r) => !receiveModes.includes(r))) {
@@ -304,12 +315,13 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	const stepCm = spec.stepCm ?? 0.1;
 	if (!(Number.isFinite(stepCm) && stepCm >= 0.01 && stepCm <= 5)) throw new SweepError('step', `--step: must be a number from 0.01 to 5 cm (got ${show(stepCm)})`);
 
-	const parts = [Math.max(1, fatCm.length), freqMhz.length, receive.length, ...swaps.map((s) => s.choices.length)];
+	const parts = [Math.max(1, fatCm.length), freqMhz.length, angleDeg.length, receive.length, ...swaps.map((s) => s.choices.length)];
 	const rowCount = combinationCount(parts);
 	if (rowCount > maxTableRows) {
 		const named = [
 			`${fatCm.length} --fat`,
 			`${freqMhz.length} --freq`,
+			...(angleSwept ? [`${angleDeg.length} --angle`] : []),
 			`${receive.length} --receive`,
 			...swaps.map((s) => `${s.choices.length} --swap ${s.layer}`),
 		].join(' × ');
@@ -323,6 +335,8 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 		fatSwept,
 		freqMhz,
 		freqSwept,
+		angleDeg,
+		angleSwept,
 		receive,
 		swaps,
 		delta: spec.delta ?? false,
@@ -348,6 +362,7 @@ export function sweepSize(doc: PlanDocument, spec: SweepSpec = {}): number {
 
 export interface Combination {
 	readonly centerMhz: number;
+	readonly angleDeg: number;
 	readonly receive: ReceiveMode;
 	/** Index into each swap axis' choices. */
 	readonly swapPicks: readonly number[];
@@ -356,13 +371,15 @@ export interface Combination {
 function* combinations(sweep: ResolvedSweep): Generator<Combination> {
 	const picks = sweep.swaps.map(() => 0);
 	for (const centerMhz of sweep.freqMhz) {
-		for (const receive of sweep.receive) {
-			picks.fill(0);
-			for (;;) {
-				yield {centerMhz, receive, swapPicks: [...picks]};
-				let k = picks.length - 1;
-				while (k >= 0 && ++picks[k]! >= sweep.swaps[k]!.choices.length) picks[k--] = 0;
-				if (k < 0) break;
+		for (const angleDeg of sweep.angleDeg) {
+			for (const receive of sweep.receive) {
+				picks.fill(0);
+				for (;;) {
+					yield {centerMhz, angleDeg, receive, swapPicks: [...picks]};
+					let k = picks.length - 1;
+					while (k >= 0 && ++picks[k]! >= sweep.swaps[k]!.choices.length) picks[k--] = 0;
+					if (k < 0) break;
+				}
 			}
 		}
 	}
@@ -396,7 +413,7 @@ export function rowsPerFrequency(sweep: ResolvedSweep): number {
 export type LadderCache = Map<string, {readonly mhz: number | null; readonly penetrationCm: number | null}>;
 
 /** What the engine gives for one row (plain data, so a worker thread can send it back). */
-export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'>;
+export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'angleDeg' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'>;
 
 /** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
 export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
@@ -441,6 +458,7 @@ export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues,
 		index: spot.index,
 		layerCm,
 		centerMhz: combo.centerMhz,
+		angleDeg: combo.angleDeg,
 		receive: combo.receive,
 		swapLabels: sweep.swaps.map((s, k) => s.choices[combo.swapPicks[k]!]!.record.label),
 		get doc() {
@@ -487,12 +505,14 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 		if (i === sweep.layerIndex && layerCm !== null && layerCm !== l.thicknessCm) out = {...out, thicknessCm: layerCm};
 		return out;
 	});
-	return {...doc, layers, probe: {...doc.probe, centerMhz: combo.centerMhz, receive: combo.receive}};
+	// An unswept angle of 0 stays absent, so a plan without one keeps its exact document.
+	const angle = sweep.angleSwept || doc.probe.angleDeg !== undefined ? {angleDeg: combo.angleDeg} : {};
+	return {...doc, layers, probe: {...doc.probe, centerMhz: combo.centerMhz, ...angle, receive: combo.receive}};
 }
 
 /** Everything the ladder depends on except the frequency. */
 export function ladderKey(plan: EnginePlan, targetCm: number): string {
-	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.receive, plan.probe.bandwidthFraction, plan.probe.spectrumSteepness, plan.noiseBudgetDb]);
+	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.receive, plan.probe.bandwidthFraction, plan.probe.spectrumSteepness, plan.probe.angleDeg, plan.noiseBudgetDb]);
 }
 
 export function tissueUses(sweep: ResolvedSweep): TissueUse[] {

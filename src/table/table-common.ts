@@ -101,6 +101,10 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	}
 	const bw = doc.probe.bandwidthFraction > 0 ? `${plain(doc.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
 	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${s.freqSwept && !(s.freqMhz.length === 1 && s.freqMhz[0] === doc.probe.centerMhz) ? ` (the plan has ${plain(doc.probe.centerMhz)} MHz)` : ''}, ${bw}`]);
+	if (s.angleSwept || s.angleDeg.some((a) => a !== 0)) {
+		const own = doc.probe.angleDeg ?? 0;
+		out.push(['Beam angle', `${list(s.angleDeg, '°')} from the layer normal${s.angleSwept ? `; the plan has ${plain(own)}°` : ''}`]);
+	}
 	out.push(['Receive', s.receive.map((r) => (r === 'fundamental' ? 'fundamental' : `${r} (2·f0)`)).join(', ')]);
 	for (const w of s.swaps) {
 		out.push([`Layer ${w.layer} tissue`, w.choices.map((c) => c.record.label + (c.from ? ` (${c.from})` : '')).join(', ')]);
@@ -136,11 +140,16 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	return out;
 }
 
-/** Rows grouped by habitus: the same swept thickness, receive mode and swaps (frequency aside). */
+/** True when the table shows a beam-angle column: the angle is swept or the plan's is not 0. */
+export function showsAngle(t: ProtocolTable): boolean {
+	return t.sweep.angleSwept || t.sweep.angleDeg.some((a) => a !== 0);
+}
+
+/** Rows grouped by habitus: the same swept thickness, beam angle, receive mode and swaps (frequency aside). */
 export function habitusGroups(t: ProtocolTable): TableRow[][] {
 	const groups = new Map<string, TableRow[]>();
 	for (const r of t.rows) {
-		const key = JSON.stringify([r.layerCm, r.receive, r.swapLabels]);
+		const key = JSON.stringify([r.layerCm, r.angleDeg, r.receive, r.swapLabels]);
 		const g = groups.get(key);
 		if (g) g.push(r);
 		else groups.set(key, [r]);

@@ -12,7 +12,7 @@
 import {stringify} from 'csv-stringify/sync';
 import type {ProtocolTable, TableRow} from './sweep.js';
 import {roundTo} from '../plan/rounding.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes} from './table-common.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes, showsAngle} from './table-common.js';
 
 /** `penetration_cm` when the echo stays above the noise floor down to the display depth. */
 export const beyondDisplay = 'beyond display';
@@ -22,7 +22,9 @@ export function csvHeader(t: ProtocolTable): string[] {
 	const s = t.sweep;
 	const h = ['row'];
 	if (s.layerIndex !== null) h.push(`layer${s.layerIndex + 1}_cm`);
-	h.push('center_mhz', 'receive');
+	h.push('center_mhz');
+	if (showsAngle(t)) h.push('angle_deg');
+	h.push('receive');
 	for (const w of s.swaps) h.push(`layer${w.layer}_tissue`);
 	t.knotDepthsCm.forEach((_, k) => h.push(s.delta ? `slider${k + 1}_delta_db` : `slider${k + 1}_db`));
 	if (s.delta) h.push('master_delta_db');
@@ -38,7 +40,9 @@ export function csvCells(t: ProtocolTable, r: TableRow): string[] {
 	const n = (x: number, d: number) => String(roundTo(x, d));
 	const out = [String(r.index)];
 	if (s.layerIndex !== null) out.push(r.layerCm === null ? '' : n(r.layerCm, depthDecimals));
-	out.push(n(r.centerMhz, mhzDecimals), r.receive);
+	out.push(n(r.centerMhz, mhzDecimals));
+	if (showsAngle(t)) out.push(n(r.angleDeg, 2));
+	out.push(r.receive);
 	out.push(...r.swapLabels);
 	if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => n(x, gainDecimals)), n(r.delta.masterDeltaDb, gainDecimals));
 	else out.push(...r.slidersDb.map((x) => n(x, gainDecimals)));

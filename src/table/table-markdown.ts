@@ -6,7 +6,7 @@
 import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep.js';
-import {fixed, habitusGroups, highestPerRow, inputLines, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
+import {fixed, habitusGroups, highestPerRow, inputLines, showsAngle, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
 
 /** Escapes text for one table cell or line: pipes, backslashes, HTML-ish brackets, line breaks. */
 export function markdownText(s: string): string {
@@ -34,8 +34,18 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 		header.push(`${markdownText(label ?? 'Layer')} cm`);
 		align.push('r');
 	}
-	header.push('MHz', 'Receive');
-	align.push('r', 'l');
+	header.push('MHz');
+	align.push('r');
+	if (showsAngle(t)) {
+		header.push('Angle °');
+		align.push('r');
+	}
+	if (showsAngle(t)) {
+		header.push('Angle °');
+		align.push('r');
+	}
+	header.push('Receive');
+	align.push('l');
 	for (const w of s.swaps) {
 		header.push(`Layer ${w.layer}`);
 		align.push('l');
@@ -68,7 +78,10 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 	const cells = (r: TableRow): string[] => {
 		const out = [String(r.index)];
 		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
-		out.push(plain(r.centerMhz), r.receive);
+		out.push(plain(r.centerMhz));
+		if (showsAngle(t)) out.push(plain(r.angleDeg));
+		if (showsAngle(t)) out.push(plain(r.angleDeg));
+		out.push(r.receive);
 		for (const l of r.swapLabels) out.push(markdownText(l));
 		if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => signed(x, 1)), signed(r.delta.masterDeltaDb, 1));
 		else out.push(...r.slidersDb.map((x) => signed(x, 1)));

@@ -11,7 +11,7 @@ import {computeCurve, modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import {SweepError, type ProtocolTable, type ResolvedSweep, type TableRow} from './sweep.js';
 import {roundTo} from '../plan/rounding.js';
-import {fixed, inputLines, plain, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
+import {fixed, inputLines, plain, showsAngle, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 
 /** Most groups (frequency × receive × swap) in one chart. */
@@ -45,7 +45,7 @@ export function checkSvgSweep(sweep: ResolvedSweep): void {
 	}
 	const panels = sweep.rowCount / lines;
 	if (panels > maxSvgPanels) {
-		throw new SweepError('format', `--format svg: draws one panel per frequency, receive mode and swapped tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --receive or --swap, or use markdown, csv or json`);
+		throw new SweepError('format', `--format svg: draws one panel per frequency, beam angle, receive mode and swapped tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --angle, --receive or --swap, or use markdown, csv or json`);
 	}
 }
 
@@ -102,7 +102,7 @@ function valueAt(c: Curve, depth: number): number {
 }
 
 function panelTitle(r: TableRow, t: ProtocolTable): string {
-	const parts = [`${plain(r.centerMhz)} MHz ${r.receive}`];
+	const parts = [`${plain(r.centerMhz)} MHz${showsAngle(t) ? ` at ${plain(r.angleDeg)}°` : ''} ${r.receive}`];
 	t.sweep.swaps.forEach((s, k) => parts.push(`layer ${s.layer}: ${r.swapLabels[k]}`));
 	return parts.join(', ');
 }

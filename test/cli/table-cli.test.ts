@@ -68,6 +68,35 @@ describe('rows agree with evenecho curve', () => {
 		}
 	});
 
+	it('an --angle sweep: each row matches `curve` with that probe.angleDeg, and every format shows the angle', () => {
+		const r = table(planPath, '--fat', '2', '--angle', '0,30', '--format', 'json');
+		expect(r.status).toBe(0);
+		const t = tableJsonSchema.parse(JSON.parse(r.stdout)) as TableJson;
+		expect(t.inputs.angleDeg).toEqual([0, 30]);
+		expect(t.rows.map((row) => row.angleDeg)).toEqual([0, 30]);
+		for (const row of t.rows) {
+			const plan = structuredClone(protocolPlan) as typeof protocolPlan & {probe: {angleDeg?: number}};
+			plan.layers[1]!.thicknessCm = 2;
+			plan.probe.angleDeg = row.angleDeg;
+			const c = runCli(['curve', write(`angle-${row.row}.json`, plan), '--format', 'json']);
+			expect(c.status).toBe(0);
+			const curve = JSON.parse(c.stdout) as {masterGainDb: number; sliders: {depthCm: number; gainDb: number}[]};
+			expect(row.masterGainDb, `row ${row.row}`).toBe(curve.masterGainDb);
+			expect(row.sliders, `row ${row.row}`).toEqual(curve.sliders);
+		}
+		// Oblique paths are longer: the 30° row needs more gain somewhere.
+		expect(t.rows[1]!.masterGainDb + Math.max(...t.rows[1]!.sliders.map((s) => s.gainDb))).toBeGreaterThan(
+			t.rows[0]!.masterGainDb + Math.max(...t.rows[0]!.sliders.map((s) => s.gainDb)),
+		);
+		const csv = parse(table(planPath, '--angle', '0,30', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
+		expect(csv.map((row) => row['angle_deg'])).toEqual(['0', '30']);
+		const md = table(planPath, '--angle', '0,30').stdout;
+		expect(md).toContain('Angle °');
+		expect(md).toMatch(/Beam angle.*0, 30 ?°/);
+		const svg = table(planPath, '--angle', '0,30', '--format', 'svg').stdout;
+		expect(svg).toContain('at 30°');
+	});
+
 	it('the CSV cells are the same numbers', () => {
 		const json = JSON.parse(table(planPath, '--fat', '1,6', '--format', 'json').stdout) as TableJson;
 		const csv = parse(table(planPath, '--fat', '1,6', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
@@ -195,6 +224,9 @@ describe('bad sweeps: exit 2, the option and range named, nothing on stdout, no 
 		['--freq zero', ['--freq', '0'], /--freq: 0 is out of range; every value must be a number above 0 and up to 50 MHz/],
 		['--freq beyond 50', ['--freq', '3.5,75'], /--freq: 75 is out of range/],
 		['empty --freq', ['--freq', ','], /--freq: empty entry/],
+		['--angle beyond 80', ['--angle', '0,85'], /--angle: 85 is out of range; every value must be a number from 0 to 80/],
+		['--angle negative', ['--angle', '-10'], /--angle: -10 is negative; every value must be a number from 0 to 80/],
+		['--angle not a number', ['--angle', '0,steep'], /--angle: "steep" is not a number/],
 		['too many combinations', ['--fat', '0.1:20:0.1', '--freq', '0.5:50:0.5', '--receive', 'both'], /the sweep has 40,000 combinations \(200 --fat × 100 --freq × 2 --receive\); a table holds at most 20,000 rows/],
 		['--layer outside the plan', ['--fat', '1', '--layer', '9'], /--layer: must be a whole number from 1 to 4/],
 		['--layer on the deepest layer', ['--fat', '1', '--layer', '4'], /--fat: layer 4 is the deepest layer/],
