@@ -150,7 +150,7 @@ function bodyWallNote(plan: EnginePlan): CurveWarning | null {
 	return {
 		code: 'thick-body-wall',
 		severity: 'note',
-		message: `${fat.toFixed(1)} cm of fat under the skin: fat and liver lose about the same per cm, so the slider shape barely changes; what changes is depth (the target sits deeper, so the highest frequency that reaches it falls, and the sliders follow the displayed depth, fat drawn about 7 % thick). Gain cannot fix the clutter and aberration the body wall adds; tissue harmonic receive reduces them (Pinton, Trahey & Dahl 2011, IEEE TUFFC; Dahl & Sheth 2014, Ultrasound Med Biol; citations not verified here).`,
+		message: `${fat.toFixed(1)} cm of fat under the skin: fat and liver lose about the same per cm, so the slider shape barely changes; what changes is depth (the target sits deeper, so the highest frequency that reaches it falls, and the sliders follow the displayed depth, fat drawn about 7 % thick). Gain cannot fix the clutter and aberration the body wall adds; tissue harmonic receive reduces them (Pinton, Trahey & Dahl 2011, "Sources of image degradation in fundamental and harmonic ultrasound imaging using nonlinear, full-wave simulations", IEEE TUFFC; Dahl & Sheth 2014, "Reverberation clutter from subcutaneous tissue layers: simulation and in vivo demonstrations", Ultrasound Med Biol 40(4):714–726).`,
 	};
 }
 
