@@ -37,7 +37,7 @@ export const commandList: readonly CommandEntry[] = [
 		name: 'table',
 		term: 'table [options] [plan]',
 		description:
-			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, receive mode and tissue swaps',
+			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, beam angle, receive mode and tissue swaps',
 		register: async () => (await import('./table-command.js')).registerTableCommand,
 	},
 	{
