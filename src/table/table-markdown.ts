@@ -40,10 +40,6 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 		header.push('Angle °');
 		align.push('r');
 	}
-	if (showsAngle(t)) {
-		header.push('Angle °');
-		align.push('r');
-	}
 	header.push('Receive');
 	align.push('l');
 	for (const w of s.swaps) {
@@ -80,7 +76,6 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
 		out.push(plain(r.centerMhz));
 		if (showsAngle(t)) out.push(plain(r.angleDeg));
-		if (showsAngle(t)) out.push(plain(r.angleDeg));
 		out.push(r.receive);
 		for (const l of r.swapLabels) out.push(markdownText(l));
 		if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => signed(x, 1)), signed(r.delta.masterDeltaDb, 1));
@@ -108,6 +103,10 @@ function habitusLadderTable(t: ProtocolTable): string[] {
 		header.push(`${markdownText(label ?? 'Layer')} cm`);
 		align.push('r');
 	}
+	if (showsAngle(t)) {
+		header.push('Angle °');
+		align.push('r');
+	}
 	header.push('Receive');
 	align.push('l');
 	for (const w of s.swaps) {
@@ -120,6 +119,7 @@ function habitusLadderTable(t: ProtocolTable): string[] {
 		const r = g[0]!;
 		const out: string[] = [];
 		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
+		if (showsAngle(t)) out.push(plain(r.angleDeg));
 		out.push(r.receive);
 		for (const l of r.swapLabels) out.push(markdownText(l));
 		out.push(

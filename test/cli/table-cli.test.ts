@@ -91,7 +91,9 @@ describe('rows agree with evenecho curve', () => {
 		const csv = parse(table(planPath, '--angle', '0,30', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
 		expect(csv.map((row) => row['angle_deg'])).toEqual(['0', '30']);
 		const md = table(planPath, '--angle', '0,30').stdout;
-		expect(md).toContain('Angle °');
+		expect(md.match(/\| Angle ° \|/g)).toHaveLength(1);
+		const ladder = table(planPath, '--angle', '0,30', '--freq', '2.5,5').stdout;
+		expect(ladder.match(/\| Angle ° \|/g)).toHaveLength(2);
 		expect(md).toMatch(/Beam angle.*0, 30 ?°/);
 		const svg = table(planPath, '--angle', '0,30', '--format', 'svg').stdout;
 		expect(svg).toContain('at 30°');
