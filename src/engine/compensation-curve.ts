@@ -15,7 +15,7 @@ import {minimumAttenuationSpread} from './tissue-library.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit, Tissue} from './types.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
-export const modelVersion = 'evenecho-model 1 (1-D layers, normal incidence, Gaussian pulse-echo spectrum)';
+export const modelVersion = 'evenecho-model 2 (1-D parallel layers at the plan\'s beam angle, pulse-echo spectrum of the probe\'s steepness, fundamental or harmonic receive)';
 
 export interface CurveOptions {
 	/** Spacing of the samples in displayed depth, cm. @default 0.1 */

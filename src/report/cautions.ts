@@ -13,5 +13,5 @@ export const cautions: readonly string[] = [
 	'A starting point for a qualified operator, not a diagnosis or a prescription: confirm it on the live image.',
 	'Adjust receive gain (TGC, master gain) before transmit output. Gain does not change patient exposure; output does. Keep output As Low As Reasonably Achievable (ALARA) and watch MI/TI.',
 	'Gain cannot raise the signal-to-noise ratio: below the noise floor it only brightens noise. Over-gain can hide pathology or mimic fluid or sludge.',
-	'Model: 1-D layers, normal incidence, homogeneous tissue, published tissue values with roughly ±20 % spread. Local protocols, department presets, manufacturer instructions and licensed practice take precedence.',
+	'Model: 1-D parallel layers (no focus or diffraction), homogeneous tissue, published tissue values with roughly ±20 % spread. Local protocols, department presets, manufacturer instructions and licensed practice take precedence.',
 ];
