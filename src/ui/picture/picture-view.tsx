@@ -9,6 +9,7 @@ import type {CurveResult} from '../../engine/types.js';
 import {createPictureCache, type PanelKind, type PictureCache} from '../../simulate/plan-picture.js';
 import {useTheme} from '../kit/theme-context.js';
 import {clip} from '../kit/text-fit.js';
+import {wrapWords} from '../kit/layout.js';
 import {pictureModeFromEnv, type PictureMode} from './picture-cells.js';
 import {illustrationLabel, panelChrome, panelLegend, panelLines} from './picture-panels.js';
 
@@ -17,20 +18,6 @@ export interface PictureViewProps {
 	readonly kinds: readonly PanelKind[];
 	readonly width: number;
 	readonly height: number;
-}
-
-/** Greedy word wrap of the label (it must show whole on every frame). */
-function wrapped(text: string, width: number): string[] {
-	const lines: string[] = [];
-	let line = '';
-	for (const word of text.split(' ')) {
-		if (line && line.length + 1 + word.length > width) {
-			lines.push(line);
-			line = word;
-		} else line = line ? `${line} ${word}` : word;
-	}
-	if (line) lines.push(line);
-	return lines;
 }
 
 /** Picture mode for this terminal: the theme's plain variant (NO_COLOR) always gives characters. */
@@ -46,7 +33,7 @@ export function PictureView({curve, kinds, width, height}: PictureViewProps) {
 	cache.current ??= createPictureCache(1);
 	const gap = 2 * (kinds.length - 1);
 	const pictureColumns = Math.max(4, Math.floor((width - gap) / kinds.length) - panelChrome);
-	const label = wrapped(illustrationLabel, width);
+	const label = wrapWords(illustrationLabel, width);
 	// One title line above the pictures, the legend and the label below.
 	const pictureRows = Math.max(3, height - label.length - 2);
 	const lines = panelLines(curve, cache.current, kinds, {pictureColumns, pictureRows}, mode);

@@ -9,6 +9,7 @@ import {useEffect, useState} from 'react';
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
 import {clip} from '../kit/text-fit.js';
+import {wrapWords} from '../kit/layout.js';
 import {useTheme} from '../kit/theme-context.js';
 import {depthResponsePlot, greyMapPlot, penetrationPlot} from './calibration-plots.js';
 import {imageThumbnail} from './image-thumbnail.js';
@@ -110,7 +111,7 @@ export function ScannerView({services, chosen, width, height, onChoose, onClose}
 		push('Measure a scanner: the session file (its image paths are relative to it)', 'current');
 		push(`  session file: ${mode.kind === 'path' ? mode.text : mode.path}${mode.kind === 'path' ? '_' : ''}`);
 		if (mode.kind === 'measuring') push('  measuring… (reading the images, then fitting the grey map)', 'muted');
-		if (mode.kind === 'path' && mode.error) for (const part of wrap(mode.error, width - 4)) push(`  ${part}`, 'warn');
+		if (mode.kind === 'path' && mode.error) for (const part of wrapWords(mode.error, width - 4).slice(0, 4)) push(`  ${part}`, 'warn');
 		push('  Enter measures, Esc back', 'muted');
 	} else {
 		const {cal, input, page} = mode;
@@ -158,15 +159,3 @@ export function ScannerView({services, chosen, width, height, onChoose, onClose}
 	);
 }
 
-function wrap(text: string, width: number): string[] {
-	const out: string[] = [];
-	let line = '';
-	for (const word of text.split(/\s+/)) {
-		if (line && line.length + 1 + word.length > width) {
-			out.push(line);
-			line = word;
-		} else line = line ? `${line} ${word}` : word;
-	}
-	if (line) out.push(line);
-	return out.slice(0, 4);
-}
