@@ -271,7 +271,11 @@ describe('properties', () => {
 			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, x) => {
 				const a = totals(fitSliders(scenarioRequest(s, 0, true)));
 				const b = totals(fitSliders(scenarioRequest(s, x, true)));
-				return a.every((v, k) => Math.abs(b[k]! - v - x) <= 1e-6);
+				// 1e-5 dB: the tie-break QP stops at a tolerance scaled to the bounds (±500 dB here), and its
+				// weakest direction is held only by the 1e-6 smoothness weight, so two solves of shifted
+				// targets agree to about 1e-6 dB at worst (seed 1631561233 found 1.3e-6 dB on a 95 dB deep
+				// target). The display step is 0.1 dB, four orders of magnitude coarser.
+				return a.every((v, k) => Math.abs(b[k]! - v - x) <= 1e-5);
 			}),
 			{numRuns: 200},
 		);
