@@ -3,7 +3,7 @@
  * accepts the same spellings and words its refusals the same way; refusals become UsageErrors.
  */
 import type {Limit} from '../plan/plan-schema.js';
-import {SweepError} from '../table/sweep.js';
+import {SweepError} from '../table/sweep-spec.js';
 import {parseBoundedNumber, parseNumberList} from '../table/sweep-options.js';
 import {UsageError} from '../errors/usage-error.js';
 

@@ -9,7 +9,7 @@ import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
-import {maxTableRows, resolveSweep, SweepError, type TissueChoice} from '../table/sweep.js';
+import {maxTableRows, resolveSweep, SweepError, type TissueChoice} from '../table/sweep-spec.js';
 import {runSweepInParallel} from '../table/sweep-parallel.js';
 import {parseSweepText, type PresetLayerLookup} from '../table/sweep-options.js';
 import type {TableFormatOptions} from '../table/table-common.js';

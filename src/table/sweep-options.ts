@@ -6,7 +6,7 @@
  */
 import type {Limit} from '../plan/plan-schema.js';
 import {describeRange, limits} from '../plan/plan-schema.js';
-import {checkNumberList, marginLimit, maxLadderLength, maxTableRows, SweepError, type LayerSwap, type ReceiveMode, type SweepSpec, type TissueChoice} from './sweep.js';
+import {checkNumberList, marginLimit, maxLadderLength, maxTableRows, SweepError, type LayerSwap, type ReceiveMode, type SweepSpec, type TissueChoice} from './sweep-spec.js';
 
 const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)$/;
 

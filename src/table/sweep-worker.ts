@@ -3,7 +3,8 @@
  * of rows that differ only in frequency) and posts their values in batches.
  */
 import {parentPort, workerData} from 'node:worker_threads';
-import {rowSpots, rowsPerFrequency, rowValues, type LadderCache, type ResolvedSweep, type RowValues} from './sweep.js';
+import type {ResolvedSweep} from './sweep-spec.js';
+import {rowSpots, rowsPerFrequency, rowValues, type LadderCache, type RowValues} from './sweep-runner.js';
 
 export interface SweepJob {
 	readonly sweep: ResolvedSweep;

@@ -4,7 +4,8 @@
  */
 import type {WarningCode} from '../engine/types.js';
 import {roundTo} from '../plan/rounding.js';
-import type {ProtocolTable, ReceiveMode, TableRow} from './sweep.js';
+import type {ReceiveMode} from './sweep-spec.js';
+import type {ProtocolTable, TableRow} from './sweep-runner.js';
 
 /** Options every formatter accepts. */
 export interface TableFormatOptions {

@@ -10,7 +10,7 @@
  * tidy for a spreadsheet); Markdown shows it once per habitus.
  */
 import {stringify} from 'csv-stringify/sync';
-import type {ProtocolTable, TableRow} from './sweep.js';
+import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import {roundTo} from '../plan/rounding.js';
 import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes, showsAngle} from './table-common.js';
 

@@ -7,7 +7,7 @@
 import {z} from 'zod';
 import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
-import type {ProtocolTable, TableRow} from './sweep.js';
+import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import type {WarningCode} from '../engine/types.js';
 import {roundTo} from '../plan/rounding.js';
 import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, warningLegend, type TableFormatOptions} from './table-common.js';

@@ -5,7 +5,7 @@
  */
 import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
-import type {ProtocolTable, TableRow} from './sweep.js';
+import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import {fixed, habitusGroups, highestPerRow, inputLines, showsAngle, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
 
 /** Escapes text for one table cell or line: pipes, backslashes, HTML-ish brackets, line breaks. */

@@ -9,7 +9,8 @@
  */
 import {computeCurve, modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
-import {SweepError, type ProtocolTable, type ResolvedSweep, type TableRow} from './sweep.js';
+import {SweepError, type ResolvedSweep} from './sweep-spec.js';
+import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import {roundTo} from '../plan/rounding.js';
 import {fixed, inputLines, plain, showsAngle, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
 import {resolvePlan} from '../plan/resolve-plan.js';

@@ -13,7 +13,7 @@ import {migratePlanV1} from '../../src/plan/plan-migration.js';
 import {parsePlanDocument, planFormat} from '../../src/plan/plan-schema.js';
 import {describeTarget, targetDepthOf} from '../../src/plan/plan-target.js';
 import {measuredAlphaSource, resolvePlan} from '../../src/plan/resolve-plan.js';
-import {buildTable} from '../../src/table/sweep.js';
+import {buildTable} from '../../src/table/sweep-runner.js';
 
 const v1 = {
 	format: 'evenecho-plan/1',

@@ -3,7 +3,8 @@
 // format tests hold to RFC 4180 and the JSON schema).
 import {describe, expect, it} from 'vitest';
 import {abdomenPlan} from '../helpers/plans.js';
-import {buildTable, ladderKey, resolveSweep, runSweep, type SweepSpec} from '../../src/table/sweep.js';
+import {resolveSweep, type SweepSpec} from '../../src/table/sweep-spec.js';
+import {buildTable, ladderKey, runSweep} from '../../src/table/sweep-runner.js';
 import {isWorkersRow} from '../../src/table/sweep-worker.js';
 import {tableCsv, tableCsvChunks} from '../../src/table/table-csv.js';
 import {tableJsonChunks, tableJsonText} from '../../src/table/table-json.js';

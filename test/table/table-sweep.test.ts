@@ -11,15 +11,9 @@ import {frequencyLadder} from '../../src/engine/frequency-ladder.js';
 import {settingsDelta, settingsOf} from '../../src/engine/plan-difference.js';
 import {parsePlanDocument, type PlanDocument} from '../../src/plan/plan-schema.js';
 import {resolvePlan} from '../../src/plan/resolve-plan.js';
-import {
-	buildTable,
-	defaultLadderMhz,
-	harmonicSimplification,
-	maxTableRows,
-	resolveSweep,
-	SweepError,
-	type SweepSpec,
-} from '../../src/table/sweep.js';
+import {defaultLadderMhz, maxTableRows, resolveSweep, SweepError, type SweepSpec} from '../../src/table/sweep-spec.js';
+import {buildTable} from '../../src/table/sweep-runner.js';
+import {harmonicSimplification} from '../../src/engine/model-notes.js';
 import {parseNumberList, parseReceive, parseSwap, parseSweepText} from '../../src/table/sweep-options.js';
 import {limits} from '../../src/plan/plan-schema.js';
 

@@ -13,7 +13,7 @@ import {afterEach, describe, expect, it} from 'vitest';
 import {demoPlan} from '../../src/plan/demo-plan.js';
 import type {PlanDocument} from '../../src/plan/plan-schema.js';
 import {cautionLine} from '../../src/report/cautions.js';
-import {buildTable} from '../../src/table/sweep.js';
+import {buildTable} from '../../src/table/sweep-runner.js';
 import {App} from '../../src/ui/app.js';
 import {consoleReducer, modeOf} from '../../src/ui/state/console-reducer.js';
 import {createInitialState, type ConsoleState} from '../../src/ui/state/console-state.js';

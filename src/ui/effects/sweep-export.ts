@@ -5,7 +5,7 @@
  * stamp, so the same plan and list give the same bytes.
  */
 import {writeNewFiles} from '../../files/new-file.js';
-import type {ProtocolTable} from '../../table/sweep.js';
+import type {ProtocolTable} from '../../table/sweep-runner.js';
 import {tableCsv} from '../../table/table-csv.js';
 import {tableJsonText} from '../../table/table-json.js';
 import {tableMarkdown} from '../../table/table-markdown.js';

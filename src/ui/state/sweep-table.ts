@@ -4,7 +4,8 @@
  * share one run. Failures become a plain message; nothing here throws.
  */
 import {limits, type PlanDocument} from '../../plan/plan-schema.js';
-import {buildTable, SweepError, type ProtocolTable} from '../../table/sweep.js';
+import {SweepError} from '../../table/sweep-spec.js';
+import {buildTable, type ProtocolTable} from '../../table/sweep-runner.js';
 import {parseNumberList} from '../../table/sweep-options.js';
 import {maxSweepValues} from './sweep-state.js';
 

@@ -5,7 +5,7 @@
  * whether deltas are shown, so the reducer can clamp the offset without the table.
  */
 import type {WarningCode} from '../../engine/types.js';
-import type {ProtocolTable, TableRow} from '../../table/sweep.js';
+import type {ProtocolTable, TableRow} from '../../table/sweep-runner.js';
 import {fixed, rowWarningCodes, signed, warningCodesUsed} from '../../table/table-common.js';
 import {glyph} from '../kit/depth-plot.js';
 import {scrollWindow} from '../kit/layout.js';
