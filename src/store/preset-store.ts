@@ -1,47 +1,32 @@
 /**
  * The preset store: the built-in region templates (read-only, shipped in `presets/`) and the
- * user's own presets. The only module that imports `conf`.
+ * user's own presets, one file each in `presets/` of the store's folder, kept by the shared
+ * record-folder machinery (record-folder.ts says how a record is written, guarded, and kept safe
+ * from damage and crashes). This file adds what is the presets' own: templates beside user presets,
+ * lookup by id or name, and the store's settings file. The only module that imports `conf`.
  *
- * Storage design, and why:
- * - `conf` decides where the store lives (its standard per-user config folder, or `cwd` =
- *   `EVENECHO_HOME` for tests and shared drives); the small settings file (`config.json`: the
- *   layout and the newest record version written) is read and written by the file layer
- *   (settings-file.ts). The store's folders must be real folders of the user's own.
- * - Every file is read and written through src/files: regular files only, never through a link,
- *   capped reads, the one atomic writer.
- * - Each user preset is its own file, `presets/<slug>.json`, written to a temporary file, flushed,
- *   and then renamed (replace) or hard-linked (create only if absent) into place. Two processes
- *   saving different presets therefore never touch the same file, so neither can lose the other's
- *   update; two saving the same name race on the exclusive link and exactly one wins. No lock file
- *   is needed, so no lock can go stale after a crash, and a crash mid-write leaves at most a
- *   stray temporary file (skipped, and swept after an hour), never a half-written preset. One
- *   shared JSON file (conf's usual way) would need a lock around every read-modify-write.
- * - Deleting or renaming away a preset checks that the file is still the one read (inode and
- *   SHA-256, guarded-change.ts), so a save landing in between is kept. A multi-preset import is one
- *   journalled batch (file-batch.ts): a crash half way is rolled back when the store next opens.
- * - Damage is contained to one file. A preset file that is not JSON at all is moved aside to
- *   `<file>.damaged-<time>` and a notice says so; one that is JSON but no longer validates (a
- *   tissue id since removed, a hand edit out of range) is left untouched and reported. A damaged
- *   `config.json` is moved aside the same way and rewritten. `clearInvalidConfig` stays off.
+ * `conf` decides where the store lives (its standard per-user config folder, or `cwd` =
+ * `EVENECHO_HOME` for tests and shared drives); the small settings file (`config.json`: the layout
+ * and the newest record version written) is read and written by the file layer (settings-file.ts).
+ * A damaged `config.json` is moved aside the same way as a damaged record and rewritten;
+ * `clearInvalidConfig` stays off.
  */
-import {readdirSync} from 'node:fs';
-import {join, resolve} from 'node:path';
-import {entryAt, isTempName, writeFileAtomic} from '../files/atomic-write.js';
-import {maxPlanBytes, readRegularFile, type FileIdentity} from '../files/bounded-read.js';
-import {commitBatch, recoverBatches, type BatchPause} from '../files/file-batch.js';
-import {FileRefusedError, errnoOf} from '../files/file-errors.js';
-import {moveAsideIfUnchanged, removeIfUnchanged, replaceIfUnchanged, type PausePoint} from '../files/guarded-change.js';
-import {parseJsonBytes, readJsonFile} from '../files/json-input.js';
-import {checkOwnedFolder} from '../files/owned-folder.js';
+import {resolve} from 'node:path';
+import {maxPlanBytes} from '../files/bounded-read.js';
+import {FileRefusedError} from '../files/file-errors.js';
+import {readJsonFile} from '../files/json-input.js';
 import {printable} from '../files/printable.js';
 import {sweepTemps} from '../files/temp-sweep.js';
 import {parsePlanDocument, type PlanDocument} from '../plan/plan-schema.js';
 import {decodeImport, encodeBundle, type NamedPlan} from './preset-bundle.js';
 import {currentRecordVersion, decodeRecord, encodeRecord, type DecodedRecord} from './preset-record.js';
+import {keepDamaged, RecordFolder, writeExportFile, type RecordEntry, type RecordKind, type StorePause} from './record-folder.js';
 import {checkPresetName, presetSlug, userIdPrefix} from './safe-name.js';
 import {readSettings, settingsPath, storeHomeOf, writeSettings} from './settings-file.js';
 import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNotFoundError, PresetStoreError, TemplateReadOnlyError} from './store-errors.js';
 import {loadTemplates, type Template} from './templates.js';
+
+export type {StorePause};
 
 /** One line of `list`. User ids start with `user:`; template ids never do. */
 export interface PresetSummary {
@@ -74,12 +59,6 @@ export interface StoreOptions {
 	readonly pauseAt?: StorePause;
 }
 
-/** Test-only pause points: a guarded delete or replace (rename, delete) and each file of an import. */
-export interface StorePause {
-	readonly guarded?: PausePoint;
-	readonly batch?: BatchPause;
-}
-
 export interface WriteOptions {
 	/** Replace a user preset of the same name (CLI `--force`). @default false */
 	readonly overwrite?: boolean;
@@ -87,31 +66,26 @@ export interface WriteOptions {
 
 const storeLayout = 'one-file-per-preset';
 
-interface UserEntry {
+/** A user preset file as read, with its id. */
+interface UserEntry extends RecordEntry<DecodedRecord> {
 	readonly id: string;
-	readonly slug: string;
-	readonly file: string;
-	readonly record: DecodedRecord;
-	/** Who the file was when read: deletes and renames check it is still that file. */
-	readonly identity: FileIdentity;
 }
 
 type Match = {kind: 'template'; template: Template} | {kind: 'user'; entry: UserEntry; entries: readonly UserEntry[]};
 
-const errnoCode = errnoOf;
+/** How user preset files are read and named in messages. */
+const presetKind: RecordKind<DecodedRecord> = {
+	store: 'the preset store',
+	noun: 'user preset',
+	plural: 'presets',
+	label: (stem) => `user preset ${userIdPrefix}${stem}`,
+	decode: decodeRecord,
+	refused: (problem) => ({status: 'invalid', problems: [problem]}),
+	fail: (message) => new PresetStoreError(message),
+};
 
-function timestamp(): string {
-	return `${new Date().toISOString().replace(/[:.]/g, '-')}-${process.pid}`;
-}
-
-/**
- * Moves a damaged file aside, byte for byte, to `<file>.damaged-<time>` (which the store never
- * reads), only if it is still the file that was read: a good file another process wrote meanwhile
- * stays. Returns the backup path, or undefined when nothing was moved.
- */
-function moveAside(file: string, seen: FileIdentity): string | undefined {
-	const backup = `${file}.damaged-${timestamp()}`;
-	return moveAsideIfUnchanged(file, backup, seen) === 'done' ? backup : undefined;
+function userEntry(entry: RecordEntry<DecodedRecord>): UserEntry {
+	return {...entry, id: userIdPrefix + entry.stem};
 }
 
 /**
@@ -124,7 +98,7 @@ export function openPresetStore(options: StoreOptions = {}): PresetStore {
 	return new PresetStore(home === undefined ? undefined : resolve(home), options.pauseAt);
 }
 
-/** Templates and user presets; see the module comment for how user presets are stored. */
+/** Templates and user presets; see the module comment and record-folder.ts for how user presets are stored. */
 export class PresetStore {
 	/** The store's folder (holds `config.json` and `presets/`). */
 	readonly home: string;
@@ -134,32 +108,20 @@ export class PresetStore {
 	readonly notices: string[] = [];
 	/** The settings file (`<home>/config.json`). */
 	readonly #settingsFile: string;
-	/** Set when the folder cannot be used; writes are refused with this message. */
-	readonly #unusable: string | undefined;
-	readonly #pause: StorePause;
+	readonly #records: RecordFolder<DecodedRecord>;
 
 	/** Use `openPresetStore`. */
 	constructor(home: string | undefined, pause: StorePause = {}) {
-		this.#pause = pause;
 		this.#settingsFile = settingsPath(home);
 		this.home = storeHomeOf(this.#settingsFile);
-		this.presetsDir = join(this.home, 'presets');
-		let unusable: string | undefined;
-		try {
-			checkOwnedFolder(this.home, {create: true});
-			checkOwnedFolder(this.presetsDir, {create: false});
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			unusable = `the preset store cannot be opened: ${error.message}`;
-		}
-		this.#unusable = unusable;
+		this.#records = new RecordFolder({home: this.home, name: 'presets', kind: presetKind, createHome: true, notices: this.notices, pause});
+		this.presetsDir = this.#records.folder;
+		const unusable = this.#records.unusable;
 		if (unusable) {
 			this.notices.push(`${unusable}; only the templates are available, and saving is not possible until that is fixed`);
 			return;
 		}
-		// What a crash may have left: an import half done, stray temporary files, held files.
-		this.notices.push(...recoverBatches(this.presetsDir));
-		for (const name of sweepTemps(this.presetsDir)) this.notices.push(`${printable(name)} was put back after an interrupted change`);
+		// A crash while the settings file was written leaves a stray temporary file beside it.
 		sweepTemps(this.home);
 		this.#ensureSettings();
 	}
@@ -174,7 +136,7 @@ export class PresetStore {
 		}
 		let settings: Record<string, unknown> = read.kind === 'ok' ? read.settings : {};
 		if (read.kind === 'damaged') {
-			const backup = read.identity ? moveAside(file, read.identity) : undefined;
+			const backup = read.identity ? keepDamaged(file, read.identity) : undefined;
 			if (backup) this.notices.push(`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ${printable(backup)} and started a fresh one; your presets are not affected`);
 			settings = {};
 		}
@@ -264,29 +226,17 @@ export class PresetStore {
 		const newSlug = presetSlug(newName);
 		const savedAt = new Date();
 		const text = encodeRecord(newName, source.plan, savedAt);
-		this.#requireUsable();
-		if (newSlug === entry.slug) {
+		if (newSlug === entry.stem) {
 			// Same file (the name changes only in case or punctuation): replace it if unchanged.
-			const outcome = this.#guarded(() => replaceIfUnchanged(entry.file, text, entry.identity, this.#pause.guarded));
+			const outcome = this.#records.replace(entry, text);
 			if (outcome !== 'done') throw new PresetStoreError(`${entry.id} was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; nothing was renamed; run the command again`);
 		} else {
 			this.#writeRecord(newSlug, text, options.overwrite === true);
-			const outcome = this.#guarded(() => removeIfUnchanged(entry.file, entry.identity, this.#pause.guarded));
-			if (outcome === 'changed') {
+			if (this.#records.remove(entry) === 'changed') {
 				this.notices.push(`${entry.id} was saved again by another process while it was being renamed; that newer version is kept under its old name, beside the renamed copy`);
 			}
 		}
 		return this.#written(newSlug, newName, source.plan, savedAt);
-	}
-
-	/** Runs a guarded change; the file layer's refusals become store errors. */
-	#guarded<T>(work: () => T): T {
-		try {
-			return work();
-		} catch (error) {
-			if (error instanceof FileRefusedError) throw new PresetStoreError(`${error.message}`);
-			throw error;
-		}
 	}
 
 	/** Copies a template or user preset under a new name, as a user preset. */
@@ -303,13 +253,11 @@ export class PresetStore {
 		if (!match) throw new PresetNotFoundError(printable(idOrName));
 		if (match.kind === 'template') throw new TemplateReadOnlyError(match.template.id, 'deleted');
 		const {entry} = match;
-		this.#requireUsable();
 		// Only the file that was read: a save landing in between is kept, and the delete refused.
-		const outcome = this.#guarded(() => removeIfUnchanged(entry.file, entry.identity, this.#pause.guarded));
-		if (outcome === 'changed') {
+		if (this.#records.remove(entry) === 'changed') {
 			throw new PresetStoreError(`${entry.id} was saved again by another process after it was read; nothing was deleted; run the command again to delete the new version`);
 		}
-		const name = entry.record.name ?? entry.slug;
+		const name = entry.record.name ?? entry.stem;
 		return {id: entry.id, name, region: entry.record.status === 'ok' ? entry.record.plan.region : '', isTemplate: false};
 	}
 
@@ -342,13 +290,7 @@ export class PresetStore {
 	exportTo(path: string, idsOrNames: readonly string[] = [], options: WriteOptions = {}): {file: string; presets: PresetSummary[]} {
 		const bundle = this.exportBundle(idsOrNames);
 		const file = resolve(path);
-		try {
-			writeFileAtomic(file, bundle.text, {replace: options.overwrite === true});
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			if (error.code === 'exists') throw new PresetStoreError(`${printable(file)} already exists; use --force to replace it`);
-			throw new PresetStoreError(error.message);
-		}
+		writeExportFile(file, bundle.text, {replace: options.overwrite === true}, presetKind.fail);
 		return {file, presets: bundle.presets};
 	}
 
@@ -377,38 +319,24 @@ export class PresetStore {
 	importDocument(value: unknown, where: string, options: WriteOptions = {}): Preset[] {
 		const decoded = decodeImport(value);
 		if (!decoded.ok) throw new PresetImportError(`${where}: not a valid preset file; nothing was imported`, decoded.problems);
-		this.#requireUsable();
 		const overwrite = options.overwrite === true;
-		const targets = decoded.items.map((item) => ({item, slug: presetSlug(item.name), file: join(this.presetsDir, `${presetSlug(item.name)}.json`)}));
-		if (!overwrite) {
-			const taken = targets.filter((t) => entryAt(t.file) !== undefined);
-			if (taken.length) {
-				const first = taken[0]!;
-				throw new PresetExistsError(
-					userIdPrefix + first.slug,
-					first.item.name,
-					`${where}: ${taken.length === 1 ? 'a user preset with this name already exists' : `${taken.length} user presets with these names already exist`}; use --force to replace ${taken.length === 1 ? 'it' : 'them'}; nothing was imported`,
-					taken.map((t) => `"${t.item.name}" (${userIdPrefix}${t.slug})`),
-				);
-			}
-		}
-		this.#ensurePresetsDir();
 		const savedAt = new Date();
-		try {
-			commitBatch(
-				this.presetsDir,
-				targets.map((t) => ({name: `${t.slug}.json`, data: encodeRecord(t.item.name, t.item.plan, savedAt)})),
-				{replace: overwrite, ...(this.#pause.batch ? {pause: this.#pause.batch} : {})},
-			);
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			if (error.code === 'exists') {
-				const raced = targets.find((t) => entryAt(t.file) !== undefined);
-				throw this.#existsError(raced?.slug ?? targets[0]!.slug, `${where}: ${raced ? `"${raced.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`);
+		const targets = decoded.items.map((item) => ({item, stem: presetSlug(item.name), text: encodeRecord(item.name, item.plan, savedAt)}));
+		const outcome = this.#records.writeAll(targets, {replace: overwrite, where});
+		if (outcome !== 'done') {
+			const taken = outcome.taken.map((i) => targets[i]!);
+			const first = taken[0];
+			if (outcome.raced) {
+				throw this.#existsError(first?.stem ?? targets[0]!.stem, `${where}: ${first ? `"${first.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`);
 			}
-			throw new PresetStoreError(`${where}: ${error.message.replace(/; nothing was written$/, '')}; nothing was imported`);
+			throw new PresetExistsError(
+				userIdPrefix + first!.stem,
+				first!.item.name,
+				`${where}: ${taken.length === 1 ? 'a user preset with this name already exists' : `${taken.length} user presets with these names already exist`}; use --force to replace ${taken.length === 1 ? 'it' : 'them'}; nothing was imported`,
+				taken.map((t) => `"${t.item.name}" (${userIdPrefix}${t.stem})`),
+			);
 		}
-		return targets.map((t) => this.#written(t.slug, t.item.name, t.item.plan, savedAt));
+		return targets.map((t) => this.#written(t.stem, t.item.name, t.item.plan, savedAt));
 	}
 
 	/** The preset just written, without reading the folder again. */
@@ -419,46 +347,24 @@ export class PresetStore {
 			region: plan.region,
 			isTemplate: false,
 			plan: {...plan, name},
-			file: join(this.presetsDir, `${slug}.json`),
+			file: this.#records.fileOf(slug),
 			savedAt: savedAt.toISOString(),
 		};
 	}
 
-	#requireUsable(): void {
-		if (this.#unusable) throw new PresetStoreError(`${this.#unusable}; nothing was changed`);
-	}
-
-	#ensurePresetsDir(): void {
-		this.#requireUsable();
-		try {
-			checkOwnedFolder(this.presetsDir, {create: true});
-		} catch (error) {
-			if (error instanceof FileRefusedError) throw new PresetStoreError(`${error.message}; nothing was saved`);
-			throw error;
-		}
-	}
-
 	/** Writes one record file; exclusive unless `overwrite`. */
 	#writeRecord(slug: string, text: string, overwrite: boolean): void {
-		this.#ensurePresetsDir();
-		const file = join(this.presetsDir, `${slug}.json`);
-		try {
-			writeFileAtomic(file, text, {replace: overwrite});
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			if (error.code === 'exists') throw this.#existsError(slug);
-			throw new PresetStoreError(`${error.message.replace(/; nothing was written$/, '')}; nothing was saved`);
-		}
+		if (this.#records.write(slug, text, {replace: overwrite}) === 'exists') throw this.#existsError(slug);
 	}
 
 	#existsError(slug: string, message?: string): PresetExistsError {
 		const id = userIdPrefix + slug;
-		const entry = this.#readEntry(`${slug}.json`);
+		const entry = this.#records.read(slug);
 		if (entry && entry.record.status === 'ok') return message ? new PresetExistsError(id, entry.record.name, message) : new PresetExistsError(id, entry.record.name);
 		return new PresetExistsError(
 			id,
 			entry?.record.name ?? slug,
-			message ?? `the user preset file for ${id} (${join(this.presetsDir, `${slug}.json`)}) already exists but does not validate; use --force to replace it, or delete it first`,
+			message ?? `the user preset file for ${id} (${this.#records.fileOf(slug)}) already exists but does not validate; use --force to replace it, or delete it first`,
 		);
 	}
 
@@ -471,72 +377,18 @@ export class PresetStore {
 		if (userById) return {kind: 'user', entry: userById, entries};
 		const slug = presetSlug(query.normalize('NFC').trim());
 		if (!slug) return undefined;
-		const userBySlug = entries.find((e) => e.slug === slug) ?? entries.find((e) => e.record.name !== undefined && presetSlug(e.record.name) === slug);
+		const userBySlug = entries.find((e) => e.stem === slug) ?? entries.find((e) => e.record.name !== undefined && presetSlug(e.record.name) === slug);
 		if (userBySlug) return {kind: 'user', entry: userBySlug, entries};
 		const templateByName = templates.find((t) => presetSlug(t.plan.name) === slug);
 		return templateByName ? {kind: 'template', template: templateByName} : undefined;
 	}
 
-	/** Reads every user preset file; moves damaged ones aside and sweeps stale temporary files. */
+	/** Every user preset file (damaged ones moved aside), with names carried twice flagged. */
 	#scan(): {entries: UserEntry[]; problems: string[]} {
-		const problems: string[] = [];
-		if (this.#unusable) return {entries: [], problems};
-		let names: string[];
-		try {
-			// Never through a link: a presets folder swapped for one since the store opened is refused.
-			if (!checkOwnedFolder(this.presetsDir, {create: false})) return {entries: [], problems};
-			names = readdirSync(this.presetsDir).sort();
-		} catch (error) {
-			const why = error instanceof FileRefusedError ? error.message : `cannot read ${printable(this.presetsDir)} (${errnoCode(error) ?? 'error'})`;
-			problems.push(`${why}; showing templates only`);
-			return {entries: [], problems};
-		}
-		// Leftovers of a crash in another process since this store opened.
-		if (names.some(isTempName)) sweepTemps(this.presetsDir);
-		const entries: UserEntry[] = [];
-		for (const fileName of names) {
-			if (isTempName(fileName) || fileName.startsWith('.') || !fileName.endsWith('.json')) continue;
-			const stem = fileName.slice(0, -'.json'.length);
-			if (presetSlug(stem) !== stem) {
-				problems.push(`${printable(join(this.presetsDir, fileName))}: not a preset file name (lower-case letters, digits and hyphens); left as it is`);
-				continue;
-			}
-			const entry = this.#readEntry(fileName, problems);
-			if (entry) entries.push(entry);
-		}
-		flagDuplicateNames(entries, problems);
-		return {entries, problems};
-	}
-
-	/** One user preset file, or undefined when it is gone, unreadable (reported) or was moved aside. */
-	#readEntry(fileName: string, problems: string[] = []): UserEntry | undefined {
-		const slug = fileName.slice(0, -'.json'.length);
-		const id = userIdPrefix + slug;
-		const file = join(this.presetsDir, fileName);
-		let read;
-		try {
-			// Regular files only, never through a link, capped: a FIFO or device here is reported, not opened.
-			read = readRegularFile(file, {maxBytes: maxPlanBytes, followLinks: false, what: 'preset file'});
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			if (error.code !== 'not-found') problems.push(`user preset ${id}: ${error.message}; left as it is`);
-			return undefined;
-		}
-		const identity = read.identity!;
-		let record: DecodedRecord;
-		try {
-			record = decodeRecord(parseJsonBytes(file, read.bytes, identity).value);
-		} catch (error) {
-			if (!(error instanceof FileRefusedError)) throw error;
-			if (error.code === 'not-json' || error.code === 'encoding') {
-				const backup = moveAside(file, identity);
-				const problem = error.message.slice(error.message.indexOf(': ') + 2);
-				if (backup) this.notices.push(`user preset file ${printable(file)} was damaged (${problem}); kept it as ${printable(backup)}; the other presets are not affected`);
-				return undefined;
-			}
-			record = {status: 'invalid', problems: [error.message.slice(error.message.indexOf(': ') + 2)]};
-		}
-		return {id, slug, file, record, identity};
+		const scan = this.#records.scan();
+		const entries = scan.entries.map(userEntry);
+		flagDuplicateNames(entries, scan.problems);
+		return {entries, problems: scan.problems};
 	}
 
 	#userPreset(entry: UserEntry, all?: readonly UserEntry[]): Preset {
