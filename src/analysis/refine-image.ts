@@ -10,7 +10,7 @@
  * as the engine's curve does. What the model cannot explain is reported per band, not
  * folded into the sliders.
  */
-import {computeCurve, pathModelOf} from '../engine/compensation-curve.js';
+import {computeCurve, pathModelOf, scannerProfileNote} from '../engine/compensation-curve.js';
 import type {CurveResult, EnginePlan} from '../engine/types.js';
 import {
 	assumedRamp,
@@ -66,7 +66,7 @@ export interface RefineRequest {
 	readonly dynamicRangeDb?: number;
 }
 
-export type BandVerdict = 'usable' | 'too-few-cells' | 'dark' | 'clipped' | 'below-noise' | 'off-map';
+export type BandVerdict = 'usable' | 'too-few-cells' | 'dark' | 'clipped' | 'below-noise' | 'off-map' | 'beyond-profile';
 
 export interface RefinedBand extends BandMeasurement {
 	/** Level the plan expects under the applied settings, with the image's offset added, dB. */
@@ -91,7 +91,8 @@ export interface RefineWarning {
 		| 'unusable-bands'
 		| 'model-leftover'
 		| 'slider-range-exceeded'
-		| 'settings-stated';
+		| 'settings-stated'
+		| 'scanner-profile';
 	readonly message: string;
 }
 
@@ -199,6 +200,7 @@ function evaluate(
 ): Evaluated {
 	const model = pathModelOf(plan);
 	const spans = model.spans;
+	const profileEndCm = plan.scanner ? (plan.scanner.depthsCm[plan.scanner.depthsCm.length - 1] ?? null) : null;
 	const drafts: RefinedBandDraft[] = measured.map((m) => {
 		const samples = bandSampleDepths(m.topCm, m.bottomCm);
 		const delivered = meanOver(samples, (d) => deliveredGainDb(plan, applied, own, d));
@@ -206,6 +208,8 @@ function evaluate(
 		const span = spans.find((s) => m.depthCm <= s.shownBottomCm) ?? spans[spans.length - 1]!;
 		let verdict: BandVerdict = 'usable';
 		if (!(m.cells > 0)) verdict = 'too-few-cells';
+		// A profile's depth response stops where its phantom echo met the noise; deeper, the scanner's gain is unknown.
+		else if (profileEndCm !== null && m.depthCm > profileEndCm) verdict = 'beyond-profile';
 		else if (m.meanGrey < Math.max(darkGrey, map.greyRange[0])) verdict = 'dark';
 		else if (m.meanGrey > map.greyRange[1]) verdict = 'off-map';
 		else if (!map.calibrated && m.clippedFraction > clippedLimit) verdict = 'clipped';
@@ -387,6 +391,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 			? 'Corrections are changes from the stated settings; if the image was taken with other settings, the corrections are wrong.'
 			: 'No settings given: the image is assumed to be taken with the plan\'s own sliders and master. If it was not, the corrections are wrong (give them with --applied).',
 	});
+	if (plan.scanner) warnings.push({code: 'scanner-profile', message: scannerProfileNote(plan)});
 	if (lf.cannotTell) warnings.push({code: 'cannot-tell', message: `Attenuation not measured: ${lf.cannotTell}. The sliders shown are the plan's own fit.`});
 	const unusable = bands.filter((b) => !b.usable);
 	if (unusable.length) {

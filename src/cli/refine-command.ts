@@ -19,10 +19,14 @@ import {planFormat, type PlanDocument} from '../plan/plan-schema.js';
 import {refineJson, refineText} from '../report/refine-report.js';
 import {numberOption} from './option-values.js';
 import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
+import {resolvePlan} from '../plan/resolve-plan.js';
+import type {ProfileReading} from '../analysis/profile-level-map.js';
+import type {EnginePlan} from '../engine/types.js';
 import {UsageError} from '../errors/usage-error.js';
 
 interface RefineOptions {
 	plan: string;
+	scanner?: string;
 	applied?: string;
 	layer?: string;
 	frame?: string;
@@ -55,12 +59,33 @@ async function confirmReplace(path: string): Promise<boolean> {
 	}
 }
 
+/**
+ * The stored profile named by --scanner or the plan's "scanner" field: the plan is resolved with its
+ * depth response, noise budget and slider range, and the image read through its grey map. The store
+ * is loaded only when a profile is named.
+ */
+async function measuredScanner(id: string | undefined, field: string) {
+	if (id === undefined) return undefined;
+	const {openScannerProfileStore} = await import('../store/scanner-profile-store.js');
+	const {scannerResponseOf} = await import('../calibration/profile-document.js');
+	const {profileReading} = await import('../analysis/profile-level-map.js');
+	try {
+		const profile = openScannerProfileStore().get(id);
+		const reading: ProfileReading = profileReading(profile);
+		return {scanner: scannerResponseOf(profile), reading};
+	} catch (error) {
+		if (error instanceof UsageError) throw new UsageError(`${field}: ${error.message}`);
+		throw error;
+	}
+}
+
 export function registerRefineCommand(program: Command): void {
 	program
 		.command('refine')
 		.description('measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation')
 		.argument('<image>', 'DICOM still or PNG of the patient')
 		.requiredOption('--plan <plan>', 'the plan the image is compared with (JSON, or - for standard input)')
+		.option('--scanner <id>', 'scanner profile (evenecho scanner list) whose grey map, depth response and slider travel read the image (default: the one the plan names)')
 		.option('--applied <settings>', 'SETTINGS.json: the sliders and master the image was taken with (default: the plan\'s own fit)')
 		.option('--layer <n>', 'layer whose attenuation is measured, 1 = under the skin (default: the deepest in the image)')
 		.option('--frame <k>', 'frame of a multi-frame DICOM, 1-based')
@@ -86,7 +111,10 @@ export function registerRefineCommand(program: Command): void {
 			const frameNumber = opts.frame === undefined ? undefined : numberOption('frame', opts.frame, {min: 1, max: 10000}, '');
 			if (frameNumber !== undefined && !Number.isInteger(frameNumber)) throw new UsageError('--frame: must be a whole number from 1');
 
-			const {doc, plan} = await readPlanFile(opts.plan);
+			const read = await readPlanFile(opts.plan);
+			const {doc} = read;
+			const measured = await measuredScanner(opts.scanner ?? doc.scanner, opts.scanner !== undefined ? '--scanner' : 'scanner');
+			const plan: EnginePlan = measured ? resolvePlan(doc, measured.scanner) : read.plan;
 			let layerIndex: number | undefined;
 			if (opts.layer !== undefined) {
 				const n = numberOption('layer', opts.layer, {min: 1, max: plan.layers.length}, '');
@@ -118,6 +146,7 @@ export function registerRefineCommand(program: Command): void {
 				...(applied ? {applied} : {}),
 				...(layerIndex !== undefined ? {layerIndex} : {}),
 				dynamicRangeDb,
+				...(measured ? {levelMap: measured.reading.levelMap, sliderTravelDb: measured.reading.sliderTravelDb} : {}),
 			});
 			if (!outcome.ok) throw new UsageError(`${printable(imagePath)}: ${outcome.problem}`);
 

@@ -8,6 +8,7 @@ import type {Command} from 'commander';
 import {derivedUid, encodeUltrasoundDicom} from '../image/dicom-writer.js';
 import {encodePng} from '../image/png-writer.js';
 import type {BatchEntry} from '../files/file-batch.js';
+import {UsageError} from '../errors/usage-error.js';
 import {patientImage, phantomSeries, type DemoSet} from '../simulate/demo-images.js';
 import {choiceOption, outputFolder, removeEmptyFolder, seedLimit, wholeNumberOption, writeOutputBatch} from './image-options.js';
 import {readPlanFile} from './read-plan-file.js';
@@ -21,6 +22,8 @@ interface SimulateOptions {
 	kind: string;
 	format: string;
 	seed: string;
+	cyst?: boolean;
+	brightLine?: boolean;
 	force?: boolean;
 }
 
@@ -29,7 +32,7 @@ function jsonBytes(value: unknown): Uint8Array {
 }
 
 /** Image files of a demo set in the chosen format. */
-function imageFiles(set: DemoSet, format: (typeof formats)[number], kind: string, seed: number, planName: string): BatchEntry[] {
+export function imageFiles(set: DemoSet, format: (typeof formats)[number], kind: string, seed: number, planName: string): BatchEntry[] {
 	const studyUid = derivedUid('study', kind, planName, seed);
 	const seriesUid = derivedUid('series', kind, planName, seed);
 	return set.images.map((img, k) => {
@@ -65,6 +68,8 @@ export function registerSimulateCommand(program: Command): void {
 		.option('--kind <kind>', 'phantom-series or patient', 'phantom-series')
 		.option('--format <format>', 'dicom (Ultrasound Image Storage) or png', 'dicom')
 		.option('--seed <n>', 'speckle seed, a whole number; the same seed gives the same bytes', '1')
+		.option('--cyst', 'patient: draw an anechoic cyst-like disc in the measured columns')
+		.option('--bright-line', 'patient: draw a bright specular line across the measured columns')
 		.option('--force', 'replace files that already exist')
 		.action(async (planPath: string, opts: SimulateOptions) => {
 			const kind = choiceOption('kind', opts.kind, kinds);
@@ -73,7 +78,11 @@ export function registerSimulateCommand(program: Command): void {
 			const {plan} = await readPlanFile(planPath);
 			const dir = resolve(opts.out);
 			const extension = format === 'dicom' ? 'dcm' : 'png';
-			const set = kind === 'patient' ? patientImage(plan, seed, extension) : phantomSeries(plan, seed, extension);
+			if (kind !== 'patient' && (opts.cyst || opts.brightLine)) throw new UsageError('--cyst and --bright-line go with --kind patient');
+			const set =
+				kind === 'patient'
+					? patientImage(plan, seed, extension, {cyst: opts.cyst === true, brightLine: opts.brightLine === true})
+					: phantomSeries(plan, seed, extension);
 			const files: BatchEntry[] = imageFiles(set, format, kind, seed, plan.name);
 			if (set.session) files.push({name: 'session.json', data: jsonBytes(set.session)});
 			if (set.appliedSettings) files.push({name: 'applied-settings.json', data: jsonBytes(set.appliedSettings)});

@@ -15,13 +15,12 @@ import type {RowsToDepth} from './echo-rows.js';
 import {settingsOfFit, type AppliedSettings} from './row-gains.js';
 import {phantomPlan, realisticConstants, realisticScanner, type ScannerBehaviour} from './scanner-behaviour.js';
 import {frameMargins, type ImageRegion} from './scanner-frame.js';
+import {demoStructures} from './patient-structures.js';
 import {noiseLevelDb, phantomPenetrationCm, scannerTruth} from './scanner-truth.js';
 import {simulateFrame, speckleFor} from './simulate-frame.js';
 
 /** Whole picture size of every demo image, px (the 600×480 of the scanner-profile benchmark). */
 export const demoPictureSize = {width: 600, height: 480} as const;
-const regionWidth = demoPictureSize.width - frameMargins.left - frameMargins.right;
-const regionHeight = demoPictureSize.height - frameMargins.top - frameMargins.bottom;
 
 export type ImageRole = 'gain-step' | 'probe-in-air' | 'slider-step' | 'patient';
 
@@ -60,7 +59,15 @@ function caption(scanner: ScannerBehaviour, plan: EnginePlan, masterGainDb: numb
 }
 
 /** The phantom series for a plan's probe, display depth and slider count. */
-export function phantomSeries(plan: EnginePlan, seed: number, extension: string, label = 'Simulated scanner (invented), reference phantom'): DemoSet {
+export function phantomSeries(
+	plan: EnginePlan,
+	seed: number,
+	extension: string,
+	label = 'Simulated scanner (invented), reference phantom',
+	size: {readonly width: number; readonly height: number} = demoPictureSize,
+): DemoSet {
+	const regionWidth = size.width - frameMargins.left - frameMargins.right;
+	const regionHeight = size.height - frameMargins.top - frameMargins.bottom;
 	const phantom = phantomPlan(plan);
 	const scanner = realisticScanner(plan);
 	const clamped = speckleFor(phantom, regionWidth, regionHeight, seed);
@@ -157,12 +164,27 @@ function nullableRound(v: number | null): number | null {
 /** Factor on the deepest layer's α0 in the patient image (0.5 → 0.8: a fatty-looking liver). */
 export const patientAlphaFactor = 1.6;
 
+export interface PatientOptions {
+	/** An anechoic cyst-like disc in the measured columns, in the deep layer. */
+	readonly cyst?: boolean;
+	/** A bright specular line across the measured columns. */
+	readonly brightLine?: boolean;
+	/** Factor on the deepest layer's α0 (default patientAlphaFactor; 1 images the plan itself). */
+	readonly alphaFactor?: number;
+	/** Whole picture size, px (default the 600×480 demo size; tests use smaller ones). */
+	readonly size?: {readonly width: number; readonly height: number};
+}
+
 /** One patient image of the plan's stack with the deepest layer's true α0 changed. */
-export function patientImage(plan: EnginePlan, seed: number, extension: string): DemoSet {
+export function patientImage(plan: EnginePlan, seed: number, extension: string, options: PatientOptions = {}): DemoSet {
+	const size = options.size ?? demoPictureSize;
+	const width = size.width - frameMargins.left - frameMargins.right;
+	const height = size.height - frameMargins.top - frameMargins.bottom;
+	const structures = demoStructures(plan.display.depthCm, {cyst: options.cyst ?? false, brightLine: options.brightLine ?? false});
 	const layerIndex = plan.layers.length - 1;
 	const deepest = plan.layers[layerIndex]!;
 	const plannedAlpha = deepest.tissue.alphaDbPerCmMhz;
-	const trueAlpha = plannedAlpha > 0 ? round(plannedAlpha * patientAlphaFactor, 4) : 0.3;
+	const trueAlpha = plannedAlpha > 0 ? round(plannedAlpha * (options.alphaFactor ?? patientAlphaFactor), 4) : 0.3;
 	const truePlan: EnginePlan = {
 		...plan,
 		layers: plan.layers.map((l, i) => (i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: trueAlpha}} : l)),
@@ -175,13 +197,14 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string):
 		plan: truePlan,
 		scanner,
 		settings: {sliderDb: applied.sliders, masterGainDb: applied.masterGainDb},
-		width: regionWidth,
-		height: regionHeight,
+		width,
+		height,
 		seed,
+		structures,
 		caption: caption(scanner, plan, Math.round(applied.masterGainDb), 'PATIENT'),
 	});
 	const image: DemoImage = {name: 'patient', role: 'patient', width: f.width, height: f.height, channels: 3, data: greyToRgb(f.grey, f.overlay), masterGainDb: applied.masterGainDb};
-	const cmPerPixel = plan.display.depthCm / regionHeight;
+	const cmPerPixel = plan.display.depthCm / height;
 	const bands: {depthCm: number; meanLevelDb: number; noiseLevelDb: number; lossDb: number | null}[] = [];
 	const rowsPerBand = Math.max(1, Math.round(0.5 / cmPerPixel));
 	for (let r = Math.floor(rowsPerBand / 2); r < f.truth.depthCm.length; r += rowsPerBand) {
@@ -205,6 +228,11 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string):
 		scanner: scannerTruth(plan, scanner),
 		bands,
 		blockedDepthCm: f.truth.blockedDepthCm,
+		structures: {
+			note: 'x as fractions of the tissue region\'s width, depths in displayed cm; left out of the band levels above',
+			cyst: structures.cyst ?? null,
+			brightLine: structures.brightLine ?? null,
+		},
 		region: f.region,
 		cmPerPixel: round(cmPerPixel, 8),
 		rowsToDepth: {topRowCm: round(f.rowsToDepth.topRowCm, 8), cmPerRow: round(f.rowsToDepth.cmPerRow, 8)},

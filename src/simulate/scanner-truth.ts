@@ -40,9 +40,24 @@ function levelForMeanGrey(scanner: ScannerBehaviour, grey: number): number {
 	return (lo + hi) / 2;
 }
 
+/** Grey maps already worked out, by display map: each costs millions of map evaluations, and demo sets repeat them. */
+const greyMaps = new Map<string, readonly {grey: number; levelDb: number}[]>();
+
+function greyMapOf(scanner: ScannerBehaviour): readonly {grey: number; levelDb: number}[] {
+	const m = scanner.display;
+	const key = `${m.topDb}/${m.dynamicRangeDb}/${m.curveExponent}`;
+	let map = greyMaps.get(key);
+	if (!map) {
+		const points: {grey: number; levelDb: number}[] = [];
+		for (let grey = 5; grey <= 250; grey += 5) points.push({grey, levelDb: round(levelForMeanGrey(scanner, grey))});
+		map = points;
+		greyMaps.set(key, map);
+	}
+	return map;
+}
+
 export function scannerTruth(plan: EnginePlan, scanner: ScannerBehaviour): ScannerTruth {
-	const greyMap: {grey: number; levelDb: number}[] = [];
-	for (let grey = 5; grey <= 250; grey += 5) greyMap.push({grey, levelDb: round(levelForMeanGrey(scanner, grey))});
+	const greyMap = greyMapOf(scanner).map((p) => ({...p}));
 	const depthResponse: {depthCm: number; gainDb: number}[] = [];
 	const stepCm = 0.25;
 	for (let d = 0; d <= plan.display.depthCm + 1e-9; d += stepCm) depthResponse.push({depthCm: round(d, 2), gainDb: round(scanner.depthResponseDb(d))});

@@ -13,6 +13,7 @@ import {centredSettings, rowGainsDb, type AppliedSettings} from './row-gains.js'
 import {plainScanner, type ScannerBehaviour} from './scanner-behaviour.js';
 import {frameImage, type ImageRegion} from './scanner-frame.js';
 import {makeSpeckle, speckleCellOf, type SpeckleFields} from './speckle-field.js';
+import {drawStructures, type PatientStructures} from './patient-structures.js';
 
 export interface FrameRequest {
 	/** The stack that is imaged (for demo images: the true stack, not the planned one). */
@@ -29,6 +30,8 @@ export interface FrameRequest {
 	readonly caption?: string;
 	/** Probe held in air: no echo at all, only the scanner's noise. */
 	readonly probeInAir?: boolean;
+	/** Non-speckle structures drawn in (demo patient images). */
+	readonly structures?: PatientStructures;
 	/** Re-use fields made earlier for the same size and probe (a gain change never re-draws speckle). */
 	readonly fields?: SpeckleFields;
 }
@@ -76,7 +79,10 @@ export function simulateFrame(req: FrameRequest): SimulatedFrame {
 	const regionRows: RowsToDepth = {topRowCm: 0, cmPerRow: plan.display.depthCm / height};
 	const rows = rowEchoes(plan, height, regionRows, req.probeInAir ?? false);
 	const gains = rowGainsDb(plan, scanner, settings, rows.depthCm);
-	const image = echoImage(fields, rows, scanner.noiseBudgetDb);
+	const plainEcho = echoImage(fields, rows, scanner.noiseBudgetDb);
+	const image = req.structures
+		? drawStructures(plainEcho, fields, [...rows.lossDb], scanner.noiseBudgetDb, regionRows.cmPerRow, req.structures)
+		: plainEcho;
 	const region = greyImage(image, gains, scanner.display, scanner.smoothingPx);
 	const truth: FrameTruth = {
 		depthCm: [...rows.depthCm],
