@@ -11,8 +11,8 @@ import {PathModel, type Barrier} from './path-model.js';
 import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
 import {receiveWarnings} from './receive-notes.js';
-import {minimumAttenuationSpread} from './tissue-library.js';
-import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit, Tissue} from './types.js';
+import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit} from './types.js';
+import {bandGridCm, uncertaintyBand} from './uncertainty-band.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
 export const modelVersion = 'evenecho-model 2 (1-D parallel layers at the plan\'s beam angle, pulse-echo spectrum of the probe\'s steepness, fundamental or harmonic receive)';
@@ -38,24 +38,6 @@ export function sampleDepths(depthCm: number, stepCm: number): number[] {
 	}
 	if (!exact || out.length === n) out.push(depthCm);
 	return out;
-}
-
-/** A tissue at one end of its attenuation spread (at least ±20 %, Madsen et al. 1986). */
-export function spreadTissue(t: Tissue, end: 'low' | 'high', centerMhz: number): Tissue {
-	const [aLo, aHi] = t.spread?.alphaDbPerCmMhz ?? [t.alphaDbPerCmMhz, t.alphaDbPerCmMhz];
-	const [nLo, nHi] = t.spread?.exponent ?? [t.exponent, t.exponent];
-	const alpha =
-		end === 'low'
-			? Math.min(aLo, t.alphaDbPerCmMhz * (1 - minimumAttenuationSpread))
-			: Math.max(aHi, t.alphaDbPerCmMhz * (1 + minimumAttenuationSpread));
-	// Above 1 MHz a larger exponent means more loss; below 1 MHz the reverse.
-	const lowerLossExponent = centerMhz >= 1 ? Math.min(nLo, t.exponent) : Math.max(nHi, t.exponent);
-	const higherLossExponent = centerMhz >= 1 ? Math.max(nHi, t.exponent) : Math.min(nLo, t.exponent);
-	return {...t, alphaDbPerCmMhz: alpha, exponent: end === 'low' ? lowerLossExponent : higherLossExponent};
-}
-
-function spreadLayers(layers: readonly Layer[], end: 'low' | 'high', centerMhz: number): Layer[] {
-	return layers.map((l) => ({...l, tissue: spreadTissue(l.tissue, end, centerMhz)}));
 }
 
 /**
@@ -118,26 +100,6 @@ function holdFlatBeyond(plan: EnginePlan, fit: SliderFit, usableDepthCm: number,
 		return {depthCm: s.depthCm, gainDb: Math.min(maxDb, Math.max(minDb, wanted))};
 	});
 	return {...fit, sliders};
-}
-
-/** Spacing of the uncertainty-band grid, cm: the band is smooth and only ±20 % wide or more, so
- * linear interpolation between these points is far finer than the band itself. */
-const bandGridCm = 0.5;
-
-/** Loss of a spread model on a coarse grid, interpolated linearly; exact at layer boundaries too. */
-function bandInterpolator(model: PathModel, depthCm: number): (d: number) => number {
-	const grid = new Set(sampleDepths(depthCm, bandGridCm));
-	for (const s of model.spans) if (s.shownBottomCm < depthCm) grid.add(s.shownBottomCm);
-	const xs = [...grid].sort((a, b) => a - b);
-	const ys = xs.map((x) => model.lossAt(x));
-	return (d) => {
-		let i = 1;
-		while (i < xs.length - 1 && xs[i]! < d) i++;
-		const x0 = xs[i - 1]!;
-		const x1 = xs[i]!;
-		const t = x1 > x0 ? (d - x0) / (x1 - x0) : 0;
-		return ys[i - 1]! + t * (ys[i]! - ys[i - 1]!);
-	};
 }
 
 /** Builds the loss model of a plan's nominal layers. */
@@ -236,23 +198,24 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const depthCm = plan.display.depthCm;
 	const f0 = plan.probe.centerMhz;
 	const nominal = pathModelOf(plan);
-	const low = pathModelOf(plan, spreadLayers(plan.layers, 'low', f0));
-	const high = pathModelOf(plan, spreadLayers(plan.layers, 'high', f0));
 
 	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
 	const blockedDepthCm = barrier ? barrier.displayedCm : null;
-	const heldAt = (m: PathModel) => (blockedDepthCm === null ? 0 : m.lossAt(blockedDepthCm));
-	const held = {nominal: heldAt(nominal), low: heldAt(low), high: heldAt(high)};
-
-	const lowAt = bandInterpolator(low, depthCm);
-	const highAt = bandInterpolator(high, depthCm);
-	const samples: CurveSample[] = sampleDepths(depthCm, stepCm).map((d) => {
-		const p = nominal.at(d);
+	const depths = sampleDepths(depthCm, stepCm);
+	const points = depths.map((d) => nominal.at(d));
+	const centroidAt = (d: number): number => {
+		let i = 0;
+		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;
+		return points[i]!.echoCenterMhz;
+	};
+	const band = uncertaintyBand(plan, sampleDepths(depthCm, bandGridCm), centroidAt);
+	const heldAt = blockedDepthCm === null ? null : {nominal: nominal.lossAt(blockedDepthCm), ...band.at(blockedDepthCm)};
+	const samples: CurveSample[] = depths.map((d, i) => {
+		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
-		const blocked = blockedDepthCm !== null && d > blockedDepthCm;
-		const lo = blocked ? held.low : lowAt(d);
-		const hi = blocked ? held.high : highAt(d);
-		const comp = blocked ? held.nominal : loss;
+		const blocked = heldAt !== null && d > blockedDepthCm!;
+		const {lowDb: lo, highDb: hi} = blocked ? heldAt : band.at(d);
+		const comp = blocked ? heldAt.nominal : loss;
 		return {
 			displayedDepthCm: d,
 			trueDepthCm: p.trueDepthCm,

@@ -4,6 +4,7 @@
 import {stringify} from 'csv-stringify/sync';
 import {modelVersion} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
+import {bandScopeNote} from '../engine/uncertainty-band.js';
 import {cautionLine} from './cautions.js';
 
 const round = (x: number, digits = 3) => (Number.isFinite(x) ? Number(x.toFixed(digits)) : x);
@@ -14,6 +15,8 @@ export function curveJson(r: CurveResult) {
 		model: modelVersion,
 		plan: r.plan.name,
 		attenuationConvention: 'one-way dB/cm/MHz^n coefficients; curve values are round trip',
+		/** What lowDb–highDb holds and leaves out. */
+		band: bandScopeNote,
 		layers: r.plan.layers.map((l, i) => ({
 			layer: i + 1,
 			...(l.tissue.id ? {tissueId: l.tissue.id} : {}),

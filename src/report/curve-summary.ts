@@ -4,6 +4,7 @@
  */
 import {deliveredCompensationDb} from '../engine/compensation-curve.js';
 import {impedanceMrayl} from '../engine/tissue-library.js';
+import {bandScopeNote} from '../engine/uncertainty-band.js';
 import type {CurveResult} from '../engine/types.js';
 import {cautions} from './cautions.js';
 
@@ -68,6 +69,7 @@ export function curveSummary(r: CurveResult): string {
 			`       ${lpad(f1(s.displayedDepthCm), 8)}  ${lpad(f1(s.trueDepthCm), 7)}  ${lpad(f1(s.compensationDb), 7)}  ${lpad(`${f1(s.lowDb)}-${f1(s.highDb)}`, 11)}  ${lpad(s.echoCenterMhz.toFixed(2), 8)}${flag}`,
 		);
 	});
+	out.push(`  ${bandScopeNote}`);
 	const warnings = r.warnings.filter((w) => w.severity === 'warning');
 	const notes = r.warnings.filter((w) => w.severity === 'note');
 	if (warnings.length) {

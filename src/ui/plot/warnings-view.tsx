@@ -1,6 +1,7 @@
 /** `w`: every curve warning in full, then the cautions as far as they fit. */
 import {Box, Text} from 'ink';
 import type {CurveResult} from '../../engine/types.js';
+import {bandScopeNote} from '../../engine/uncertainty-band.js';
 import {cautions} from '../../report/cautions.js';
 import {shortWarning} from '../state/curve-facts.js';
 import {wrapWords} from '../kit/layout.js';
@@ -20,6 +21,8 @@ export function warningsViewLines(curve: CurveResult, width: number, height: num
 		const mark = shortWarning(w, curve)[0] ?? '!';
 		wrapWords(`${mark} ${w.message}`, width - 2).forEach((text, i) => out.push({text: i === 0 ? text : `  ${text}`, tone: 'warning'}));
 	}
+	// The plot's band (-): what it holds, said once in the console, here.
+	wrapWords(`- ${bandScopeNote}`, width - 2).forEach((text, i) => out.push({text: i === 0 ? text : `  ${text}`, tone: 'plain'}));
 	const room = height - out.length - 1;
 	const cautionText = cautions.flatMap((c) => wrapWords(`- ${c}`, width));
 	if (room > 1) {

@@ -1,0 +1,192 @@
+/**
+ * The uncertainty band of a compensation curve: the loss at every displayed depth with each tissue's
+ * values at the ends of their published spread, the lower end and the higher end.
+ *
+ * - Attenuation α(f) = α0·fⁿ (the power law of the tissue tables, e.g. Duck 1990 ch. 4, Szabo 2004
+ *   ch. 4): more α0 always means more loss. A larger exponent n means more loss where the echo's
+ *   frequencies lie above 1 MHz (fⁿ grows with n) and less where they lie below it, so the exponent
+ *   end is picked at each depth from the echo's centre frequency there, not from the probe's f0: a
+ *   deep broadband echo drifts below 1 MHz although f0 does not. Where the echo's frequencies
+ *   straddle 1 MHz (the two legs of a harmonic echo), both exponent ends are worked out and the band
+ *   keeps the lower and the higher loss.
+ * - Speed: at a fixed displayed depth a faster layer is drawn thinner, so the echo there has crossed
+ *   more true tissue, and every layer's loss per displayed cm rises with its speed; the low end takes
+ *   each speed at the bottom of its range, the high end at the top.
+ * - Boundaries: each boundary's loss is taken at its own smallest and largest value over the corners
+ *   of both layers' speed and density ranges (zero when their impedance ranges overlap at normal
+ *   incidence); the sums bound the joint spread from outside.
+ */
+import {obliqueRoundTripLossDb, refractedAnglesDeg} from './beam-angle.js';
+import {reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
+import {PathModel} from './path-model.js';
+import {minimumAttenuationSpread} from './tissue-library.js';
+import type {EnginePlan, Layer, Range, Tissue} from './types.js';
+
+/** What the band holds and what it leaves out: stated, from here, in every output that shows it. */
+export const bandScopeNote =
+	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
+
+export type BandEnd = 'low' | 'high';
+
+/** Which exponent end raises the loss: `above` when the echo lies above 1 MHz (larger n = more loss). */
+type ExponentSide = 'above' | 'below';
+
+const rangeOf = (r: Range | undefined, value: number): Range => r ?? [value, value];
+
+/** One corner of a tissue's spread: each value at its low or high end (the exponent by its size). */
+export interface SpreadCorner {
+	readonly alpha: BandEnd;
+	readonly exponent: BandEnd;
+	readonly speed: BandEnd;
+}
+
+/**
+ * A tissue at one corner of its spread: α0 (at least ±20 %, Madsen et al. 1986), exponent and speed.
+ * Density stays nominal: it acts only through the boundaries, which are bounded separately.
+ */
+export function spreadTissue(t: Tissue, corner: SpreadCorner): Tissue {
+	const [aLo, aHi] = rangeOf(t.spread?.alphaDbPerCmMhz, t.alphaDbPerCmMhz);
+	const [nLo, nHi] = rangeOf(t.spread?.exponent, t.exponent);
+	const [cLo, cHi] = rangeOf(t.spread?.speedMps, t.speedMps);
+	return {
+		...t,
+		alphaDbPerCmMhz:
+			corner.alpha === 'low' ? Math.min(aLo, t.alphaDbPerCmMhz * (1 - minimumAttenuationSpread)) : Math.max(aHi, t.alphaDbPerCmMhz * (1 + minimumAttenuationSpread)),
+		exponent: corner.exponent === 'low' ? Math.min(nLo, t.exponent) : Math.max(nHi, t.exponent),
+		speedMps: corner.speed === 'low' ? Math.min(cLo, t.speedMps) : Math.max(cHi, t.speedMps),
+	};
+}
+
+/** The four speed–density corners of a tissue's spread. */
+function corners(t: Tissue): Pick<Tissue, 'speedMps' | 'densityKgM3'>[] {
+	const [cLo, cHi] = rangeOf(t.spread?.speedMps, t.speedMps);
+	const [rLo, rHi] = rangeOf(t.spread?.densityKgM3, t.densityKgM3);
+	const cs = [Math.min(cLo, t.speedMps), Math.max(cHi, t.speedMps)];
+	const rs = [Math.min(rLo, t.densityKgM3), Math.max(rHi, t.densityKgM3)];
+	return cs.flatMap((speedMps) => rs.map((densityKgM3) => ({speedMps, densityKgM3})));
+}
+
+/** Impedance range of a tissue's spread, MRayl-proportional. */
+function impedanceRange(t: Tissue): Range {
+	const zs = corners(t).map((c) => c.speedMps * c.densityKgM3);
+	return [Math.min(...zs), Math.max(...zs)];
+}
+
+/**
+ * Smallest and largest round-trip loss of each boundary (boundary i lies under layer i), dB, over the
+ * speed and density corners of the two layers, at the nominal incidence angle. A corner past the
+ * critical angle is left to the nominal barrier logic.
+ */
+export function boundaryLossRanges(layers: readonly Layer[], angleDeg: number): Range[] {
+	const angles = refractedAnglesDeg(layers, angleDeg);
+	const out: Range[] = [];
+	for (let i = 0; i + 1 < layers.length; i++) {
+		const a = layers[i]!.tissue;
+		const b = layers[i + 1]!.tissue;
+		const incidence = angles[i] ?? 0;
+		const lossOf = (x: Pick<Tissue, 'speedMps' | 'densityKgM3'>, y: Pick<Tissue, 'speedMps' | 'densityKgM3'>) =>
+			angleDeg === 0 ? roundTripTransmissionLossDb(reflectionCoefficient(x, y)) : obliqueRoundTripLossDb(x, y, incidence);
+		const losses = corners(a)
+			.flatMap((x) => corners(b).map((y) => lossOf(x, y)))
+			.filter(Number.isFinite);
+		const nominal = lossOf(a, b);
+		const [za0, za1] = impedanceRange(a);
+		const [zb0, zb1] = impedanceRange(b);
+		const overlap = angleDeg === 0 && za0 <= zb1 && zb0 <= za1;
+		out.push([overlap ? 0 : Math.min(nominal, ...losses), Math.max(nominal, ...losses)]);
+	}
+	return out;
+}
+
+/** Echo centre frequency (its lowest leg) from which on a larger exponent surely means more loss, MHz.
+ * Not 1 MHz itself: f·ln f is convex, so a broad echo centred a little below 1 MHz still loses more
+ * with a larger exponent; below this both ends are worked out. */
+const surelyAboveMhz = 2;
+
+/** Which exponent ends can raise the loss at a depth, from the echo's centre frequency there (a
+ * harmonic echo's outward leg runs at about half its received centre). */
+function exponentSides(receive: EnginePlan['probe']['receive'], centroidMhz: number): ExponentSide[] {
+	const lowest = (receive ?? 'fundamental') === 'fundamental' ? centroidMhz : centroidMhz / 2;
+	return lowest >= surelyAboveMhz ? ['above'] : ['above', 'below'];
+}
+
+/**
+ * The corners a band end is taken over. Fundamental and scatterer harmonic: the loss rises with α0
+ * and speed, so one corner per exponent side. Tissue harmonic: relative to its 1 cm reference the
+ * near field's build-up gains with depth while attenuation loses, so α0 and speed can act either way
+ * and every combination is tried.
+ */
+function cornersFor(end: BandEnd, side: ExponentSide, tissueHarmonic: boolean): SpreadCorner[] {
+	const lossier = (e: BandEnd): BandEnd => (side === 'above' ? e : e === 'low' ? 'high' : 'low');
+	if (!tissueHarmonic) return [{alpha: end, exponent: lossier(end), speed: end}];
+	const ends: BandEnd[] = ['low', 'high'];
+	return ends.flatMap((alpha) => ends.map((speed) => ({alpha, exponent: lossier(end), speed})));
+}
+
+/** Spacing of the band's grid, cm: the band is smooth, so linear interpolation between these points
+ * is far finer than the band itself. */
+const bandGridCm = 0.5;
+
+export interface UncertaintyBand {
+	/** Band ends at a displayed depth, dB (not yet ordered against each other or the curve). */
+	at(displayedCm: number): {lowDb: number; highDb: number};
+}
+
+/**
+ * The band of a plan over its display. `centroidAt` gives the nominal echo's centre frequency at a
+ * displayed depth; `grid` the depths the band is worked out at (interpolated linearly between).
+ */
+export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centroidAt: (displayedCm: number) => number): UncertaintyBand {
+	const angle = plan.probe.angleDeg ?? 0;
+	const boundaries = boundaryLossRanges(plan.layers, angle);
+	const crossed = (end: BandEnd): number[] => {
+		const sums = [0];
+		for (const r of boundaries) sums.push(sums[sums.length - 1]! + (end === 'low' ? r[0] : r[1]));
+		return sums;
+	};
+	const crossedBy = {low: crossed('low'), high: crossed('high')};
+	const models = new Map<string, PathModel>();
+	const modelOf = (c: SpreadCorner): PathModel => {
+		const key = `${c.alpha}:${c.exponent}:${c.speed}`;
+		let m = models.get(key);
+		if (!m) {
+			const layers = plan.layers.map((l) => ({...l, tissue: spreadTissue(l.tissue, c)}));
+			m = new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
+			models.set(key, m);
+		}
+		return m;
+	};
+	const tissueHarmonic = plan.probe.receive === 'tissue-harmonic';
+	const lossOf = (end: BandEnd, d: number, sides: ExponentSide[]): number[] =>
+		sides.flatMap((side) =>
+			cornersFor(end, side, tissueHarmonic).map((c) => {
+				const p = modelOf(c).at(d);
+				return p.attenuationDb + crossedBy[end][p.layerIndex]!;
+			}),
+		);
+	const xs = new Set(grid);
+	// The boundaries of the spread layers, so steps in the boundary loss are not smeared.
+	const last = grid[grid.length - 1] ?? 0;
+	for (const speed of ['low', 'high'] as const) {
+		for (const s of modelOf({alpha: speed, exponent: speed, speed}).spans) if (s.shownBottomCm < last) xs.add(s.shownBottomCm);
+	}
+	const depths = [...xs].sort((a, b) => a - b);
+	const ends = depths.map((d) => {
+		const sides = exponentSides(plan.probe.receive, centroidAt(d));
+		return {lowDb: Math.min(...lossOf('low', d, sides)), highDb: Math.max(...lossOf('high', d, sides))};
+	});
+	return {
+		at(d) {
+			let i = 1;
+			while (i < depths.length - 1 && depths[i]! < d) i++;
+			const x0 = depths[i - 1] ?? 0;
+			const x1 = depths[i] ?? x0;
+			const e0 = ends[i - 1] ?? ends[0]!;
+			const e1 = ends[i] ?? e0;
+			const t = x1 > x0 ? Math.min(1, Math.max(0, (d - x0) / (x1 - x0))) : 0;
+			return {lowDb: e0.lowDb + t * (e1.lowDb - e0.lowDb), highDb: e0.highDb + t * (e1.highDb - e0.highDb)};
+		},
+	};
+}
+
+export {bandGridCm};

@@ -1,0 +1,29 @@
+/** Every output that shows the uncertainty band says what it holds, with the one sentence from the engine. */
+import {describe, expect, it} from 'vitest';
+import {computeCurve} from '../../src/engine/compensation-curve.js';
+import {bandScopeNote} from '../../src/engine/uncertainty-band.js';
+import {curveJson} from '../../src/report/curve-json.js';
+import {curveSummary} from '../../src/report/curve-summary.js';
+import {resolvePlan} from '../../src/plan/resolve-plan.js';
+import {warningsViewLines} from '../../src/ui/plot/warnings-view.js';
+import {abdomenPlan} from '../helpers/plans.js';
+
+describe('the band sentence', () => {
+	const curve = computeCurve(resolvePlan(abdomenPlan()));
+
+	it('is in the text summary, beside the band column', () => {
+		expect(curveSummary(curve)).toContain(bandScopeNote);
+	});
+
+	it('is the JSON document\'s `band` field', () => {
+		expect(curveJson(curve).band).toBe(bandScopeNote);
+	});
+
+	it('is in the console\'s warnings-in-full view (w), wrapped to the width', () => {
+		const text = warningsViewLines(curve, 96, 60)
+			.map((l) => l.text.trim())
+			.join(' ');
+		expect(text.replace(/^.*?- Band:/, 'Band:')).toContain(bandScopeNote.slice(0, 60));
+		expect(warningsViewLines(curve, 96, 60).every((l) => l.text.length <= 96)).toBe(true);
+	});
+});
