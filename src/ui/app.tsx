@@ -95,7 +95,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 			<Box height={bodyRows - 1}>
 				<StepPane state={state} curve={curve} delta={delta} width={columns} height={bodyRows - 1} isFocused />
 			</Box>
-			<Text wrap="truncate">{clip(`${liveLine(curve, delta)}  (Tab: curve)`, columns)}</Text>
+			<Text wrap="truncate">{clip(liveLine(curve, delta, columns), columns)}</Text>
 		</Box>
 	);
 }

@@ -78,6 +78,18 @@ export async function moveTo(app: Rendered, key: string, text: string, limit = 4
 	throw new Error(`no row with ${JSON.stringify(text)} came under the cursor; frame:\n${frame(app)}`);
 }
 
+/**
+ * Presses `key` until a row marked `> ` anywhere on a line (a list beside a plot, say) contains
+ * `text`.
+ */
+export async function moveToMarked(app: Rendered, key: string, text: string, limit = 40): Promise<void> {
+	for (let i = 0; i < limit; i++) {
+		if (frame(app).includes(`> ${text}`)) return;
+		await press(app, key);
+	}
+	throw new Error(`no row marked "> ${text}" came under the cursor; frame:\n${frame(app)}`);
+}
+
 /** The first line whose first non-blank character is the cursor mark `>`. */
 export function selectedLine(app: Rendered): string {
 	return (

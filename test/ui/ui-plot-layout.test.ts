@@ -53,10 +53,20 @@ describe('plot rows', () => {
 	it('use round depth steps when they fit', async () => {
 		const {plotRowCount} = await import('../../src/ui/kit/depth-plot.js');
 		expect(plotRowCount(16, 16)).toBe(16);
-		expect(plotRowCount(16, 21)).toBe(16);
-		expect(plotRowCount(16, 13)).toBe(11);
-		expect(plotRowCount(20, 13)).toBe(10);
-		expect(plotRowCount(7.3, 13)).toBe(8);
+		// 0.8 cm a row: 20 of 21 rows, where whole centimetres left five rows empty.
+		expect(plotRowCount(16, 21)).toBe(20);
+		expect(plotRowCount(16, 14)).toBe(14);
+		expect(plotRowCount(7.3, 13)).toBe(13);
+	});
+
+	it('stretch over every row offered when no round step fills most of them, labelled at round depths', async () => {
+		const {plotRowCount} = await import('../../src/ui/kit/depth-plot.js');
+		expect(plotRowCount(16, 26)).toBe(26);
+		expect(plotRowCount(20, 13)).toBe(13);
+		const plot = depthPlot(computeCurve(resolvePlan(demoPlan())), {width: 54, height: 26});
+		expect(plot.rows).toHaveLength(26);
+		const labels = plot.rows.map((l) => l.slice(0, 5).trim()).filter(Boolean);
+		expect(labels).toEqual(Array.from({length: 16}, (_, k) => k.toFixed(1)));
 	});
 });
 

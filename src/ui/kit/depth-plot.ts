@@ -63,17 +63,45 @@ function legendFor(width: number, marks: {selected: boolean; noise: boolean; blo
 	return fit(candidates.find((l) => l.length <= width) ?? candidates[3]!, width);
 }
 
-/** Depth steps a row may span, cm: round numbers first, so the row labels read 0, 1.5, 3 … */
-const rowSteps = [0.1, 0.2, 0.25, 0.5, 1, 1.5, 2, 2.5, 3, 4, 5, 10];
+/** Depth steps a row may span, cm, finest first: steps a depth scale reads easily (0, 0.8, 1.6 …). */
+const rowSteps = [0.1, 0.2, 0.25, 0.3, 0.4, 0.5, 0.6, 0.8, 1, 1.2, 1.5, 2, 2.5, 3, 4, 5, 10];
 
-/** Depth per row for a display depth: the finest round step that fits in `maxRows` rows (the last row may be partly past the bottom). */
+/** Share of the offered rows a round step must fill; below it the rows stretch to fill them all. */
+const roundFill = 0.85;
+
+/** The finest round step that fits in `maxRows` rows (the last row may be partly past the bottom). */
+function roundRowStep(depthCm: number, maxRows: number): number | undefined {
+	return rowSteps.find((step) => Math.ceil(depthCm / step - 1e-9) <= maxRows);
+}
+
+/**
+ * Depth per row for a display depth: a round step when it fills most of `maxRows`, else the depth
+ * spread evenly over all of them (a tall terminal is then used whole, and the rows are labelled
+ * only where a round depth falls, like the tick marks of a depth scale).
+ */
 export function plotRowStep(depthCm: number, maxRows: number): number {
-	for (const step of rowSteps) if (Math.ceil(depthCm / step - 1e-9) <= maxRows) return step;
+	const round = roundRowStep(depthCm, maxRows);
+	if (round !== undefined && Math.ceil(depthCm / round - 1e-9) >= roundFill * maxRows) return round;
 	return depthCm / Math.max(2, maxRows);
 }
 
 export function plotRowCount(depthCm: number, maxRows: number): number {
 	return Math.max(2, Math.ceil(depthCm / plotRowStep(depthCm, maxRows) - 1e-9));
+}
+
+/** Round depths labelled on a stretched plot, cm: the finest that leaves at least 1.5 rows per label. */
+const tickSteps = [0.1, 0.2, 0.5, 1, 2, 5, 10];
+
+/** Row labels: every row's top depth for a round step; on a stretched plot only rows that hold a tick. */
+function rowLabels(rowCount: number, rowCm: number): string[] {
+	const isRound = rowSteps.some((s) => Math.abs(s - rowCm) < 1e-9);
+	if (isRound) return Array.from({length: rowCount}, (_, row) => (row * rowCm).toFixed(1));
+	const tick = tickSteps.find((t) => t >= 1.5 * rowCm) ?? 10;
+	return Array.from({length: rowCount}, (_, row) => {
+		const top = row * rowCm;
+		const mark = Math.ceil(top / tick - 1e-9) * tick;
+		return mark < top + rowCm - 1e-9 ? mark.toFixed(1) : '';
+	});
 }
 
 export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
@@ -125,8 +153,9 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 		cells[rowOf(s.depthCm)]![col(totals[k]!)] = k === o.selectedSlider ? glyph.selected : glyph.slider;
 	});
 
+	const labels = rowLabels(height, rowCm);
 	const rows = cells.map((line, row) => {
-		const label = (row * rowCm).toFixed(1).padStart(labelWidth);
+		const label = labels[row]!.padStart(labelWidth);
 		const tail = note ? ` ${fit(notes[row]!, note)}` : '';
 		return `${label}|${line.join('')}|${tail}`;
 	});

@@ -69,9 +69,25 @@ export function deltaOf(r: CurveResult, doc: PlanDocument): SettingsDelta | null
 	return settingsDelta(settingsOf(r.fit), ref);
 }
 
-/** The one-line live summary under a step when the curve is not on screen. */
-export function liveLine(r: CurveResult, delta: SettingsDelta | null): string {
+/**
+ * The one-line live summary under a step when the curve is not on screen, fitted to `width`.
+ * Reach (with the noise floor and any barrier) and the warning count matter most, so the parts
+ * that go first when the line is too narrow are the Tab hint, then the fit, then the "vs usual".
+ */
+export function liveLine(r: CurveResult, delta: SettingsDelta | null, width = Number.POSITIVE_INFINITY): string {
 	const n = r.warnings.filter((w) => w.severity === 'warning').length;
-	const warn = n ? `  ${n} warning${n > 1 ? 's' : ''}` : '';
-	return `Live: ${masterText(r, delta)}  ${reachText(r)}${warn}`;
+	const warn = n ? `${n} warning${n > 1 ? 's' : ''} (w)` : '';
+	const master = masterLine(r, delta);
+	const bare = `master ${f1(r.fit.masterGainDb)} dB`;
+	const fit = `fit ${f1(r.fit.residualDb)} dB`;
+	const join = (parts: readonly string[]) => `Live: ${parts.filter(Boolean).join('  ')}`;
+	const candidates = [
+		join([master, fitLine(r), reachText(r), warn, '(Tab: curve)']),
+		join([master, fitLine(r), reachText(r), warn]),
+		join([master, fit, reachText(r), warn]),
+		join([master, reachText(r), warn]),
+		join([bare, reachText(r), warn]),
+		join([reachText(r), warn]),
+	];
+	return candidates.find((c) => c.length <= width) ?? candidates[candidates.length - 1]!;
 }

@@ -13,6 +13,14 @@ export const stackLegend =
 	'units: cm; a0 dB/cm/MHz^n, c m/s, rho kg/m³. screen: thickness as measured on the screen, ' +
 	'true: real thickness (m switches); +: the last layer goes on below the display';
 
+/** Narrowest pane that shows a0 and n beside each layer (they take about 32 characters with the thickness). */
+const numbersFrom = 62;
+
+/** Label column of the stack: up to 30 characters, narrowed so a0 and n fit when the pane can show them. */
+export function stackLabelWidth(width: number): number {
+	return width >= numbersFrom ? Math.min(30, width - 36) : Math.min(30, Math.floor(width * 0.55));
+}
+
 export function StackStep({state, width, height, isFocused}: StepProps) {
 	const theme = useTheme();
 	const rows = rowsOf(state, 'stack');
@@ -35,7 +43,7 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 			? `2 Tissue stack, skin at the top${note || ' (Enter opens a layer)'}`
 			: `2 Tissue stack > layer ${open + 1} of ${state.doc.layers.length} (Esc back to the stack)${note}`;
 	const extra = (row: Row) => {
-		if (row.kind !== 'layer' || width < 70) return undefined;
+		if (row.kind !== 'layer' || width < numbersFrom) return undefined;
 		const t = tissueOf(state.doc, row.index);
 		return t ? `a0 ${t.alphaDbPerCmMhz} n ${t.exponent}` : undefined;
 	};
@@ -44,7 +52,7 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 			<Text wrap="truncate" {...theme.current}>
 				{clip(title, width)}
 			</Text>
-			<FieldList state={state} rows={rows} cursor={cursor} width={width} height={lines} isFocused={isFocused} extra={extra} labelWidth={Math.min(30, Math.floor(width * 0.55))} />
+			<FieldList state={state} rows={rows} cursor={cursor} width={width} height={lines} isFocused={isFocused} extra={extra} labelWidth={stackLabelWidth(width)} />
 			{legend.map((l, i) => (
 				<Text key={`legend-${i}`} wrap="truncate" {...theme.muted}>
 					{l}
