@@ -129,7 +129,7 @@ function bandInterpolator(model: PathModel, depthCm: number): (d: number) => num
 	const grid = new Set(sampleDepths(depthCm, bandGridCm));
 	for (const s of model.spans) if (s.shownBottomCm < depthCm) grid.add(s.shownBottomCm);
 	const xs = [...grid].sort((a, b) => a - b);
-	const ys = xs.map((x) => model.lossAt(x));
+	const ys = model.pointsAt(xs).map((p) => p.attenuationDb + p.interfaceLossDb);
 	return (d) => {
 		let i = 1;
 		while (i < xs.length - 1 && xs[i]! < d) i++;
@@ -246,8 +246,10 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 
 	const lowAt = bandInterpolator(low, depthCm);
 	const highAt = bandInterpolator(high, depthCm);
-	const samples: CurveSample[] = sampleDepths(depthCm, stepCm).map((d) => {
-		const p = nominal.at(d);
+	const depths = sampleDepths(depthCm, stepCm);
+	const points = nominal.pointsAt(depths);
+	const samples: CurveSample[] = depths.map((d, i) => {
+		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = blockedDepthCm !== null && d > blockedDepthCm;
 		const lo = blocked ? held.low : lowAt(d);

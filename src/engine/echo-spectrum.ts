@@ -346,6 +346,11 @@ export class BandLossCalculator {
 	/** Peak of the last integrand: neighbouring depths have nearby peaks, so Newton starts there. */
 	private lastPeak: number | undefined;
 
+	/** Integrates over a spectrum (false for a narrowband probe, whose loss is closed form). */
+	get broadband(): boolean {
+		return this.reference !== undefined;
+	}
+
 	constructor(readonly band: Band) {
 		this.reference =
 			band.halfWidthMhz > 0 ? logIntegral(new BandIntegrand(band, emptyPath), band.halfWidthMhz, band.centerMhz, band.steepness) : undefined;
