@@ -202,7 +202,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
 	const blockedDepthCm = barrier ? barrier.displayedCm : null;
 	const depths = sampleDepths(depthCm, stepCm);
-	const points = depths.map((d) => nominal.at(d));
+	const points = nominal.pointsAt(depths);
 	const centroidAt = (d: number): number => {
 		let i = 0;
 		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;

@@ -209,7 +209,9 @@ class BandIntegrand {
 			else hi = f;
 			const c = this.curvature(f);
 			let next = Number.isFinite(c) && c < 0 ? f - g / c : Number.NaN;
-			if (!(next > lo && next < hi)) next = (lo + hi) / 2;
+			// A step landing exactly on the bracket's edge is a good one (it happens when the peak sits
+			// at or next to the edge): refusing it for a halving took 10–40 steps instead of 2–3.
+			if (!(next >= lo && next <= hi)) next = (lo + hi) / 2;
 			if (Math.abs(next - f) <= 1e-12 * Math.max(1, f) || hi - lo <= 1e-13 * Math.max(1, f)) return next;
 			f = next;
 		}
@@ -343,6 +345,11 @@ export class BandLossCalculator {
 	private readonly reference: {logMass: number} | undefined;
 	/** Peak of the last integrand: neighbouring depths have nearby peaks, so Newton starts there. */
 	private lastPeak: number | undefined;
+
+	/** Integrates over a spectrum (false for a narrowband probe, whose loss is closed form). */
+	get broadband(): boolean {
+		return this.reference !== undefined;
+	}
 
 	constructor(readonly band: Band) {
 		this.reference =

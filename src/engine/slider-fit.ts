@@ -93,8 +93,10 @@ export function fitSliders(req: FitRequest): SliderFit {
 	if (qp !== null && acceptable(qp, rows, data.targets, bounds, tau)) totals = qp;
 
 	const fit = settingFromTotals(req, knots, totals);
-	// Defensive only: an optimal fit can never be worse than the naive one (it is realisable too),
-	// beyond the tie-break's slack.
+	// Defensive only: an optimal fit can never be worse than the naive one, whose setting is
+	// realisable and so misses by at least t*. A fit within the slack of t* is therefore kept
+	// without working the naive one out; only a fit that went wrong numerically is compared.
+	if (fit.residualDb <= lp.tStar + 2 * MINIMAX_SLACK * (1 + lp.tStar)) return fit;
 	const naive = naiveFit(req);
 	return fit.residualDb <= naive.residualDb + 2 * MINIMAX_SLACK * (1 + naive.residualDb) ? fit : naive;
 }
