@@ -11,7 +11,7 @@ import {
 	logSpeckleSdDb,
 	rayleighAmplitudeSnr,
 	t95,
-} from '../../src/analysis/speckle-statistics.js';
+} from '../../src/speckle/speckle-statistics.js';
 import {mulberry32, speckleFrame} from '../helpers/speckle-frame.js';
 import {scenarioPlan} from '../helpers/refine-scenario.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
