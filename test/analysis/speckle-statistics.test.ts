@@ -12,7 +12,8 @@ import {
 	rayleighAmplitudeSnr,
 	t95,
 } from '../../src/speckle/speckle-statistics.js';
-import {mulberry32, speckleFrame} from '../helpers/speckle-frame.js';
+import {mulberry32} from '../../src/simulate/seeded-random.js';
+import {speckleFrame} from '../helpers/speckle-frame.js';
 import {scenarioPlan} from '../helpers/refine-scenario.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {settingsOfFit} from '../../src/analysis/applied-gain.js';
