@@ -91,14 +91,5 @@ export function summary(): void {
 	console.log(`  ${targets.length - missed} of ${targets.length} met`);
 }
 
-/** A deterministic pseudo-random sequence (mulberry32), so every run benchmarks the same plans. */
-export function seeded(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
+/** A deterministic pseudo-random sequence (the simulator's mulberry32), so every run benchmarks the same plans. */
+export {mulberry32 as seeded} from '../src/simulate/seeded-random.js';

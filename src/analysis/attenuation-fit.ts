@@ -14,7 +14,7 @@
  */
 import {pathModelOf} from '../engine/compensation-curve.js';
 import type {EnginePlan, Layer} from '../engine/types.js';
-import {t95} from './speckle-statistics.js';
+import {t95} from '../speckle/speckle-statistics.js';
 
 export interface FitBand {
 	readonly sampleDepthsCm: readonly number[];

@@ -3,11 +3,11 @@
  * turned into dB through the level map, with its uncertainty from the number of independent speckle
  * cells (band-mean variance σ²_px·S/N_px in grey, converted by the map's slope; shared method notes §1).
  */
-import {windowStatistics} from './correlation-area.js';
+import {windowStatistics} from '../speckle/correlation-area.js';
 import {rowDepthCm, type GreyFrame, type MeasuredRegion} from './grey-frame.js';
 import type {LevelMap} from './level-map.js';
 import {maskCodes, type SpeckleMask} from './speckle-mask.js';
-import {z95} from './speckle-statistics.js';
+import {sdOfMean, z95} from '../speckle/speckle-statistics.js';
 
 /** Band depth, cm: at most 1 cm (the contract), so a slider's band holds one to three of them. */
 export const bandDepthCm = 1;
@@ -76,7 +76,7 @@ export function measureBands(frame: GreyFrame, region: MeasuredRegion, mask: Spe
 		const all = (rows[1] - rows[0]) * (c1 - c0);
 		const measured = stats.count >= fewestPixels;
 		const cells = stats.count / stats.cellAreaPx;
-		const sdGrey = Math.sqrt((stats.variance * stats.cellAreaPx) / Math.max(1, stats.count));
+		const sdGrey = sdOfMean(Math.sqrt(stats.variance), stats.count, stats.cellAreaPx);
 		const sdDb = measured ? sdGrey * Math.abs(map.slopeDbPerGrey(stats.mean)) : Number.POSITIVE_INFINITY;
 		return {
 			topCm,

@@ -23,7 +23,7 @@ import {
 } from './applied-gain.js';
 import {fitLayerAttenuation, withLayerAlpha, type AttenuationEstimate, type FitBand} from './attenuation-fit.js';
 import {bandRows, measureBands, type BandMeasurement} from './band-levels.js';
-import {windowStatistics} from './correlation-area.js';
+import {windowStatistics} from '../speckle/correlation-area.js';
 import {regionBottomCm, type GreyFrame, type MeasuredRegion} from './grey-frame.js';
 import {logLevelMap, type LevelMap} from './level-map.js';
 import {maskNonSpeckle, type SpeckleMask} from './speckle-mask.js';

@@ -7,6 +7,8 @@
  * against simulation to within 1–14 %). On processed (smoothed) images S grows with the smoothing,
  * so the count stays honest.
  */
+import {windowStatistics} from '../speckle/correlation-area.js';
+import {sdOfMean} from '../speckle/speckle-statistics.js';
 import {rowDepthCm, type PhantomImage} from './phantom-image.js';
 
 /** Depth bands are this tall, cm (the depth response is sampled every 0.5 cm). */
@@ -48,60 +50,17 @@ export function measuredColumns(image: PhantomImage, fraction: readonly [number,
 }
 
 /**
- * Speckle cell area S (pixels): the sum of the autocorrelation coefficient over its central lobe,
- * here the lags whose coefficient exceeds a small floor within ±maxLag pixels, measured on the
- * middle half of the region's rows in the measured columns, skipping masked pixels.
+ * Speckle cell area S (pixels), from the image's own autocorrelation (src/speckle, the estimator the
+ * patient-image analysis uses too), on the middle half of the region's rows in the measured columns,
+ * skipping masked pixels. Each row is taken about its own mean: down half a phantom image the
+ * attenuation trend would otherwise read as axial correlation.
  */
-export function speckleCellArea(image: PhantomImage, cols: readonly [number, number], maxLag = 10): number {
-	const {width, grey, mask} = image;
+export function speckleCellArea(image: PhantomImage, cols: readonly [number, number]): number {
 	const {y0, y1} = image.region;
 	const h = y1 - y0 + 1;
-	const ya = y0 + Math.floor(h / 4);
-	const yb = y0 + Math.floor((3 * h) / 4);
-	// Local mean per row removes the depth trend, which would otherwise read as correlation.
-	const rowMean = new Float64Array(image.height);
-	for (let y = ya; y <= yb; y++) {
-		let s = 0;
-		let n = 0;
-		for (let x = cols[0]; x <= cols[1]; x++) {
-			if (mask[y * width + x]) continue;
-			s += grey[y * width + x]!;
-			n++;
-		}
-		rowMean[y] = n ? s / n : 0;
-	}
-	let variance = 0;
-	let count = 0;
-	for (let y = ya; y <= yb; y++) {
-		for (let x = cols[0]; x <= cols[1]; x++) {
-			if (mask[y * width + x]) continue;
-			const d = grey[y * width + x]! - rowMean[y]!;
-			variance += d * d;
-			count++;
-		}
-	}
-	variance /= Math.max(1, count);
-	if (!(variance > 0)) return 1;
-	let area = 0;
-	for (let dy = -maxLag; dy <= maxLag; dy++) {
-		for (let dx = -maxLag; dx <= maxLag; dx++) {
-			let s = 0;
-			let n = 0;
-			for (let y = Math.max(ya, ya - dy); y <= Math.min(yb, yb - dy); y += 2) {
-				const yy = y + dy;
-				for (let x = Math.max(cols[0], cols[0] - dx); x <= Math.min(cols[1], cols[1] - dx); x++) {
-					const i = y * width + x;
-					const j = yy * width + x + dx;
-					if (mask[i] || mask[j]) continue;
-					s += (grey[i]! - rowMean[y]!) * (grey[j]! - rowMean[yy]!);
-					n++;
-				}
-			}
-			const rho = n ? s / n / variance : 0;
-			if (rho > 0.05) area += rho;
-		}
-	}
-	return Math.max(1, area);
+	const use = image.mask.map((m) => (m ? 0 : 1));
+	const rows: [number, number] = [y0 + Math.floor(h / 4), y0 + Math.floor((3 * h) / 4) + 1];
+	return windowStatistics({grey: image.grey, use, width: image.width, rows, columns: [cols[0], cols[1] + 1], rowMeans: true}).cellAreaPx;
 }
 
 /** Band means over the measured columns, bands of bandHeightCm from 0 to depthCm. */
@@ -137,7 +96,7 @@ export function bandMeans(image: PhantomImage, fraction: readonly [number, numbe
 		if (n < 2) continue;
 		const mean = sum[b]! / n;
 		const sd = Math.sqrt(Math.max(0, sum2[b]! / n - mean * mean));
-		bands.push({band: b, depthCm: (b + 0.5) * bandHeightCm, meanGrey: mean, sdGrey: sd, pixels: n, cells: n / s, sdMeanGrey: sd * Math.sqrt(s / n)});
+		bands.push({band: b, depthCm: (b + 0.5) * bandHeightCm, meanGrey: mean, sdGrey: sd, pixels: n, cells: n / s, sdMeanGrey: sdOfMean(sd, n, s)});
 	}
 	return {bands, cellAreaPx: s, columns: cols, maskedFraction: seen ? masked / seen : 0};
 }

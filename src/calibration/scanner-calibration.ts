@@ -4,6 +4,7 @@
  * this one calls). Pure: the images arrive decoded.
  */
 import {basisWeights, knotDepths} from '../engine/slider-basis.js';
+import {cellsForHalfWidth} from '../speckle/speckle-statistics.js';
 import {bandMeans, measuredColumns, speckleCellArea, usableGrey, type ImageBands} from './band-statistics.js';
 import {CalibrationRefusal} from './calibration-refusal.js';
 import {evaluateMap, fitGreyMap, greyAtLevel, type GreyMapFit, type StepObservation} from './grey-map-fit.js';
@@ -12,7 +13,7 @@ import type {PhantomImage} from './phantom-image.js';
 
 /** Fewest independent speckle cells for a band to be reported: ±1 dB at 95 % for one image
  * (N = (1.96·5.57/1)² = 119; Kaplan & Ma 1994 for the 5.57 dB, shared reference case C33). */
-export const minCellsPerBand = 119;
+export const minCellsPerBand = Math.floor(cellsForHalfWidth(1));
 /** Fewest gain steps (three points fix an offset and a slope and check the map's shape). */
 export const minGainSteps = 3;
 /** Echo-to-noise down to which the depth response is reported, dB (at least the 6 dB the issue asks). */
@@ -38,13 +39,17 @@ export interface SliderStepImage extends CalibrationImage {
 	readonly position: number;
 }
 
-export interface CalibrationInput {
+/** What the session states about the scanner, probe and phantom; the calibration carries it on. */
+export interface CalibrationSetting {
 	readonly label: string;
 	readonly probe: ProbeSpectrum;
 	readonly displayDepthCm: number;
 	readonly phantom: PhantomMaterial;
 	readonly columns: readonly [number, number];
 	readonly sliderCount: number;
+}
+
+export interface CalibrationInput extends CalibrationSetting {
 	readonly gainSteps: readonly CalibrationImage[];
 	readonly probeInAir?: CalibrationImage;
 	readonly sliderSteps?: readonly SliderStepImage[];
@@ -72,13 +77,7 @@ export interface SliderStepReport {
 	readonly influenceWidthCm: number;
 }
 
-export interface ScannerCalibration {
-	readonly label: string;
-	readonly probe: ProbeSpectrum;
-	readonly displayDepthCm: number;
-	readonly phantom: PhantomMaterial;
-	readonly columns: readonly [number, number];
-	readonly sliderCount: number;
+export interface ScannerCalibration extends CalibrationSetting {
 	/** Level shown at each grey, dB on the master-gain scale (a band at 0 dB level shows grey g at master gain h(g)). */
 	readonly greyMap: ReadonlyArray<{readonly grey: number; readonly levelDb: number}>;
 	/** The scanner's own depth gain with sliders centred, relative to its shallowest point, dB. */

@@ -11,8 +11,9 @@ import {
 	logSpeckleSdDb,
 	rayleighAmplitudeSnr,
 	t95,
-} from '../../src/analysis/speckle-statistics.js';
-import {mulberry32, speckleFrame} from '../helpers/speckle-frame.js';
+} from '../../src/speckle/speckle-statistics.js';
+import {mulberry32} from '../../src/simulate/seeded-random.js';
+import {speckleFrame} from '../helpers/speckle-frame.js';
 import {scenarioPlan} from '../helpers/refine-scenario.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {settingsOfFit} from '../../src/analysis/applied-gain.js';

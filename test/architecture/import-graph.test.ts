@@ -9,7 +9,7 @@ import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 
 const layers: readonly (readonly string[])[] = [
 	['errors'],
-	['engine', 'files'],
+	['engine', 'files', 'speckle'],
 	['plan', 'analysis', 'simulate', 'calibration'],
 	['report', 'image'],
 	['table', 'store'],

@@ -12,7 +12,7 @@ const files = readSourceFiles();
 /** Packages a pure layer may reach: validation and text formats, nothing with I/O. */
 const allowedPackages = new Set(['zod', 'csv-stringify/sync']);
 
-const pureFolders = ['engine', 'analysis', 'simulate', 'calibration', 'plan', 'report', 'table', 'ui/state'];
+const pureFolders = ['engine', 'speckle', 'analysis', 'simulate', 'calibration', 'plan', 'report', 'table', 'ui/state'];
 
 describe('the import reader sees every form of import', () => {
 	it('static imports in any quotes, re-exports, import type, import() and require', () => {

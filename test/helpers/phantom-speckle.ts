@@ -10,6 +10,7 @@
 import type {PhantomImage} from '../../src/calibration/phantom-image.js';
 import {phantomLossDb, type PhantomMaterial, type ProbeSpectrum} from '../../src/calibration/phantom-loss.js';
 import {basisWeights, knotDepths} from '../../src/engine/slider-basis.js';
+import {mulberry32} from '../../src/simulate/seeded-random.js';
 
 export interface SeriesOptions {
 	seed: number;
@@ -37,17 +38,6 @@ export const testPhantom: PhantomMaterial = {alphaDbPerCmMhz: 0.5, exponent: 1, 
 /** The invented scanner's own depth gain: a ramp a little short of the phantom's loss, plus a focal hump. */
 export function trueDepthResponseDb(z: number): number {
 	return 2.4 * z + 6 * Math.exp(-(((z - 6) / 3) ** 2));
-}
-
-function mulberry32(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
 }
 
 /** Unit-mean-intensity correlated complex speckle (re, im interleaved), blurred 3 px laterally, 2 px axially. */

@@ -6,7 +6,8 @@ import {settingsOfFit} from '../../src/analysis/applied-gain.js';
 import {withLayerAlpha} from '../../src/analysis/attenuation-fit.js';
 import {parsePlan} from '../../src/plan/resolve-plan.js';
 import {abdomenPlanJson} from '../fixtures/plans.js';
-import {mulberry32, speckleFrame, type FrameOptions} from './speckle-frame.js';
+import {mulberry32} from '../../src/simulate/seeded-random.js';
+import {speckleFrame, type FrameOptions} from './speckle-frame.js';
 
 export function scenarioPlan(overrides: Record<string, unknown> = {}): EnginePlan {
 	const r = parsePlan(abdomenPlanJson(overrides));

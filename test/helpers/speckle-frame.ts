@@ -8,17 +8,7 @@ import {pathModelOf} from '../../src/engine/compensation-curve.js';
 import type {EnginePlan} from '../../src/engine/types.js';
 import {assumedRamp, deliveredGainDb, type AppliedSettings} from '../../src/analysis/applied-gain.js';
 import type {GreyFrame, MeasuredRegion} from '../../src/analysis/grey-frame.js';
-
-export function mulberry32(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
+import {mulberry32} from '../../src/simulate/seeded-random.js';
 
 export interface FrameOptions {
 	/** Plan that says what the scanner delivered (settings are applied on its ramp). */

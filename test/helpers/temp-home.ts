@@ -53,7 +53,7 @@ export function snapshotDir(dir: string): Record<string, string> {
 
 /** Fails early, with a clear message, when the built files are missing or older than the sources. */
 export function assertBuilt(): void {
-	const pairs = ['store/preset-store', 'store/templates', 'store/preset-record', 'store/preset-bundle', 'store/safe-name', 'store/settings-file', 'files/atomic-write', 'files/bounded-read', 'cli/presets-command'];
+	const pairs = ['store/preset-store', 'store/templates', 'store/preset-record', 'store/preset-bundle', 'store/safe-name', 'store/settings-file', 'store/record-folder', 'store/scanner-profile-store', 'files/atomic-write', 'files/bounded-read', 'cli/presets-command'];
 	for (const p of pairs) {
 		const src = join(repoRoot, 'src', `${p}.ts`);
 		const out = join(repoRoot, 'dist', 'src', `${p}.js`);

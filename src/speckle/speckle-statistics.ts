@@ -20,6 +20,15 @@ export const logMeanBiasDb = (-10 * eulerGamma) / Math.LN10;
 export const z95 = 1.959963984540054;
 
 /**
+ * SD of a mean over `count` pixels of speckle whose cells each cover `cellAreaPx` pixels:
+ * σ_px·√(S/N_px). The pixels are correlated over a cell, so N_px/S of them are independent
+ * (Wagner et al. 1983).
+ */
+export function sdOfMean(sdPx: number, count: number, cellAreaPx: number): number {
+	return sdPx * Math.sqrt(cellAreaPx / Math.max(1, count));
+}
+
+/**
  * Independent speckle cells a band mean needs for a 95 % half-width of `halfWidthDb` when each cell
  * scatters by `cellSdDb` (5.57 dB for log-compressed speckle): N = (1.96·σ/e)².
  */
