@@ -35,7 +35,9 @@ export function previewPicture(result: CurveResult, cache: PictureCache, panel: 
 	const plot = (x: number, y: number) => {
 		if (x >= 0 && x < W && y >= 0 && y < stripPx) grey[y * W + x] = textGrey;
 	};
-	drawText(`${panelCaptions.ramp}  ILLUSTRATION`, 2, 3, plot);
+	// With a measured scanner the sliders-centred panel shows its measured depth gain, not the ramp.
+	const rampCaption = result.plan.scanner ? 'MEASURED DEPTH GAIN ONLY' : panelCaptions.ramp;
+	drawText(`${rampCaption}  ILLUSTRATION`, 2, 3, plot);
 	drawText(panelCaptions.plan, width + gapPx + 2, 3, plot);
 	return {width: W, height: H, grey, topStripPx: stripPx};
 }

@@ -4,13 +4,14 @@
  */
 import {Box, Text, useApp, useInput} from 'ink';
 import {useEffect, useMemo, useReducer, useRef} from 'react';
+import {scannerResponseOf} from '../calibration/profile-document.js';
 import {computeCurve} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
 import {demoPlan} from '../plan/demo-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
-import {resolvePlan} from '../plan/resolve-plan.js';
+import {resolvePlan, type PlanScanner} from '../plan/resolve-plan.js';
 import {CautionLine} from './frame/caution-line.js';
-import {consoleReducer, modeOf} from './state/console-reducer.js';
+import {consoleReducer, modeOf, type Action} from './state/console-reducer.js';
 import {runEffect} from './effects/console-effects.js';
 import {createInitialState} from './state/console-state.js';
 import {deltaOf, liveLine} from './state/curve-facts.js';
@@ -21,6 +22,8 @@ import {HintLine} from './frame/hint-line.js';
 import {splitKeys} from './state/key-intents.js';
 import {layoutFor, type Layout} from './kit/layout.js';
 import type {PresetShelf} from './effects/preset-shelf.js';
+import {noScannerServices, type ScannerServices} from './effects/scanner-services.js';
+import {ScannerView} from './scanner/scanner-view.js';
 import {demoPoint} from './state/starting-point.js';
 import {StatusLine} from './frame/status-line.js';
 import {StepBar} from './frame/step-bar.js';
@@ -44,13 +47,15 @@ export interface AppProps {
 	readonly rows?: number;
 	/** Where exports are written. @default the current directory */
 	readonly exportDir?: string;
+	/** Scanner profiles (key g): the store and the image reader. @default none */
+	readonly scanners?: ScannerServices;
 	/** Called once when the console closes, with whether the plan had unsaved changes. */
 	readonly onExit?: (summary: {readonly isDirty: boolean}) => void;
 }
 
-function curveOf(doc: PlanDocument): CurveResult | string {
+function curveOf(doc: PlanDocument, scanner: PlanScanner | undefined): CurveResult | string {
 	try {
-		return computeCurve(resolvePlan(doc));
+		return computeCurve(resolvePlan(doc, scanner));
 	} catch (error) {
 		// The schema should make this unreachable; still never crash the console over it.
 		return `The curve could not be worked out: ${error instanceof Error ? error.message : String(error)}`;
@@ -64,6 +69,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} width={columns} height={bodyRows} />;
+	if (o?.kind === 'scanner') return <ScannerView overlay={o} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
 	if (layout.isWide) {
@@ -100,7 +106,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	);
 }
 
-export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exportDir, onExit}: AppProps) {
+export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exportDir, scanners = noScannerServices, onExit}: AppProps) {
 	const size = useTerminalSize({...(columns === undefined ? {} : {columns}), ...(rows === undefined ? {} : {rows})});
 	const layout = layoutFor(size.columns, size.rows);
 	const [state, dispatch] = useReducer(consoleReducer, undefined, () => {
@@ -139,11 +145,30 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			doc: state.doc,
 			...(exportDir === undefined ? {} : {exportDir}),
 			exit,
+			scanners,
+			// Slow work (measuring a session) starts once the frame saying so has been drawn.
+			later: (work: () => Promise<Action[]>) => {
+				setTimeout(() => void work().then((actions) => actions.forEach(dispatch)), 20);
+			},
 		};
 		for (const effect of batch) for (const action of runEffect(effect, ctx)) dispatch(action);
-	}, [state.effects, state.doc, shelf, exportDir, exit]);
+	}, [state.effects, state.doc, shelf, exportDir, exit, scanners]);
 
-	const curve = useMemo(() => curveOf(state.doc), [state.doc]);
+	// The measured scanner the plan names: from the panel's fresh list while it is open (a profile
+	// may just have been kept), else from the store.
+	const panelProfiles = state.overlay?.kind === 'scanner' ? state.overlay.profiles : null;
+	const named = useMemo(() => {
+		const id = state.doc.scanner;
+		if (id === undefined) return undefined;
+		const listed = panelProfiles?.find((p) => p.id === id);
+		return listed ? {scanner: scannerResponseOf(listed)} : scanners.lookup(id);
+	}, [state.doc.scanner, scanners, panelProfiles]);
+	const scannerProblem = named && 'problem' in named ? named.problem : undefined;
+	useEffect(() => {
+		if (scannerProblem) dispatch({type: 'failed', message: scannerProblem});
+	}, [scannerProblem]);
+	const planScanner = named && 'scanner' in named ? named.scanner : undefined;
+	const curve = useMemo(() => curveOf(state.doc, planScanner), [state.doc, planScanner]);
 
 	return (
 		<ThemeContext.Provider value={theme}>

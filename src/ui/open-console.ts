@@ -33,12 +33,13 @@ export async function openConsole(): Promise<void> {
 	// Tuned before Ink and React load (see render-options.ts).
 	const {consoleRenderOptions, tuneProcessForConsole} = await import('./render-options.js');
 	tuneProcessForConsole();
-	const [{render}, {createElement}, {App}, {openShelf}, {themeFromEnv}] = await Promise.all([
+	const [{render}, {createElement}, {App}, {openShelf}, {themeFromEnv}, {openScannerServices}] = await Promise.all([
 		import('ink'),
 		import('react'),
 		import('./app.js'),
 		import('./effects/preset-shelf.js'),
 		import('./kit/theme.js'),
+		import('./effects/scanner-services.js'),
 	]);
 	const shelf = openShelf();
 	let isDirty = false;
@@ -47,6 +48,7 @@ export async function openConsole(): Promise<void> {
 		const instance = render(
 			createElement(App, {
 				shelf,
+				scanners: openScannerServices(),
 				theme: themeFromEnv(),
 				onExit: (s: {readonly isDirty: boolean}) => {
 					isDirty = s.isDirty;

@@ -8,6 +8,8 @@ import type {Action} from '../state/console-reducer.js';
 import type {Effect} from '../state/console-state.js';
 import {exportPlan} from './export-files.js';
 import type {PresetShelf} from './preset-shelf.js';
+import {runScannerEffect} from './scanner-effects.js';
+import {noScannerServices, type ScannerServices} from './scanner-services.js';
 import {exportSweep} from './sweep-export.js';
 import {sweepTable} from '../state/sweep-table.js';
 
@@ -16,6 +18,10 @@ export interface EffectContext {
 	readonly doc: PlanDocument;
 	readonly exportDir?: string;
 	readonly exit: () => void;
+	/** The scanner panel's store and reader. @default none */
+	readonly scanners?: ScannerServices;
+	/** Runs slow work after the current frame is drawn, then dispatches what it returns. @default dropped */
+	readonly later?: (work: () => Promise<Action[]>) => void;
 }
 
 const messageOf = (e: unknown) => (e instanceof Error ? e.message : String(e));
@@ -56,5 +62,9 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
 			}
 		}
+		case 'scanner-list':
+		case 'scanner-measure':
+		case 'scanner-keep':
+			return runScannerEffect(effect, ctx.scanners ?? noScannerServices, ctx.later ?? (() => undefined));
 	}
 }

@@ -4,6 +4,7 @@
  * depths are marked beside the scale. Marks are characters, so meaning never rests on colour.
  */
 import type {CurveResult} from '../../engine/types.js';
+import {travelFractionText} from '../../report/curve-summary.js';
 import type {PanelKind, PictureCache} from '../../simulate/plan-picture.js';
 import {pictureLines, type PictureMode} from './picture-cells.js';
 
@@ -11,6 +12,22 @@ export const panelTitles: Record<PanelKind, string> = {
 	ramp: 'built-in ramp only',
 	plan: 'this plan',
 };
+
+/** A panel's title: with a measured scanner, the sliders-centred panel shows its measured depth gain, not the ramp. */
+export function panelTitle(kind: PanelKind, result: CurveResult): string {
+	return kind === 'ramp' && result.plan.scanner ? 'measured depth gain only' : panelTitles[kind];
+}
+
+/**
+ * With a measured scanner that has a travel: each slider as a fraction of its full travel, as it
+ * is set on that scanner ("1 −0.40  2 −0.28 …"); null otherwise.
+ */
+export function travelLine(result: CurveResult): string | null {
+	const travel = result.plan.scanner?.sliderTravelDb;
+	if (!travel) return null;
+	const parts = result.fit.sliders.map((s, k) => `${knotLabel(k + 1)} ${travelFractionText(s.gainDb / travel)}`);
+	return `sliders as a fraction of travel (full travel ${travel.toFixed(1)} dB, measured): ${parts.join('  ')}`;
+}
 
 export const illustrationLabel = 'Illustration: a uniform tissue under this model, not a prediction of the patient\'s image.';
 
@@ -66,7 +83,7 @@ export function panelLines(
 	}
 	const columns = kinds.map((kind) => {
 		const picture = pictureLines(kind === 'ramp' ? pics.ramp : pics.plan, w, rows * 2, mode);
-		const title = panelTitles[kind].slice(0, w + panelChrome).padEnd(w + panelChrome);
+		const title = panelTitle(kind, result).slice(0, w + panelChrome).padEnd(w + panelChrome);
 		const body = picture.map((line, r) => {
 			const knot = knotRows.get(r);
 			return `${scale[r]}${line}${knot === undefined ? `${edge} ` : `<${knotLabel(knot)}`}`;

@@ -2,7 +2,7 @@
 import {Box, Text} from 'ink';
 import type {SettingsDelta} from '../../engine/plan-difference.js';
 import type {CurveResult} from '../../engine/types.js';
-import {signedDb} from '../../report/curve-summary.js';
+import {signedDb, travelFractionText} from '../../report/curve-summary.js';
 import {sliderDeliveredDb} from '../kit/depth-plot.js';
 import {scrollWindow} from '../kit/layout.js';
 import {useTheme} from '../kit/theme-context.js';
@@ -21,13 +21,21 @@ export interface SliderTableProps {
 
 export function sliderRows(curve: CurveResult, delta: SettingsDelta | null): string[] {
 	const totals = sliderDeliveredDb(curve);
+	// With a measured scanner, each slider also as a fraction of its measured full travel.
+	const travel = curve.plan.scanner?.sliderTravelDb ?? null;
 	return curve.fit.sliders.map((s, k) => {
 		const vs = delta ? signedDb(delta.sliderDeltasDb[k]!).padStart(7) : '      -';
-		return `${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${signedDb(s.gainDb).padStart(6)} ${totals[k]!.toFixed(1).padStart(6)} ${vs}`;
+		const ofTravel = travel ? ` ${travelFractionText(s.gainDb / travel).padStart(6)}` : '';
+		return `${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${signedDb(s.gainDb).padStart(6)} ${totals[k]!.toFixed(1).padStart(6)} ${vs}${ofTravel}`;
 	});
 }
 
 export const sliderHeader = ' # depth slider   comp vs usual';
+
+/** The header, with the travel column when the plan names a measured scanner with a travel. */
+export function sliderHeaderFor(curve: CurveResult): string {
+	return curve.plan.scanner?.sliderTravelDb ? `${sliderHeader} travel` : sliderHeader;
+}
 
 export function SliderTable({curve, delta, width, height, cursor, isFocused}: SliderTableProps) {
 	const theme = useTheme();
@@ -37,7 +45,7 @@ export function SliderTable({curve, delta, width, height, cursor, isFocused}: Sl
 	return (
 		<Box flexDirection="column" width={width}>
 			<Text wrap="truncate" {...theme.muted}>
-				{clip(`  ${sliderHeader}${more}`, width)}
+				{clip(`  ${sliderHeaderFor(curve)}${more}`, width)}
 			</Text>
 			{lines.slice(start, end).map((line, k) => {
 				const i = start + k;

@@ -14,6 +14,8 @@ import type {StartingPoint} from './starting-point.js';
 import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, remember, setCursor, travel, withNotice} from './state-helpers.js';
 import {tissueOf} from './row-text.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
+import {openScannerPanel, scannerIntent, scannerResult} from './scanner-reducer.js';
+import type {ScannerAction, ScannerOverlay} from './scanner-state.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
@@ -28,7 +30,8 @@ export type Action =
 	| {readonly type: 'exported'; readonly files: readonly string[]}
 	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
-	| {readonly type: 'starting-points'; readonly points: readonly StartingPoint[]; readonly problems: readonly string[]};
+	| {readonly type: 'starting-points'; readonly points: readonly StartingPoint[]; readonly problems: readonly string[]}
+	| ScannerAction;
 
 export function modeOf(s: ConsoleState): Mode {
 	const o = s.overlay;
@@ -36,6 +39,7 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'ask') return 'ask';
 		if (o.kind === 'name') return 'edit-text';
 		if (o.kind === 'tissue') return 'tissue';
+		if (o.kind === 'scanner') return o.panel.kind === 'path' ? 'edit-path' : 'scanner';
 		return 'overlay';
 	}
 	if (s.sweep.isOpen) return s.sweep.typing ? 'edit-list' : 'sweep';
@@ -244,6 +248,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return {...s, overlay: {kind: 'warnings'}};
 		case 'picture':
 			return {...s, picture: nextPicture(s.picture, s.isWide)};
+		case 'scanner':
+			return openScannerPanel(s);
 		case 'quit':
 			return askQuit(s);
 		case 'save':
@@ -313,6 +319,9 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 			return editNumberIntent(s, intent, input);
 		case 'edit-list':
 			return sweepTypingIntent(s, intent, input);
+		case 'scanner':
+		case 'edit-path':
+			return scannerIntent(s, o as ScannerOverlay, intent, input);
 		case 'sweep':
 			return sweepIntent(s, intent) ?? (intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s);
 		default:
@@ -362,5 +371,9 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 			return withNotice(s, a.message, 'warning');
 		case 'starting-points':
 			return clampCursor({...s, startingPoints: a.points, storeProblems: a.problems});
+		case 'scanner-profiles':
+		case 'scanner-measured':
+		case 'scanner-refused':
+			return scannerResult(s, a);
 	}
 }

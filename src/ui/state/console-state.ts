@@ -3,6 +3,7 @@
  * is open, and the plan itself. No React or Ink here.
  */
 import type {PlanDocument} from '../../plan/plan-schema.js';
+import type {ScannerEffect, ScannerOverlay} from './scanner-state.js';
 import type {StartingPoint} from './starting-point.js';
 import {closedSweep, type SweepState} from './sweep-state.js';
 
@@ -29,7 +30,8 @@ export type Overlay =
 	| {readonly kind: 'warnings'}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
-	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number};
+	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number}
+	| ScannerOverlay;
 
 /** Side effects asked for by the reducer and carried out by the app (then reported back). */
 export type Effect =
@@ -37,7 +39,8 @@ export type Effect =
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
 	| {readonly kind: 'export'}
-	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean};
+	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
+	| ScannerEffect;
 
 export interface Editing {
 	/** The row being edited (row ids are stable while the plan's shape is). */

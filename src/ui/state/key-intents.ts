@@ -21,8 +21,11 @@ export interface KeyFlags {
 	readonly meta: boolean;
 }
 
-/** What the user is doing, which decides what a key means. `sweep` is the fat-thickness table of step 5, `edit-list` typing its list. */
-export const modes = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep'] as const;
+/**
+ * What the user is doing, which decides what a key means. `sweep` is the fat-thickness table of step 5, `edit-list`
+ * typing its list; `scanner` the measured-scanner panel, `edit-path` typing its session file.
+ */
+export const modes = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep', 'scanner', 'edit-path'] as const;
 export type Mode = (typeof modes)[number];
 
 export type Intent =
@@ -62,7 +65,11 @@ export type Intent =
 	| 'type'
 	| 'undo'
 	| 'redo'
-	| 'thickness-mode';
+	| 'thickness-mode'
+	| 'scanner'
+	| 'measure'
+	| 'keep'
+	| 'keep-replace';
 
 export type Section = 'Moving around' | 'Changing a value' | 'Typing a value' | 'Tissue stack' | 'The plan' | 'Questions';
 
@@ -80,7 +87,7 @@ export interface Binding {
 
 const browsing: readonly Mode[] = ['browse', 'stack', 'curve-pane'];
 const stepping: readonly Mode[] = ['browse', 'stack'];
-const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list'];
+const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list', 'edit-path'];
 const every: readonly Mode[] = modes;
 
 const plain = (key: KeyFlags) => !key.ctrl && !key.meta;
@@ -90,7 +97,7 @@ const when = (test: boolean, intent: Intent) => (test ? intent : undefined);
 export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
-	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep'], pick: (_i, k) => when(k.escape, 'back')},
+	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep', 'scanner'], pick: (_i, k) => when(k.escape, 'back')},
 	{
 		keys: 'y  n Esc',
 		hint: 'yes, n no',
@@ -100,13 +107,13 @@ export const bindings: readonly Binding[] = [
 		pick: (i, k) => ((i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : undefined),
 	},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
-	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
+	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep', 'scanner'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
 	{keys: 'PgUp PgDn', help: 'nudge it a big step', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined)},
-	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep'], pick: (_i, k) => when(k.return, 'enter')},
+	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep', 'scanner'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: typing, pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . -', help: 'type the value', section: 'Typing a value', modes: typing, pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
-	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: browsing, pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
+	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: [...browsing, 'scanner'], pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
 	{
 		keys: '←→ PgUp PgDn',
 		help: 'scroll the sweep table',
@@ -133,7 +140,19 @@ export const bindings: readonly Binding[] = [
 	{keys: 'm', hint: 'screen/true', help: 'thickness screen/true', section: 'Tissue stack', modes: ['stack'], pick: is('m', 'thickness-mode')},
 	{keys: 's', hint: 'save', help: 'save as a preset', section: 'The plan', modes: browsing, pick: is('s', 'save')},
 	{keys: 'e', hint: 'export', help: 'export plan or table', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('e', 'export')},
-	{keys: 'f', help: 'fat thickness sweep', section: 'The plan', modes: browsing, pick: is('f', 'sweep')},
+	// One help line for the sweep and the measured-scanner panel with its own keys (c measures, s/S keep;
+	// the panel names them itself), so the overlay still fits 80×24 whole.
+	{
+		keys: 'f  g (c s)',
+		help: 'fat sweep; scanner',
+		section: 'The plan',
+		modes: [...browsing, 'scanner'],
+		pick: (i, k) => {
+			if (!plain(k)) return undefined;
+			const intents: Record<string, Intent> = {f: 'sweep', g: 'scanner', c: 'measure', s: 'keep', S: 'keep-replace'};
+			return Object.hasOwn(intents, i) ? intents[i] : undefined;
+		},
+	},
 	// One help line for both, so the overlay still fits 80×24 whole.
 	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep'], pick: is('?', 'help')},
@@ -185,9 +204,11 @@ export function hintsFor(mode: Mode): string[] {
 		sweep: ['↑↓ rows', '←→ columns'],
 		tissue: ['↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
+		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
+		'edit-path': ['type a path', 'Enter measure'],
 	};
 	const fromTable = bindings
-		.filter((b) => b.hint && b.modes.includes(mode) && !((mode.startsWith('edit') || mode === 'tissue' || mode === 'curve-pane') && b.keys === 'Enter'))
+		.filter((b) => b.hint && b.modes.includes(mode) && !((mode.startsWith('edit') || mode === 'tissue' || mode === 'curve-pane' || mode === 'scanner') && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
 	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')))];
 }

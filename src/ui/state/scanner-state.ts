@@ -1,0 +1,42 @@
+/**
+ * The measured-scanner panel (key `g`) as plain data: the profile list, the session path being
+ * typed, or a measurement being paged through before it is kept. Its effects (reading the store
+ * and the images) and their results are typed here too. Pure; no React or Ink here.
+ */
+import type {ScannerProfile} from '../../calibration/profile-document.js';
+import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
+
+/** The pages of a measurement, in the order they are shown before keeping it. */
+export const measurePages = ['images', 'grey', 'depth', 'noise'] as const;
+export type MeasurePage = (typeof measurePages)[number];
+
+export type ScannerPanel =
+	| {readonly kind: 'list'; readonly cursor: number}
+	| {readonly kind: 'path'; readonly text: string; readonly error?: string}
+	| {readonly kind: 'measuring'; readonly path: string}
+	| {
+			readonly kind: 'result';
+			readonly path: string;
+			readonly input: CalibrationInput;
+			readonly cal: ScannerCalibration;
+			readonly page: number;
+			readonly message?: string;
+	  };
+
+export interface ScannerOverlay {
+	readonly kind: 'scanner';
+	readonly panel: ScannerPanel;
+	/** Stored profiles; null until the store has been read. */
+	readonly profiles: readonly ScannerProfile[] | null;
+	readonly problems: readonly string[];
+}
+
+export type ScannerEffect =
+	| {readonly kind: 'scanner-list'}
+	| {readonly kind: 'scanner-measure'; readonly path: string}
+	| {readonly kind: 'scanner-keep'; readonly cal: ScannerCalibration; readonly replace: boolean};
+
+export type ScannerAction =
+	| {readonly type: 'scanner-profiles'; readonly profiles: readonly ScannerProfile[]; readonly problems: readonly string[]; readonly kept?: string}
+	| {readonly type: 'scanner-measured'; readonly path: string; readonly input: CalibrationInput; readonly cal: ScannerCalibration}
+	| {readonly type: 'scanner-refused'; readonly message: string};

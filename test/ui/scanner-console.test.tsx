@@ -1,0 +1,139 @@
+/**
+ * The measured-scanner panel in the console (key g): measure a session of simulated phantom
+ * images, page through the images with the measured region, the grey map, the depth response and
+ * penetration, keep the profile, name it in the plan (one undoable edit), and see the sliders as a
+ * fraction of the measured travel. The figures shown are the ones the calibration stored; how
+ * close those come to the simulator's truth is checked in test/cli/demo-series-calibration.test.ts
+ * and test/calibration/recovery.test.ts. Keys are written as a terminal sends them; every wait is
+ * for a condition on the frame.
+ */
+import {mkdtempSync, readdirSync, rmSync} from 'node:fs';
+import {tmpdir} from 'node:os';
+import {join} from 'node:path';
+import {afterAll, beforeAll, describe, expect, it} from 'vitest';
+import {writeSession} from '../helpers/phantom-session.js';
+import {keys} from '../helpers/keys.js';
+
+const root = mkdtempSync(join(tmpdir(), 'evenecho-scanner-console-'));
+afterAll(() => rmSync(root, {recursive: true, force: true}));
+
+let lib: {
+	render: typeof import('ink-testing-library').render;
+	App: typeof import('../../src/ui/app.js').App;
+	openShelf: typeof import('../../src/ui/effects/preset-shelf.js').openShelf;
+	services: typeof import('../../src/ui/effects/scanner-services.js');
+	store: typeof import('../../src/store/scanner-profile-store.js');
+	theme: typeof import('../../src/ui/kit/theme.js');
+	press: typeof import('../helpers/press.js');
+};
+let sessionPath = '';
+
+beforeAll(async () => {
+	lib = {
+		render: (await import('ink-testing-library')).render,
+		App: (await import('../../src/ui/app.js')).App,
+		openShelf: (await import('../../src/ui/effects/preset-shelf.js')).openShelf,
+		services: await import('../../src/ui/effects/scanner-services.js'),
+		store: await import('../../src/store/scanner-profile-store.js'),
+		theme: await import('../../src/ui/kit/theme.js'),
+		press: await import('../helpers/press.js'),
+	};
+	sessionPath = writeSession(join(root, 'series'), 'png', {seed: 5, width: 200, height: 200}).sessionPath;
+}, 60_000);
+
+async function open(home: string, columns = 100, rows = 30) {
+	const {render, App, openShelf, services, store, theme, press} = lib;
+	const scanners = services.scannerServicesOver(() => store.openScannerProfileStore(home));
+	const app = render(<App shelf={openShelf({home})} scanners={scanners} theme={theme.plainTheme} columns={columns} rows={rows} />);
+	await press.ready(app);
+	return app;
+}
+
+describe('the measured-scanner panel', () => {
+	it('measures a session, shows each page, keeps the profile and names it in the plan; u takes it back', async () => {
+		const {press, frame, type, waitForText, selectedLine} = lib.press;
+		const home = mkdtempSync(join(root, 'home-'));
+		const app = await open(home);
+		await press(app, 'g');
+		await waitForText(app, 'No profiles yet');
+		expect(frame(app)).toContain('Measured scanner for this plan');
+		expect(selectedLine(app)).toContain('[x] (none) the assumed built-in ramp');
+
+		await press(app, 'c');
+		await type(app, sessionPath);
+		expect(frame(app)).toContain(`session file: ${sessionPath.slice(0, 20)}`);
+		await press(app, keys.enter);
+		await waitForText(app, '1/4: images and measured region', 60_000);
+		const images = frame(app);
+		// One small drawing per image, the measured columns marked on the region's edge.
+		for (const name of ['18 dB gain-18', 'in air 36 dB', 'slider 4 +1']) expect(images).toContain(name);
+		expect(images).toMatch(/-+:+-+/);
+		expect(images).toContain('confirm on the live image');
+
+		await press(app, keys.right);
+		expect(frame(app)).toContain('2/4: grey map');
+		expect(frame(app)).toMatch(/grey \d+/);
+		await press(app, keys.right);
+		expect(frame(app)).toContain('3/4: depth response');
+		expect(frame(app)).toContain('Replaces the assumed ramp');
+		await press(app, 'l');
+		const noise = frame(app);
+		expect(noise).toContain('4/4: penetration');
+		expect(noise).toMatch(/penetration \d+\.\d cm \(v\)/);
+		expect(noise).toMatch(/full travel adds \d+\.\d dB/);
+
+		await press(app, 's');
+		await waitForText(app, 'Kept the scanner profile');
+		const listed = lib.store.openScannerProfileStore(home).list().profiles;
+		expect(listed.map((p) => p.id)).toEqual(['cart-b-curved-array-abdomen-simulated']);
+		const travel = listed[0]!.sliderTravelDb!;
+		expect(selectedLine(app)).toContain('Cart B, curved array, abdomen (simulated)');
+		expect(selectedLine(app)).toContain(`travel ${travel.toFixed(1)} dB`);
+		expect(frame(app)).toContain('id cart-b-curved-array-abdomen-simulated');
+
+		await press(app, keys.escape);
+		expect(frame(app)).not.toContain('Measured scanner');
+		await press(app, 'g');
+		await waitForText(app, 'Cart B, curved array');
+		await press(app, keys.down);
+		await press(app, keys.enter);
+		await waitForText(app, 'now uses the measured scanner "cart-b-curved-array-abdomen-simulated"');
+		expect(frame(app)).toContain('*');
+
+		// The curve step: each slider in dB and as a fraction of the measured travel.
+		await press(app, '5');
+		const curve = frame(app);
+		expect(curve).toContain('comp vs usual travel');
+		const rows = curve.split('\n').flatMap((l) => {
+			const m = /^>?\s+(\d)\s+\d+\.\d\s+([+\-−]?\d+\.\d)\s+\d+\.\d\s+\S+\s+([+−]?\d\.\d\d)\b/.exec(l);
+			return m ? [{sliderDb: Number(m[2]!.replace('−', '-')), fraction: Number(m[3]!.replace('−', '-'))}] : [];
+		});
+		expect(rows, curve).toHaveLength(8);
+		for (const r of rows) expect(r.fraction).toBeCloseTo(r.sliderDb / travel, 1);
+
+		await press(app, 'u');
+		expect(frame(app)).not.toContain('comp vs usual travel');
+		app.unmount();
+	}, 120_000);
+
+	it('a session file that is not there is refused in the panel, naming it; nothing is stored', async () => {
+		const {press, frame, type, waitForText} = lib.press;
+		const home = mkdtempSync(join(root, 'home-'));
+		const app = await open(home, 80, 24);
+		await press(app, 'g');
+		await waitForText(app, 'No profiles yet');
+		await press(app, 'c');
+		const missing = join(root, 'no-such-session.json');
+		await type(app, missing);
+		await press(app, keys.enter);
+		await waitForText(app, 'session:', 10_000);
+		expect(frame(app)).toContain('session file:');
+		expect(readdirSync(home)).not.toContain('scanner-profiles');
+		// Esc goes back to the list, and again closes the panel.
+		await press(app, keys.escape);
+		expect(frame(app)).toContain('Measured scanner for this plan');
+		await press(app, keys.escape);
+		expect(frame(app)).not.toContain('Measured scanner for this plan');
+		app.unmount();
+	}, 60_000);
+});
