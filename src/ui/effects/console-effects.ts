@@ -10,6 +10,7 @@ import {exportPlan} from './export-files.js';
 import type {PresetShelf} from './preset-shelf.js';
 import {exportSweep} from './sweep-export.js';
 import {sweepTable} from '../state/sweep-table.js';
+import {refineStill} from './refine-still.js';
 
 export interface EffectContext {
 	readonly shelf: PresetShelf;
@@ -56,5 +57,7 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
 			}
 		}
+		case 'refine':
+			return [refineStill(ctx.doc, effect.path, effect.frame)];
 	}
 }
