@@ -8,14 +8,14 @@ import {stdin, stdout} from 'node:process';
 import {createInterface} from 'node:readline/promises';
 import type {Command} from 'commander';
 import {frameFromImage} from '../analysis/frame-from-image.js';
-import {refineImage, type RefineResult} from '../analysis/refine-image.js';
+import {refineImage} from '../analysis/refine-image.js';
 import {entryAt, writeFileAtomic} from '../files/atomic-write.js';
 import {FileRefusedError} from '../files/file-errors.js';
 import {printable} from '../files/printable.js';
 import {readImageFile} from '../image/read-image.js';
 import {ImageRefusal} from '../image/image-refusal.js';
 import {parseAppliedSettings} from '../plan/applied-settings.js';
-import {planFormat, type PlanDocument} from '../plan/plan-schema.js';
+import {planWithMeasuredLayer} from '../plan/measured-layer.js';
 import {refineJson, refineText} from '../report/refine-report.js';
 import {numberOption} from './option-values.js';
 import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
@@ -36,16 +36,6 @@ interface RefineOptions {
 	format: string;
 	writePlan?: string;
 	force?: boolean;
-}
-
-/** The plan document with the measured attenuation (and its 95 % interval) on that layer. */
-export function planWithMeasuredLayer(doc: PlanDocument, r: RefineResult): PlanDocument {
-	const a = r.attenuation;
-	if (!a) return doc;
-	const round = (x: number) => Math.round(x * 1000) / 1000;
-	const alpha = round(a.alphaDbPerCmMhz);
-	const measuredAlpha = {alphaDbPerCmMhz: alpha, lowDbPerCmMhz: Math.min(alpha, round(a.low)), highDbPerCmMhz: Math.max(alpha, round(a.high))};
-	return {...doc, format: planFormat, layers: doc.layers.map((l, i) => (i === a.layerIndex ? {...l, measuredAlpha} : l))};
 }
 
 async function confirmReplace(path: string): Promise<boolean> {
@@ -160,7 +150,7 @@ export function registerRefineCommand(program: Command): void {
 					replace = opts.force === true || (await confirmReplace(target));
 					if (!replace) throw new UsageError(`--write-plan: ${printable(target)} exists; not replaced (answer y when asked, or add --force)`);
 				}
-				const written = planWithMeasuredLayer(doc, outcome);
+				const written = planWithMeasuredLayer(doc, outcome.attenuation);
 				try {
 					writeFileAtomic(target, JSON.stringify(written, null, 2) + '\n', {replace});
 				} catch (error) {

@@ -29,6 +29,7 @@ import {StatusLine} from './frame/status-line.js';
 import {StepBar} from './frame/step-bar.js';
 import {StepPane} from './steps/step-pane.js';
 import {SweepView} from './sweep/sweep-view.js';
+import {RefineView} from './refine/refine-view.js';
 import {clip} from './kit/text-fit.js';
 import {colourTheme, type Theme} from './kit/theme.js';
 import {ThemeContext} from './kit/theme-context.js';
@@ -70,6 +71,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} width={columns} height={bodyRows} />;
 	if (o?.kind === 'scanner') return <ScannerView overlay={o} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
+	if (state.refine.phase !== 'closed') return <RefineView panel={state.refine} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
 	if (layout.isWide) {

@@ -17,7 +17,7 @@ const layers: readonly (readonly string[])[] = [
 	['ui/state', 'ui/picture'],
 	['ui/frame', 'ui/plot'],
 	['ui/steps', 'ui/sweep', 'ui/scanner'],
-	['ui/effects'],
+	['ui/effects', 'ui/refine'],
 	['ui'],
 	['cli'],
 ];

@@ -12,6 +12,7 @@ import {runScannerEffect} from './scanner-effects.js';
 import {noScannerServices, type ScannerServices} from './scanner-services.js';
 import {exportSweep} from './sweep-export.js';
 import {sweepTable} from '../state/sweep-table.js';
+import {refineStill} from './refine-still.js';
 
 export interface EffectContext {
 	readonly shelf: PresetShelf;
@@ -66,5 +67,7 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 		case 'scanner-measure':
 		case 'scanner-keep':
 			return runScannerEffect(effect, ctx.scanners ?? noScannerServices, ctx.later ?? (() => undefined));
+		case 'refine':
+			return [refineStill(ctx.doc, effect.path, effect.frame)];
 	}
 }

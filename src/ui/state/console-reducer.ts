@@ -19,6 +19,9 @@ import type {ScannerAction, ScannerOverlay} from './scanner-state.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
+import {refineDone, refineIntent, startRefine} from './refine-reducer.js';
+import type {RefineResult} from '../../analysis/refine-image.js';
+import type {PhantomImage} from '../../calibration/phantom-image.js';
 
 export type Action =
 	| {readonly type: 'key'; readonly input: string; readonly key: KeyFlags}
@@ -30,6 +33,8 @@ export type Action =
 	| {readonly type: 'exported'; readonly files: readonly string[]}
 	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
+	| {readonly type: 'refined'; readonly still: PhantomImage; readonly result: RefineResult}
+	| {readonly type: 'refine-failed'; readonly problem: string}
 	| {readonly type: 'starting-points'; readonly points: readonly StartingPoint[]; readonly problems: readonly string[]}
 	| ScannerAction;
 
@@ -42,6 +47,7 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'scanner') return o.panel.kind === 'path' ? 'edit-path' : 'scanner';
 		return 'overlay';
 	}
+	if (s.refine.phase !== 'closed') return s.refine.phase === 'pick' ? 'refine-pick' : 'refine';
 	if (s.sweep.isOpen) return s.sweep.typing ? 'edit-list' : 'sweep';
 	if (s.editing) return currentRow(s)?.kind === 'tissue-label' ? 'edit-text' : 'edit-number';
 	if (s.isWide && s.pane === 'curve' && s.step !== 'curve') return 'curve-pane';
@@ -124,6 +130,8 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 		case 'export':
 		case 'sweep':
 			return runCommand(s, row.action);
+		case 'refine':
+			return startRefine(s);
 	}
 }
 
@@ -250,6 +258,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return {...s, picture: nextPicture(s.picture, s.isWide)};
 		case 'scanner':
 			return openScannerPanel(s);
+		case 'refine-image':
+			return startRefine(s);
 		case 'quit':
 			return askQuit(s);
 		case 'save':
@@ -322,6 +332,9 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 		case 'scanner':
 		case 'edit-path':
 			return scannerIntent(s, o as ScannerOverlay, intent, input);
+		case 'refine-pick':
+		case 'refine':
+			return intent === 'help' ? {...s, overlay: {kind: 'help'}} : refineIntent(s, intent, input);
 		case 'sweep':
 			return sweepIntent(s, intent) ?? (intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s);
 		default:
@@ -369,6 +382,10 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 			return withNotice({...s, sweep: {...s.sweep, files: a.files}}, `Exported the table in ${a.files.length} formats (Markdown, CSV, JSON, SVG) here.`, 'done');
 		case 'failed':
 			return withNotice(s, a.message, 'warning');
+		case 'refined':
+			return refineDone(s, {still: a.still, result: a.result});
+		case 'refine-failed':
+			return refineDone(s, {problem: a.problem});
 		case 'starting-points':
 			return clampCursor({...s, startingPoints: a.points, storeProblems: a.problems});
 		case 'scanner-profiles':

@@ -6,6 +6,7 @@ import type {PlanDocument} from '../../plan/plan-schema.js';
 import type {ScannerEffect, ScannerOverlay} from './scanner-state.js';
 import type {StartingPoint} from './starting-point.js';
 import {closedSweep, type SweepState} from './sweep-state.js';
+import {closedRefine, type RefinePanel} from './refine-state.js';
 
 export const stepIds = ['start', 'stack', 'probe', 'usual', 'curve'] as const;
 export type StepId = (typeof stepIds)[number];
@@ -40,6 +41,7 @@ export type Effect =
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
 	| {readonly kind: 'export'}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
+	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number}
 	| ScannerEffect;
 
 export interface Editing {
@@ -96,6 +98,8 @@ export interface ConsoleState {
 	readonly presetName: string | null;
 	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
 	readonly sweep: SweepState;
+	/** Refine from an image (step 5, key i). */
+	readonly refine: RefinePanel;
 	/** Plans before (past, oldest first) and after (future, next first) the current one, for undo and redo. */
 	readonly history: PlanHistory;
 }
@@ -143,6 +147,7 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		effects: [],
 		presetName: null,
 		sweep: closedSweep,
+		refine: closedRefine,
 		history: {past: [], future: []},
 	};
 }

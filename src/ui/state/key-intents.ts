@@ -23,9 +23,13 @@ export interface KeyFlags {
 
 /**
  * What the user is doing, which decides what a key means. `sweep` is the fat-thickness table of step 5, `edit-list`
- * typing its list; `scanner` the measured-scanner panel, `edit-path` typing its session file.
+ * typing its list; `scanner` the measured-scanner panel, `edit-path` typing its session file; `refine-pick` typing
+ * the still's path for refine, `refine` its result.
  */
-export const modes = ['browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep', 'scanner', 'edit-path'] as const;
+export const modes = [
+	'browse', 'stack', 'curve-pane', 'edit-number', 'edit-text', 'edit-list', 'tissue', 'ask', 'overlay', 'sweep',
+	'scanner', 'edit-path', 'refine-pick', 'refine',
+] as const;
 export type Mode = (typeof modes)[number];
 
 export type Intent =
@@ -69,7 +73,9 @@ export type Intent =
 	| 'scanner'
 	| 'measure'
 	| 'keep'
-	| 'keep-replace';
+	| 'keep-replace'
+	| 'refine-image'
+	| 'accept';
 
 export type Section = 'Moving around' | 'Changing a value' | 'Typing a value' | 'Tissue stack' | 'The plan' | 'Questions';
 
@@ -87,7 +93,7 @@ export interface Binding {
 
 const browsing: readonly Mode[] = ['browse', 'stack', 'curve-pane'];
 const stepping: readonly Mode[] = ['browse', 'stack'];
-const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list', 'edit-path'];
+const typing: readonly Mode[] = ['edit-number', 'edit-text', 'edit-list', 'edit-path', 'refine-pick'];
 const every: readonly Mode[] = modes;
 
 const plain = (key: KeyFlags) => !key.ctrl && !key.meta;
@@ -97,7 +103,7 @@ const when = (test: boolean, intent: Intent) => (test ? intent : undefined);
 export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
-	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep', 'scanner'], pick: (_i, k) => when(k.escape, 'back')},
+	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep', 'scanner', 'refine'], pick: (_i, k) => when(k.escape, 'back')},
 	{
 		keys: 'y  n Esc',
 		hint: 'yes, n no',
@@ -106,11 +112,12 @@ export const bindings: readonly Binding[] = [
 		modes: ['ask'],
 		pick: (i, k) => ((i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : undefined),
 	},
+	{keys: 'a', hint: 'accept', help: 'accept the measured α0', section: 'Questions', modes: ['refine'], pick: is('a', 'accept')},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep', 'scanner'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
 	{keys: 'PgUp PgDn', help: 'nudge it a big step', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined)},
-	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep', 'scanner'], pick: (_i, k) => when(k.return, 'enter')},
+	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep', 'scanner', 'refine'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: typing, pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . -', help: 'type the value', section: 'Typing a value', modes: typing, pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
 	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: [...browsing, 'scanner'], pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
@@ -122,7 +129,7 @@ export const bindings: readonly Binding[] = [
 		pick: (_i, k) => (k.leftArrow ? 'scroll-left' : k.rightArrow ? 'scroll-right' : k.pageUp ? 'page-up' : k.pageDown ? 'page-down' : undefined),
 	},
 	{keys: '1-5', help: 'jump to a step', section: 'Moving around', modes: browsing, pick: (i, k) => when(/^[1-5]$/.test(i) && plain(k), 'jump')},
-	{keys: 'Tab', hint: 'curve', help: 'step pane / live curve', section: 'Moving around', modes: browsing, pick: (_i, k) => when(k.tab, 'pane')},
+	{keys: 'Tab', hint: 'curve', help: 'step pane / curve; field', section: 'Moving around', modes: [...browsing, 'refine-pick'], pick: (_i, k) => when(k.tab, 'pane')},
 	{keys: '+ -', help: 'nudge a step (= as +)', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && (i === '+' || i === '=') ? 'nudge-up' : plain(k) && i === '-' ? 'nudge-down' : undefined)},
 	{keys: '] [', help: 'nudge a big step', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && i === ']' ? 'coarse-up' : plain(k) && i === '[' ? 'coarse-down' : undefined)},
 	{keys: 'd', hint: 'deltas', help: 'sweep: values / deltas', section: 'Changing a value', modes: ['sweep'], pick: is('d', 'toggle-delta')},
@@ -154,8 +161,14 @@ export const bindings: readonly Binding[] = [
 		},
 	},
 	// One help line for both, so the overlay still fits 80×24 whole.
-	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
-	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep'], pick: is('?', 'help')},
+	{
+		keys: 'w  p  i',
+		help: 'warnings; picture; image',
+		section: 'The plan',
+		modes: browsing,
+		pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('i', 'refine-image')(i, k),
+	},
+	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep', 'refine'], pick: is('?', 'help')},
 	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},
 ];
 
@@ -206,9 +219,13 @@ export function hintsFor(mode: Mode): string[] {
 		overlay: ['Esc close'],
 		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
 		'edit-path': ['type a path', 'Enter measure'],
+		'refine-pick': ['type a path', 'Tab frame', 'Enter measure'],
+		refine: ['Enter another image'],
 	};
+	const noEnterHint = (m: Mode): boolean =>
+		m.startsWith('edit') || m.startsWith('refine') || m === 'tissue' || m === 'curve-pane' || m === 'scanner';
 	const fromTable = bindings
-		.filter((b) => b.hint && b.modes.includes(mode) && !((mode.startsWith('edit') || mode === 'tissue' || mode === 'curve-pane' || mode === 'scanner') && b.keys === 'Enter'))
+		.filter((b) => b.hint && b.modes.includes(mode) && !(noEnterHint(mode) && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
 	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')))];
 }

@@ -6,7 +6,7 @@ import type {ConsoleState, StepId} from './console-state.js';
 import type {ChoiceKey, NumberKey} from './plan-fields.js';
 import type {StartingPoint} from './starting-point.js';
 
-export type RowAction = 'add-layer' | 'pick-tissue' | 'make-custom' | 'fill-reference' | 'save' | 'export' | 'sweep';
+export type RowAction = 'add-layer' | 'pick-tissue' | 'make-custom' | 'fill-reference' | 'save' | 'export' | 'sweep' | 'refine';
 
 export type Row =
 	| {readonly kind: 'number'; readonly id: string; readonly key: NumberKey; readonly index: number}
@@ -70,7 +70,7 @@ function usualRows(s: ConsoleState): Row[] {
 
 function curveRows(s: ConsoleState): Row[] {
 	const rows: Row[] = Array.from({length: s.doc.sliders.count}, (_, k): Row => ({kind: 'slider', id: `s:${k}`, index: k}));
-	rows.push(action('save', 'Save as a preset'), action('export', 'Export JSON + text summary'), action('sweep', 'Sweep over fat thickness'));
+	rows.push(action('save', 'Save as a preset'), action('export', 'Export JSON + text summary'), action('sweep', 'Sweep over fat thickness'), action('refine', 'Refine from an image of the patient'));
 	return rows;
 }
 
