@@ -85,7 +85,7 @@ describe('the noise budget says which receive mode it is for', () => {
 		s = keysIn(s, enter);
 		expect(s.doc.probe.receive).toBe('tissue-harmonic');
 		expect(s.notice?.tone).toBe('warning');
-		expect(s.notice?.text).toContain('noise budget is for fundamental');
+		expect(s.notice?.text).toBe('Noise budget is for fundamental, not tissue harmonic: reach uncalibrated; measure it in this mode.');
 		s = onRow(s, 'c:budgetReceive');
 		expect(rowText(s, currentRow(s)!)).toEqual({label: 'Budget measured in', value: 'fundamental'});
 		s = keysIn(s, enter);
@@ -102,7 +102,7 @@ describe('the noise budget says which receive mode it is for', () => {
 		s = onRow(s, 'c:budgetReceive');
 		s = keysIn(s, enter);
 		expect(s.doc.phantomCalibration?.receive).toBe('tissue-harmonic');
-		expect(s.notice?.text).toContain('phantom reach was measured for tissue harmonic');
+		expect(s.notice?.text).toBe('Phantom reach is for tissue harmonic, not fundamental: reach uncalibrated; measure it in this mode.');
 		expect(valid(s)).toBe(true);
 		s = onRow(s, 'c:noiseSource');
 		s = keysIn(s, enter);

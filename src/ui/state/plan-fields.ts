@@ -127,7 +127,7 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.spectrumSteepness = v)),
 	},
 	angleDeg: {
-		spec: spec('Beam angle from the layer normal', '°', limits.angleDeg, 5, 15, 1),
+		spec: spec('Beam angle from normal', '°', limits.angleDeg, 5, 15, 1),
 		get: (doc) => doc.probe.angleDeg ?? 0,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.angleDeg = v)),
 	},

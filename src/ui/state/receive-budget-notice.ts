@@ -12,7 +12,8 @@ export function receiveBudgetNotice(before: PlanDocument, after: PlanDocument): 
 	const mode = after.probe.receive ?? 'fundamental';
 	const budget = budgetReceiveOf(after);
 	if (mode === (before.probe.receive ?? 'fundamental') && budget === budgetReceiveOf(before)) return null;
-	const source = after.phantomCalibration ? 'phantom reach was measured' : 'noise budget is';
-	if (mode === budget) return `Receive ${receiveModeLabel(mode)}; the ${source} for it too.`;
-	return `Receive ${receiveModeLabel(mode)}, but the ${source} for ${receiveModeLabel(budget)}: the reach is not calibrated for this mode. Measure it in ${receiveModeLabel(mode)}, then set "Budget measured in".`;
+	const source = after.phantomCalibration ? 'Phantom reach' : 'Noise budget';
+	if (mode === budget) return `Receive ${receiveModeLabel(mode)}; the ${source.toLowerCase()} is for it too.`;
+	// Short enough for the status line at 100 columns.
+	return `${source} is for ${receiveModeLabel(budget)}, not ${receiveModeLabel(mode)}: reach uncalibrated; measure it in this mode.`;
 }
