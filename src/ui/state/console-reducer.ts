@@ -9,7 +9,8 @@ import {nextPicture, stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
 import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
-import {choiceFields, cycleChoice, numberFields} from './plan-fields.js';
+import {budgetReceiveOf, choiceFields, cycleChoice, numberFields} from './plan-fields.js';
+import {receiveBudgetNotice} from './receive-budget-notice.js';
 import type {StartingPoint} from './starting-point.js';
 import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, remember, setCursor, travel, withNotice} from './state-helpers.js';
 import {tissueOf} from './row-text.js';
@@ -151,7 +152,9 @@ function changeChoice(s: ConsoleState, row: Row & {kind: 'choice'}, direction: 1
 	const field = choiceFields[row.key];
 	const value = cycleChoice(field, field.get(s.doc), direction);
 	const next = field.set(s.doc, value, {standardReference: () => standardReference(s.doc, s.origin.layers)});
-	return applyDoc(s, next, row.id);
+	const after = applyDoc(s, next, row.id);
+	const notice = after.doc === s.doc ? null : receiveBudgetNotice(s.doc, after.doc);
+	return notice ? withNotice(after, notice, budgetReceiveOf(after.doc) === (after.doc.probe.receive ?? 'fundamental') ? 'info' : 'warning') : after;
 }
 
 function nudgeRow(s: ConsoleState, row: Row, direction: 1 | -1, isCoarse: boolean): ConsoleState {

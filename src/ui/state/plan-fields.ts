@@ -3,6 +3,8 @@
  * `limits`), nudge steps, how to read it from a document and how to write it back. Pure.
  */
 import {noiseBudgetFromPhantom} from '../../engine/noise-budget.js';
+import {gaussianSteepness} from '../../engine/echo-spectrum.js';
+import type {ReceiveMode} from '../../engine/types.js';
 import {defaultNoiseBudgetDb, limits, type CustomTissue, type PlanDocument} from '../../plan/plan-schema.js';
 import {setTargetLayer} from '../../plan/plan-target.js';
 import {resolvePlan} from '../../plan/resolve-plan.js';
@@ -19,6 +21,8 @@ export type NumberKey =
 	| 'exponent'
 	| 'centerMhz'
 	| 'bandwidthFraction'
+	| 'spectrumSteepness'
+	| 'angleDeg'
 	| 'scattererExponent'
 	| 'depthCm'
 	| 'assumedSpeedMps'
@@ -41,7 +45,7 @@ export type NumberKey =
 	| 'measuredLow'
 	| 'measuredHigh';
 
-export type ChoiceKey = 'harmonic' | 'knots' | 'ends' | 'noiseSource' | 'reference';
+export type ChoiceKey = 'harmonic' | 'knots' | 'ends' | 'noiseSource' | 'budgetReceive' | 'reference';
 
 interface NumberField {
 	readonly spec: NumberSpec;
@@ -115,6 +119,17 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		spec: spec('Bandwidth (x f0)', '', limits.bandwidthFraction, 0.05, 0.2, 2),
 		get: (doc) => doc.probe.bandwidthFraction,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.bandwidthFraction = v)),
+	},
+	// 2 is the Gaussian of older plans; real probes sit around 3–7 (README: which steepness to pick).
+	spectrumSteepness: {
+		spec: spec('Spectrum steepness p', '', limits.spectrumSteepness, 0.5, 2, 2),
+		get: (doc) => doc.probe.spectrumSteepness ?? gaussianSteepness,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.spectrumSteepness = v)),
+	},
+	angleDeg: {
+		spec: spec('Beam angle from normal', '°', limits.angleDeg, 5, 15, 1),
+		get: (doc) => doc.probe.angleDeg ?? 0,
+		set: (doc, _i, v) => edit(doc, (d) => void (d.probe.angleDeg = v)),
 	},
 	scattererExponent: {
 		spec: spec('Scatterer exponent m', '', limits.scattererExponent, 0.5, 1, 2),
@@ -326,10 +341,32 @@ export const choiceFields: Record<ChoiceKey, ChoiceField> = {
 				if (v === 'phantom' && !d.phantomCalibration) {
 					d.phantomCalibration = {centerMhz: d.probe.centerMhz, depthCm: 16, alphaDbPerCmMhz: 0.5};
 					delete d.noiseBudgetDb;
+					delete d.noiseBudgetReceive;
 				} else if (v === 'budget' && d.phantomCalibration) {
 					// Keep the budget the calibration gave, so switching does not move the curve.
 					d.noiseBudgetDb = Math.round(derivedNoiseBudgetDb(d) * 10) / 10;
+					if (d.phantomCalibration.receive) d.noiseBudgetReceive = d.phantomCalibration.receive;
 					delete d.phantomCalibration;
+				}
+			}),
+	},
+	// The mode the phantom reach was measured in (or the typed budget stated for): a fundamental
+	// reach does not give the harmonic budget.
+	budgetReceive: {
+		label: 'Budget measured in',
+		options: [
+			{value: 'fundamental', text: 'fundamental'},
+			{value: 'tissue-harmonic', text: 'tissue harmonic'},
+			{value: 'scatterer-harmonic', text: 'scatterer harmonic'},
+		],
+		get: (doc) => budgetReceiveOf(doc),
+		set: (doc, v) =>
+			edit(doc, (d) => {
+				const mode = v as ReceiveMode;
+				if (d.phantomCalibration) d.phantomCalibration.receive = mode;
+				else {
+					d.noiseBudgetDb = d.noiseBudgetDb ?? defaultNoiseBudgetDb;
+					d.noiseBudgetReceive = mode;
 				}
 			}),
 	},
@@ -347,6 +384,12 @@ export const choiceFields: Record<ChoiceKey, ChoiceField> = {
 			}),
 	},
 };
+
+/** The receive mode the plan's noise budget is for (the default budget is a fundamental figure). */
+export function budgetReceiveOf(doc: PlanDocument): ReceiveMode {
+	if (doc.phantomCalibration) return doc.phantomCalibration.receive ?? 'fundamental';
+	return doc.noiseBudgetDb !== undefined ? (doc.noiseBudgetReceive ?? 'fundamental') : 'fundamental';
+}
 
 /** The budget the engine will use (typed, default, or from the phantom), dB. */
 export function derivedNoiseBudgetDb(doc: PlanDocument): number {

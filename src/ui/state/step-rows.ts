@@ -37,7 +37,9 @@ function probeRows(s: ConsoleState): Row[] {
 	const rows: Row[] = [
 		num('centerMhz'),
 		num('bandwidthFraction'),
+		num('spectrumSteepness'),
 		choice('harmonic'),
+		num('angleDeg'),
 		num('scattererExponent'),
 		num('depthCm'),
 		num('targetLayer'),
@@ -56,6 +58,7 @@ function probeRows(s: ConsoleState): Row[] {
 	];
 	if (s.doc.phantomCalibration) rows.push(num('phantomCenterMhz'), num('phantomDepthCm'), num('phantomAlpha'));
 	else rows.push(num('noiseBudgetDb'));
+	rows.push(choice('budgetReceive'));
 	return rows;
 }
 
