@@ -63,7 +63,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	const delta = deltaOf(curve, state.doc);
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
-	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} width={columns} height={bodyRows} />;
+	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
 	if (layout.isWide) {

@@ -16,6 +16,8 @@ import {tissueOf} from './row-text.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
+import {eraseIn, printableChars, typeInto} from './text-entry.js';
+import {filteredTissues, tissueFilterMax} from './tissue-filter.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
 
 export type Action =
@@ -255,8 +257,16 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 	}
 }
 
-function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: Intent): ConsoleState {
-	const last = pickerTissues.length; // the custom row
+function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: Intent, input: string): ConsoleState {
+	const list = filteredTissues(o.filter ?? '');
+	const last = list.length; // the custom row
+	// Letters (j and k too) narrow the list; the arrows move.
+	const isLetter = (intent === 'up' || intent === 'down') && input !== '';
+	if (intent === 'type' || intent === 'erase' || isLetter) {
+		const entry = {text: o.filter ?? '', isFresh: false};
+		const next = intent === 'erase' ? eraseIn(entry) : typeInto(entry, printableChars(input), tissueFilterMax);
+		return {...s, overlay: {...o, filter: next.text, cursor: 0}};
+	}
 	switch (intent) {
 		case 'up':
 		case 'down':
@@ -264,7 +274,7 @@ function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: In
 		case 'back':
 			return {...s, overlay: null};
 		case 'enter': {
-			const picked = pickerTissues[o.cursor];
+			const picked = list[o.cursor];
 			const tissue = picked?.id ?? customCopy(s.doc.layers[o.layer]!.tissue);
 			const after = applyDoc({...s, overlay: null}, setLayerTissue(s.doc, o.layer, tissue), `l:${o.layer}`);
 			// Custom values are typed in the layer's own form, so open it on the first value.
@@ -306,7 +316,7 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 		case 'ask':
 			return askIntent(s, o as Overlay & {kind: 'ask'}, intent);
 		case 'tissue':
-			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent);
+			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent, input);
 		case 'edit-text':
 			return editTextIntent(s, intent, input);
 		case 'edit-number':

@@ -104,8 +104,8 @@ export const bindings: readonly Binding[] = [
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
 	{keys: 'PgUp PgDn', help: 'nudge it a big step', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined)},
 	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep'], pick: (_i, k) => when(k.return, 'enter')},
-	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: typing, pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
-	{keys: '0-9 . -', help: 'type the value', section: 'Typing a value', modes: typing, pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
+	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
+	{keys: '0-9 . - a-z', help: 'type; filters tissues', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
 	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: browsing, pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
 	{
 		keys: '←→ PgUp PgDn',
@@ -183,7 +183,7 @@ export function hintsFor(mode: Mode): string[] {
 		'edit-text': ['type text', 'Enter done'],
 		'edit-list': ['type a list', 'Enter apply'],
 		sweep: ['↑↓ rows', '←→ columns'],
-		tissue: ['↑↓ move', 'Enter pick'],
+		tissue: ['type to filter', '↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
 	};
 	const fromTable = bindings
