@@ -79,4 +79,39 @@ describe('one way of typing into a field', () => {
 		expect(typeInto(eraseIn(openEntry('abc')), 'z', 10).text).toBe('abz');
 		expect(typeInto({text: 'abc', isFresh: false}, 'defgh', 5).text).toBe('abcde');
 	});
+
+	it('the save name, a number and the sweep list all replace on the first key and keep on Backspace', async () => {
+		const app = await open(120, 30);
+		// Save name: opens on the plan's name.
+		await press(app, 's');
+		expect(frame(app)).toContain('typing replaces, Backspace edits');
+		await press(app, keys.backspace);
+		expect(frame(app)).toMatch(/name: \[Demo – deep liver through thick fa_\]/);
+		await type(app, 't');
+		expect(frame(app)).toMatch(/name: \[Demo – deep liver through thick fat_\]/);
+		await press(app, keys.escape);
+		await press(app, 's');
+		await type(app, 'Bed 4');
+		expect(frame(app)).toContain('name: [Bed 4_]');
+		await press(app, keys.escape);
+		// A number: the fat thickness on step 2.
+		await press(app, '2', keys.enter);
+		expect(frame(app)).toContain('Typing replaces, Backspace edits');
+		await type(app, '8');
+		expect(selectedLine(app)).toContain('[8_]');
+		await press(app, keys.escape, keys.enter, keys.backspace);
+		expect(selectedLine(app)).toContain('[_]');
+		await type(app, '6');
+		expect(selectedLine(app)).toContain('[6_]');
+		await press(app, keys.escape);
+		// The sweep list on step 5.
+		await press(app, 'f', keys.enter);
+		expect(frame(app)).toContain('Thickness list: typing replaces, Backspace edits');
+		await type(app, '2');
+		expect(frame(app)).toContain('Thicknesses, cm: [2_]');
+		await press(app, keys.escape, keys.enter, keys.backspace);
+		expect(frame(app)).toContain('Thicknesses, cm: [1,2,3,4,5,6,_]');
+		await type(app, '9');
+		expect(frame(app)).toContain('Thicknesses, cm: [1,2,3,4,5,6,9_]');
+	});
 });

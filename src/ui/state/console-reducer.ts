@@ -16,7 +16,7 @@ import {tissueOf} from './row-text.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
-import {eraseIn, printableChars, typeInto} from './text-entry.js';
+import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
 import {filteredTissues, tissueFilterMax} from './tissue-filter.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
 
@@ -57,7 +57,7 @@ function askQuit(s: ConsoleState): ConsoleState {
 }
 
 function openSave(s: ConsoleState): ConsoleState {
-	return {...s, overlay: {kind: 'name', text: s.presetName ?? s.doc.name, isFresh: true}};
+	return {...s, overlay: {kind: 'name', ...openEntry(s.presetName ?? s.doc.name)}};
 }
 
 function openTissuePicker(s: ConsoleState, layer: number): ConsoleState {
@@ -71,11 +71,11 @@ function enterRow(s: ConsoleState, row: Row): ConsoleState {
 		case 'number': {
 			const v = numberFields[row.key].get(s.doc, row.index);
 			const spec = numberFields[row.key].spec;
-			return {...s, editing: {rowId: row.id, text: v === undefined ? '' : formatNumber(v, spec), isFresh: true}, refusal: null};
+			return {...s, editing: {rowId: row.id, ...openEntry(v === undefined ? '' : formatNumber(v, spec))}, refusal: null};
 		}
 		case 'tissue-label': {
 			const t = s.doc.layers[row.index]?.tissue;
-			return {...s, editing: {rowId: row.id, text: typeof t === 'string' ? '' : (t?.label ?? ''), isFresh: true}, refusal: null};
+			return {...s, editing: {rowId: row.id, ...openEntry(typeof t === 'string' ? '' : (t?.label ?? ''))}, refusal: null};
 		}
 		case 'choice':
 			return changeChoice(s, row, 1);

@@ -12,7 +12,7 @@ export interface TextEntry {
 }
 
 /** How the status line says what the next key does to a fresh field. */
-export const freshHint = 'typing replaces it, Backspace edits it';
+export const freshHint = 'typing replaces, Backspace edits';
 
 /** A field opened on `text`, marked so the first typed character replaces it. */
 export function openEntry(text: string): TextEntry {
