@@ -17,7 +17,7 @@ import {openShelf} from '../../src/ui/effects/preset-shelf.js';
 import {plainTheme} from '../../src/ui/kit/theme.js';
 import {choiceFields} from '../../src/ui/state/plan-fields.js';
 import {keys} from '../helpers/keys.js';
-import {frame, moveTo, press, ready, selectedLine, type Rendered} from '../helpers/press.js';
+import {frame, moveTo, press, ready, selectedLine, waitForText, type Rendered} from '../helpers/press.js';
 
 const dirs: string[] = [];
 const apps: Rendered[] = [];
@@ -48,5 +48,26 @@ describe('one vocabulary for the slider bank', () => {
 		for (const field of [choiceFields.knots, choiceFields.ends]) for (const o of field.options) expect(o.text.startsWith(o.value)).toBe(true);
 		const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
 		for (const word of ['`band-centres`', '`band-edges`', '`flat`', '`extrapolate`']) expect(readme).toContain(word);
+	});
+});
+
+describe('a preset named like a template', () => {
+	it('is marked "(your preset)" beside the "(template)" on step 1, and the Now line says which one is open', async () => {
+		const home = mkdtempSync(join(tmpdir(), 'evenecho-twin-'));
+		dirs.push(home);
+		const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={120} rows={30} />);
+		apps.push(app);
+		await ready(app);
+		await moveTo(app, keys.down, 'Upper abdomen – liver');
+		await press(app, keys.enter);
+		await waitForText(app, 'Started from "Upper abdomen – liver"');
+		await press(app, '+', 's', keys.enter);
+		expect(frame(app)).toContain('Step 1 marks it "(your preset)" beside the template');
+		await press(app, '1');
+		expect(frame(app)).toMatch(/Upper abdomen – liver \(template\) +template/);
+		expect(frame(app)).toMatch(/Upper abdomen – liver \(your preset\) +saved/);
+		expect(frame(app)).toContain('Now: "Upper abdomen – liver" (your preset)');
+		// Names that are not shared stay as they are.
+		expect(frame(app)).toMatch(/Pelvis – through a full bladder +template/);
 	});
 });

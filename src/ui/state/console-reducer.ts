@@ -360,8 +360,11 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				`Started from "${a.name}".`,
 				'done',
 			);
-		case 'saved':
-			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".`, 'done');
+		case 'saved': {
+			const twin = s.startingPoints.some((p) => p.kind !== 'preset' && p.name.trim().toLowerCase() === a.name.trim().toLowerCase());
+			const mark = twin ? ' Step 1 marks it "(your preset)" beside the template of that name.' : '';
+			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".${mark}`, 'done');
+		}
 		case 'save-exists':
 			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
 		case 'exported':
