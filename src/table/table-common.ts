@@ -115,7 +115,7 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	const bank = doc.sliders;
 	out.push([
 		'Controls',
-		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB at ${bank.knots === 'band-centres' ? 'band centres' : 'band edges'} (${bank.ends} ends), knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${bank.rampDbPerCmMhz > 0 ? `as offsets from the scanner's own ramp of ${plain(bank.rampDbPerCmMhz)} dB/cm/MHz (0 = centre detent)` : 'absolute (no built-in ramp)'}; master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
+		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB, knots at ${bank.knots} (${bank.ends} ends), knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${bank.rampDbPerCmMhz > 0 ? `as offsets from the scanner's own ramp of ${plain(bank.rampDbPerCmMhz)} dB/cm/MHz (0 = centre detent)` : 'absolute (no built-in ramp)'}; master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
 	]);
 	const budget = sharedNoiseBudget(t);
 	const budgets = [...new Set(t.rows.map((r) => fixed(r.noiseBudgetDb, 1)))];

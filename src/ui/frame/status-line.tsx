@@ -5,6 +5,9 @@ import {rangeHint} from '../state/row-text.js';
 import {currentRow} from '../state/step-rows.js';
 import {useTheme} from '../kit/theme-context.js';
 import {clip} from '../kit/text-fit.js';
+import {freshHint} from '../state/text-entry.js';
+
+const capitalised = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
 
 export interface StatusLineProps {
 	readonly state: ConsoleState;
@@ -16,12 +19,14 @@ export function statusText(state: ConsoleState): {text: string; tone: 'ask' | 'r
 	if (o?.kind === 'ask') return {text: `? ${o.question}`, tone: 'ask'};
 	if (o?.kind === 'name') {
 		if (o.error) return {text: `Save as preset, name: [${o.text}_]  ! ${o.error}`, tone: 'refusal'};
-		return {text: `Save as preset, name: [${o.text}_]  ${o.isFresh ? 'typing replaces it; ' : ''}Enter saves, Esc cancels`, tone: 'ask'};
+		return {text: `Save as preset, name: [${o.text}_]  ${o.isFresh ? `${freshHint}; ` : ''}Enter saves, Esc cancels`, tone: 'ask'};
 	}
 	if (state.editing) {
 		const hint = rangeHint(currentRow(state));
-		return {text: `Typing. ${hint ?? ''}. Enter applies, Esc cancels.`, tone: 'info'};
+		// The fresh-field words go last: at 80 columns the range and Enter/Esc matter more.
+		return {text: `Typing. ${hint ?? ''}. Enter applies, Esc cancels.${state.editing.isFresh ? ` ${capitalised(freshHint)}.` : ''}`, tone: 'info'};
 	}
+	if (state.sweep.isOpen && state.sweep.typing?.isFresh) return {text: `Thickness list: ${freshHint}. Enter applies, Esc cancels.`, tone: 'info'};
 	if (state.notice) return {text: state.notice.text, tone: state.notice.tone};
 	return {text: '', tone: 'info'};
 }

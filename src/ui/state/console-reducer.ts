@@ -19,6 +19,8 @@ import {openScannerPanel, scannerIntent, scannerResult} from './scanner-reducer.
 import type {ScannerAction, ScannerOverlay} from './scanner-state.js';
 import {openSweep, sweepIntent, sweepTypingIntent} from './sweep-reducer.js';
 import {maxColumnOffset} from './sweep-view-model.js';
+import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
+import {filteredTissues, tissueFilterMax} from './tissue-filter.js';
 import {editNumberIntent, editTextIntent} from './typing-reducer.js';
 import {refineDone, refineIntent, startRefine} from './refine-reducer.js';
 import type {RefineResult} from '../../analysis/refine-image.js';
@@ -66,7 +68,7 @@ function askQuit(s: ConsoleState): ConsoleState {
 }
 
 function openSave(s: ConsoleState): ConsoleState {
-	return {...s, overlay: {kind: 'name', text: s.presetName ?? s.doc.name, isFresh: true}};
+	return {...s, overlay: {kind: 'name', ...openEntry(s.presetName ?? s.doc.name)}};
 }
 
 function openTissuePicker(s: ConsoleState, layer: number): ConsoleState {
@@ -80,11 +82,11 @@ function enterRow(s: ConsoleState, row: Row): ConsoleState {
 		case 'number': {
 			const v = numberFields[row.key].get(s.doc, row.index);
 			const spec = numberFields[row.key].spec;
-			return {...s, editing: {rowId: row.id, text: v === undefined ? '' : formatNumber(v, spec), isFresh: true}, refusal: null};
+			return {...s, editing: {rowId: row.id, ...openEntry(v === undefined ? '' : formatNumber(v, spec))}, refusal: null};
 		}
 		case 'tissue-label': {
 			const t = s.doc.layers[row.index]?.tissue;
-			return {...s, editing: {rowId: row.id, text: typeof t === 'string' ? '' : (t?.label ?? ''), isFresh: true}, refusal: null};
+			return {...s, editing: {rowId: row.id, ...openEntry(typeof t === 'string' ? '' : (t?.label ?? ''))}, refusal: null};
 		}
 		case 'choice':
 			return changeChoice(s, row, 1);
@@ -274,8 +276,16 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 	}
 }
 
-function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: Intent): ConsoleState {
-	const last = pickerTissues.length; // the custom row
+function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: Intent, input: string): ConsoleState {
+	const list = filteredTissues(o.filter ?? '');
+	const last = list.length; // the custom row
+	// Letters (j and k too) narrow the list; the arrows move.
+	const isLetter = (intent === 'up' || intent === 'down') && input !== '';
+	if (intent === 'type' || intent === 'erase' || isLetter) {
+		const entry = {text: o.filter ?? '', isFresh: false};
+		const next = intent === 'erase' ? eraseIn(entry) : typeInto(entry, printableChars(input), tissueFilterMax);
+		return {...s, overlay: {...o, filter: next.text, cursor: 0}};
+	}
 	switch (intent) {
 		case 'up':
 		case 'down':
@@ -283,7 +293,7 @@ function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: In
 		case 'back':
 			return {...s, overlay: null};
 		case 'enter': {
-			const picked = pickerTissues[o.cursor];
+			const picked = list[o.cursor];
 			const tissue = picked?.id ?? customCopy(s.doc.layers[o.layer]!.tissue);
 			const after = applyDoc({...s, overlay: null}, setLayerTissue(s.doc, o.layer, tissue), `l:${o.layer}`);
 			// Custom values are typed in the layer's own form, so open it on the first value.
@@ -325,7 +335,7 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 		case 'ask':
 			return askIntent(s, o as Overlay & {kind: 'ask'}, intent);
 		case 'tissue':
-			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent);
+			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent, input);
 		case 'edit-text':
 			return editTextIntent(s, intent, input);
 		case 'edit-number':
@@ -375,8 +385,11 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				`Started from "${a.name}".`,
 				'done',
 			);
-		case 'saved':
-			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".`, 'done');
+		case 'saved': {
+			const twin = s.startingPoints.some((p) => p.kind !== 'preset' && p.name.trim().toLowerCase() === a.name.trim().toLowerCase());
+			const mark = twin ? ' Step 1 marks it "(your preset)" beside the template of that name.' : '';
+			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".${mark}`, 'done');
+		}
 		case 'save-exists':
 			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
 		case 'exported':

@@ -31,7 +31,7 @@ export type Overlay =
 	| {readonly kind: 'warnings'}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
-	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number}
+	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number; readonly filter?: string}
 	| ScannerOverlay;
 
 /** Side effects asked for by the reducer and carried out by the app (then reported back). */

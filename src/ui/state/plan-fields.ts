@@ -312,19 +312,20 @@ export const choiceFields: Record<ChoiceKey, ChoiceField> = {
 		set: (doc, v) => edit(doc, (d) => void (d.probe.receive = v as NonNullable<typeof d.probe.receive>)),
 	},
 	knots: {
-		label: 'Slider positions',
+		// The plan file's own words first, so console, files, README and tables say the same thing.
+		label: 'Slider knots',
 		options: [
-			{value: 'band-centres', text: 'mid-band'},
-			{value: 'band-edges', text: 'skin to bottom'},
+			{value: 'band-centres', text: 'band-centres (middle of each band)'},
+			{value: 'band-edges', text: 'band-edges (skin to bottom)'},
 		],
 		get: (doc) => doc.sliders.knots,
 		set: (doc, v) => edit(doc, (d) => void (d.sliders.knots = v as PlanDocument['sliders']['knots'])),
 	},
 	ends: {
-		label: 'Past the end sliders',
+		label: 'Slider ends',
 		options: [
-			{value: 'flat', text: 'held level'},
-			{value: 'extrapolate', text: 'slope carried on'},
+			{value: 'flat', text: 'flat (end values held)'},
+			{value: 'extrapolate', text: 'extrapolate (slope carried on)'},
 		],
 		get: (doc) => doc.sliders.ends,
 		set: (doc, v) => edit(doc, (d) => void (d.sliders.ends = v as PlanDocument['sliders']['ends'])),

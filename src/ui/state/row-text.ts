@@ -9,6 +9,7 @@ import {resolveLayer} from '../../plan/resolve-plan.js';
 import type {ConsoleState} from './console-state.js';
 import {formatNumber} from './number-field.js';
 import {choiceFields, numberFields} from './plan-fields.js';
+import type {StartingPoint} from './starting-point.js';
 import type {Row} from './step-rows.js';
 
 export interface RowText {
@@ -17,6 +18,17 @@ export interface RowText {
 }
 
 const kindWord = {demo: 'built in', template: 'template', preset: 'saved'} as const;
+
+/** Words added to a starting point's name when another one has the same name. */
+const sameNameMark = {demo: 'built in', template: 'template', preset: 'your preset'} as const;
+
+const nameKey = (name: string) => name.trim().toLowerCase();
+
+/** A starting point's name as listed: marked "(your preset)" / "(template)" when another one shares it. */
+export function startingPointLabel(point: StartingPoint, all: readonly StartingPoint[]): string {
+	const isShared = all.some((p) => p !== point && nameKey(p.name) === nameKey(point.name));
+	return isShared ? `${point.name} (${sameNameMark[point.kind]})` : point.name;
+}
 
 /** The tissue a layer uses, with an α0 measured for this patient in place of the library's. */
 export function tissueOf(doc: PlanDocument, index: number): Tissue | undefined {
@@ -64,7 +76,7 @@ export function rowText(s: ConsoleState, row: Row): RowText {
 			return {label: 'Name', value: typeof t === 'string' ? t : (t?.label ?? '')};
 		}
 		case 'start':
-			return {label: row.point.name, value: kindWord[row.point.kind]};
+			return {label: startingPointLabel(row.point, s.startingPoints), value: kindWord[row.point.kind]};
 		case 'layer': {
 			const l = s.doc.layers[row.index]!;
 			const t = tissueOf(s.doc, row.index);

@@ -12,6 +12,7 @@ import {rowsOf} from './step-rows.js';
 import {sweepFatCm, sweepFieldText, sweepTextMax, type SweepState} from './sweep-state.js';
 import {parseFatList} from './sweep-table.js';
 import {maxColumnOffset} from './sweep-view-model.js';
+import {eraseIn, openEntry, typeInto} from './text-entry.js';
 
 /** Characters a thickness list can hold; anything else is refused as it is typed. */
 const listChars = /^[0-9.,:+\- ]$/;
@@ -62,7 +63,7 @@ export function sweepIntent(s: ConsoleState, intent: Intent): ConsoleState | und
 		case 'toggle-delta':
 			return withSweep(s, {isDelta: !sw.isDelta, column: clampColumn(s, sw.column, !sw.isDelta)});
 		case 'enter':
-			return withSweep(s, {typing: {text: sweepFieldText(sw, s.doc), isFresh: true}, refusal: null});
+			return withSweep(s, {typing: openEntry(sweepFieldText(sw, s.doc)), refusal: null});
 		case 'export':
 			return queue(s, {kind: 'export-sweep', fatCm: sweepFatCm(sw, s.doc), isDelta: sw.isDelta});
 		case 'back':
@@ -75,17 +76,17 @@ export function sweepIntent(s: ConsoleState, intent: Intent): ConsoleState | und
 /** Keys while typing the thickness list. A refused list keeps the last good one (and its table). */
 export function sweepTypingIntent(s: ConsoleState, intent: Intent, input: string): ConsoleState {
 	const typing = s.sweep.typing!;
-	const setText = (text: string) => withSweep(s, {typing: {text: text.slice(0, sweepTextMax), isFresh: false}, refusal: null});
+	const setTyping = (typed: {text: string; isFresh: boolean}) => withSweep(s, {typing: typed, refusal: null});
 	switch (intent) {
 		case 'back':
 			return withSweep(s, {typing: null, refusal: null});
 		case 'type': {
 			const chars = [...input].filter((c) => listChars.test(c)).join('');
 			if (!chars) return withSweep(s, {refusal: 'type numbers with commas (1,2,4,6,8) or from:to:step (1:8:1), each above 0 and up to 50 cm'});
-			return setText((typing.isFresh ? '' : typing.text) + chars);
+			return setTyping(typeInto(typing, chars, sweepTextMax));
 		}
 		case 'erase':
-			return setText(typing.text.slice(0, -1));
+			return setTyping(eraseIn(typing));
 		case 'enter': {
 			const r = parseFatList(typing.text);
 			if (!r.ok) return withSweep(s, {refusal: r.message});

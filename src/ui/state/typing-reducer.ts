@@ -1,5 +1,6 @@
 /**
- * Keys while typing: a number into a field, a tissue name, or a preset name. Pure.
+ * Keys while typing: a number into a field, a tissue name, or a preset name. Pure. Every field
+ * edits through the shared `text-entry` steps, so they all behave alike.
  */
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
@@ -7,10 +8,13 @@ import {formatNumber, isNumberChar, nudge, parseEntry} from './number-field.js';
 import {numberFields} from './plan-fields.js';
 import {applyDoc, applyNumber, queue, withNotice} from './state-helpers.js';
 import {currentRow} from './step-rows.js';
+import {eraseIn, printableChars, typeInto} from './text-entry.js';
 
 /** Longest preset name the plan format accepts. */
 const nameMax = 80;
 const tissueLabelMax = 60;
+/** Longest number text kept while typing (more digits than any field shows). */
+const numberTextMax = 24;
 
 export function editNumberIntent(s: ConsoleState, intent: Intent, input: string): ConsoleState {
 	const editing = s.editing!;
@@ -23,10 +27,10 @@ export function editNumberIntent(s: ConsoleState, intent: Intent, input: string)
 		case 'type': {
 			const chars = [...input].filter(isNumberChar).join('');
 			if (!chars) return {...s, refusal: {rowId: row.id, message: 'numbers only: digits, a point, a minus sign'}};
-			return {...s, editing: {...editing, text: (editing.isFresh ? '' : editing.text) + chars, isFresh: false}, refusal: null};
+			return {...s, editing: {...editing, ...typeInto(editing, chars, numberTextMax)}, refusal: null};
 		}
 		case 'erase':
-			return {...s, editing: {...editing, text: editing.text.slice(0, -1), isFresh: false}};
+			return {...s, editing: {...editing, ...eraseIn(editing)}};
 		case 'nudge-up':
 		case 'nudge-down':
 		case 'coarse-up':
@@ -47,24 +51,22 @@ export function editNumberIntent(s: ConsoleState, intent: Intent, input: string)
 	}
 }
 
-/** Keeps printable characters only (a paste may carry line breaks or escapes). */
-const printable = (input: string) => [...input].filter((c) => c >= ' ' && c !== '\u007F').join('');
-
 export function editTextIntent(s: ConsoleState, intent: Intent, input: string): ConsoleState {
 	const o = s.overlay;
 	const isName = o?.kind === 'name';
 	const text = isName ? o.text : (s.editing?.text ?? '');
 	const isFresh = isName ? o.isFresh : (s.editing?.isFresh ?? false);
 	const max = isName ? nameMax : tissueLabelMax;
+	const entry = {text, isFresh};
 	const setText = (t: string): ConsoleState =>
 		isName ? {...s, overlay: {kind: 'name', text: t, isFresh: false}} : {...s, editing: {...s.editing!, text: t, isFresh: false}, refusal: null};
 	switch (intent) {
 		case 'back':
 			return isName ? withNotice({...s, overlay: null}, 'Not saved.') : {...s, editing: null, refusal: null};
 		case 'type':
-			return setText(((isFresh ? '' : text) + printable(input)).slice(0, max));
+			return setText(typeInto(entry, printableChars(input), max).text);
 		case 'erase':
-			return setText(text.slice(0, -1));
+			return setText(eraseIn(entry).text);
 		case 'enter': {
 			const t = text.trim();
 			if (t.length === 0) {

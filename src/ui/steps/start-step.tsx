@@ -20,7 +20,10 @@ export function StartStep({state, width, height, isFocused}: StepProps) {
 	const point = rows[state.cursors.start];
 	const about = point?.kind === 'start' ? `  region: ${point.point.region}` : '';
 	const listHeight = height - 3 - problems.length;
-	const now = `Now: "${state.doc.name}" [${state.doc.region}]${state.dirty ? ', changed' : ''}`;
+	// Which of two same-named entries the plan came from: a saved preset is remembered by name.
+	const shared = state.startingPoints.filter((p) => p.name.trim().toLowerCase() === state.doc.name.trim().toLowerCase()).length > 1;
+	const from = shared ? (state.presetName === state.doc.name ? ' (your preset)' : ' (template)') : '';
+	const now = `Now: "${state.doc.name}"${from} [${state.doc.region}]${state.dirty ? ', changed' : ''}`;
 	return (
 		<Box flexDirection="column" width={width}>
 			<Text wrap="truncate" {...theme.current}>
