@@ -225,8 +225,14 @@ export interface LogFactor {
 	(f: number): number;
 }
 
-/** ∫ exp(g(f) + x(f) − gPeak) df and ∫ f·exp(…) df over [a, b] by Gauss–Legendre. */
-function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, extra?: LogFactor): [number, number] {
+/** Running sums ∫ exp(…) df and ∫ f·exp(…) df of one integral. */
+interface Moments {
+	m0: number;
+	m1: number;
+}
+
+/** Adds ∫ exp(g(f) + x(f) − gPeak) df and ∫ f·exp(…) df over [a, b] by Gauss–Legendre to `sums`. */
+function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, sums: Moments, extra?: LogFactor): void {
 	const half = (b - a) / 2;
 	const mid = (a + b) / 2;
 	let s0 = 0;
@@ -237,7 +243,8 @@ function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, extra?: L
 		s0 += v;
 		s1 += v * f;
 	}
-	return [s0 * half, s1 * half];
+	sums.m0 += s0 * half;
+	sums.m1 += s1 * half;
 }
 
 /**
@@ -275,14 +282,22 @@ function fallPoint(ig: BandIntegrand, fp: number, gPeak: number, dir: 1 | -1, st
 	return far;
 }
 
-/** Panel edges from the peak out to one window edge: the shoulder where the integrand has fallen by
- * 1 Np and, when it lies between, the spectrum's centre `kink` (f0 for p < 2, where |x|^p has a corner). */
+/** Panel edges from the peak out to one window edge, in order from the peak: the shoulder where the
+ * integrand has fallen by 1 Np and the spectrum's centre `kink` (f0 for p < 2, where |x|^p has a
+ * corner), each only when it lies strictly between. */
 function panelEdges(fp: number, edge: number, shoulder: number, kink: number): number[] {
-	const edges = [fp, shoulder, edge].filter((v, i, all) => i === 0 || Math.abs(v - all[i - 1]!) > 0);
-	const lo = Math.min(fp, edge);
-	const hi = Math.max(fp, edge);
-	if (kink > lo && kink < hi && !edges.includes(kink)) edges.push(kink);
-	return edges.sort((a, b) => (edge > fp ? a - b : b - a));
+	const dir = edge > fp ? 1 : -1;
+	const inside = (v: number) => dir * (v - fp) > 0 && dir * (edge - v) > 0;
+	const edges = [fp];
+	const s = inside(shoulder);
+	const k = inside(kink) && kink !== shoulder;
+	if (s && k) {
+		const nearFirst = dir * (shoulder - kink) < 0;
+		edges.push(nearFirst ? shoulder : kink, nearFirst ? kink : shoulder);
+	} else if (s) edges.push(shoulder);
+	else if (k) edges.push(kink);
+	if (edge !== fp) edges.push(edge);
+	return edges;
 }
 
 /** The window reaches this much further when a build-up factor multiplies the integrand. */
@@ -309,9 +324,9 @@ function logIntegral(
 	let w = Number.isFinite(c) && c < 0 ? Math.min(halfWidth, 1 / Math.sqrt(-c)) : halfWidth;
 	if (fp === 0) w = Math.min(halfWidth, 1 / Math.max(1e-12, -ig.slope(Number.MIN_VALUE)));
 	const step = w / 4;
-	let m0 = 0;
-	let m1 = 0;
-	for (const dir of [1, -1] as const) {
+	const sums: Moments = {m0: 0, m1: 0};
+	for (let side = 0; side < 2; side++) {
+		const dir = side === 0 ? 1 : -1;
 		if (dir < 0 && fp === 0) continue;
 		const edge = fallPoint(ig, fp, gEnvelope, dir, step, windowDropNp + (extra ? extraWindowNp : 0), 4);
 		if (edge === fp) continue;
@@ -322,12 +337,10 @@ function logIntegral(
 			const a = Math.min(edges[i - 1]!, edges[i]!);
 			const b = Math.max(edges[i - 1]!, edges[i]!);
 			if (b <= a) continue;
-			const [s0, s1] = panel(ig, a, b, gPeak, extra);
-			m0 += s0;
-			m1 += s1;
+			panel(ig, a, b, gPeak, sums, extra);
 		}
 	}
-	return {logMass: gPeak + Math.log(m0), centroid: m1 / m0, peak: fp};
+	return {logMass: gPeak + Math.log(sums.m0), centroid: sums.m1 / sums.m0, peak: fp};
 }
 
 const emptyPath: PathTerms = {exponents: [], coefficients: []};

@@ -92,7 +92,7 @@ export function fitSliders(req: FitRequest): SliderFit {
 	const qp = tieBreakTotals(n, rows, data.targets, bounds, tau);
 	if (qp !== null && acceptable(qp, rows, data.targets, bounds, tau)) totals = qp;
 
-	const fit = settingFromTotals(req, knots, totals);
+	const fit = settingFromTotals(req, knots, totals, {data, rows});
 	// Defensive only: an optimal fit can never be worse than the naive one, whose setting is
 	// realisable and so misses by at least t*. A fit within the slack of t* is therefore kept
 	// without working the naive one out; only a fit that went wrong numerically is compared.
@@ -251,13 +251,19 @@ function interpolate(depths: readonly number[], values: readonly number[], x: nu
 	return values[lo]! + ((values[hi]! - values[lo]!) * (x - d0)) / (d1 - d0);
 }
 
+/** The usable samples and their hat weights, when the caller has them already. */
+interface Prepared {
+	readonly data: Samples;
+	readonly rows: readonly SparseWeights[];
+}
+
 /** Mean of the totals weighted by each slider's share of the usable depth range (split rule). */
-function usableMeanTotal(totals: readonly number[], req: FitRequest): number {
-	const data = usableSamples(req);
-	const knots = safeKnots(req);
+function usableMeanTotal(totals: readonly number[], req: FitRequest, prepared?: Prepared): number {
+	const data = prepared?.data ?? usableSamples(req);
+	const knots = prepared ? [] : safeKnots(req);
 	const w = totals.map(() => 0);
-	for (const d of data.depths) {
-		const row = sparseWeights(knots, req.bank.ends, d);
+	for (let i = 0; i < data.depths.length; i++) {
+		const row = prepared ? prepared.rows[i]! : sparseWeights(knots, req.bank.ends, data.depths[i]!);
 		for (let j = 0; j < row.idx.length; j++) {
 			const k = row.idx[j]!;
 			if (k < w.length) w[k]! += Math.abs(row.val[j]!);
@@ -277,7 +283,7 @@ function usableMeanTotal(totals: readonly number[], req: FitRequest): number {
 }
 
 /** Split totals into master + sliders (rule in fitSliders' TSDoc), clamping what cannot be reached. */
-function splitTotals(totals: readonly number[], req: FitRequest): {masterDb: number; sliderDb: number[]} {
+function splitTotals(totals: readonly number[], req: FitRequest, prepared?: Prepared): {masterDb: number; sliderDb: number[]} {
 	const {bank, master} = req;
 	let hMax = -Infinity;
 	let hMin = Infinity;
@@ -285,7 +291,7 @@ function splitTotals(totals: readonly number[], req: FitRequest): {masterDb: num
 		if (h > hMax) hMax = h;
 		if (h < hMin) hMin = h;
 	}
-	const ideal = usableMeanTotal(totals, req) - (bank.minDb + bank.maxDb) / 2;
+	const ideal = usableMeanTotal(totals, req, prepared) - (bank.minDb + bank.maxDb) / 2;
 	const lo = Math.max(master.minDb, hMax - bank.maxDb);
 	const hi = Math.min(master.maxDb, hMin - bank.minDb);
 	// Unreachable totals (naive fit only): centre the sliders as far as the master allows.
@@ -295,11 +301,28 @@ function splitTotals(totals: readonly number[], req: FitRequest): {masterDb: num
 	return {masterDb, sliderDb};
 }
 
-function settingFromTotals(req: FitRequest, knots: readonly number[], totals: readonly number[]): SliderFit {
-	const {masterDb, sliderDb} = splitTotals(totals, req);
+function settingFromTotals(req: FitRequest, knots: readonly number[], totals: readonly number[], prepared?: Prepared): SliderFit {
+	const {masterDb, sliderDb} = splitTotals(totals, req, prepared);
 	const sliders: SliderSetting[] = knots.map((depthCm, k) => ({depthCm, gainDb: sliderDb[k]!}));
-	const err = fitError(req, sliderDb, masterDb);
+	const err = prepared ? preparedError(prepared, sliderDb, masterDb) : fitError(req, sliderDb, masterDb);
 	return {sliders, masterGainDb: masterDb, residualDb: err.residualDb, residualAtCm: err.atCm};
+}
+
+/** {@link fitError} from weights already worked out (the same sums: the weights left out are 0). */
+function preparedError({data, rows}: Prepared, sliderDb: readonly number[], masterDb: number): {residualDb: number; atCm: number} {
+	let residualDb = 0;
+	let atCm = 0;
+	for (let i = 0; i < rows.length; i++) {
+		const r = rows[i]!;
+		let g = masterDb;
+		for (let e = 0; e < r.idx.length; e++) g += r.val[e]! * sliderDb[r.idx[e]!]!;
+		const err = Math.abs(g - data.targets[i]!);
+		if (err > residualDb) {
+			residualDb = err;
+			atCm = data.depths[i]!;
+		}
+	}
+	return {residualDb, atCm};
 }
 
 /** A bank without sliders: the master alone takes the midrange of the usable target. */
