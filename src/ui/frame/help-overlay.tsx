@@ -9,7 +9,9 @@ export interface HelpOverlayProps {
 	readonly height: number;
 }
 
-const sectionOrder: readonly Section[] = ['Moving around', 'Changing a value', 'Typing a value', 'Tissue stack', 'The plan', 'Questions'];
+// Ordered so the two columns split evenly (17 lines each at 80×24): getting about and the stack on the left,
+// the plan and editing on the right.
+const sectionOrder: readonly Section[] = ['Moving around', 'Tissue stack', 'Questions', 'The plan', 'Changing a value', 'Typing a value'];
 
 type Line = {readonly text: string; readonly isHeading: boolean};
 

@@ -115,8 +115,14 @@ export const bindings: readonly Binding[] = [
 	{keys: 'a', hint: 'accept', help: 'accept the measured α0', section: 'Questions', modes: ['refine'], pick: is('a', 'accept')},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep', 'scanner'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
-	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
-	{keys: 'PgUp PgDn', help: 'nudge it a big step', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined)},
+	{
+		keys: '↑ ↓  PgUp PgDn',
+		hint: 'nudge',
+		help: 'nudge; PgUp/Dn big',
+		section: 'Typing a value',
+		modes: ['edit-number'],
+		pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : k.pageUp ? 'coarse-up' : k.pageDown ? 'coarse-down' : undefined),
+	},
 	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep', 'scanner', 'refine'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . - a-z', help: 'type; filters tissues', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
@@ -129,9 +135,19 @@ export const bindings: readonly Binding[] = [
 		pick: (_i, k) => (k.leftArrow ? 'scroll-left' : k.rightArrow ? 'scroll-right' : k.pageUp ? 'page-up' : k.pageDown ? 'page-down' : undefined),
 	},
 	{keys: '1-5', help: 'jump to a step', section: 'Moving around', modes: browsing, pick: (i, k) => when(/^[1-5]$/.test(i) && plain(k), 'jump')},
-	{keys: 'Tab', hint: 'curve', help: 'step pane / curve; field', section: 'Moving around', modes: [...browsing, 'refine-pick'], pick: (_i, k) => when(k.tab, 'pane')},
-	{keys: '+ -', help: 'nudge a step (= as +)', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && (i === '+' || i === '=') ? 'nudge-up' : plain(k) && i === '-' ? 'nudge-down' : undefined)},
-	{keys: '] [', help: 'nudge a big step', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && i === ']' ? 'coarse-up' : plain(k) && i === '[' ? 'coarse-down' : undefined)},
+	{keys: 'Tab', hint: 'curve', help: 'step/curve pane; field', section: 'Moving around', modes: [...browsing, 'refine-pick'], pick: (_i, k) => when(k.tab, 'pane')},
+	// One help line for both nudges, so the overlay still fits 80×24 whole with the refine and scanner keys.
+	{
+		keys: '+ -  ] [',
+		help: 'nudge; ] [ a big step',
+		section: 'Changing a value',
+		modes: stepping,
+		pick: (i, k) => {
+			if (!plain(k)) return undefined;
+			const intents: Record<string, Intent> = {'+': 'nudge-up', '=': 'nudge-up', '-': 'nudge-down', ']': 'coarse-up', '[': 'coarse-down'};
+			return Object.hasOwn(intents, i) ? intents[i] : undefined;
+		},
+	},
 	{keys: 'd', hint: 'deltas', help: 'sweep: values / deltas', section: 'Changing a value', modes: ['sweep'], pick: is('d', 'toggle-delta')},
 	{keys: 'a', hint: 'add', help: 'add a layer below', section: 'Tissue stack', modes: ['stack'], pick: is('a', 'layer-add')},
 	{keys: 'x', hint: 'remove', help: 'remove the layer', section: 'Tissue stack', modes: ['stack'], pick: is('x', 'layer-remove')},
@@ -161,13 +177,8 @@ export const bindings: readonly Binding[] = [
 		},
 	},
 	// One help line for both, so the overlay still fits 80×24 whole.
-	{
-		keys: 'w  p  i',
-		help: 'warnings; picture; image',
-		section: 'The plan',
-		modes: browsing,
-		pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('i', 'refine-image')(i, k),
-	},
+	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
+	{keys: 'i', help: 'refine from an image', section: 'The plan', modes: browsing, pick: is('i', 'refine-image')},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep', 'refine'], pick: is('?', 'help')},
 	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},
 ];
