@@ -116,7 +116,7 @@ export const bindings: readonly Binding[] = [
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep', 'scanner'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{
-		keys: '↑ ↓  PgUp PgDn',
+		keys: '↑↓  PgUp PgDn',
 		hint: 'nudge',
 		help: 'nudge; PgUp/Dn big',
 		section: 'Typing a value',
