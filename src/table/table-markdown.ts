@@ -24,28 +24,34 @@ function tableLines(header: readonly string[], align: readonly ('l' | 'r')[], ro
 	return [line(header), line(align.map((a) => (a === 'r' ? '---:' : ':---'))), ...rows.map(line)];
 }
 
+/**
+ * The columns that say which combination a row is: the swept layer, the frequency (left out in the
+ * per-habitus table, whose rows span every frequency), the angle, the receive mode and each swap.
+ */
+function comboColumns(t: ProtocolTable, withFrequency: boolean): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
+	const s = t.sweep;
+	const header: string[] = [];
+	const align: ('l' | 'r')[] = [];
+	const parts: ((row: TableRow) => string)[] = [];
+	const column = (title: string, side: 'l' | 'r', cell: (row: TableRow) => string) => {
+		header.push(title);
+		align.push(side);
+		parts.push(cell);
+	};
+	if (s.layerIndex !== null) column(`${markdownText(sweptLayerLabel(t) ?? 'Layer')} cm`, 'r', (r) => fixed(r.layerCm ?? 0, 1));
+	if (withFrequency) column('MHz', 'r', (r) => plain(r.centerMhz));
+	if (showsAngle(t)) column('Angle °', 'r', (r) => plain(r.angleDeg));
+	column('Receive', 'l', (r) => r.receive);
+	s.swaps.forEach((w, k) => column(`Layer ${w.layer}`, 'l', (r) => markdownText(r.swapLabels[k]!)));
+	return {header, align, cells: (r) => parts.map((cell) => cell(r))};
+}
+
 /** Column headers and cells of the main table (exported for the console's scrolling view). */
 export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
 	const s = t.sweep;
-	const label = sweptLayerLabel(t);
-	const header: string[] = ['#'];
-	const align: ('l' | 'r')[] = ['r'];
-	if (s.layerIndex !== null) {
-		header.push(`${markdownText(label ?? 'Layer')} cm`);
-		align.push('r');
-	}
-	header.push('MHz');
-	align.push('r');
-	if (showsAngle(t)) {
-		header.push('Angle °');
-		align.push('r');
-	}
-	header.push('Receive');
-	align.push('l');
-	for (const w of s.swaps) {
-		header.push(`Layer ${w.layer}`);
-		align.push('l');
-	}
+	const combo = comboColumns(t, true);
+	const header: string[] = ['#', ...combo.header];
+	const align: ('l' | 'r')[] = ['r', ...combo.align];
 	t.knotDepthsCm.forEach((d, k) => {
 		header.push(`${s.delta ? 'Δ ' : ''}S${k + 1} @${fixed(d, 1)} cm`);
 		align.push('r');
@@ -72,12 +78,7 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 
 	const beyond = `beyond ${plain(s.doc.display.depthCm)}`;
 	const cells = (r: TableRow): string[] => {
-		const out = [String(r.index)];
-		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
-		out.push(plain(r.centerMhz));
-		if (showsAngle(t)) out.push(plain(r.angleDeg));
-		out.push(r.receive);
-		for (const l of r.swapLabels) out.push(markdownText(l));
+		const out = [String(r.index), ...combo.cells(r)];
 		if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => signed(x, 1)), signed(r.delta.masterDeltaDb, 1));
 		else out.push(...r.slidersDb.map((x) => signed(x, 1)));
 		out.push(
@@ -95,33 +96,14 @@ export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l
 
 /** One row per habitus (everything but the frequency): the highest reaching frequency once. */
 function habitusLadderTable(t: ProtocolTable): string[] {
-	const s = t.sweep;
-	const label = sweptLayerLabel(t);
-	const header: string[] = [];
-	const align: ('l' | 'r')[] = [];
-	if (s.layerIndex !== null) {
-		header.push(`${markdownText(label ?? 'Layer')} cm`);
-		align.push('r');
-	}
-	if (showsAngle(t)) {
-		header.push('Angle °');
-		align.push('r');
-	}
-	header.push('Receive');
-	align.push('l');
-	for (const w of s.swaps) {
-		header.push(`Layer ${w.layer}`);
-		align.push('l');
-	}
+	const combo = comboColumns(t, false);
+	const header = [...combo.header];
+	const align = [...combo.align];
 	header.push('Target cm', 'Highest MHz', 'Its noise floor at cm', 'Rows');
 	align.push('r', 'r', 'r', 'l');
 	const rows = habitusGroups(t).map((g) => {
 		const r = g[0]!;
-		const out: string[] = [];
-		if (s.layerIndex !== null) out.push(fixed(r.layerCm ?? 0, 1));
-		if (showsAngle(t)) out.push(plain(r.angleDeg));
-		out.push(r.receive);
-		for (const l of r.swapLabels) out.push(markdownText(l));
+		const out = combo.cells(r);
 		out.push(
 			fixed(r.targetDepthCm, 1),
 			r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz),

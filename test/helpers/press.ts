@@ -2,14 +2,15 @@
  * Keystroke helpers for ink-testing-library: write a key, then wait for a condition, never a
  * guessed delay. Ink renders through a legacy React root, so a key's update, its render and the
  * effects it queues run in microtasks and event-loop turns right after the write, not on a timer:
- * `settle` waits for those turns until no new frame comes, however slow the machine is.
+ * `settle` waits for those turns until no new frame comes, however slow the machine is; a
+ * condition is polled with vitest's own `vi.waitFor`.
  */
 import type {render} from 'ink-testing-library';
+import {vi} from 'vitest';
 
 export type Rendered = ReturnType<typeof render>;
 
 const tick = () => new Promise<void>((resolve) => setImmediate(resolve));
-const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 
 /** The last frame, never undefined. */
 export function frame(app: Rendered): string {
@@ -33,12 +34,14 @@ export async function settle(app: Rendered): Promise<void> {
 	}
 }
 
+/** Waits until `test` holds (checked every few ms, up to `timeoutMs`), then lets the turns it queued run. */
 async function waitUntil(test: () => boolean, what: string, timeoutMs: number): Promise<void> {
-	const start = Date.now();
-	while (!test()) {
-		if (Date.now() - start > timeoutMs) throw new Error(`timed out waiting for ${what}`);
-		await sleep(2);
-	}
+	await vi.waitFor(
+		() => {
+			if (!test()) throw new Error(`timed out waiting for ${what}`);
+		},
+		{timeout: timeoutMs, interval: 2},
+	);
 	await tick();
 	await tick();
 }
