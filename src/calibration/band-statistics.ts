@@ -82,23 +82,50 @@ export function speckleCellArea(image: PhantomImage, cols: readonly [number, num
 	}
 	variance /= Math.max(1, count);
 	if (!(variance > 0)) return 1;
+	// Centred values once (0 where masked). The coefficient is symmetric, ρ(dx, dy) = ρ(−dx, −dy)
+	// (the same pixel pairs), so half the lags are summed and counted twice; with nothing masked
+	// the pair count follows from the overlap and the inner loop is a bare product.
+	const c0 = cols[0];
+	const w = cols[1] - c0 + 1;
+	const rows = yb - ya + 1;
+	const centred = new Float64Array(rows * w);
+	const valid = new Uint8Array(rows * w);
+	let anyMasked = false;
+	for (let y = ya; y <= yb; y++) {
+		for (let x = c0; x <= cols[1]; x++) {
+			const k = (y - ya) * w + x - c0;
+			if (mask[y * width + x]) {
+				anyMasked = true;
+				continue;
+			}
+			centred[k] = grey[y * width + x]! - rowMean[y]!;
+			valid[k] = 1;
+		}
+	}
 	let area = 0;
-	for (let dy = -maxLag; dy <= maxLag; dy++) {
-		for (let dx = -maxLag; dx <= maxLag; dx++) {
-			let s = 0;
+	for (let dy = 0; dy <= maxLag; dy++) {
+		for (let dx = dy === 0 ? 0 : -maxLag; dx <= maxLag; dx++) {
+			let sum = 0;
 			let n = 0;
-			for (let y = Math.max(ya, ya - dy); y <= Math.min(yb, yb - dy); y += 2) {
-				const yy = y + dy;
-				for (let x = Math.max(cols[0], cols[0] - dx); x <= Math.min(cols[1], cols[1] - dx); x++) {
-					const i = y * width + x;
-					const j = yy * width + x + dx;
-					if (mask[i] || mask[j]) continue;
-					s += (grey[i]! - rowMean[y]!) * (grey[j]! - rowMean[yy]!);
-					n++;
+			const xa = Math.max(0, -dx);
+			const xb = Math.min(w - 1, w - 1 - dx);
+			for (let r = 0; r <= rows - 1 - dy; r += 2) {
+				const i0 = r * w;
+				const j0 = (r + dy) * w + dx;
+				if (anyMasked) {
+					for (let x = xa; x <= xb; x++) {
+						if (valid[i0 + x]! & valid[j0 + x]!) {
+							sum += centred[i0 + x]! * centred[j0 + x]!;
+							n++;
+						}
+					}
+				} else {
+					for (let x = xa; x <= xb; x++) sum += centred[i0 + x]! * centred[j0 + x]!;
+					n += Math.max(0, xb - xa + 1);
 				}
 			}
-			const rho = n ? s / n / variance : 0;
-			if (rho > 0.05) area += rho;
+			const rho = n ? sum / n / variance : 0;
+			if (rho > 0.05) area += dx === 0 && dy === 0 ? rho : 2 * rho;
 		}
 	}
 	return Math.max(1, area);
