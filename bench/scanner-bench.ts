@@ -85,14 +85,24 @@ export async function run(): Promise<void> {
 			target('`scanner calibrate` on the 7-image 600×480 DICOM series, wall (median of 5)', `${(wall / 1000).toFixed(2)} s`, '≤ 1.5 s', wall <= 1500);
 			const decode: number[] = [];
 			const analysis: number[] = [];
+			// CPU time beside the wall time: on a shared machine the wall time also counts the waits
+			// for a core, the CPU time only the work.
+			const decodeCpu: number[] = [];
+			const analysisCpu: number[] = [];
+			const cpuMs = (u: NodeJS.CpuUsage) => (u.user + u.system) / 1000;
 			for (let i = 0; i < 5; i++) {
+				const c0 = process.cpuUsage();
 				const loaded = loadSession(session);
+				const c1 = process.cpuUsage();
 				const t0 = performance.now();
 				calibrateScanner(loaded.input);
 				analysis.push(performance.now() - t0);
+				analysisCpu.push(cpuMs(process.cpuUsage(c1)));
+				decodeCpu.push(cpuMs(process.cpuUsage(c0)) - analysisCpu[i]!);
 				decode.push(loaded.decodeMs);
 			}
-			note('in process: decoding 7 images / analysis (medians of 5)', `${median(decode).toFixed(0)} ms / ${median(analysis).toFixed(0)} ms`);
+			note('in process: decoding 7 images / analysis, wall (medians of 5)', `${median(decode).toFixed(0)} ms / ${median(analysis).toFixed(0)} ms`);
+			note('in process: decoding 7 images / analysis, CPU time (medians of 5)', `${median(decodeCpu).toFixed(0)} ms / ${median(analysisCpu).toFixed(0)} ms`);
 		}
 		const still = join(dir, 'still.dcm');
 		jpegStill(still);

@@ -24,6 +24,8 @@ export interface ReadLimits {
 	readonly followLinks?: boolean;
 	/** What the input is, for messages ("plan", "image"). @default 'file' */
 	readonly what?: string;
+	/** Whether to fingerprint the bytes (inode and SHA-256) for a later guarded change. @default true */
+	readonly withIdentity?: boolean;
 }
 
 /** Who the file was when it was read: lets a later replace or delete check it is still the same. */
@@ -69,18 +71,23 @@ function cannotRead(path: string, what: string, error: unknown): FileRefusedErro
 	return new FileRefusedError('unreadable', `${inputName(path)}: cannot read the ${what}${errno ? ` (${errno})` : ''}`, errno);
 }
 
-/** Reads from an open descriptor until end of file or one byte past the cap. */
-function readCapped(fd: number, maxBytes: number): {bytes: Buffer; overflow: boolean} {
+/**
+ * Reads from an open descriptor until end of file or one byte past the cap. With the size the file
+ * had when opened, the first read takes it whole and the end is confirmed with a small read, so a
+ * large image is neither read in pieces nor copied again.
+ */
+function readCapped(fd: number, maxBytes: number, sizeHint = 0): {bytes: Buffer; overflow: boolean} {
 	const chunks: Buffer[] = [];
 	let total = 0;
 	while (total <= maxBytes) {
-		const chunk = Buffer.allocUnsafe(Math.min(1 << 20, maxBytes + 1 - total));
+		const want = total === 0 && sizeHint > 0 ? sizeHint + 1 : total > 0 && total === sizeHint ? 4096 : 1 << 20;
+		const chunk = Buffer.allocUnsafe(Math.min(want, maxBytes + 1 - total));
 		const n = readSync(fd, chunk, 0, chunk.length, null);
 		if (n === 0) break;
 		chunks.push(chunk.subarray(0, n));
 		total += n;
 	}
-	const bytes = Buffer.concat(chunks, total);
+	const bytes = chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, total);
 	return total > maxBytes ? {bytes: bytes.subarray(0, maxBytes), overflow: true} : {bytes, overflow: false};
 }
 
@@ -113,9 +120,9 @@ export function readRegularFile(path: string, limits: ReadLimits): ReadFile {
 		if (opened.ino !== before.ino || opened.dev !== before.dev) {
 			throw new FileRefusedError('changed', `${inputName(path)}: changed while being opened; try again`);
 		}
-		const {bytes, overflow} = readCapped(fd, limits.maxBytes);
+		const {bytes, overflow} = readCapped(fd, limits.maxBytes, opened.size);
 		if (overflow) throw tooLarge(path, what, limits.maxBytes);
-		return {bytes, identity: identityOf(opened, bytes)};
+		return limits.withIdentity === false ? {bytes} : {bytes, identity: identityOf(opened, bytes)};
 	} catch (error) {
 		if (error instanceof FileRefusedError) throw error;
 		throw cannotRead(path, what, error);

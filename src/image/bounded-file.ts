@@ -8,7 +8,8 @@ import {ImageRefusal, imageLimits} from './image-refusal.js';
 
 export function readImageBytes(path: string, label = path, maxBytes: number = imageLimits.maxFileBytes): Uint8Array {
 	try {
-		const {bytes} = readRegularFile(path, {maxBytes, what: 'image'});
+		// Images are only read, never replaced, so no fingerprint is needed.
+		const {bytes} = readRegularFile(path, {maxBytes, what: 'image', withIdentity: false});
 		return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	} catch (error) {
 		if (error instanceof FileRefusedError) {

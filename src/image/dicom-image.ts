@@ -8,7 +8,7 @@ import dicomParser, {type DataSet, type Element} from 'dicom-parser';
 import jpeg from 'jpeg-js';
 import type {PhantomImage} from '../calibration/phantom-image.js';
 import {hasRegionSequence, tissueRegion} from './dicom-regions.js';
-import {greyFromMonochrome, greyFromRgb, ybrToRgb, type GreyPlane} from './grey-levels.js';
+import {greyFromInterleavedRgb, greyFromMonochrome, greyFromRgb, ybrToRgb, type GreyPlane} from './grey-levels.js';
 import {ImageRefusal, imageLimits} from './image-refusal.js';
 import type {PixelScale} from './png-image.js';
 
@@ -186,6 +186,7 @@ function decodeNative(ds: DataSet, bytes: Uint8Array, el: Element, l: NativeLayo
 			const planar = ds.uint16('x00280006') ?? 0;
 			if (planar !== 0 && planar !== 1) throw new ImageRefusal(at(field.planar), `is ${planar}; 0 or 1`);
 			const idx = planar === 0 ? (i: number, c: number) => 3 * i + c : (i: number, c: number) => c * n + i;
+			if (l.photometric === 'RGB' && planar === 0 && bytesPerSample === 1) return greyFromInterleavedRgb(l.columns, l.rows, raw);
 			if (l.photometric === 'RGB') {
 				return greyFromRgb(l.columns, l.rows, (i, out) => {
 					for (let c = 0; c < 3; c++) out[c] = sample(idx(i, c)) * to255;

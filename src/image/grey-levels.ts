@@ -22,6 +22,11 @@ export interface GreyPlane {
 export function greyFromMonochrome(samples: ArrayLike<number>, count: number, maxValue: number, invert: boolean): GreyPlane {
 	const grey = new Float32Array(count);
 	const scale = 255 / maxValue;
+	// 8-bit MONOCHROME2, the usual export: a native copy, no per-pixel work.
+	if (scale === 1 && !invert && samples instanceof Uint8Array) {
+		grey.set(samples.subarray(0, count));
+		return {grey, mask: new Uint8Array(count), colouredPixels: 0};
+	}
 	for (let i = 0; i < count; i++) {
 		const v = samples[i]! * scale;
 		grey[i] = invert ? 255 - v : v;
@@ -44,6 +49,26 @@ export function greyFromRgb(width: number, height: number, rgbAt: (i: number, ou
 		const r = px[0]!;
 		const g = px[1]!;
 		const b = px[2]!;
+		grey[i] = 0.299 * r + 0.587 * g + 0.114 * b;
+		if (Math.abs(r - g) + Math.abs(g - b) > colourSpreadLimit) {
+			coloured[i] = 1;
+			colouredPixels++;
+		}
+	}
+	const mask = colouredPixels ? grow(coloured, width, height, colourMaskGrowPx) : coloured;
+	return {grey, mask, colouredPixels};
+}
+
+/** The same as greyFromRgb for 8-bit interleaved RGB (the usual export), without a call per pixel. */
+export function greyFromInterleavedRgb(width: number, height: number, rgb: Uint8Array): GreyPlane {
+	const n = width * height;
+	const grey = new Float32Array(n);
+	const coloured = new Uint8Array(n);
+	let colouredPixels = 0;
+	for (let i = 0, k = 0; i < n; i++, k += 3) {
+		const r = rgb[k]!;
+		const g = rgb[k + 1]!;
+		const b = rgb[k + 2]!;
 		grey[i] = 0.299 * r + 0.587 * g + 0.114 * b;
 		if (Math.abs(r - g) + Math.abs(g - b) > colourSpreadLimit) {
 			coloured[i] = 1;

@@ -36,7 +36,7 @@ export function previewPicture(result: CurveResult, cache: PictureCache, panel: 
 		if (x >= 0 && x < W && y >= 0 && y < stripPx) grey[y * W + x] = textGrey;
 	};
 	// With a measured scanner the sliders-centred panel shows its measured depth gain, not the ramp.
-	const rampCaption = result.plan.scanner ? 'MEASURED DEPTH GAIN ONLY' : panelCaptions.ramp;
+	const rampCaption = result.plan.scanner ? 'MEASURED GAIN ONLY' : panelCaptions.ramp;
 	drawText(`${rampCaption}  ILLUSTRATION`, 2, 3, plot);
 	drawText(panelCaptions.plan, width + gapPx + 2, 3, plot);
 	return {width: W, height: H, grey, topStripPx: stripPx};

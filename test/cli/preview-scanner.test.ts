@@ -89,7 +89,7 @@ describe('preview with a measured scanner', () => {
 	it('titles the terminal panel by what it shows; --scanner draws an unnamed plan on a profile', () => {
 		const r = runCli(['preview', join(root, 'assumed.json'), '--width', '30', '--height', '40', '--scanner', id], {env});
 		expect(r.status, r.stderr).toBe(0);
-		expect(r.stdout).toContain('measured depth gain only');
+		expect(r.stdout).toContain('measured gain only');
 		expect(r.stdout).not.toContain('built-in ramp only');
 		expect(r.stdout).toContain('sliders as a fraction of travel');
 		const plain = runCli(['preview', join(root, 'assumed.json'), '--width', '30', '--height', '40'], {env});

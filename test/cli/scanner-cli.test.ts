@@ -3,13 +3,14 @@
  * commands, plans that name a profile, and every bad input of the issue refused with exit 2, the
  * field named and the store unchanged.
  */
-import {existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync} from 'node:fs';
+import {cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
 import {writeDicom} from '../helpers/dicom-fixture.js';
 import {writeSession, type WrittenSession} from '../helpers/phantom-session.js';
 import {runCli} from '../helpers/run-cli.js';
+import {snapshotDir} from '../helpers/temp-home.js';
 
 const root = mkdtempSync(join(tmpdir(), 'evenecho-scanner-cli-'));
 afterAll(() => rmSync(root, {recursive: true, force: true}));
@@ -200,15 +201,27 @@ describe('bad sessions: exit 2, the field named, the store unchanged', () => {
 		},
 	];
 
+	// A store that already holds a profile, so "unchanged" is tested on real content: each bad
+	// session is run with --force under that profile's name, and the profile must survive byte for byte.
+	let seeded = '';
+	beforeAll(() => {
+		seeded = freshHome();
+		const r = runCli(['scanner', 'calibrate', good.sessionPath, '--name', 'Cart A'], {env: {EVENECHO_HOME: seeded}});
+		expect(r.status, r.stderr).toBe(0);
+	}, 120_000);
+
 	it.each(cases)('$name', ({name, field, edit}) => {
 		const dir = join(root, `bad-${name.replace(/\W+/g, '-')}`);
 		const written = writeSession(dir, 'dicom', {seed: 3, width: 200, height: 200}, (s) => edit(s, dir));
 		const home = freshHome();
-		const r = runCli(['scanner', 'calibrate', written.sessionPath], {env: {EVENECHO_HOME: home}});
+		cpSync(seeded, home, {recursive: true});
+		const before = snapshotDir(home);
+		expect(Object.keys(before)).toContain(join('scanner-profiles', 'cart-a.json'));
+		const r = runCli(['scanner', 'calibrate', written.sessionPath, '--name', 'Cart A', '--force'], {env: {EVENECHO_HOME: home}});
 		expect(r.stderr).toMatch(field);
 		expect(r.status).toBe(2);
 		expect(r.stderr).not.toMatch(/\n\s+at /);
 		expect(r.stdout).toBe('');
-		expect(listing(home)).toEqual([]);
+		expect(snapshotDir(home)).toEqual(before);
 	}, 60_000);
 });

@@ -89,7 +89,7 @@ describe('the measured-scanner panel', () => {
 		const travel = listed[0]!.sliderTravelDb!;
 		expect(selectedLine(app)).toContain('Cart B, curved array, abdomen (simulated)');
 		expect(selectedLine(app)).toContain(`travel ${travel.toFixed(1)} dB`);
-		expect(frame(app)).toContain('id cart-b-curved-array-abdomen-simulated');
+		expect(frame(app)).toContain('"scanner": "cart-b-curved-array-abdomen-simulated"');
 
 		await press(app, keys.escape);
 		expect(frame(app)).not.toContain('Measured scanner');

@@ -15,7 +15,7 @@ export const panelTitles: Record<PanelKind, string> = {
 
 /** A panel's title: with a measured scanner, the sliders-centred panel shows its measured depth gain, not the ramp. */
 export function panelTitle(kind: PanelKind, result: CurveResult): string {
-	return kind === 'ramp' && result.plan.scanner ? 'measured depth gain only' : panelTitles[kind];
+	return kind === 'ramp' && result.plan.scanner ? 'measured gain only' : panelTitles[kind];
 }
 
 /**

@@ -45,7 +45,7 @@ export function ScannerView({overlay, chosen, width, height}: ScannerViewProps) 
 			push(`${i === cursor ? '>' : ' '} ${isChosen ? '[x]' : '[ ]'} ${r}`, i === cursor ? 'selected' : undefined);
 		});
 		const picked = profiles[cursor - 1];
-		if (picked) note(`  id ${picked.id} ("scanner": "${picked.id}" in a plan file); ${picked.label}`);
+		if (picked) note(`  a plan file names it "scanner": "${picked.id}"`);
 		if (overlay.profiles === null) push('  reading the stored profiles…', 'muted');
 		else if (!profiles.length) push('  No profiles yet: press c and give a session file (evenecho-scanner-session/1).', 'muted');
 		for (const problem of overlay.problems.slice(0, 2)) push(`  note: ${problem}`, 'warn');
