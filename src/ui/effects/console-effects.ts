@@ -58,6 +58,6 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			}
 		}
 		case 'refine':
-			return [refineStill(ctx.doc, effect.path, effect.frame)];
+			return [refineStill(ctx.doc, effect.path, effect.frame, effect.settings)];
 	}
 }

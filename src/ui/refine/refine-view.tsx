@@ -43,6 +43,11 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 			<Text> </Text>
 			{field('Image file  ', panel.path, isPick && panel.field === 'path')}
 			{field('Frame       ', panel.frame === '' && !(isPick && panel.field === 'frame') ? '(first)' : panel.frame, isPick && panel.field === 'frame')}
+			{field(
+				'Settings    ',
+				panel.settings === '' && !(isPick && panel.field === 'settings') ? '(none: the plan\'s own sliders and master)' : panel.settings,
+				isPick && panel.field === 'settings',
+			)}
 			<Text> </Text>
 			{panel.phase === 'working' ? (
 				<Text wrap="truncate" {...theme.done}>
@@ -56,7 +61,7 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 				))
 			) : (
 				<Text wrap="truncate" {...theme.muted}>
-					{clip('Enter measures it; Tab moves to the frame; Esc closes.', width)}
+					{clip('Enter measures it; Tab: next field (frame, settings file {sliders, masterGainDb}); Esc closes.', width)}
 				</Text>
 			)}
 			<Text> </Text>

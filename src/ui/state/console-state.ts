@@ -39,7 +39,7 @@ export type Effect =
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
 	| {readonly kind: 'export'}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
-	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number};
+	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number; readonly settings?: string};
 
 export interface Editing {
 	/** The row being edited (row ids are stable while the plan's shape is). */

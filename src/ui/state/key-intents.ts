@@ -194,13 +194,14 @@ export function hintsFor(mode: Mode): string[] {
 		sweep: ['↑↓ rows', '←→ columns'],
 		tissue: ['↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
-		'refine-pick': ['type a path', 'Tab frame', 'Enter measure'],
+		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
 		refine: ['Enter another image'],
 	};
 	const fromTable = bindings
 		.filter((b) => b.hint && b.modes.includes(mode) && !((mode.startsWith('edit') || mode.startsWith('refine') || mode === 'tissue' || mode === 'curve-pane') && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
-	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')))];
+	// The form's Tab moves between its fields (said in its own hint), not to the curve.
+	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')))];
 }
 
 /**
