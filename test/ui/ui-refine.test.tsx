@@ -69,13 +69,14 @@ describe('refine from an image, by keystrokes', () => {
 		expect(shown).toContain(': measured  / left out');
 		expect(shown).toMatch(/\//);
 		expect(shown).toMatch(/Layer 4 Liver: α0 \d\.\d\d dB\/cm\/MHz, 95 % \d\.\d\d–\d\.\d\d/);
-		expect(shown).toContain('change');
+		expect(shown).toMatch(/slider +1 +2 +3/);
+		expect(shown).toMatch(/dB +[+−]\d+\.\d/);
 		expect(shown).toContain('master');
 		expect(shown).toContain('UNCALIBRATED');
 		expect(shown).toContain('confirm it on the live image');
 		expect(shown).toContain('other settings');
 		await press(app, 'a');
-		await waitForText(app, 'is in the plan; u undoes it');
+		await waitForText(app, 'now in the plan (u undoes); confirm live.');
 		expect(frame(app)).not.toContain('Band levels');
 		await press(app, 'u');
 		await waitForText(app, 'Undid one change');

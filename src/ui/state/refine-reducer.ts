@@ -52,7 +52,7 @@ function accept(s: ConsoleState, p: RefinePanel & {phase: 'shown'}): ConsoleStat
 	if (!a) return withNotice(s, `Nothing to accept: ${p.result.cannotTell ?? 'no attenuation was measured'}. Esc closes.`, 'warning');
 	const after = applyDoc(s, planWithMeasuredLayer(s.doc, a), `a:refine`);
 	if (after.doc === s.doc) return after;
-	const text = `Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} (${a.low.toFixed(2)}–${a.high.toFixed(2)}) dB/cm/MHz is in the plan; u undoes it. Confirm on the live image.`;
+	const text = `Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} (${a.low.toFixed(2)}–${a.high.toFixed(2)}) now in the plan (u undoes); confirm live.`;
 	return withNotice({...after, refine: closedRefine}, text, 'done');
 }
 
