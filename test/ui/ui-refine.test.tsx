@@ -73,8 +73,10 @@ describe('refine from an image, by keystrokes', () => {
 		expect(shown).toMatch(/dB +[+−]\d+\.\d/);
 		expect(shown).toContain('master');
 		expect(shown).toContain('UNCALIBRATED');
-		expect(shown).toContain('confirm it on the live image');
-		expect(shown).toContain('other settings');
+		// The cautions, wrapped under the still.
+		expect(shown).toContain('qualified operator');
+		expect(shown).toContain('confirm it on the live');
+		expect(shown).toContain('wrong corrections');
 		await press(app, 'a');
 		await waitForText(app, 'now in the plan (u undoes); confirm live.');
 		expect(frame(app)).not.toContain('Band levels');
