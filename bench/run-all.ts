@@ -14,6 +14,7 @@ const suites = {
 	table: './table-bench.js',
 	picture: './picture-bench.js',
 	scanner: './scanner-bench.js',
+	refine: './refine-bench.js',
 } as const;
 
 const asked = process.argv.slice(2).filter((a): a is keyof typeof suites => a in suites);

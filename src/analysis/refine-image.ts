@@ -64,7 +64,12 @@ export interface RefineRequest {
 	readonly sliderTravelDb?: number | null;
 	/** Dynamic range assumed without a profile, dB. @default 60 */
 	readonly dynamicRangeDb?: number;
+	/** Called as each stage ends (the benchmark's split); nothing else depends on it. */
+	readonly onStage?: (stage: RefineStage) => void;
 }
+
+/** Stages of a refinement: band levels measured (mask included), α0 fitted, sliders refitted (and the rest). */
+export type RefineStage = 'bands' | 'attenuation' | 'sliders';
 
 export type BandVerdict = 'usable' | 'too-few-cells' | 'dark' | 'clipped' | 'below-noise' | 'off-map' | 'beyond-profile';
 
@@ -319,6 +324,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const measured = measureBands(frame, region, mask, map);
 	const levelOf = (m: BandMeasurement) => m.levelDb;
 	const ev = evaluate(plan, applied, own, map, measured, levelOf);
+	req.onStage?.('bands');
 	const usableBands = ev.bands.filter((d) => d.verdict === 'usable');
 	if (usableBands.length < fewestTissueBands) {
 		return {
@@ -359,6 +365,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 			}
 		: null;
 
+	req.onStage?.('attenuation');
 	const refinedPlan = attenuation ? withLayerAlpha(plan, layerIndex, attenuation.alphaDbPerCmMhz) : plan;
 	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planFit();
 	const refinedSettings = settingsOfFit(refinedCurve.fit);
@@ -424,6 +431,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		});
 	}
 
+	req.onStage?.('sliders');
 	return {
 		ok: true,
 		bands,

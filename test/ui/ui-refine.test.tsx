@@ -35,7 +35,12 @@ afterEach(() => {
 
 const doc = abdomenPlan({}, 0.5);
 const still = join(dir, 'patient.dcm');
-writeFileSync(still, imageFiles(patientImage(resolvePlan(doc), 7, 'dcm', {cyst: true, size: {width: 360, height: 200}}), 'dicom', 'patient', 7, doc.name)[0]!.data);
+const settingsPath = join(dir, 'applied.json');
+const wrongCount = join(dir, 'three-sliders.json');
+writeFileSync(wrongCount, JSON.stringify({sliders: [0, 0, 0], masterGainDb: 30}));
+const patient = patientImage(resolvePlan(doc), 7, 'dcm', {cyst: true, size: {width: 360, height: 200}});
+writeFileSync(still, imageFiles(patient, 'dicom', 'patient', 7, doc.name)[0]!.data);
+writeFileSync(settingsPath, JSON.stringify(patient.appliedSettings));
 const notImage = join(dir, 'notes.txt');
 writeFileSync(notImage, 'not an image\n');
 
@@ -64,13 +69,16 @@ describe('refine from an image, by keystrokes', () => {
 		expect(shown).toContain(': measured  / left out');
 		expect(shown).toMatch(/\//);
 		expect(shown).toMatch(/Layer 4 Liver: α0 \d\.\d\d dB\/cm\/MHz, 95 % \d\.\d\d–\d\.\d\d/);
-		expect(shown).toContain('change');
+		expect(shown).toMatch(/slider +1 +2 +3/);
+		expect(shown).toMatch(/dB +[+−]\d+\.\d/);
 		expect(shown).toContain('master');
 		expect(shown).toContain('UNCALIBRATED');
-		expect(shown).toContain('confirm it on the live image');
-		expect(shown).toContain('other settings');
+		// The cautions, wrapped under the still.
+		expect(shown).toContain('qualified operator');
+		expect(shown).toContain('confirm it on the live');
+		expect(shown).toContain('wrong corrections');
 		await press(app, 'a');
-		await waitForText(app, 'is in the plan; u undoes it');
+		await waitForText(app, 'now in the plan (u undoes); confirm live.');
 		expect(frame(app)).not.toContain('Band levels');
 		await press(app, 'u');
 		await waitForText(app, 'Undid one change');
@@ -133,5 +141,21 @@ describe('refine from an image, the pure steps', () => {
 		expect(s.refine.phase).toBe('closed');
 		s = key(s, 'u');
 		expect(s.doc.layers[a!.layerIndex]!.measuredAlpha).toBeUndefined();
+	});
+
+	it('a settings file is read with the still: the stated settings are used; a wrong slider count is refused by name', () => {
+		const withSettings = (path: string): ConsoleState => {
+			let s = createInitialState({doc, originName: 'test', startingPoints: [], isWide: true});
+			s = key(key(s, '5'), 'i');
+			for (const ch of still) s = key(s, ch);
+			s = key(key(s, '', {tab: true}), '', {tab: true});
+			for (const ch of path) s = key(s, ch);
+			return run(key(s, '', {return: true}));
+		};
+		const good = withSettings(settingsPath);
+		expect(good.refine.phase === 'shown' && good.refine.result.appliedIsPlanFit).toBe(false);
+		const bad = withSettings(wrongCount);
+		expect(bad.refine.phase).toBe('pick');
+		expect(bad.refine.phase === 'pick' ? bad.refine.error : '').toMatch(/three-sliders\.json: not valid settings for this plan \(sliders/);
 	});
 });

@@ -68,6 +68,6 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 		case 'scanner-keep':
 			return runScannerEffect(effect, ctx.scanners ?? noScannerServices, ctx.later ?? (() => undefined));
 		case 'refine':
-			return [refineStill(ctx.doc, effect.path, effect.frame)];
+			return [refineStill(ctx.doc, effect.path, effect.frame, effect.settings)];
 	}
 }

@@ -6,6 +6,11 @@
 import {frameFromImage} from '../../analysis/frame-from-image.js';
 import {profileReading} from '../../analysis/profile-level-map.js';
 import {refineImage} from '../../analysis/refine-image.js';
+import type {AppliedSettings} from '../../analysis/applied-gain.js';
+import type {EnginePlan} from '../../engine/types.js';
+import {maxPlanBytes, readRegularFile} from '../../files/bounded-read.js';
+import {parseStrictJson} from '../../files/strict-json.js';
+import {parseAppliedSettings} from '../../plan/applied-settings.js';
 import {scannerResponseOf} from '../../calibration/profile-document.js';
 import {readImageFile} from '../../image/read-image.js';
 import type {PlanDocument} from '../../plan/plan-schema.js';
@@ -15,7 +20,21 @@ import type {Action} from '../state/console-reducer.js';
 
 const messageOf = (e: unknown) => (e instanceof Error ? e.message : String(e));
 
-export function refineStill(doc: PlanDocument, path: string, frame: number | undefined): Action {
+/** The stated settings file, read and checked against the plan's slider count. */
+function statedSettings(path: string, plan: EnginePlan): AppliedSettings | string {
+	try {
+		const {bytes} = readRegularFile(path, {maxBytes: maxPlanBytes, what: 'settings file'});
+		const json = parseStrictJson(bytes.toString('utf8').replace(/^\uFEFF/, ''));
+		if (!json.ok) return `${path}: ${json.problem}`;
+		const s = parseAppliedSettings(json.value, plan);
+		if (!s.ok) return `${path}: not valid settings for this plan (${s.errors[0]})`;
+		return {slidersDb: [...s.value.sliders], masterGainDb: s.value.masterGainDb};
+	} catch (error) {
+		return messageOf(error);
+	}
+}
+
+export function refineStill(doc: PlanDocument, path: string, frame: number | undefined, settingsPath?: string): Action {
 	let still;
 	try {
 		still = readImageFile(path, frame === undefined ? {} : {frame});
@@ -33,9 +52,15 @@ export function refineStill(doc: PlanDocument, path: string, frame: number | und
 			return {type: 'refine-failed', problem: `the plan's scanner: ${messageOf(error)}`};
 		}
 	}
+	let applied: AppliedSettings | undefined;
+	if (settingsPath) {
+		const stated = statedSettings(settingsPath, plan);
+		if (typeof stated === 'string') return {type: 'refine-failed', problem: stated};
+		applied = stated;
+	}
 	try {
 		const {frame: grey, region} = frameFromImage(still);
-		const outcome = refineImage({frame: grey, region, plan, ...(reading ? {levelMap: reading.levelMap, sliderTravelDb: reading.sliderTravelDb} : {})});
+		const outcome = refineImage({frame: grey, region, plan, ...(applied ? {applied} : {}), ...(reading ? {levelMap: reading.levelMap, sliderTravelDb: reading.sliderTravelDb} : {})});
 		if (!outcome.ok) return {type: 'refine-failed', problem: outcome.problem};
 		return {type: 'refined', still, result: outcome};
 	} catch (error) {

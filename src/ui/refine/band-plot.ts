@@ -17,12 +17,14 @@ const shortVerdict: Record<string, string> = {
 	'beyond-profile': 'no profile',
 };
 
+/** `height` lines: one per band (every second one, or fewer, when they do not all fit) and the dB axis. */
 export function bandPlot(r: RefineResult, width: number, height: number): string[] {
-	const bands = r.bands.slice(0, Math.max(1, height - 2));
+	const stride = Math.max(1, Math.ceil(r.bands.length / Math.max(1, height - 1)));
+	const bands = r.bands.filter((_, i) => i % stride === 0);
 	const values = bands.flatMap((b) => [b.levelDb, b.expectedDb]).filter(Number.isFinite);
 	const lo = Math.floor(Math.min(...values, 0) - 1);
 	const hi = Math.ceil(Math.max(...values, lo + 10) + 1);
-	const note = 10;
+	const note = 11; // room for the verdict after the row
 	const plotW = Math.max(10, width - 8 - note);
 	const at = (v: number) => Math.min(plotW - 1, Math.max(0, Math.round(((v - lo) / (hi - lo)) * (plotW - 1))));
 	const out = bands.map((b) => {
@@ -35,7 +37,8 @@ export function bandPlot(r: RefineResult, width: number, height: number): string
 		const verdict = b.usable ? (b.fitted ? 'fitted' : '') : (shortVerdict[b.verdict] ?? b.verdict);
 		return `${b.depthCm.toFixed(1).padStart(5)}cm|${row.join('')} ${verdict}`.slice(0, width);
 	});
-	out.push(`${' '.repeat(7)}+${'-'.repeat(plotW)}`.slice(0, width));
-	out.push(`${' '.repeat(8)}${lo} dB${' '.repeat(Math.max(1, plotW - 10 - String(lo).length - String(hi).length))}${hi} dB`.slice(0, width));
+	const left = `${lo} dB`;
+	const right = `${hi} dB`;
+	out.push(`${' '.repeat(7)}+${left}${'-'.repeat(Math.max(1, plotW - left.length - right.length))}${right}`.slice(0, width));
 	return out;
 }

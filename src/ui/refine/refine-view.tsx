@@ -43,6 +43,11 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 			<Text> </Text>
 			{field('Image file  ', panel.path, isPick && panel.field === 'path')}
 			{field('Frame       ', panel.frame === '' && !(isPick && panel.field === 'frame') ? '(first)' : panel.frame, isPick && panel.field === 'frame')}
+			{field(
+				'Settings    ',
+				panel.settings === '' && !(isPick && panel.field === 'settings') ? '(none: the plan\'s own sliders and master)' : panel.settings,
+				isPick && panel.field === 'settings',
+			)}
 			<Text> </Text>
 			{panel.phase === 'working' ? (
 				<Text wrap="truncate" {...theme.done}>
@@ -56,7 +61,7 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 				))
 			) : (
 				<Text wrap="truncate" {...theme.muted}>
-					{clip('Enter measures it; Tab moves to the frame; Esc closes.', width)}
+					{clip('Enter measures it; Tab: next field (frame, settings file {sliders, masterGainDb}); Esc closes.', width)}
 				</Text>
 			)}
 			<Text> </Text>
@@ -69,19 +74,22 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 	);
 }
 
+/** Changes as a small table: a column per slider and one for the master; rows dB and, with a profile, travel. */
 function sliderLines(r: RefineResult, width: number): string[] {
 	const hasTravel = r.sliders.some((s) => s.correctionTravel !== null);
-	const cell = hasTravel ? 13 : 7;
-	const perLine = Math.max(1, Math.floor((width - 8) / cell));
+	const cell = 6;
+	const columns = [
+		...r.sliders.map((s, k) => ({head: String(k + 1), db: signed(s.correctionDb), travel: s.correctionTravel === null ? '' : signed(s.correctionTravel, 2)})),
+		{head: 'master', db: signed(r.masterCorrectionDb), travel: ''},
+	];
+	const perLine = Math.max(1, Math.floor((width - 7) / cell));
 	const lines: string[] = [];
-	for (let k = 0; k < r.sliders.length; k += perLine) {
-		const part = r.sliders.slice(k, k + perLine).map((s, j) => {
-			const travel = s.correctionTravel === null ? '' : ` ${signed(s.correctionTravel, 2)}t`;
-			return `${k + j + 1}:${signed(s.correctionDb)}${travel}`.padEnd(cell);
-		});
-		lines.push(`${k === 0 ? 'change ' : '       '} ${part.join('')}`);
+	for (let k = 0; k < columns.length; k += perLine) {
+		const part = columns.slice(k, k + perLine);
+		const row = (label: string, pick: (c: (typeof columns)[number]) => string) => `${label.padEnd(7)}${part.map((c) => pick(c).padStart(cell - 1).padEnd(cell)).join('')}`;
+		lines.push(row(k === 0 ? 'slider' : '', (c) => c.head), row('dB', (c) => c.db));
+		if (hasTravel) lines.push(row('travel', (c) => c.travel));
 	}
-	lines.push(`master  ${signed(r.masterCorrectionDb)} dB → ${r.masterGainDb.toFixed(1)} dB${hasTravel ? '   (t: fraction of full slider travel)' : '   (dB per slider)'}`);
 	return lines;
 }
 
@@ -90,7 +98,8 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 	const r = panel.result;
 	const thumbWidth = Math.max(16, Math.min(40, Math.floor(width * 0.34)));
 	const rightWidth = width - thumbWidth - 2;
-	const thumbRows = Math.max(6, height - 3);
+	const cautionLines = wrapWords(`${refineCautions[0]} ${refineCautions[1]}`, thumbWidth);
+	const thumbRows = Math.max(6, height - 2 - cautionLines.length);
 	const thumb = useMemo(() => refineThumbnail(panel.still, r.mask, thumbWidth, thumbRows), [panel.still, r.mask, thumbWidth, thumbRows]);
 	const a = r.attenuation;
 	const alphaLine = a
@@ -98,10 +107,8 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 		: `α0 not measured: ${r.cannotTell ?? ''}`;
 	const sliders = sliderLines(r, rightWidth);
 	const notes = r.warnings.filter((w) => w.code === 'uncalibrated' || w.code === 'model-leftover' || w.code === 'slider-range-exceeded');
-	const fixed = 1 + 1 + sliders.length + 2 + 1;
 	const noteLines = notes.flatMap((w) => wrapWords(w.code === 'uncalibrated' ? w.message.split('. ')[0]! + '.' : w.message, rightWidth)).slice(0, 2);
-	const cautionLines = wrapWords(`${refineCautions[0]} ${refineCautions[1]}`, rightWidth);
-	const plotRows = Math.max(6, height - fixed - noteLines.length - cautionLines.length);
+	const plotRows = Math.max(6, height - 3 - sliders.length - noteLines.length);
 	const plot = bandPlot(r, rightWidth, plotRows);
 	return (
 		<Box flexDirection="row" width={width}>
@@ -117,6 +124,11 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 				<Text wrap="truncate" {...theme.muted}>
 					{clip(`: measured  ${maskedGlyph} left out`, thumbWidth)}
 				</Text>
+				{cautionLines.map((l, i) => (
+					<Text key={`c${i}`} wrap="truncate" {...theme.caution}>
+						{l}
+					</Text>
+				))}
 			</Box>
 			<Box width={2} />
 			<Box flexDirection="column" width={rightWidth}>
@@ -141,13 +153,8 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 						{l}
 					</Text>
 				))}
-				{cautionLines.map((l, i) => (
-					<Text key={`c${i}`} wrap="truncate" {...theme.caution}>
-						{l}
-					</Text>
-				))}
 				<Text wrap="truncate" {...theme.muted}>
-					{clip(a ? 'a: put this α0 in the plan (u undoes)   Esc: discard   Enter: another image' : 'Esc: discard   Enter: another image', rightWidth)}
+					{clip(a ? 'a: α0 into the plan (u undoes)  Esc: discard  Enter: another' : 'Esc: discard  Enter: another image', rightWidth)}
 				</Text>
 			</Box>
 		</Box>

@@ -41,7 +41,7 @@ export type Effect =
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
 	| {readonly kind: 'export'}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
-	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number}
+	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number; readonly settings?: string}
 	| ScannerEffect;
 
 export interface Editing {

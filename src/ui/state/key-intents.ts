@@ -230,7 +230,7 @@ export function hintsFor(mode: Mode): string[] {
 		overlay: ['Esc close'],
 		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
 		'edit-path': ['type a path', 'Enter measure'],
-		'refine-pick': ['type a path', 'Tab frame', 'Enter measure'],
+		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
 		refine: ['Enter another image'],
 	};
 	const noEnterHint = (m: Mode): boolean =>
@@ -238,7 +238,8 @@ export function hintsFor(mode: Mode): string[] {
 	const fromTable = bindings
 		.filter((b) => b.hint && b.modes.includes(mode) && !(noEnterHint(mode) && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
-	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')))];
+	// The form's Tab moves between its fields (said in its own hint), not to the curve.
+	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')))];
 }
 
 /**

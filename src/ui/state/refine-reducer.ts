@@ -8,7 +8,7 @@ import type {PhantomImage} from '../../calibration/phantom-image.js';
 import {planWithMeasuredLayer} from '../../plan/measured-layer.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
-import {closedRefine, frameOf, openRefine, type RefinePanel} from './refine-state.js';
+import {closedRefine, frameOf, openRefine, refineFields, type RefinePanel} from './refine-state.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
 
 const pathMax = 1000;
@@ -25,20 +25,22 @@ function pickIntent(s: ConsoleState, p: RefinePanel & {phase: 'pick'}, intent: I
 		case 'back':
 			return {...s, refine: closedRefine};
 		case 'pane':
-			return set({field: p.field === 'path' ? 'frame' : 'path'});
+			return set({field: refineFields[(refineFields.indexOf(p.field) + 1) % refineFields.length]!});
 		case 'type': {
 			const text = input.replace(/[\r\n\t]/g, '');
 			if (p.field === 'frame') return set({frame: (p.frame + text.replace(/\D/g, '')).slice(0, 5)});
+			if (p.field === 'settings') return set({settings: (p.settings + text).slice(0, pathMax)});
 			return set({path: (p.path + text).slice(0, pathMax)});
 		}
 		case 'erase':
-			return p.field === 'frame' ? set({frame: p.frame.slice(0, -1)}) : set({path: p.path.slice(0, -1)});
+			return set({[p.field]: p[p.field].slice(0, -1)});
 		case 'enter': {
 			if (p.path.trim() === '') return set({error: 'type the path of a DICOM or PNG still of the patient'});
 			const f = frameOf(p.frame);
 			if (!f.ok) return set({error: f.message, field: 'frame'});
-			const working: RefinePanel = {phase: 'working', path: p.path.trim(), frame: p.frame.trim()};
-			return queue({...s, refine: working}, {kind: 'refine', path: p.path.trim(), ...(f.frame ? {frame: f.frame} : {})});
+			const settings = p.settings.trim();
+			const working: RefinePanel = {phase: 'working', path: p.path.trim(), frame: p.frame.trim(), settings};
+			return queue({...s, refine: working}, {kind: 'refine', path: p.path.trim(), ...(f.frame ? {frame: f.frame} : {}), ...(settings ? {settings} : {})});
 		}
 		default:
 			return s;
@@ -50,7 +52,7 @@ function accept(s: ConsoleState, p: RefinePanel & {phase: 'shown'}): ConsoleStat
 	if (!a) return withNotice(s, `Nothing to accept: ${p.result.cannotTell ?? 'no attenuation was measured'}. Esc closes.`, 'warning');
 	const after = applyDoc(s, planWithMeasuredLayer(s.doc, a), `a:refine`);
 	if (after.doc === s.doc) return after;
-	const text = `Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} (${a.low.toFixed(2)}–${a.high.toFixed(2)}) dB/cm/MHz is in the plan; u undoes it. Confirm on the live image.`;
+	const text = `Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} (${a.low.toFixed(2)}–${a.high.toFixed(2)}) now in the plan (u undoes); confirm live.`;
 	return withNotice({...after, refine: closedRefine}, text, 'done');
 }
 
@@ -76,6 +78,6 @@ export function refineIntent(s: ConsoleState, intent: Intent, input: string): Co
 export function refineDone(s: ConsoleState, outcome: {still: PhantomImage; result: RefineResult} | {problem: string}): ConsoleState {
 	const p = s.refine;
 	if (p.phase !== 'working') return s;
-	if ('problem' in outcome) return {...s, refine: {phase: 'pick', path: p.path, frame: p.frame, field: 'path', error: outcome.problem}};
-	return {...s, refine: {phase: 'shown', path: p.path, frame: p.frame, still: outcome.still, result: outcome.result}};
+	if ('problem' in outcome) return {...s, refine: {phase: 'pick', path: p.path, frame: p.frame, settings: p.settings, field: 'path', error: outcome.problem}};
+	return {...s, refine: {phase: 'shown', path: p.path, frame: p.frame, settings: p.settings, still: outcome.still, result: outcome.result}};
 }

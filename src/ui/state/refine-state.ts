@@ -6,7 +6,8 @@
 import type {RefineResult} from '../../analysis/refine-image.js';
 import type {PhantomImage} from '../../calibration/phantom-image.js';
 
-export type RefineField = 'path' | 'frame';
+export type RefineField = 'path' | 'frame' | 'settings';
+export const refineFields: readonly RefineField[] = ['path', 'frame', 'settings'];
 
 export type RefinePanel =
 	| {readonly phase: 'closed'}
@@ -15,14 +16,17 @@ export type RefinePanel =
 			readonly path: string;
 			/** Typed frame number of a multi-frame file; empty for the first. */
 			readonly frame: string;
+			/** Path of a settings file ({sliders, masterGainDb}) the still was taken with; empty: the plan's own fit. */
+			readonly settings: string;
 			readonly field: RefineField;
 			readonly error: string | null;
 	  }
-	| {readonly phase: 'working'; readonly path: string; readonly frame: string}
+	| {readonly phase: 'working'; readonly path: string; readonly frame: string; readonly settings: string}
 	| {
 			readonly phase: 'shown';
 			readonly path: string;
 			readonly frame: string;
+			readonly settings: string;
 			/** The still as read (drawn small with the mask over it). */
 			readonly still: PhantomImage;
 			readonly result: RefineResult;
@@ -34,7 +38,8 @@ export const closedRefine: RefinePanel = {phase: 'closed'};
 export function openRefine(previous: RefinePanel): RefinePanel {
 	const path = previous.phase === 'closed' ? '' : previous.path;
 	const frame = previous.phase === 'closed' ? '' : previous.frame;
-	return {phase: 'pick', path, frame, field: 'path', error: null};
+	const settings = previous.phase === 'closed' ? '' : previous.settings;
+	return {phase: 'pick', path, frame, settings, field: 'path', error: null};
 }
 
 /** The typed frame as a number, or a message; empty means none (the file's first). */
