@@ -12,6 +12,8 @@
  * - Speed: at a fixed displayed depth a faster layer is drawn thinner, so the echo there has crossed
  *   more true tissue, and every layer's loss per displayed cm rises with its speed; the low end takes
  *   each speed at the bottom of its range, the high end at the top.
+ * - Tissue harmonic: levels are relative to the echo from 1 cm, so α0 and speed act either way in the
+ *   near field and the layers over the reference act apart from those below (see cornersFor).
  * - Boundaries: each boundary's loss is taken at its own smallest and largest value over the corners
  *   of both layers' speed and density ranges (zero when their impedance ranges overlap at normal
  *   incidence); the sums bound the joint spread from outside.
@@ -20,6 +22,7 @@ import {obliqueRoundTripLossDb, refractedAnglesDeg} from './beam-angle.js';
 import {reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
 import {PathModel} from './path-model.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
+import {harmonicReferenceCm} from './tissue-harmonic.js';
 import type {EnginePlan, Layer, Range, Tissue} from './types.js';
 
 /** What the band holds and what it leaves out: stated, from here, in every output that shows it. */
@@ -38,6 +41,8 @@ export interface SpreadCorner {
 	readonly alpha: BandEnd;
 	readonly exponent: BandEnd;
 	readonly speed: BandEnd;
+	/** Tissue harmonic: α0 and speed of the layers over its reference depth, set apart from the rest. */
+	readonly reference?: {readonly alpha: BandEnd; readonly speed: BandEnd};
 }
 
 /**
@@ -111,16 +116,19 @@ function exponentSides(receive: EnginePlan['probe']['receive'], centroidMhz: num
 }
 
 /**
- * The corners a band end is taken over. Fundamental and scatterer harmonic: the loss rises with α0
- * and speed, so one corner per exponent side. Tissue harmonic: relative to its 1 cm reference the
- * near field's build-up gains with depth while attenuation loses, so α0 and speed can act either way
- * and every combination is tried.
+ * The corners a band end is taken over. Fundamental and scatterer harmonic: the loss rises with every
+ * layer's α0 and speed, so all layers at the same end give the extreme: one corner per exponent side.
+ * Tissue harmonic: relative to its 1 cm reference the near field's build-up gains with depth while
+ * attenuation loses, so α0 and speed can act either way, and the speed of the layers over the
+ * reference (which sets how deep the reference really is) acts apart from the speed below it: every
+ * combination of α0, speed below and speed over the reference is tried (8 per exponent end).
  */
 function cornersFor(end: BandEnd, side: ExponentSide, tissueHarmonic: boolean): SpreadCorner[] {
 	const lossier = (e: BandEnd): BandEnd => (side === 'above' ? e : e === 'low' ? 'high' : 'low');
 	if (!tissueHarmonic) return [{alpha: end, exponent: lossier(end), speed: end}];
 	const ends: BandEnd[] = ['low', 'high'];
-	return ends.flatMap((alpha) => ends.map((speed) => ({alpha, exponent: lossier(end), speed})));
+	const pairs = ends.flatMap((alpha) => ends.map((speed) => ({alpha, speed})));
+	return pairs.flatMap((deep) => ends.map((speed) => ({...deep, exponent: lossier(end), reference: {alpha: deep.alpha, speed}})));
 }
 
 /** Spacing of the band's grid, cm: the band is smooth, so linear interpolation between these points
@@ -147,10 +155,16 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 	const crossedBy = {low: crossed('low'), high: crossed('high')};
 	const models = new Map<string, PathModel>();
 	const modelOf = (c: SpreadCorner): PathModel => {
-		const key = `${c.alpha}:${c.exponent}:${c.speed}`;
+		const key = `${c.alpha}:${c.exponent}:${c.speed}:${c.reference?.alpha}:${c.reference?.speed}`;
 		let m = models.get(key);
 		if (!m) {
-			const layers = plan.layers.map((l) => ({...l, tissue: spreadTissue(l.tissue, c)}));
+			let top = 0;
+			const layers = plan.layers.map((l) => {
+				const overReference = top < harmonicReferenceCm;
+				top += l.thicknessCm;
+				const corner = overReference && c.reference ? {...c, ...c.reference} : c;
+				return {...l, tissue: spreadTissue(l.tissue, corner)};
+			});
 			m = new PathModel(layers, plan.probe, plan.scattererExponent, plan.display.assumedSpeedMps);
 			models.set(key, m);
 		}
