@@ -8,6 +8,7 @@ import {computeCurve} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
 import {demoPlan} from '../plan/demo-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
+import {planWithNote} from '../plan/plan-note.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 import {CautionLine} from './frame/caution-line.js';
 import {consoleReducer, modeOf} from './state/console-reducer.js';
@@ -136,12 +137,13 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 		dispatch({type: 'effects-taken', count: batch.length});
 		const ctx = {
 			shelf,
-			doc: state.doc,
+			// Files get the note marked when the values left the starting plan's behind.
+			doc: planWithNote(state.doc, state.origin),
 			...(exportDir === undefined ? {} : {exportDir}),
 			exit,
 		};
 		for (const effect of batch) for (const action of runEffect(effect, ctx)) dispatch(action);
-	}, [state.effects, state.doc, shelf, exportDir, exit]);
+	}, [state.effects, state.doc, state.origin, shelf, exportDir, exit]);
 
 	const curve = useMemo(() => curveOf(state.doc), [state.doc]);
 

@@ -348,7 +348,7 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				{
 					...remember(s),
 					doc: a.plan,
-					origin: {name: a.name, layers: structuredClone(a.plan.layers)},
+					origin: {name: a.name, layers: structuredClone(a.plan.layers), doc: a.plan},
 					dirty: false,
 					step: 'stack',
 					cursors: {...s.cursors, stack: 0, probe: 0, usual: 0, curve: 0},

@@ -65,7 +65,7 @@ export function nextPicture(p: PictureChoice, isWide: boolean): PictureChoice {
 export interface ConsoleState {
 	readonly doc: PlanDocument;
 	/** The starting point the plan came from: its layers are the "standard" for usual gains. */
-	readonly origin: {readonly name: string; readonly layers: PlanDocument['layers']};
+	readonly origin: {readonly name: string; readonly layers: PlanDocument['layers']; readonly doc: PlanDocument};
 	readonly step: StepId;
 	readonly cursors: Readonly<Record<StepId, number>>;
 	/** Which pane has the keys when both are shown (100 columns and wider). */
@@ -120,7 +120,7 @@ export interface InitialOptions {
 export function createInitialState(o: InitialOptions): ConsoleState {
 	return {
 		doc: o.doc,
-		origin: {name: o.originName, layers: structuredClone(o.doc.layers)},
+		origin: {name: o.originName, layers: structuredClone(o.doc.layers), doc: o.doc},
 		step: 'start',
 		cursors: {start: 0, stack: 0, probe: 0, usual: 0, curve: 0},
 		pane: 'step',
