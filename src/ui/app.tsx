@@ -115,6 +115,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			isWide: layout.isWide,
 			columns: layout.columns,
 			rows: layout.rows,
+			exportFolder: exportDir ?? process.cwd(),
 		});
 	});
 	const {exit} = useApp();

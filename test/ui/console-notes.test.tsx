@@ -41,8 +41,8 @@ describe('template notes follow the values', () => {
 		await press(app, keys.enter);
 		await waitForText(app, 'Started from "Upper abdomen – liver"');
 		// Unchanged: exported as the template wrote it.
-		await press(app, 'e');
-		await waitForText(app, 'Exported');
+		await press(app, 'e', keys.enter);
+		await waitForText(app, 'Wrote');
 		const before = exportedPlan(out, 'upper-abdomen');
 		expect(before.note).toMatch(/^Starting point for an average adult/);
 		// 8 cm of fat, typed on the stack's fat row.
@@ -55,7 +55,7 @@ describe('template notes follow the values', () => {
 		await type(app, 'Bed 7 fat');
 		await press(app, keys.enter);
 		await waitForText(app, 'Saved as preset "Bed 7 fat"');
-		await press(app, 'e');
+		await press(app, 'e', keys.enter);
 		await waitForText(app, 'bed-7-fat');
 		const after = exportedPlan(out, 'bed-7-fat');
 		expect(after.note).toMatch(/^\[Note written for "Upper abdomen – liver", before your changes; this plan now has: .*Fat \(subcutaneous\) 8 cm on screen/);

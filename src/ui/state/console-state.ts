@@ -22,13 +22,16 @@ export const stepTitles: Record<StepId, {readonly title: string; readonly short:
 export type FollowUp =
 	| {readonly kind: 'quit'}
 	| {readonly kind: 'load'; readonly pointId: string}
-	| {readonly kind: 'overwrite'; readonly name: string};
+	| {readonly kind: 'overwrite'; readonly name: string}
+	| {readonly kind: 'replace-export'; readonly dir: string};
 
 export type Overlay =
 	| {readonly kind: 'help'}
 	| {readonly kind: 'warnings'}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
+	/** The folder to export the plan into, typed (the current one offered). */
+	| {readonly kind: 'path'; readonly text: string; readonly isFresh: boolean}
 	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number; readonly filter?: string};
 
 /** Side effects asked for by the reducer and carried out by the app (then reported back). */
@@ -36,7 +39,7 @@ export type Effect =
 	| {readonly kind: 'exit'}
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
-	| {readonly kind: 'export'}
+	| {readonly kind: 'export'; readonly dir: string; readonly replace: boolean}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean};
 
 export interface Editing {
@@ -89,6 +92,8 @@ export interface ConsoleState {
 	readonly startingPoints: readonly StartingPoint[];
 	readonly storeProblems: readonly string[];
 	readonly effects: readonly Effect[];
+	/** The folder offered when exporting: the last one exported to, first the current one. */
+	readonly exportFolder: string;
 	/** Last preset name saved or loaded, offered again when saving. */
 	readonly presetName: string | null;
 	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
@@ -115,6 +120,8 @@ export interface InitialOptions {
 	/** Terminal size. @default 100x30 when wide, else 80x24 */
 	readonly columns?: number;
 	readonly rows?: number;
+	/** Folder first offered for exports. @default "." */
+	readonly exportFolder?: string;
 }
 
 export function createInitialState(o: InitialOptions): ConsoleState {
@@ -139,6 +146,7 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		storeProblems: o.storeProblems ?? [],
 		effects: [],
 		presetName: null,
+		exportFolder: o.exportFolder ?? '.',
 		sweep: closedSweep,
 		history: {past: [], future: []},
 	};
