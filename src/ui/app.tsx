@@ -9,6 +9,7 @@ import {computeCurve} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
 import {demoPlan} from '../plan/demo-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
+import {planWithNote} from '../plan/plan-note.js';
 import {resolvePlan, type PlanScanner} from '../plan/resolve-plan.js';
 import {CautionLine} from './frame/caution-line.js';
 import {consoleReducer, modeOf, type Action} from './state/console-reducer.js';
@@ -122,6 +123,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			isWide: layout.isWide,
 			columns: layout.columns,
 			rows: layout.rows,
+			exportFolder: exportDir ?? process.cwd(),
 		});
 	});
 	const {exit} = useApp();
@@ -144,7 +146,8 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 		dispatch({type: 'effects-taken', count: batch.length});
 		const ctx = {
 			shelf,
-			doc: state.doc,
+			// Files get the note marked when the values left the starting plan's behind.
+			doc: planWithNote(state.doc, state.origin),
 			...(exportDir === undefined ? {} : {exportDir}),
 			exit,
 			scanners,
@@ -154,7 +157,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			},
 		};
 		for (const effect of batch) for (const action of runEffect(effect, ctx)) dispatch(action);
-	}, [state.effects, state.doc, shelf, exportDir, exit, scanners]);
+	}, [state.effects, state.doc, state.origin, shelf, exportDir, exit, scanners]);
 
 	// The measured scanner the plan names: from the panel's fresh list while it is open (a profile
 	// may just have been kept), else from the store.

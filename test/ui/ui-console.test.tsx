@@ -13,7 +13,7 @@ import {plainTheme} from '../../src/ui/kit/theme.js';
 import {openPresetStore} from '../../src/store/preset-store.js';
 import {cautionLine} from '../../src/report/cautions.js';
 import {keys} from '../helpers/keys.js';
-import {frame, moveTo, press, ready, selectedLine, send, type, type Rendered} from '../helpers/press.js';
+import {frame, moveTo, press, ready, selectedLine, send, type, waitForText, type Rendered} from '../helpers/press.js';
 
 const dirs: string[] = [];
 const apps: Rendered[] = [];
@@ -291,8 +291,9 @@ describe('console: step 5, curve, save and export', () => {
 
 	it('exports the plan JSON and the text summary into the export folder', async () => {
 		const {app, exportDir} = await open();
-		await press(app, 'e');
-		expect(frame(app)).toContain('Exported demo-deep-liver-through-thick-fat.plan.json and');
+		await press(app, 'e', keys.enter);
+		await waitForText(app, 'Wrote ');
+		expect(frame(app)).toContain(`Wrote ${join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json')} and .summary.txt`);
 		const json = JSON.parse(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json'), 'utf8'));
 		expect(json.format).toBe('evenecho-plan/2');
 		expect(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.summary.txt'), 'utf8')).toContain('Cautions');

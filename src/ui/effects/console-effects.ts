@@ -6,7 +6,7 @@
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import type {Action} from '../state/console-reducer.js';
 import type {Effect} from '../state/console-state.js';
-import {exportPlan} from './export-files.js';
+import {exportPlanToFolder} from './export-files.js';
 import type {PresetShelf} from './preset-shelf.js';
 import {runScannerEffect} from './scanner-effects.js';
 import {noScannerServices, type ScannerServices} from './scanner-services.js';
@@ -50,9 +50,12 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 		}
 		case 'export':
 			try {
-				return [{type: 'exported', files: exportPlan(ctx.doc, ctx.exportDir)}];
+				const r = exportPlanToFolder(ctx.doc, effect.dir, effect.replace);
+				if (r.ok) return [{type: 'exported', files: r.paths}];
+				if ('exists' in r) return [{type: 'export-exists', dir: r.dir, files: r.exists}];
+				return [{type: 'failed', message: r.message}];
 			} catch (error) {
-				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
+				return [{type: 'failed', message: `Export failed, nothing written: ${messageOf(error)}`}];
 			}
 		case 'export-sweep': {
 			const outcome = sweepTable(ctx.doc, effect.fatCm, effect.isDelta);

@@ -4,8 +4,13 @@
  * atomically, under a free name (`<stem>`, else `<stem>-2`, …) so an earlier export is never
  * replaced and a link or device planted under the name is passed over, never written through.
  */
+import {lstatSync} from 'node:fs';
+import {join, resolve} from 'node:path';
 import {computeCurve} from '../../engine/compensation-curve.js';
+import {entryAt} from '../../files/atomic-write.js';
+import {commitBatch} from '../../files/file-batch.js';
 import {writeNewFiles} from '../../files/new-file.js';
+import {printable} from '../../files/printable.js';
 import {slug} from '../../files/slug.js';
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import {resolvePlan} from '../../plan/resolve-plan.js';
@@ -22,4 +27,36 @@ export function exportPlan(doc: PlanDocument, dir: string = process.cwd()): stri
 		['.plan.json', `${JSON.stringify(doc, null, '\t')}\n`],
 		['.summary.txt', curveSummary(computeCurve(resolvePlan(doc)))],
 	]);
+}
+
+/** What writing the plan into a named folder came to. */
+export type FolderExport =
+	| {readonly ok: true; readonly paths: readonly string[]}
+	| {readonly ok: false; readonly exists: readonly string[]; readonly dir: string}
+	| {readonly ok: false; readonly message: string};
+
+/**
+ * Writes `<stem>.plan.json` and `<stem>.summary.txt` into the folder the user typed (relative to
+ * the current one), both or neither (the file layer's batch). Names already taken are reported
+ * unless `replace` is given; only regular files are ever replaced, links and special files are
+ * refused, and nothing is written outside `dir`.
+ */
+export function exportPlanToFolder(doc: PlanDocument, typed: string, replace: boolean): FolderExport {
+	const dir = resolve(typed.trim() || '.');
+	let isFolder = false;
+	try {
+		isFolder = lstatSync(dir).isDirectory();
+	} catch {
+		return {ok: false, message: `Export folder ${printable(dir)} does not exist; type an existing folder.`};
+	}
+	if (!isFolder) return {ok: false, message: `Export folder ${printable(dir)} is not a folder (a file or a link); type a folder.`};
+	const stem = fileStem(doc.name);
+	const entries = [
+		{name: `${stem}.plan.json`, data: `${JSON.stringify(doc, null, '\t')}\n`},
+		{name: `${stem}.summary.txt`, data: curveSummary(computeCurve(resolvePlan(doc)))},
+	];
+	const taken = entries.filter((e) => entryAt(join(dir, e.name)) !== undefined).map((e) => e.name);
+	if (taken.length > 0 && !replace) return {ok: false, exists: taken, dir};
+	commitBatch(dir, entries, {replace});
+	return {ok: true, paths: entries.map((e) => join(dir, e.name))};
 }

@@ -21,6 +21,7 @@ export function statusText(state: ConsoleState): {text: string; tone: 'ask' | 'r
 		if (o.error) return {text: `Save as preset, name: [${o.text}_]  ! ${o.error}`, tone: 'refusal'};
 		return {text: `Save as preset, name: [${o.text}_]  ${o.isFresh ? `${freshHint}; ` : ''}Enter saves, Esc cancels`, tone: 'ask'};
 	}
+	if (o?.kind === 'path') return {text: `Export to folder: [${o.text}_]  Enter writes there, Esc cancels${o.isFresh ? `; ${freshHint}` : ''}`, tone: 'ask'};
 	if (state.editing) {
 		const hint = rangeHint(currentRow(state));
 		// The fresh-field words go last: at 80 columns the range and Enter/Esc matter more.

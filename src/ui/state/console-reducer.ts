@@ -34,6 +34,7 @@ export type Action =
 	| {readonly type: 'saved'; readonly name: string}
 	| {readonly type: 'save-exists'; readonly name: string}
 	| {readonly type: 'exported'; readonly files: readonly string[]}
+	| {readonly type: 'export-exists'; readonly dir: string; readonly files: readonly string[]}
 	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
 	| {readonly type: 'refined'; readonly still: PhantomImage; readonly result: RefineResult}
@@ -45,7 +46,7 @@ export function modeOf(s: ConsoleState): Mode {
 	const o = s.overlay;
 	if (o) {
 		if (o.kind === 'ask') return 'ask';
-		if (o.kind === 'name') return 'edit-text';
+		if (o.kind === 'name' || o.kind === 'path') return 'edit-text';
 		if (o.kind === 'tissue') return 'tissue';
 		if (o.kind === 'scanner') return o.panel.kind === 'path' ? 'edit-path' : 'scanner';
 		return 'overlay';
@@ -144,7 +145,7 @@ function runCommand(s: ConsoleState, command: 'save' | 'export' | 'sweep'): Cons
 		case 'save':
 			return openSave(s);
 		case 'export':
-			return queue(s, {kind: 'export'});
+			return {...s, overlay: {kind: 'path', ...openEntry(s.exportFolder)}};
 		case 'sweep':
 			return openSweep(s);
 	}
@@ -319,6 +320,8 @@ function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent):
 			return queue(closed, {kind: 'load', pointId: o.then.pointId});
 		case 'overwrite':
 			return queue(closed, {kind: 'save', name: o.then.name, overwrite: true});
+		case 'replace-export':
+			return queue(closed, {kind: 'export', dir: o.then.dir, replace: true});
 	}
 }
 
@@ -373,7 +376,7 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				{
 					...remember(s),
 					doc: a.plan,
-					origin: {name: a.name, layers: structuredClone(a.plan.layers)},
+					origin: {name: a.name, layers: structuredClone(a.plan.layers), doc: a.plan},
 					dirty: false,
 					step: 'stack',
 					cursors: {...s.cursors, stack: 0, probe: 0, usual: 0, curve: 0},
@@ -392,8 +395,19 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		}
 		case 'save-exists':
 			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
-		case 'exported':
-			return withNotice(s, `Exported ${a.files.join(' and ')} here.`, 'done');
+		case 'exported': {
+			// The full path of the first file, then the others' endings (same folder and name): one line.
+			const [first = '', ...rest] = a.files;
+			const name = first.slice(first.lastIndexOf('/') + 1);
+			const stem = name.slice(0, Math.max(0, name.indexOf('.')));
+			const others = rest.map((f) => f.slice(f.lastIndexOf('/') + 1)).map((b) => (stem && b.startsWith(`${stem}.`) ? b.slice(stem.length) : b));
+			return withNotice(s, `Wrote ${[first, ...others].join(' and ')}`, 'done');
+		}
+		case 'export-exists': {
+			const n = a.files.length;
+			const question = `Replace the ${n > 1 ? `${n} files` : 'file'} already there? (y/n)  ${a.files.join(', ')} in ${a.dir}`;
+			return {...s, overlay: {kind: 'ask', question, then: {kind: 'replace-export', dir: a.dir}}};
+		}
 		case 'sweep-exported':
 			return withNotice({...s, sweep: {...s.sweep, files: a.files}}, `Exported the table in ${a.files.length} formats (Markdown, CSV, JSON, SVG) here.`, 'done');
 		case 'failed':

@@ -24,13 +24,16 @@ export const stepTitles: Record<StepId, {readonly title: string; readonly short:
 export type FollowUp =
 	| {readonly kind: 'quit'}
 	| {readonly kind: 'load'; readonly pointId: string}
-	| {readonly kind: 'overwrite'; readonly name: string};
+	| {readonly kind: 'overwrite'; readonly name: string}
+	| {readonly kind: 'replace-export'; readonly dir: string};
 
 export type Overlay =
 	| {readonly kind: 'help'}
 	| {readonly kind: 'warnings'}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
+	/** The folder to export the plan into, typed (the current one offered). */
+	| {readonly kind: 'path'; readonly text: string; readonly isFresh: boolean}
 	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number; readonly filter?: string}
 	| ScannerOverlay;
 
@@ -39,7 +42,7 @@ export type Effect =
 	| {readonly kind: 'exit'}
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
-	| {readonly kind: 'export'}
+	| {readonly kind: 'export'; readonly dir: string; readonly replace: boolean}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
 	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number; readonly settings?: string}
 	| ScannerEffect;
@@ -70,7 +73,7 @@ export function nextPicture(p: PictureChoice, isWide: boolean): PictureChoice {
 export interface ConsoleState {
 	readonly doc: PlanDocument;
 	/** The starting point the plan came from: its layers are the "standard" for usual gains. */
-	readonly origin: {readonly name: string; readonly layers: PlanDocument['layers']};
+	readonly origin: {readonly name: string; readonly layers: PlanDocument['layers']; readonly doc: PlanDocument};
 	readonly step: StepId;
 	readonly cursors: Readonly<Record<StepId, number>>;
 	/** Which pane has the keys when both are shown (100 columns and wider). */
@@ -94,6 +97,8 @@ export interface ConsoleState {
 	readonly startingPoints: readonly StartingPoint[];
 	readonly storeProblems: readonly string[];
 	readonly effects: readonly Effect[];
+	/** The folder offered when exporting: the last one exported to, first the current one. */
+	readonly exportFolder: string;
 	/** Last preset name saved or loaded, offered again when saving. */
 	readonly presetName: string | null;
 	/** The fat-thickness sweep table of step 5 (kept while closed, so its list and deltas stay). */
@@ -122,12 +127,14 @@ export interface InitialOptions {
 	/** Terminal size. @default 100x30 when wide, else 80x24 */
 	readonly columns?: number;
 	readonly rows?: number;
+	/** Folder first offered for exports. @default "." */
+	readonly exportFolder?: string;
 }
 
 export function createInitialState(o: InitialOptions): ConsoleState {
 	return {
 		doc: o.doc,
-		origin: {name: o.originName, layers: structuredClone(o.doc.layers)},
+		origin: {name: o.originName, layers: structuredClone(o.doc.layers), doc: o.doc},
 		step: 'start',
 		cursors: {start: 0, stack: 0, probe: 0, usual: 0, curve: 0},
 		pane: 'step',
@@ -146,6 +153,7 @@ export function createInitialState(o: InitialOptions): ConsoleState {
 		storeProblems: o.storeProblems ?? [],
 		effects: [],
 		presetName: null,
+		exportFolder: o.exportFolder ?? '.',
 		sweep: closedSweep,
 		refine: closedRefine,
 		history: {past: [], future: []},

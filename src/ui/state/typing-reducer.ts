@@ -2,7 +2,7 @@
  * Keys while typing: a number into a field, a tissue name, or a preset name. Pure. Every field
  * edits through the shared `text-entry` steps, so they all behave alike.
  */
-import type {ConsoleState} from './console-state.js';
+import type {ConsoleState, Overlay} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {formatNumber, isNumberChar, nudge, parseEntry} from './number-field.js';
 import {numberFields} from './plan-fields.js';
@@ -53,6 +53,7 @@ export function editNumberIntent(s: ConsoleState, intent: Intent, input: string)
 
 export function editTextIntent(s: ConsoleState, intent: Intent, input: string): ConsoleState {
 	const o = s.overlay;
+	if (o?.kind === 'path') return editPathIntent(s, o, intent, input);
 	const isName = o?.kind === 'name';
 	const text = isName ? o.text : (s.editing?.text ?? '');
 	const isFresh = isName ? o.isFresh : (s.editing?.isFresh ?? false);
@@ -80,6 +81,27 @@ export function editTextIntent(s: ConsoleState, intent: Intent, input: string): 
 			const tissue = next.layers[row.index]!.tissue;
 			if (typeof tissue !== 'string') tissue.label = t;
 			return applyDoc(s, next, row.id);
+		}
+		default:
+			return s;
+	}
+}
+
+/** Longest folder path typed for an export. */
+const pathMax = 400;
+
+/** Keys while typing the export folder: Enter exports there (asking first if it would replace files). */
+function editPathIntent(s: ConsoleState, o: Overlay & {kind: 'path'}, intent: Intent, input: string): ConsoleState {
+	switch (intent) {
+		case 'back':
+			return withNotice({...s, overlay: null}, 'Nothing exported.');
+		case 'type':
+			return {...s, overlay: {...o, ...typeInto(o, printableChars(input), pathMax)}};
+		case 'erase':
+			return {...s, overlay: {...o, ...eraseIn(o)}};
+		case 'enter': {
+			const dir = o.text.trim() || '.';
+			return queue({...s, overlay: null, exportFolder: dir}, {kind: 'export', dir, replace: false});
 		}
 		default:
 			return s;

@@ -12,7 +12,7 @@ import type {Layout} from '../kit/layout.js';
 import {PictureView} from '../picture/picture-view.js';
 import {PlotView} from '../plot/plot-view.js';
 import {RowLine} from '../kit/row-line.js';
-import {SliderTable} from '../plot/slider-table.js';
+import {bankTrackFor, SliderTable} from '../plot/slider-table.js';
 import {rowsOf} from '../state/step-rows.js';
 import {useTheme} from '../kit/theme-context.js';
 import {clip} from '../kit/text-fit.js';
@@ -75,7 +75,7 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 					{clip('5 Curve & save: the sliders to set for this patient', width)}
 				</Text>
 				{facts(width)}
-				<SliderTable curve={curve} delta={delta} width={width} height={tableRows} cursor={slider} isFocused />
+				<SliderTable curve={curve} delta={delta} width={width} height={tableRows} cursor={slider} isFocused bankTrack={bankTrackFor(width)} />
 				<Actions state={state} width={width} />
 				{shown.map((l, i) => (
 					<Text key={i} wrap="truncate" {...(curve.warnings.length ? theme.warning : theme.muted)}>
