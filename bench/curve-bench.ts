@@ -126,7 +126,7 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 	const depths = sampleDepths(30, 0.25);
 	const fast = () => {
 		const m = pathModelOf(plan);
-		return depths.map((d) => m.at(d).attenuationDb);
+		return m.pointsAt(depths).map((x) => x.attenuationDb);
 	};
 	const brute = () => bruteForceAttenuationDb(plan, depths, {points: 20000});
 	const vs = await alternate(fast, brute, 3, 1);
@@ -158,7 +158,7 @@ async function shapeAndModeComparison(base: EnginePlan): Promise<void> {
 			const plan: EnginePlan = {...base, probe: {...base.probe, receive, spectrumSteepness: steepness}};
 			const fast = () => {
 				const m = pathModelOf(plan);
-				return depths.map((d) => m.at(d).attenuationDb);
+				return m.pointsAt(depths).map((x) => x.attenuationDb);
 			};
 			const brute = () => bruteForceAttenuationDb(plan, depths, {points: tissue ? 4000 : 20000});
 			const vs = await alternate(fast, brute, 3, 1);
