@@ -39,7 +39,7 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'ask') return 'ask';
 		if (o.kind === 'name') return 'edit-text';
 		if (o.kind === 'tissue') return 'tissue';
-		if (o.kind === 'scanner') return o.panel.kind === 'path' ? 'edit-path' : 'scanner';
+		if (o.kind === 'scanner') return o.panel.kind === 'path' || (o.panel.kind === 'build' && o.panel.typing !== null) ? 'edit-path' : 'scanner';
 		return 'overlay';
 	}
 	if (s.sweep.isOpen) return s.sweep.typing ? 'edit-list' : 'sweep';
@@ -374,6 +374,7 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		case 'scanner-profiles':
 		case 'scanner-measured':
 		case 'scanner-refused':
+		case 'scanner-folder':
 			return scannerResult(s, a);
 	}
 }
