@@ -71,7 +71,7 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
-	if (o?.kind === 'scanner') return <ScannerView overlay={o} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
+	if (o?.kind === 'scanner') return <ScannerView overlay={o} plan={state.doc} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
 	if (state.refine.phase !== 'closed') return <RefineView panel={state.refine} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);

@@ -73,3 +73,29 @@ describe('the measured-scanner panel in the reducer', () => {
 		expect(late.overlay).toBeNull();
 	});
 });
+
+describe('building a session from typed lines', () => {
+	it('reads each line as a gain step, the probe in air, a slider step or nothing, and says how to write one it cannot read', async () => {
+		const {roleOf, buildSession} = await import('../../src/ui/state/session-builder.js');
+		expect(roleOf('30')).toEqual({kind: 'gain', masterGainDb: 30});
+		expect(roleOf(' air 36 ')).toEqual({kind: 'air', masterGainDb: 36});
+		expect(roleOf('s4 +1 30')).toEqual({kind: 'slider', slider: 4, position: 1, masterGainDb: 30});
+		expect(roleOf('')).toEqual({kind: 'skip'});
+		expect(roleOf('thirty')).toMatch(/write a master gain/);
+		const lines = [
+			{name: 'a.dcm', entry: '18'},
+			{name: 'b.dcm', entry: '24'},
+			{name: 'c.dcm', entry: '30'},
+			{name: 'd.dcm', entry: 'air 30'},
+			{name: 'e.dcm', entry: 's4 +1 30'},
+		];
+		const built = buildSession(lines, demoPlan(), 'Cart B (invented)');
+		expect(built.ok && built.session.gainSteps.map((g) => g.image)).toEqual(['a.dcm', 'b.dcm', 'c.dcm']);
+		expect(built.ok && built.session.sliderSteps?.[0]).toMatchObject({slider: 4, position: 1});
+		// The session format's own checks name the field.
+		const out = buildSession([...lines, {name: 'f.dcm', entry: 's4 +3 30'}], demoPlan(), 'Cart B (invented)');
+		expect(out.ok ? '' : out.message).toMatch(/^sliderSteps\.1\.position/);
+		const twoAir = buildSession([...lines, {name: 'f.dcm', entry: 'air 20'}], demoPlan(), 'Cart B (invented)');
+		expect(twoAir.ok ? '' : twoAir.message).toMatch(/probeInAir: one image only/);
+	});
+});

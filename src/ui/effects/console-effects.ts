@@ -69,6 +69,7 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 		case 'scanner-list':
 		case 'scanner-measure':
 		case 'scanner-keep':
+		case 'scanner-measure-built':
 			return runScannerEffect(effect, ctx.scanners ?? noScannerServices, ctx.later ?? (() => undefined));
 		case 'refine':
 			return [refineStill(ctx.doc, effect.path, effect.frame, effect.settings)];

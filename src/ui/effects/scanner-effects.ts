@@ -13,10 +13,22 @@ export function runScannerEffect(effect: ScannerEffect, scanners: ScannerService
 	switch (effect.kind) {
 		case 'scanner-list':
 			return [{type: 'scanner-profiles', ...scanners.list()}];
-		case 'scanner-measure':
+		case 'scanner-measure': {
+			const images = scanners.folderImages(effect.path);
+			if (images) return [{type: 'scanner-folder', folder: effect.path, images}];
 			later(async () => {
 				try {
 					return [{type: 'scanner-measured', path: effect.path, ...(await scanners.measure(effect.path))}];
+				} catch (error) {
+					return [{type: 'scanner-refused', message: messageOf(error)}];
+				}
+			});
+			return [];
+		}
+		case 'scanner-measure-built':
+			later(async () => {
+				try {
+					return [{type: 'scanner-measured', path: effect.folder, ...(await scanners.measureBuilt(effect.folder, effect.session))}];
 				} catch (error) {
 					return [{type: 'scanner-refused', message: messageOf(error)}];
 				}

@@ -3,11 +3,14 @@
  * store's public functions. Nothing here lets a bad file or a store failure reach the screen as a
  * stack trace: refusals come back as errors whose message names the field, for the panel to show.
  */
+import {readdirSync, statSync} from 'node:fs';
 import {homedir} from 'node:os';
 import {profileFromCalibration, scannerResponseOf, type ScannerProfile} from '../../calibration/profile-document.js';
 import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
+import type {ScannerSession} from '../../calibration/session-schema.js';
 import {printable} from '../../files/printable.js';
 import type {PlanScanner} from '../../plan/resolve-plan.js';
+import {isBuilderImage} from '../state/session-builder.js';
 import {checkProfileName, openScannerProfileStore, type ScannerProfileStore} from '../../store/scanner-profile-store.js';
 
 export interface ScannerServices {
@@ -16,6 +19,10 @@ export interface ScannerServices {
 	lookup(id: string): {readonly scanner: PlanScanner} | {readonly problem: string};
 	/** Reads a session file and its images and measures them; throws with a message naming the field. */
 	measure(path: string): Promise<{readonly input: CalibrationInput; readonly cal: ScannerCalibration}>;
+	/** The DICOM images of a folder (sorted), or null when the path is not a folder. */
+	folderImages(path: string): readonly string[] | null;
+	/** Measures a session built in the console from a folder's images. */
+	measureBuilt(folder: string, session: ScannerSession): Promise<{readonly input: CalibrationInput; readonly cal: ScannerCalibration}>;
 	/** Stores the measurement under its label; returns the profile id. Throws when taken and not `replace`. */
 	keep(cal: ScannerCalibration, replace: boolean): string;
 }
@@ -53,6 +60,24 @@ export function scannerServicesOver(open: () => ScannerProfileStore): ScannerSer
 				throw new Error(messageOf(error));
 			}
 		},
+		folderImages(path) {
+			const folder = expandHome(path);
+			try {
+				if (!statSync(folder).isDirectory()) return null;
+				return readdirSync(folder).filter(isBuilderImage).sort();
+			} catch {
+				return null;
+			}
+		},
+		async measureBuilt(folder, session) {
+			try {
+				const [{loadSessionImages}, {calibrateScanner}] = await Promise.all([import('../../image/load-session.js'), import('../../calibration/scanner-calibration.js')]);
+				const {input} = loadSessionImages(session, expandHome(folder));
+				return {input, cal: calibrateScanner(input)};
+			} catch (error) {
+				throw new Error(messageOf(error));
+			}
+		},
 		keep(cal, replace) {
 			try {
 				const {name, id} = checkProfileName(cal.label, 'label (the session label names the profile)');
@@ -80,4 +105,6 @@ export const noScannerServices: ScannerServices = {
 	keep: () => {
 		throw new Error('scanner profiles cannot be kept here');
 	},
+	folderImages: () => null,
+	measureBuilt: () => Promise.reject(new Error('measuring is not available here')),
 };

@@ -9,12 +9,16 @@ import {Box, Text} from 'ink';
 import {clip} from '../kit/text-fit.js';
 import {wrapWords} from '../kit/layout.js';
 import {useTheme} from '../kit/theme-context.js';
+import type {PlanDocument} from '../../plan/plan-schema.js';
 import {measurePages, type MeasurePage, type ScannerOverlay} from '../state/scanner-state.js';
+import {roleText} from '../state/session-builder.js';
 import {depthResponsePlot, greyMapPlot, penetrationPlot} from './calibration-plots.js';
 import {imageThumbnail} from './image-thumbnail.js';
 
 export interface ScannerViewProps {
 	readonly overlay: ScannerOverlay;
+	/** The plan: the builder takes its probe, slider count and depth. */
+	readonly plan: PlanDocument;
 	/** The profile the plan names now, if any. */
 	readonly chosen: string | undefined;
 	readonly width: number;
@@ -23,7 +27,7 @@ export interface ScannerViewProps {
 
 const pageTitles: Record<MeasurePage, string> = {images: 'images and measured region', grey: 'grey map', depth: 'depth response', noise: 'penetration'};
 
-export function ScannerView({overlay, chosen, width, height}: ScannerViewProps) {
+export function ScannerView({overlay, plan, chosen, width, height}: ScannerViewProps) {
 	const theme = useTheme();
 	const mode = overlay.panel;
 	const profiles = overlay.profiles ?? [];
@@ -50,11 +54,25 @@ export function ScannerView({overlay, chosen, width, height}: ScannerViewProps) 
 		else if (!profiles.length) push('  No profiles yet: press c and give a session file (evenecho-scanner-session/1).', 'muted');
 		for (const problem of overlay.problems.slice(0, 2)) push(`  note: ${problem}`, 'warn');
 	} else if (mode.kind === 'path' || mode.kind === 'measuring') {
-		push('Measure a scanner from phantom images: the session file (its image paths are relative to it)', 'current');
-		push(`  session file: ${mode.kind === 'path' ? mode.text : mode.path}${mode.kind === 'path' ? '_' : ''}`);
+		push('Measure a scanner from phantom images: a session file, or a folder of DICOM images to build one', 'current');
+		push(`  session file or folder: ${mode.kind === 'path' ? mode.text : mode.path}${mode.kind === 'path' ? '_' : ''}`);
 		if (mode.kind === 'measuring') push('  measuring… (reading the images, then fitting the grey map)', 'muted');
 		if (mode.kind === 'path' && mode.error) for (const part of wrapWords(mode.error, width - 4).slice(0, 4)) push(`  ${part}`, 'warn');
 		push('  Enter measures, Esc back', 'muted');
+	} else if (mode.kind === 'build') {
+		push(`Build a session from ${mode.folder}: one line per image (Enter types it), then measure`, 'current');
+		note('  30 = gain step at master 30 dB · air 30 = probe in air · s4 +1 30 = slider 4 at +1 of travel · empty = not used', 'muted');
+		const rows = Math.max(3, height - lines.length - 5);
+		const start = Math.max(0, Math.min(mode.cursor - Math.floor(rows / 2), mode.images.length + 1 - rows));
+		mode.images.forEach((im, i) => {
+			if (i < start || i >= start + rows) return;
+			const isHere = i === mode.cursor;
+			const typed = isHere && mode.typing !== null ? `${mode.typing}_` : im.entry;
+			push(`${isHere ? '>' : ' '} ${clip(im.name, 24).padEnd(24)} ${typed.padEnd(14)} ${isHere && mode.typing !== null ? '' : roleText(im.entry)}`, isHere ? 'selected' : undefined);
+		});
+		push(`${mode.cursor === mode.images.length ? '>' : ' '} [ Measure these ]`, mode.cursor === mode.images.length ? 'selected' : undefined);
+		note(`  Probe ${plan.probe.centerMhz} MHz (${Math.round(plan.probe.bandwidthFraction * 100)} % bandwidth), ${plan.sliders.count} sliders and ${plan.display.depthCm} cm depth come from this plan (step 3); the phantom is taken as 0.5 dB/cm/MHz at 1540 m/s — write a session file for another.`, 'muted');
+		if (mode.error) note(mode.error, 'warn');
 	} else {
 		const {cal, input, page} = mode;
 		const p = measurePages[page]!;

@@ -48,7 +48,7 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'ask') return 'ask';
 		if (o.kind === 'name' || o.kind === 'path') return 'edit-text';
 		if (o.kind === 'tissue') return 'tissue';
-		if (o.kind === 'scanner') return o.panel.kind === 'path' ? 'edit-path' : 'scanner';
+		if (o.kind === 'scanner') return o.panel.kind === 'path' || (o.panel.kind === 'build' && o.panel.typing !== null) ? 'edit-path' : 'scanner';
 		return 'overlay';
 	}
 	if (s.refine.phase !== 'closed') return s.refine.phase === 'pick' ? 'refine-pick' : 'refine';
@@ -421,6 +421,7 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		case 'scanner-profiles':
 		case 'scanner-measured':
 		case 'scanner-refused':
+		case 'scanner-folder':
 			return scannerResult(s, a);
 	}
 }

@@ -8,6 +8,7 @@ import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {measurePages, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
+import {buildSession, labelFor} from './session-builder.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
 
 /** Longest session path the panel takes. */
@@ -24,6 +25,11 @@ export function openScannerPanel(s: ConsoleState): ConsoleState {
 }
 
 const withPanel = (s: ConsoleState, o: ScannerOverlay, panel: ScannerPanel): ConsoleState => ({...s, overlay: {...o, panel}});
+/** The overlay without a remembered builder (a new measurement starts from elsewhere). */
+function fresh(o: ScannerOverlay): ScannerOverlay {
+	const {built: _, ...rest} = o;
+	return rest;
+}
 
 /** Names the profile in the plan (or removes the name): one plan edit, undone with `u` like any other. */
 export function chooseScanner(s: ConsoleState, id: string | null): ConsoleState {
@@ -68,12 +74,14 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 			if (intent === 'enter') {
 				const path = p.text.trim();
 				if (!path) return withPanel(s, o, {...p, error: 'session file: type the path of an evenecho-scanner-session/1 file'});
-				return queue(withPanel(s, o, {kind: 'measuring', path}), {kind: 'scanner-measure', path});
+				return queue(withPanel(s, fresh(o), {kind: 'measuring', path}), {kind: 'scanner-measure', path});
 			}
 			return s;
 		}
 		case 'measuring':
 			return s;
+		case 'build':
+			return buildIntent(s, o, p, intent, input);
 		case 'result': {
 			if (intent === 'back') return withPanel(s, o, {kind: 'list', cursor: rowOf(o.profiles ?? [], s.doc.scanner)});
 			if (intent === 'prev-step' || intent === 'next-step') {
@@ -100,11 +108,45 @@ export function scannerResult(s: ConsoleState, a: ScannerAction): ConsoleState {
 			const opened = o.panel.kind === 'list' || a.kept !== undefined ? withPanel(s, next, {kind: 'list', cursor}) : {...s, overlay: next};
 			return a.kept === undefined ? opened : withNotice(opened, `Kept the scanner profile "${a.kept}"; Enter names it in this plan.`, 'done');
 		}
+		case 'scanner-folder':
+			if (o.panel.kind !== 'measuring') return s;
+			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM images (.dcm) here; give a session file for PNG images`});
+			return withPanel(s, o, {kind: 'build', folder: a.folder, images: a.images.map((name) => ({name, entry: ''})), cursor: 0, typing: null});
 		case 'scanner-measured':
-			return o.panel.kind === 'measuring' ? withPanel(s, o, {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0}) : s;
+			return o.panel.kind === 'measuring' ? withPanel(s, fresh(o), {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0}) : s;
 		case 'scanner-refused':
+			if (o.panel.kind === 'measuring' && o.built) return withPanel(s, o, {...o.built, error: a.message});
 			if (o.panel.kind === 'measuring') return withPanel(s, o, {kind: 'path', text: o.panel.path, error: a.message});
 			if (o.panel.kind === 'result') return withPanel(s, o, {...o.panel, message: a.message});
 			return withNotice(s, a.message, 'warning');
 	}
+}
+
+type BuildPanel = ScannerPanel & {kind: 'build'};
+
+/** Keys while building a session from a folder's images: move, type each image's line, measure. */
+function buildIntent(s: ConsoleState, o: ScannerOverlay, p: BuildPanel, intent: Intent, input: string): ConsoleState {
+	const {error: _, ...panel} = p;
+	if (p.typing !== null) {
+		if (intent === 'back') return withPanel(s, o, {...panel, typing: null});
+		if (intent === 'erase') return withPanel(s, o, {...panel, typing: p.typing.slice(0, -1)});
+		if (intent === 'type') return withPanel(s, o, {...panel, typing: (p.typing + [...input].filter((c) => c >= ' ' && c !== '\u007F').join('')).slice(0, 40)});
+		if (intent === 'enter') {
+			const images = p.images.map((im, i) => (i === p.cursor ? {...im, entry: p.typing!} : im));
+			return withPanel(s, o, {...panel, images, typing: null, cursor: Math.min(p.images.length, p.cursor + 1)});
+		}
+		return s;
+	}
+	if (intent === 'back') return withPanel(s, o, {kind: 'path', text: p.folder});
+	if (intent === 'up' || intent === 'down') {
+		const cursor = Math.max(0, Math.min(p.images.length, p.cursor + (intent === 'up' ? -1 : 1)));
+		return withPanel(s, o, {...panel, cursor});
+	}
+	if (intent !== 'enter') return s;
+	if (p.cursor < p.images.length) return withPanel(s, o, {...panel, typing: p.images[p.cursor]!.entry});
+	const folderName = p.folder.replace(/[\\/]+$/, '').split(/[\\/]/).pop() ?? '';
+	const built = buildSession(p.images, s.doc, labelFor(folderName));
+	if (!built.ok) return withPanel(s, o, {...panel, error: built.message});
+	const measuring = {...s, overlay: {...o, panel: {kind: 'measuring', path: p.folder} as const, built: panel}};
+	return queue(measuring, {kind: 'scanner-measure-built', folder: p.folder, session: built.session});
 }

@@ -5,6 +5,8 @@
  */
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
+import type {ScannerSession} from '../../calibration/session-schema.js';
+import type {BuiltImage} from './session-builder.js';
 
 /** The pages of a measurement, in the order they are shown before keeping it. */
 export const measurePages = ['images', 'grey', 'depth', 'noise'] as const;
@@ -14,6 +16,16 @@ export type ScannerPanel =
 	| {readonly kind: 'list'; readonly cursor: number}
 	| {readonly kind: 'path'; readonly text: string; readonly error?: string}
 	| {readonly kind: 'measuring'; readonly path: string}
+	| {
+			readonly kind: 'build';
+			readonly folder: string;
+			readonly images: readonly BuiltImage[];
+			/** Row under the cursor: an image, or the last row (measure these). */
+			readonly cursor: number;
+			/** The line being typed for the image under the cursor, or null. */
+			readonly typing: string | null;
+			readonly error?: string;
+	  }
 	| {
 			readonly kind: 'result';
 			readonly path: string;
@@ -29,14 +41,19 @@ export interface ScannerOverlay {
 	/** Stored profiles; null until the store has been read. */
 	readonly profiles: readonly ScannerProfile[] | null;
 	readonly problems: readonly string[];
+	/** While a built session is measured: the builder, to go back to if it is refused. */
+	readonly built?: ScannerPanel & {readonly kind: 'build'};
 }
 
 export type ScannerEffect =
 	| {readonly kind: 'scanner-list'}
 	| {readonly kind: 'scanner-measure'; readonly path: string}
-	| {readonly kind: 'scanner-keep'; readonly cal: ScannerCalibration; readonly replace: boolean};
+	| {readonly kind: 'scanner-keep'; readonly cal: ScannerCalibration; readonly replace: boolean}
+	| {readonly kind: 'scanner-measure-built'; readonly folder: string; readonly session: ScannerSession};
 
 export type ScannerAction =
 	| {readonly type: 'scanner-profiles'; readonly profiles: readonly ScannerProfile[]; readonly problems: readonly string[]; readonly kept?: string}
 	| {readonly type: 'scanner-measured'; readonly path: string; readonly input: CalibrationInput; readonly cal: ScannerCalibration}
-	| {readonly type: 'scanner-refused'; readonly message: string};
+	| {readonly type: 'scanner-refused'; readonly message: string}
+	/** The typed path is a folder: its images, for building a session in the console. */
+	| {readonly type: 'scanner-folder'; readonly folder: string; readonly images: readonly string[]};
