@@ -20,6 +20,9 @@ import {resolveSweep, type ResolvedSweep, type SweepSpec} from './sweep-spec.js'
 export interface TissueUse {
 	/** `layer 2`, or `layer 4 (swap)`. */
 	readonly where: string;
+	/** The layer, 1-based, and whether the tissue is one of its swaps rather than the plan's own. */
+	readonly layer: number;
+	readonly swapped: boolean;
 	readonly tissue: Tissue;
 	/** For a swapped-in tissue: where it came from. */
 	readonly from?: string;
@@ -239,10 +242,10 @@ export function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 	const swapped = new Set(sweep.swaps.map((s) => s.layer));
 	// A swapped layer never carries the plan's own tissue in any row: list only its choices.
 	const out: TissueUse[] = sweep.doc.layers.flatMap((l, i) =>
-		swapped.has(i + 1) ? [] : [{where: `layer ${i + 1}`, tissue: resolveLayer(l, sweep.doc.display.assumedSpeedMps).tissue}],
+		swapped.has(i + 1) ? [] : [{where: `layer ${i + 1}`, layer: i + 1, swapped: false, tissue: resolveLayer(l, sweep.doc.display.assumedSpeedMps).tissue}],
 	);
 	for (const s of sweep.swaps) {
-		for (const c of s.choices) out.push({where: `layer ${s.layer} (swap)`, tissue: c.record, ...(c.from ? {from: c.from} : {})});
+		for (const c of s.choices) out.push({where: `layer ${s.layer} (swap)`, layer: s.layer, swapped: true, tissue: c.record, ...(c.from ? {from: c.from} : {})});
 	}
 	return out;
 }

@@ -4,6 +4,7 @@
  */
 import type {WarningCode} from '../engine/types.js';
 import {roundTo} from '../plan/rounding.js';
+import {resolveTissue} from '../plan/plan-schema.js';
 import type {ReceiveMode} from './sweep-spec.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 
@@ -67,10 +68,10 @@ export function rowWarningCodes(row: TableRow): WarningCode[] {
 	return [...new Set(row.warnings.map((w) => w.code))];
 }
 
+/** The plan's own tissue in the swept layer (read from the plan: the tissue list skips swapped layers). */
 export function sweptLayerLabel(t: ProtocolTable): string | null {
 	const i = t.sweep.layerIndex;
-	if (i === null) return null;
-	return t.tissues[i]!.tissue.label;
+	return i === null ? null : resolveTissue(t.sweep.doc.layers[i]!.tissue).label;
 }
 
 /** "1, 2, 4 cm". */

@@ -10,7 +10,7 @@ import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import type {WarningCode} from '../engine/types.js';
 import {roundTo} from '../plan/rounding.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, warningLegend, type TableFormatOptions} from './table-common.js';
+import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, sweptLayerLabel, warningLegend, type TableFormatOptions} from './table-common.js';
 
 export const tableFormat = 'evenecho-table/1';
 
@@ -146,7 +146,7 @@ function tableJsonHead(t: ProtocolTable, o: TableFormatOptions): Omit<TableJson,
 			sweptLayer:
 				s.layerIndex === null
 					? null
-					: {layer: s.layerIndex + 1, label: t.tissues[s.layerIndex]!.tissue.label, planThicknessCm: d(doc.layers[s.layerIndex]!.thicknessCm)},
+					: {layer: s.layerIndex + 1, label: sweptLayerLabel(t)!, planThicknessCm: d(doc.layers[s.layerIndex]!.thicknessCm)},
 			layerCm: s.fatCm.map(d),
 			layerSwept: s.fatSwept,
 			centerMhz: s.freqMhz.map((f) => roundTo(f, mhzDecimals)),

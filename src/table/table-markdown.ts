@@ -138,9 +138,9 @@ export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {
 		...tableLines(
 			['Where', 'Tissue', 'Thickness cm', 'c m/s', 'ρ kg/m³', 'α0 dB/cm/MHz^n, one way', 'n', 'Source'],
 			['l', 'l', 'r', 'r', 'r', 'r', 'r', 'l'],
-			t.tissues.map((u, i) => {
-				const layer = i <= last ? s.doc.layers[i] : undefined;
-				const thickness = !layer ? 'as the layer' : i === last ? 'rest' : i === s.layerIndex && s.fatSwept ? 'swept' : plain(layer.thicknessCm);
+			t.tissues.map((u) => {
+				const i = u.layer - 1;
+				const thickness = u.swapped ? 'as the layer' : i === last ? 'rest' : i === s.layerIndex && s.fatSwept ? 'swept' : plain(s.doc.layers[i]!.thicknessCm);
 				const source = [u.tissue.source ?? 'no source recorded', u.from ? `taken from ${u.from}` : ''].filter(Boolean).join('; ');
 				return [
 					u.where,

@@ -10,18 +10,11 @@ import {describe, expect, it} from 'vitest';
 import {commitStaged, isTempName, stageFile, tempPathFor, writeFileAtomic} from '../../src/files/atomic-write.js';
 import {FileRefusedError} from '../../src/files/file-errors.js';
 import {cleanTempHomes, tempHome} from '../helpers/temp-home.js';
+import {thrown} from '../helpers/thrown.js';
 
 cleanTempHomes();
 
-function refusal(work: () => unknown): FileRefusedError {
-	try {
-		work();
-	} catch (error) {
-		if (error instanceof FileRefusedError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
-}
+const refusal = (work: () => unknown) => thrown(FileRefusedError, work);
 
 /** A folder to write in and a file elsewhere that must never change. */
 function scene() {

@@ -9,18 +9,11 @@ import {describe, expect, it} from 'vitest';
 import {readRegularFile} from '../../src/files/bounded-read.js';
 import {FileRefusedError} from '../../src/files/file-errors.js';
 import {cleanTempHomes, tempHome} from '../helpers/temp-home.js';
+import {thrown} from '../helpers/thrown.js';
 
 cleanTempHomes();
 
-function refusal(work: () => unknown): FileRefusedError {
-	try {
-		work();
-	} catch (error) {
-		if (error instanceof FileRefusedError) return error;
-		throw error;
-	}
-	throw new Error('expected a refusal');
-}
+const refusal = (work: () => unknown) => thrown(FileRefusedError, work);
 
 describe('readRegularFile', () => {
 	it('reads a file and reports who it was (inode, size, SHA-256)', () => {

@@ -9,6 +9,7 @@ import {rowDepthCm} from '../../src/calibration/phantom-image.js';
 import {ImageRefusal} from '../../src/image/image-refusal.js';
 import {decodeImage} from '../../src/image/read-image.js';
 import {syntaxes, withDefinedLengthRegions, writeDicom, type RegionFixture} from '../helpers/dicom-fixture.js';
+import {thrown} from '../helpers/thrown.js';
 
 const rows = 160;
 const columns = 64;
@@ -21,15 +22,7 @@ function ramp(n: number, f: (i: number) => number): Uint8Array {
 
 const grey = ramp(rows * columns, (i) => Math.floor(i / columns) % 256);
 
-function refusal(fn: () => unknown): ImageRefusal {
-	try {
-		fn();
-	} catch (error) {
-		if (error instanceof ImageRefusal) return error;
-		throw error;
-	}
-	throw new Error('no refusal');
-}
+const refusal = (fn: () => unknown) => thrown(ImageRefusal, fn);
 
 describe('DICOM ultrasound region → displayed depth', () => {
 	it('row 120 with MinY0 20, ΔY 0.05 cm is 5.00 cm (case C42), read by our reader and by dicom-parser alone', () => {

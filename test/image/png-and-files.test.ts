@@ -8,19 +8,12 @@ import {afterAll, describe, expect, it} from 'vitest';
 import {rowDepthCm} from '../../src/calibration/phantom-image.js';
 import {ImageRefusal} from '../../src/image/image-refusal.js';
 import {decodeImage, readImageFile} from '../../src/image/read-image.js';
+import {thrown} from '../helpers/thrown.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'evenecho-image-'));
 afterAll(() => rmSync(dir, {recursive: true, force: true}));
 
-function refusal(fn: () => unknown): string {
-	try {
-		fn();
-	} catch (error) {
-		if (error instanceof ImageRefusal) return error.message;
-		throw error;
-	}
-	throw new Error('no refusal');
-}
+const refusal = (fn: () => unknown) => thrown(ImageRefusal, fn).message;
 
 const scale = {cmPerPixel: 0.05, topRowCm: 0.5};
 

@@ -263,6 +263,17 @@ describe('Markdown', () => {
 		expect(text).toContain('Test template \\| upper abdomen &lt;adult&gt; & co');
 	});
 
+	it('with a swapped layer above the swept one, names the swept layer and each thickness by layer, not by list position', () => {
+		const swappedAbove = buildTable(template(), {fatCm: [1, 3], swaps: [{layer: 1, choices: [{tissue: 'skin'}, {tissue: 'fat'}]}]});
+		const md = tableMarkdown(swappedAbove, options);
+		expect(md).toContain('| # | Fat (subcutaneous) cm |');
+		expect(md).toMatch(/\| layer 2 \| Fat \(subcutaneous\) \| swept \|/);
+		expect(md).toMatch(/\| layer 3 \| Skeletal muscle \(across fibres\) \| 1 \|/);
+		expect(md).toMatch(/\| layer 4 \| Liver \| rest \|/);
+		expect(md).toMatch(/\| layer 1 \(swap\) \| Skin \(dermis\) \| as the layer \|/);
+		expect(tableJson(swappedAbove, options).inputs.sweptLayer).toMatchObject({layer: 2, label: 'Fat (subcutaneous)'});
+	});
+
 	it('explains the warning codes it uses', () => {
 		for (const code of new Set(table.rows.flatMap((r) => r.warnings.map((w) => w.code)))) expect(text).toContain(`- \`${code}\`: `);
 	});
