@@ -305,7 +305,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const map = req.levelMap ?? logLevelMap(dynamicRangeDb);
 	const own = req.ownGain ?? assumedRamp;
 	let planCurve: CurveResult | undefined;
-	const planFit = () => (planCurve ??= computeCurve(plan));
+	const planFit = () => (planCurve ??= computeCurve(plan, {band: false}));
 	const applied = req.applied ?? settingsOfFit(planFit().fit);
 
 	const mismatch = depthMismatch(plan, region);
@@ -367,7 +367,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 
 	req.onStage?.('attenuation');
 	const refinedPlan = attenuation ? withLayerAlpha(plan, layerIndex, attenuation.alphaDbPerCmMhz) : plan;
-	const refinedCurve = attenuation ? computeCurve(refinedPlan) : planFit();
+	const refinedCurve = attenuation ? computeCurve(refinedPlan, {band: false}) : planFit();
 	const refinedSettings = settingsOfFit(refinedCurve.fit);
 	const travel = req.sliderTravelDb && req.sliderTravelDb > 0 ? req.sliderTravelDb : null;
 	const sliders: RefinedSlider[] = refinedCurve.fit.sliders.map((s, k) => {

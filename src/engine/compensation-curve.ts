@@ -20,6 +20,12 @@ export const modelVersion = 'evenecho-model 2 (1-D parallel layers at the plan\'
 export interface CurveOptions {
 	/** Spacing of the samples in displayed depth, cm. @default 0.1 */
 	readonly stepCm?: number;
+	/**
+	 * Work out the uncertainty band (lowDb/highDb). Callers that never show it (tables, the fit of a
+	 * template, the simulator) pass false: the band costs 4–16 extra loss models, the most of a tissue-harmonic
+	 * curve's time. Without it lowDb = highDb = compensationDb. @default true
+	 */
+	readonly band?: boolean;
 }
 
 /** Fit residual above which a warning says the sliders cannot follow the curve, dB. */
@@ -208,13 +214,16 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;
 		return points[i]!.echoCenterMhz;
 	};
-	const band = uncertaintyBand(plan, sampleDepths(depthCm, bandGridCm), centroidAt);
+	const band =
+		options.band === false
+			? {at: (d: number) => ({lowDb: nominal.lossAt(d), highDb: nominal.lossAt(d)}), isNominal: true}
+			: {...uncertaintyBand(plan, sampleDepths(depthCm, bandGridCm), centroidAt), isNominal: false};
 	const heldAt = blockedDepthCm === null ? null : {nominal: nominal.lossAt(blockedDepthCm), ...band.at(blockedDepthCm)};
 	const samples: CurveSample[] = depths.map((d, i) => {
 		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = heldAt !== null && d > blockedDepthCm!;
-		const {lowDb: lo, highDb: hi} = blocked ? heldAt : band.at(d);
+		const {lowDb: lo, highDb: hi} = blocked ? heldAt : band.isNominal ? {lowDb: loss, highDb: loss} : band.at(d);
 		const comp = blocked ? heldAt.nominal : loss;
 		return {
 			displayedDepthCm: d,

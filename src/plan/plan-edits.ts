@@ -107,6 +107,6 @@ export function standardReference(doc: PlanDocument, standardLayers: PlanDocumen
 	const probe = clonePlan(doc);
 	probe.layers = structuredClone(standardLayers);
 	delete probe.reference;
-	const fit = computeCurve(resolvePlan(probe)).fit;
+	const fit = computeCurve(resolvePlan(probe), {band: false}).fit;
 	return {masterGainDb: roundTo(fit.masterGainDb, 1), slidersDb: fit.sliders.map((s) => roundTo(s.gainDb, 1))};
 }

@@ -190,7 +190,7 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string, 
 		layers: plan.layers.map((l, i) => (i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: trueAlpha}} : l)),
 	};
 	const scanner = realisticScanner(plan);
-	const fit = computeCurve(plan).fit;
+	const fit = computeCurve(plan, {band: false}).fit;
 	const settings = settingsOfFit(fit);
 	const applied = {sliders: settings.sliderDb.map((v) => round(v, 2)), masterGainDb: round(settings.masterGainDb, 2)};
 	const f = simulateFrame({

@@ -142,7 +142,7 @@ export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'angl
 export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
 	const doc = variantDoc(sweep, spot.combo, spot.layerCm);
 	const plan = resolvePlan(doc, sweep.scanner);
-	const r = computeCurve(plan, {stepCm: sweep.stepCm});
+	const r = computeCurve(plan, {stepCm: sweep.stepCm, band: false});
 	const targetCm = targetDepthOf(doc, plan);
 	const key = ladderKey(plan, targetCm);
 	let highest = ladders.get(key);
@@ -197,7 +197,7 @@ export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues,
 
 /** The standard habitus: the input plan fitted as it is. */
 export function referenceFitOf(sweep: ResolvedSweep): SliderFit {
-	return computeCurve(resolvePlan(sweep.doc, sweep.scanner), {stepCm: sweep.stepCm}).fit;
+	return computeCurve(resolvePlan(sweep.doc, sweep.scanner), {stepCm: sweep.stepCm, band: false}).fit;
 }
 
 /** The table around its rows. */

@@ -85,7 +85,7 @@ interface Curve {
 
 function curveOf(t: ProtocolTable, r: TableRow): Curve {
 	if (r.curve) return r.curve;
-	const c = computeCurve(r.plan, {stepCm: t.sweep.stepCm});
+	const c = computeCurve(r.plan, {stepCm: t.sweep.stepCm, band: false});
 	return {depthsCm: c.samples.map((s) => s.displayedDepthCm), compensationDb: c.samples.map((s) => s.compensationDb)};
 }
 
