@@ -93,15 +93,16 @@ export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
 	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep', 'refine'], pick: (_i, k) => when(k.escape, 'back')},
+	// One help line for the answers and the refine panel's accept, so the overlay still fits 80×24 whole.
 	{
-		keys: 'y  n Esc',
+		keys: 'y  n Esc  a',
 		hint: 'yes, n no',
-		help: 'answer yes / no',
+		help: 'yes / no; a: accept α0',
 		section: 'Questions',
-		modes: ['ask'],
-		pick: (i, k) => ((i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : undefined),
+		modes: ['ask', 'refine'],
+		pick: (i, k) =>
+			(i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : i === 'a' && plain(k) ? 'accept' : undefined,
 	},
-	{keys: 'a', hint: 'accept', help: 'accept the measured α0', section: 'Questions', modes: ['refine'], pick: is('a', 'accept')},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{keys: '↑ ↓', hint: 'nudge', help: 'nudge the typed value', section: 'Typing a value', modes: ['edit-number'], pick: (_i, k) => (k.upArrow ? 'nudge-up' : k.downArrow ? 'nudge-down' : undefined)},
@@ -118,7 +119,7 @@ export const bindings: readonly Binding[] = [
 		pick: (_i, k) => (k.leftArrow ? 'scroll-left' : k.rightArrow ? 'scroll-right' : k.pageUp ? 'page-up' : k.pageDown ? 'page-down' : undefined),
 	},
 	{keys: '1-5', help: 'jump to a step', section: 'Moving around', modes: browsing, pick: (i, k) => when(/^[1-5]$/.test(i) && plain(k), 'jump')},
-	{keys: 'Tab', hint: 'curve', help: 'step pane / curve; field', section: 'Moving around', modes: [...browsing, 'refine-pick'], pick: (_i, k) => when(k.tab, 'pane')},
+	{keys: 'Tab', hint: 'curve', help: 'pane / curve / field', section: 'Moving around', modes: [...browsing, 'refine-pick'], pick: (_i, k) => when(k.tab, 'pane')},
 	{keys: '+ -', help: 'nudge a step (= as +)', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && (i === '+' || i === '=') ? 'nudge-up' : plain(k) && i === '-' ? 'nudge-down' : undefined)},
 	{keys: '] [', help: 'nudge a big step', section: 'Changing a value', modes: stepping, pick: (i, k) => (plain(k) && i === ']' ? 'coarse-up' : plain(k) && i === '[' ? 'coarse-down' : undefined)},
 	{keys: 'd', hint: 'deltas', help: 'sweep: values / deltas', section: 'Changing a value', modes: ['sweep'], pick: is('d', 'toggle-delta')},
@@ -140,7 +141,7 @@ export const bindings: readonly Binding[] = [
 	// One help line for both, so the overlay still fits 80×24 whole.
 	{
 		keys: 'w  p  i',
-		help: 'warnings; picture; image',
+		help: 'warnings/picture/image',
 		section: 'The plan',
 		modes: browsing,
 		pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('i', 'refine-image')(i, k),
@@ -195,13 +196,13 @@ export function hintsFor(mode: Mode): string[] {
 		tissue: ['↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
 		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
-		refine: ['Enter another image'],
+		refine: ['a accept', 'Enter another image'],
 	};
 	const fromTable = bindings
 		.filter((b) => b.hint && b.modes.includes(mode) && !((mode.startsWith('edit') || mode.startsWith('refine') || mode === 'tissue' || mode === 'curve-pane') && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
 	// The form's Tab moves between its fields (said in its own hint), not to the curve.
-	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')))];
+	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')) && !(mode === 'refine' && h.startsWith('y ')))];
 }
 
 /**
