@@ -63,7 +63,7 @@ describe('refine from an image, by keystrokes', () => {
 	it('shows the still with its mask, the band levels against the plan, the changes, α0 and the cautions; a accepts, u undoes', async () => {
 		const app = await open();
 		await measure(app, still);
-		await waitForText(app, 'Band levels', 20_000);
+		await waitForText(app, 'o measured x unusable + plan', 20_000);
 		const shown = frame(app);
 		expect(shown).toContain('patient.dcm');
 		expect(shown).toContain(': measured  / left out');
@@ -79,7 +79,7 @@ describe('refine from an image, by keystrokes', () => {
 		expect(shown).toContain('wrong corrections');
 		await press(app, 'a');
 		await waitForText(app, 'now in the plan (u undoes); confirm live.');
-		expect(frame(app)).not.toContain('Band levels');
+		expect(frame(app)).not.toContain('o measured x unusable');
 		await press(app, 'u');
 		await waitForText(app, 'Undid one change');
 	}, 60_000);
@@ -87,7 +87,7 @@ describe('refine from an image, by keystrokes', () => {
 	it('Esc discards the measurement and leaves the plan as it was', async () => {
 		const app = await open();
 		await measure(app, still);
-		await waitForText(app, 'Band levels', 20_000);
+		await waitForText(app, 'o measured x unusable + plan', 20_000);
 		await press(app, keys.escape);
 		await waitForText(app, 'Measurement discarded; the plan is unchanged.');
 		await press(app, 'u');

@@ -133,7 +133,7 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 			<Box width={2} />
 			<Box flexDirection="column" width={rightWidth}>
 				<Text wrap="truncate" {...theme.current}>
-					{clip(`Band levels ${bandGlyph.measured} measured ${bandGlyph.unusable} unusable ${bandGlyph.expected} plan — ${r.levelMap.calibrated ? 'calibrated' : 'UNCALIBRATED'}`, rightWidth)}
+					{clip(`${r.levelMap.calibrated ? 'Calibrated' : 'UNCALIBRATED'}: ${bandGlyph.measured} measured ${bandGlyph.unusable} unusable ${bandGlyph.expected} plan`, rightWidth)}
 				</Text>
 				{plot.map((l, i) => (
 					<Text key={i} wrap="truncate" {...theme.value}>

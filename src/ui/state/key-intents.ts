@@ -104,15 +104,16 @@ export const bindings: readonly Binding[] = [
 	{keys: 'Ctrl+C', help: 'leave now, no saving', section: 'The plan', modes: every, pick: (i, k) => when(k.ctrl && i === 'c', 'exit-now')},
 	// Esc first: on Ink 6.8 a lone Esc also sets `meta`.
 	{keys: 'Esc', hint: 'back', help: 'back, cancel or close', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'overlay', 'sweep', 'scanner', 'refine'], pick: (_i, k) => when(k.escape, 'back')},
+	// One help line for the answers and the refine panel's accept, so the overlay still fits 80×24 whole.
 	{
-		keys: 'y  n Esc',
+		keys: 'y  n Esc  a',
 		hint: 'yes, n no',
-		help: 'answer yes / no',
+		help: 'yes / no; a: accept α0',
 		section: 'Questions',
-		modes: ['ask'],
-		pick: (i, k) => ((i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : undefined),
+		modes: ['ask', 'refine'],
+		pick: (i, k) =>
+			(i === 'y' || i === 'Y') && plain(k) ? 'yes' : k.escape || ((i === 'n' || i === 'N') && plain(k)) ? 'no' : i === 'a' && plain(k) ? 'accept' : undefined,
 	},
-	{keys: 'a', hint: 'accept', help: 'accept the measured α0', section: 'Questions', modes: ['refine'], pick: is('a', 'accept')},
 	{keys: 'K J  Shift+↑↓', help: 'move layer up / down', section: 'Tissue stack', modes: ['stack'], pick: (i, k) => (i === 'K' || (k.upArrow && k.shift) ? 'layer-up' : i === 'J' || (k.downArrow && k.shift) ? 'layer-down' : undefined)},
 	{keys: '↑ ↓  k j', help: 'previous / next row', section: 'Moving around', modes: [...browsing, 'tissue', 'sweep', 'scanner'], pick: (i, k) => (k.upArrow || (i === 'k' && plain(k)) ? 'up' : k.downArrow || (i === 'j' && plain(k)) ? 'down' : undefined)},
 	{
@@ -231,7 +232,7 @@ export function hintsFor(mode: Mode): string[] {
 		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
 		'edit-path': ['type a path', 'Enter measure'],
 		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
-		refine: ['Enter another image'],
+		refine: ['a accept', 'Enter another image'],
 	};
 	const noEnterHint = (m: Mode): boolean =>
 		m.startsWith('edit') || m.startsWith('refine') || m === 'tissue' || m === 'curve-pane' || m === 'scanner';
@@ -239,7 +240,7 @@ export function hintsFor(mode: Mode): string[] {
 		.filter((b) => b.hint && b.modes.includes(mode) && !(noEnterHint(mode) && b.keys === 'Enter'))
 		.map((b) => `${b.keys.split('  ')[0]} ${b.hint}`);
 	// The form's Tab moves between its fields (said in its own hint), not to the curve.
-	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')))];
+	return [...(extra[mode] ?? []), ...fromTable.filter((h) => !(mode === 'overlay' && h.startsWith('Esc')) && !(mode === 'refine-pick' && h.startsWith('Tab')) && !(mode === 'refine' && h.startsWith('y ')))];
 }
 
 /**
