@@ -15,6 +15,7 @@ import {consoleReducer, modeOf} from './state/console-reducer.js';
 import {runEffect} from './effects/console-effects.js';
 import {createInitialState} from './state/console-state.js';
 import {deltaOf, liveLine} from './state/curve-facts.js';
+import {CompareView} from './plot/compare-view.js';
 import {CurvePane} from './plot/curve-pane.js';
 import {CurveStep} from './steps/curve-step.js';
 import {HelpOverlay} from './frame/help-overlay.js';
@@ -64,6 +65,9 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	const delta = deltaOf(curve, state.doc);
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
+	if (o?.kind === 'compare') {
+		return <CompareView curve={curve} other={curveOf(state.origin.doc)} thisName={state.doc.name} otherName={state.origin.name} width={columns} height={bodyRows} />;
+	}
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);

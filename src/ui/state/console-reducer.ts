@@ -245,6 +245,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return {...s, overlay: {kind: 'help'}};
 		case 'warnings':
 			return {...s, overlay: {kind: 'warnings'}};
+		case 'compare':
+			return {...s, overlay: {kind: 'compare'}};
 		case 'picture':
 			return {...s, picture: nextPicture(s.picture, s.isWide)};
 		case 'quit':

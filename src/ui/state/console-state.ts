@@ -28,6 +28,8 @@ export type FollowUp =
 export type Overlay =
 	| {readonly kind: 'help'}
 	| {readonly kind: 'warnings'}
+	/** This patient beside the starting plan (key v). */
+	| {readonly kind: 'compare'}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
 	/** The folder to export the plan into, typed (the current one offered). */

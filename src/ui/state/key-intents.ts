@@ -62,7 +62,8 @@ export type Intent =
 	| 'type'
 	| 'undo'
 	| 'redo'
-	| 'thickness-mode';
+	| 'thickness-mode'
+	| 'compare';
 
 export type Section = 'Moving around' | 'Changing a value' | 'Typing a value' | 'Tissue stack' | 'The plan' | 'Questions';
 
@@ -135,7 +136,7 @@ export const bindings: readonly Binding[] = [
 	{keys: 'e', hint: 'export', help: 'export plan or table', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('e', 'export')},
 	{keys: 'f', help: 'fat thickness sweep', section: 'The plan', modes: browsing, pick: is('f', 'sweep')},
 	// One help line for both, so the overlay still fits 80×24 whole.
-	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
+	{keys: 'w  p  v', help: 'warnings; picture; vs.', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('v', 'compare')(i, k)},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep'], pick: is('?', 'help')},
 	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},
 ];
