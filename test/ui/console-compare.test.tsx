@@ -49,6 +49,9 @@ describe('two plans side by side', () => {
 			const [left, right] = [...tableRows[0]!.matchAll(/\s1\s+\d+\.\d\s+([+-]\d+\.\d)/g)].map((m) => Number(m[1]));
 			expect(Number(change![2]!.trim().split(' ')[0])).toBeCloseTo(left! - right!, 0);
 			for (const line of f.split('\n')) expect(line.length).toBeLessThanOrEqual(columns);
+			// Both tables whole: each header once per side, every slider row on both sides.
+			expect(f.split('\n').filter((l) => (l.match(/# depth slider/g) ?? []).length === 2)).toHaveLength(1);
+			expect(f.split('\n').filter((l) => /^\s+8\s+\d+\.\d\s+[+-]\d+\.\d.*\s8\s+\d+\.\d\s+[+-]\d+\.\d/.test(l))).toHaveLength(1);
 			await press(app, keys.escape);
 			expect(frame(app)).not.toContain('Starting plan: Upper abdomen');
 		});

@@ -38,9 +38,8 @@ function Side({curve, title, width, plotRows}: {readonly curve: CurveResult; rea
 			</Text>
 			<PlotView curve={curve} width={width} height={plotRows} />
 			<Text wrap="truncate" {...theme.value}>
-				{clip(masterLine(curve, null), width)}
+				{clip(`${masterLine(curve, null)}  ${reachText(curve)}`, width)}
 			</Text>
-			<Text wrap="truncate">{clip(reachText(curve), width)}</Text>
 			<SliderTable curve={curve} delta={null} width={width} height={curve.fit.sliders.length + 1} cursor={-1} isFocused={false} />
 		</Box>
 	);
@@ -50,8 +49,9 @@ export function CompareView({curve, other, thisName, otherName, width, height}: 
 	const theme = useTheme();
 	const half = Math.floor((width - 1) / 2);
 	const sliders = Math.max(curve.fit.sliders.length, typeof other === 'string' ? 0 : other.fit.sliders.length);
-	// Title, axis, legend, master, reach, the table; then the change line and the way out.
-	const plotRows = Math.max(4, height - sliders - 1 - 6 - 2);
+	// Title, axis, legend, master and reach, the table with its header; then the change line
+	// (Esc is on the hint line). At 80×24 that leaves the plot four rows.
+	const plotRows = Math.max(3, height - (sliders + 1) - 4 - 1);
 	return (
 		<Box flexDirection="column" width={width}>
 			<Box flexDirection="row" width={width}>
@@ -65,9 +65,6 @@ export function CompareView({curve, other, thisName, otherName, width, height}: 
 			</Box>
 			<Text wrap="truncate" {...theme.value}>
 				{clip(typeof other === 'string' ? '' : changeLine(curve, other), width)}
-			</Text>
-			<Text wrap="truncate" {...theme.muted}>
-				{clip('Side by side: this patient and the plan it started from. Esc closes.', width)}
 			</Text>
 		</Box>
 	);
