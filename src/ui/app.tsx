@@ -66,7 +66,11 @@ function Body({state, curve, layout}: {readonly state: ConsoleState; readonly cu
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
 	if (o?.kind === 'compare') {
-		return <CompareView curve={curve} other={curveOf(state.origin.doc)} thisName={state.doc.name} otherName={state.origin.name} width={columns} height={bodyRows} />;
+		const point = o.index < 0 ? undefined : state.startingPoints[o.index];
+		const against = o.index < 0 ? {name: state.origin.name, plan: state.origin.doc} : o.against;
+		const title = o.index < 0 ? 'Starting plan' : point?.kind === 'preset' ? 'Saved preset' : point?.kind === 'demo' ? 'Built-in demo' : 'Template';
+		const other = against ? curveOf(against.plan) : 'Reading that plan…';
+		return <CompareView curve={curve} other={other} thisName={state.doc.name} otherName={against?.name ?? point?.name ?? ''} otherTitle={title} width={columns} height={bodyRows} />;
 	}
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;

@@ -40,7 +40,7 @@ describe('two plans side by side', () => {
 			await press(app, keys.enter, 'v');
 			const f = frame(app);
 			expect(f).toContain('This patient: Upper abdomen');
-			expect(f).toContain('Starting plan: Upper abdomen');
+			expect(f).toContain('Starting plan (←→): Upper abdomen');
 			const change = /master ([+-]\d+\.\d) dB; sliders ((?:[+-]\d+\.\d ?)+)/.exec(f);
 			expect(change, f).not.toBeNull();
 			// Each table row: "#  depth  slider  comp  vs"; the two columns are this patient and the template.
@@ -53,7 +53,35 @@ describe('two plans side by side', () => {
 			expect(f.split('\n').filter((l) => (l.match(/# depth slider/g) ?? []).length === 2)).toHaveLength(1);
 			expect(f.split('\n').filter((l) => /^\s+8\s+\d+\.\d\s+[+-]\d+\.\d.*\s8\s+\d+\.\d\s+[+-]\d+\.\d/.test(l))).toHaveLength(1);
 			await press(app, keys.escape);
-			expect(frame(app)).not.toContain('Starting plan: Upper abdomen');
+			expect(frame(app)).not.toContain('Starting plan (←→)');
 		});
 	}
+
+	it('← → put a saved preset (or any template) on the right instead', async () => {
+		const home = mkdtempSync(join(tmpdir(), 'evenecho-compare-'));
+		dirs.push(home);
+		const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={120} rows={40} />);
+		apps.push(app);
+		await ready(app);
+		await press(app, '2', keys.enter);
+		await type(app, '3');
+		await press(app, keys.enter, 's');
+		await type(app, 'Usual Ward Heron');
+		await press(app, keys.enter);
+		await waitForText(app, 'Saved as preset "Usual Ward Heron"');
+		await press(app, keys.enter);
+		await type(app, '7');
+		await press(app, keys.enter, 'v');
+		expect(frame(app)).toContain('Starting plan (←→): Built-in demo');
+		// The list ends with the saved presets: one step back from the starting plan.
+		await press(app, keys.left);
+		await waitForText(app, 'Saved preset (←→): Usual Ward Heron');
+		expect(frame(app)).toMatch(/This patient minus the other: master [+-]\d/);
+		await press(app, keys.right);
+		expect(frame(app)).toContain('Starting plan (←→): Built-in demo');
+		await press(app, keys.right);
+		await waitForText(app, 'Built-in demo (←→)');
+		await press(app, keys.right);
+		await waitForText(app, 'Template (←→): Breast');
+	});
 });

@@ -1,7 +1,8 @@
 /**
- * Two plans side by side (key v): this patient on the left, the starting plan it came from on the
- * right (the region's usual template, or the saved preset it was loaded from), each with its curve,
- * master gain, reach and slider table, and under both what this patient changes.
+ * Two plans side by side (key v): this patient on the left; on the right the starting plan it came
+ * from (the region's usual template, or the saved preset it was loaded from), or with ← → any
+ * template or saved preset; each with its curve, master gain, reach and slider table, and under
+ * both what this patient changes.
  */
 import {Box, Text} from 'ink';
 import {settingsDelta, settingsOf, type SettingsDelta} from '../../engine/plan-difference.js';
@@ -18,6 +19,8 @@ export interface CompareViewProps {
 	readonly other: CurveResult | string;
 	readonly thisName: string;
 	readonly otherName: string;
+	/** What the other plan is: "Starting plan", "Template", "Saved preset". */
+	readonly otherTitle?: string;
 	readonly width: number;
 	readonly height: number;
 }
@@ -26,7 +29,7 @@ export interface CompareViewProps {
 export function changeLine(curve: CurveResult, other: CurveResult): string {
 	if (curve.fit.sliders.length !== other.fit.sliders.length) return 'The two plans have different slider counts: compare the tables by depth.';
 	const d: SettingsDelta = settingsDelta(settingsOf(curve.fit), settingsOf(other.fit));
-	return `This patient minus the starting plan: master ${signedDb(d.masterDeltaDb)} dB; sliders ${d.sliderDeltasDb.map((x) => signedDb(x)).join(' ')}`;
+	return `This patient minus the other: master ${signedDb(d.masterDeltaDb)} dB; sliders ${d.sliderDeltasDb.map((x) => signedDb(x)).join(' ')}`;
 }
 
 function Side({curve, title, width, plotRows}: {readonly curve: CurveResult; readonly title: string; readonly width: number; readonly plotRows: number}) {
@@ -45,7 +48,7 @@ function Side({curve, title, width, plotRows}: {readonly curve: CurveResult; rea
 	);
 }
 
-export function CompareView({curve, other, thisName, otherName, width, height}: CompareViewProps) {
+export function CompareView({curve, other, thisName, otherName, otherTitle = 'Starting plan', width, height}: CompareViewProps) {
 	const theme = useTheme();
 	const half = Math.floor((width - 1) / 2);
 	const sliders = Math.max(curve.fit.sliders.length, typeof other === 'string' ? 0 : other.fit.sliders.length);
@@ -60,7 +63,7 @@ export function CompareView({curve, other, thisName, otherName, width, height}: 
 				{typeof other === 'string' ? (
 					<Text wrap="wrap">{clip(other, half)}</Text>
 				) : (
-					<Side curve={other} title={`Starting plan: ${otherName}`} width={half} plotRows={plotRows} />
+					<Side curve={other} title={`${otherTitle} (←→): ${otherName}`} width={half} plotRows={plotRows} />
 				)}
 			</Box>
 			<Text wrap="truncate" {...theme.value}>

@@ -107,7 +107,7 @@ export const bindings: readonly Binding[] = [
 	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . - a-z', help: 'type; filters tissues', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
-	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: browsing, pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
+	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: [...browsing, 'overlay'], pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
 	{
 		keys: '←→ PgUp PgDn',
 		help: 'scroll the sweep table',
