@@ -16,6 +16,7 @@ import {consoleReducer, modeOf, type Action} from './state/console-reducer.js';
 import {runEffect} from './effects/console-effects.js';
 import {createInitialState} from './state/console-state.js';
 import {deltaOf, liveLine} from './state/curve-facts.js';
+import {CompareView} from './plot/compare-view.js';
 import {CurvePane} from './plot/curve-pane.js';
 import {CurveStep} from './steps/curve-step.js';
 import {HelpOverlay} from './frame/help-overlay.js';
@@ -64,12 +65,25 @@ function curveOf(doc: PlanDocument, scanner: PlanScanner | undefined): CurveResu
 	}
 }
 
-function Body({state, curve, layout}: {readonly state: ConsoleState; readonly curve: CurveResult; readonly layout: Layout}) {
+function Body({state, curve, layout, scanner}: {
+	readonly state: ConsoleState;
+	readonly curve: CurveResult;
+	readonly layout: Layout;
+	/** The measured scanner this plan names, if any: a compared plan naming the same one is drawn on it too. */
+	readonly scanner: PlanScanner | undefined;
+}) {
 	const o = state.overlay;
 	const {columns, bodyRows} = layout;
 	const delta = deltaOf(curve, state.doc);
 	if (o?.kind === 'help') return <HelpOverlay width={columns} height={bodyRows} />;
 	if (o?.kind === 'warnings') return <WarningsView curve={curve} width={columns} height={bodyRows} />;
+	if (o?.kind === 'compare') {
+		const point = o.index < 0 ? undefined : state.startingPoints[o.index];
+		const against = o.index < 0 ? {name: state.origin.name, plan: state.origin.doc} : o.against;
+		const title = o.index < 0 ? 'Starting plan' : point?.kind === 'preset' ? 'Saved preset' : point?.kind === 'demo' ? 'Built-in demo' : 'Template';
+		const other = against ? curveOf(against.plan, against.plan.scanner === state.doc.scanner ? scanner : undefined) : 'Reading that plan…';
+		return <CompareView curve={curve} other={other} thisName={state.doc.name} otherName={against?.name ?? point?.name ?? ''} otherTitle={title} width={columns} height={bodyRows} />;
+	}
 	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
 	if (o?.kind === 'scanner') return <ScannerView overlay={o} plan={state.doc} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
 	if (state.refine.phase !== 'closed') return <RefineView panel={state.refine} width={columns} height={bodyRows} />;
@@ -180,7 +194,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			<Box flexDirection="column" width={layout.columns}>
 				<StepBar step={state.step} width={layout.columns} isDirty={state.dirty} />
 				<Box height={layout.bodyRows} flexDirection="column">
-					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} />}
+					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} scanner={planScanner} />}
 				</Box>
 				<StatusLine state={state} width={layout.columns} />
 				<HintLine mode={modeOf(state)} width={layout.columns} />

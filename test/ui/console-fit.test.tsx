@@ -55,6 +55,9 @@ describe('120×40', () => {
 			const text = frame(app);
 			expect(text, `${columns}×${rows}`).toMatch(/4 Liver +20\.0 cm true \+ +a0 0\.5 n 1\.1/);
 			expect(text, `${columns}×${rows}`).toMatch(/3 Sk(eletal|\.) muscle, across +1\.2 cm true +a0 0\.96 n 1/);
+			// a0 stands in one column on every layer row.
+			const columnsOfA0 = text.split('\n').filter((l) => /^[> ] \d /.test(l)).map((l) => l.indexOf(' a0 '));
+			expect(new Set(columnsOfA0).size, `${columns}×${rows}`).toBe(1);
 		}
 	});
 

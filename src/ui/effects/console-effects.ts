@@ -38,6 +38,11 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			const isPreset = ctx.shelf.list().points.some((p) => p.id === effect.pointId && p.kind === 'preset');
 			return [{type: 'loaded', name: found.name, plan: found.plan, isPreset}];
 		}
+		case 'load-compare': {
+			const found = ctx.shelf.load(effect.pointId);
+			if (!found) return [{type: 'failed', message: 'That plan could not be read for the comparison.'}];
+			return [{type: 'compare-loaded', index: effect.index, name: found.name, plan: found.plan}];
+		}
 		case 'save': {
 			const plan = {...ctx.doc, name: effect.name};
 			const outcome = ctx.shelf.save(effect.name, plan, effect.overwrite);

@@ -35,6 +35,7 @@ export type Action =
 	| {readonly type: 'save-exists'; readonly name: string}
 	| {readonly type: 'exported'; readonly files: readonly string[]}
 	| {readonly type: 'export-exists'; readonly dir: string; readonly files: readonly string[]}
+	| {readonly type: 'compare-loaded'; readonly index: number; readonly name: string; readonly plan: PlanDocument}
 	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
 	| {readonly type: 'refined'; readonly still: PhantomImage; readonly result: RefineResult}
@@ -260,6 +261,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 			return {...s, overlay: {kind: 'help'}};
 		case 'warnings':
 			return {...s, overlay: {kind: 'warnings'}};
+		case 'compare':
+			return {...s, overlay: {kind: 'compare', index: -1}};
 		case 'picture':
 			return {...s, picture: nextPicture(s.picture, s.isWide)};
 		case 'scanner':
@@ -309,6 +312,15 @@ function tissueIntent(s: ConsoleState, o: Overlay & {kind: 'tissue'}, intent: In
 	}
 }
 
+/** ← → in the side-by-side view: the starting plan, then each starting point in the list (templates, saved presets). */
+function stepCompare(s: ConsoleState, o: Overlay & {kind: 'compare'}, direction: 1 | -1): ConsoleState {
+	const count = s.startingPoints.length + 1;
+	const index = ((o.index + 1 + direction + count) % count) - 1;
+	if (index < 0) return {...s, overlay: {kind: 'compare', index}};
+	const point = s.startingPoints[index]!;
+	return queue({...s, overlay: {kind: 'compare', index}}, {kind: 'load-compare', pointId: point.id, index});
+}
+
 function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent): ConsoleState {
 	if (intent === 'no') return withNotice({...s, overlay: null}, o.then.kind === 'quit' ? 'Still here.' : 'Nothing changed.');
 	if (intent !== 'yes') return s;
@@ -334,6 +346,7 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 	const o = s.overlay;
 	switch (mode) {
 		case 'overlay':
+			if (o?.kind === 'compare' && (intent === 'prev-step' || intent === 'next-step')) return stepCompare(s, o, intent === 'next-step' ? 1 : -1);
 			return intent === 'back' || intent === 'help' ? {...s, overlay: null} : s;
 		case 'ask':
 			return askIntent(s, o as Overlay & {kind: 'ask'}, intent);
@@ -416,6 +429,12 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 			return refineDone(s, {still: a.still, result: a.result});
 		case 'refine-failed':
 			return refineDone(s, {problem: a.problem});
+		case 'compare-loaded': {
+			const o = s.overlay;
+			// Only if the view is still open on that entry (a fast ← → may have moved on).
+			if (o?.kind !== 'compare' || o.index !== a.index) return s;
+			return {...s, overlay: {...o, against: {name: a.name, plan: a.plan}}};
+		}
 		case 'starting-points':
 			return clampCursor({...s, startingPoints: a.points, storeProblems: a.problems});
 		case 'scanner-profiles':

@@ -30,6 +30,11 @@ export type FollowUp =
 export type Overlay =
 	| {readonly kind: 'help'}
 	| {readonly kind: 'warnings'}
+	/**
+	 * This patient beside another plan (key v): the starting plan (index -1), or the starting point
+	 * at `index` of the list (a template or a saved preset), once loaded.
+	 */
+	| {readonly kind: 'compare'; readonly index: number; readonly against?: {readonly name: string; readonly plan: PlanDocument}}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
 	/** The folder to export the plan into, typed (the current one offered). */
@@ -41,6 +46,7 @@ export type Overlay =
 export type Effect =
 	| {readonly kind: 'exit'}
 	| {readonly kind: 'load'; readonly pointId: string}
+	| {readonly kind: 'load-compare'; readonly pointId: string; readonly index: number}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
 	| {readonly kind: 'export'; readonly dir: string; readonly replace: boolean}
 	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}

@@ -75,7 +75,8 @@ export type Intent =
 	| 'keep'
 	| 'keep-replace'
 	| 'refine-image'
-	| 'accept';
+	| 'accept'
+	| 'compare';
 
 export type Section = 'Moving around' | 'Changing a value' | 'Typing a value' | 'Tissue stack' | 'The plan' | 'Questions';
 
@@ -127,7 +128,7 @@ export const bindings: readonly Binding[] = [
 	{keys: 'Enter', hint: 'edit', help: 'edit, choose, confirm', section: 'Moving around', modes: [...browsing, ...typing, 'tissue', 'sweep', 'scanner', 'refine'], pick: (_i, k) => when(k.return, 'enter')},
 	{keys: 'Backspace', help: 'erase a character', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (_i, k) => when(k.backspace || k.delete, 'erase')},
 	{keys: '0-9 . - a-z', help: 'type; filters tissues', section: 'Typing a value', modes: [...typing, 'tissue'], pick: (i, k) => when(i.length > 0 && !k.ctrl && !k.meta && !k.tab, 'type')},
-	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: [...browsing, 'scanner'], pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
+	{keys: '← →  h l', help: 'previous / next step', section: 'Moving around', modes: [...browsing, 'scanner', 'overlay'], pick: (i, k) => (k.leftArrow || (i === 'h' && plain(k)) ? 'prev-step' : k.rightArrow || (i === 'l' && plain(k)) ? 'next-step' : undefined)},
 	{
 		keys: '←→ PgUp PgDn',
 		help: 'scroll the sweep table',
@@ -178,7 +179,7 @@ export const bindings: readonly Binding[] = [
 		},
 	},
 	// One help line for both, so the overlay still fits 80×24 whole.
-	{keys: 'w  p', help: 'warnings; picture/plot', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k)},
+	{keys: 'w  p  v', help: 'warnings; picture; vs.', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('v', 'compare')(i, k)},
 	{keys: 'i', help: 'refine from an image', section: 'The plan', modes: browsing, pick: is('i', 'refine-image')},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep', 'refine'], pick: is('?', 'help')},
 	{keys: 'q', hint: 'quit', help: 'quit (asks if unsaved)', section: 'The plan', modes: [...browsing, 'sweep'], pick: is('q', 'quit')},

@@ -2,7 +2,7 @@
 import {Box, Text} from 'ink';
 import {FieldList, windowNote} from './field-list.js';
 import {wrapWords} from '../kit/layout.js';
-import {tissueNumbers, tissueOf} from '../state/row-text.js';
+import {rowText, tissueNumbers, tissueOf} from '../state/row-text.js';
 import type {StepProps} from './start-step.js';
 import {rowsOf, type Row} from '../state/step-rows.js';
 import {useTheme} from '../kit/theme-context.js';
@@ -45,7 +45,9 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 	const extra = (row: Row) => {
 		if (row.kind !== 'layer' || width < numbersFrom) return undefined;
 		const t = tissueOf(state.doc, row.index);
-		return t ? `a0 ${t.alphaDbPerCmMhz} n ${t.exponent}` : undefined;
+		// One column for a0 and n whatever the thickness text ("20.0 cm screen +" is the longest).
+		const pad = ' '.repeat(Math.max(0, 16 - rowText(state, row).value.length));
+		return t ? `${pad}a0 ${t.alphaDbPerCmMhz} n ${t.exponent}` : undefined;
 	};
 	return (
 		<Box flexDirection="column" width={width}>
