@@ -37,6 +37,7 @@ import {colourTheme, type Theme} from './kit/theme.js';
 import {ThemeContext} from './kit/theme-context.js';
 import {TissuePicker} from './steps/tissue-picker.js';
 import {useTerminalSize} from './kit/use-terminal-size.js';
+import {warningLines} from './plot/warning-lines.js';
 import {WarningsView} from './plot/warnings-view.js';
 import type {ConsoleState} from './state/console-state.js';
 
@@ -103,7 +104,8 @@ function Body({state, curve, layout, scanner}: {
 					curve={curve}
 					delta={delta}
 					width={layout.curveWidth}
-					plotRows={isCurveStep ? bodyRows - 3 : layout.plotRows}
+					// Warning lines the pane does not need this time go to the plot or picture.
+					plotRows={isCurveStep ? bodyRows - 3 : layout.plotRows + 3 - warningLines(curve, 3).length}
 					isFocused={state.pane === 'curve' && !isCurveStep}
 					slider={isCurveStep && state.cursors.curve >= curve.fit.sliders.length ? -1 : slider}
 					isPlotOnly={isCurveStep}

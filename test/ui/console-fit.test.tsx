@@ -13,7 +13,7 @@ import {App} from '../../src/ui/app.js';
 import {openShelf} from '../../src/ui/effects/preset-shelf.js';
 import {plainTheme} from '../../src/ui/kit/theme.js';
 import {boneAndNoisePlanJson, planDocument} from '../helpers/plans.js';
-import {frame, press, ready, send, type Rendered} from '../helpers/press.js';
+import {frame, press, ready, send, waitForText, type Rendered} from '../helpers/press.js';
 
 const dirs: string[] = [];
 const apps: Rendered[] = [];
@@ -72,7 +72,18 @@ describe('120×40', () => {
 			const hint = lines.findIndex((l) => l.startsWith('↑↓'));
 			let blank = 0;
 			while (blank < hint && lines[hint - 1 - blank]!.trim() === '') blank++;
-			expect(blank, `step ${step}`).toBeLessThan(6);
+			expect(blank, `step ${step}`).toBeLessThan(3);
 		}
+	});
+
+	it('the picture in place of the plot uses that height too', async () => {
+		const app = await open(120, 40, demoPlan());
+		await press(app, '2', 'p');
+		await waitForText(app, 'Illustration');
+		const lines = frame(app).split('\n');
+		const hint = lines.findIndex((l) => l.startsWith('↑↓'));
+		let blank = 0;
+		while (blank < hint && lines[hint - 1 - blank]!.trim() === '') blank++;
+		expect(blank).toBeLessThan(3);
 	});
 });

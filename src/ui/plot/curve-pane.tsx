@@ -45,7 +45,8 @@ export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isP
 			{picture === 'off' ? (
 				<PlotView curve={curve} width={width} height={plotRows} {...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})} />
 			) : (
-				<PictureView curve={curve} kinds={['ramp', 'plan']} width={width} height={plotRows} />
+				// The plot adds its axis and legend lines to plotRows; the picture counts its own, so it gets them too.
+				<PictureView curve={curve} kinds={['ramp', 'plan']} width={width} height={plotRows + 2} />
 			)}
 			{isPlotOnly ? null : (
 				<>
