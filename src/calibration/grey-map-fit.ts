@@ -86,7 +86,10 @@ function checkStitching(observations: readonly StepObservation[], gainsDb: reado
 		const lonely = Array.from({length: k}, (_, i) => i).filter((i) => find(i) !== find(0));
 		throw new CalibrationRefusal(
 			'gainSteps',
-			`the steps overlap too little to stitch one grey map: step${lonely.length > 1 ? 's' : ''} ${lonely.map((i) => `${i + 1} (${gainsDb[i]} dB)`).join(', ')} share${lonely.length > 1 ? '' : 's'} fewer than ${minSharedBands} usable depth bands with the others; use gain steps about 3–6 dB apart`,
+			`the steps overlap too little to stitch one grey map: step${lonely.length > 1 ? 's' : ''} ` +
+				`${lonely.map((i) => `${i + 1} (${gainsDb[i]} dB)`).join(', ')} share${lonely.length > 1 ? '' : 's'} ` +
+				`fewer than ${minSharedBands} usable depth bands with the others; use gain steps about ` +
+				'3–6 dB apart',
 		);
 	}
 }
@@ -99,7 +102,9 @@ export function fitGreyMap(observations: readonly StepObservation[], gainsDb: re
 		if (sorted[i]! - sorted[i - 1]! > maxGreyGap) {
 			throw new CalibrationRefusal(
 				'gainSteps',
-				`the steps overlap too little to stitch one grey map: no depth band showed a grey between ${sorted[i - 1]!.toFixed(0)} and ${sorted[i]!.toFixed(0)}; add gain steps in between (about 3–6 dB apart)`,
+				'the steps overlap too little to stitch one grey map: ' +
+					`no depth band showed a grey between ${sorted[i - 1]!.toFixed(0)} and ${sorted[i]!.toFixed(0)}; ` +
+					'add gain steps in between (about 3–6 dB apart)',
 			);
 		}
 	}
@@ -140,7 +145,10 @@ export function fitGreyMap(observations: readonly StepObservation[], gainsDb: re
 		if (levelDb[j]! < levelDb[j - 1]! - monotoneToleranceDb) {
 			throw new CalibrationRefusal(
 				'gainSteps',
-				`the grey map is not monotone: more gain showed darker grey near grey ${knots[j]!.toFixed(0)} (by ${(levelDb[j - 1]! - levelDb[j]!).toFixed(1)} dB, tolerance ${monotoneToleranceDb} dB); check that only the master gain changed between the images and that adaptive image optimisation is off`,
+				'the grey map is not monotone: more gain showed darker grey near grey ' +
+					`${knots[j]!.toFixed(0)} (by ${(levelDb[j - 1]! - levelDb[j]!).toFixed(1)} dB, tolerance ` +
+					`${monotoneToleranceDb} dB); check that only the master gain changed between the images ` +
+					'and that adaptive image optimisation is off',
 			);
 		}
 	}

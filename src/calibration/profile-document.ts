@@ -11,7 +11,9 @@ import type {ScannerCalibration} from './scanner-calibration.js';
 export const profileFormat = 'evenecho-scanner-profile/1';
 
 export const profileCaution =
-	'Measured on a phantom at the settings stated: a starting point to confirm on the live image, not a diagnosis. Re-measure when the probe, preset, depth, focus or harmonic mode changes. Receive gain before transmit output (ALARA); local protocols decide.';
+	'Measured on a phantom at the settings stated: a starting point to confirm on the live ' +
+		'image, not a diagnosis. Re-measure when the probe, preset, depth, focus or harmonic ' +
+		'mode changes. Receive gain before transmit output (ALARA); local protocols decide.';
 
 const num = z.number({error: 'must be a number'}).refine(Number.isFinite, {error: 'must be a finite number'});
 const text = (max: number) => z.string({error: `must be text of up to ${max} characters`}).max(max, {error: `must be text of up to ${max} characters`});

@@ -102,7 +102,9 @@ function refuseMostlyColour(step: CalibrationImage, bands: ImageBands): void {
 	if (1 - bands.maskedFraction < minGreyFraction) {
 		throw new CalibrationRefusal(
 			`${step.field}.image`,
-			`${step.name}: only ${((1 - bands.maskedFraction) * 100).toFixed(0)} % of the measured pixels are grey; colour images (flow, elastography) cannot be calibrated — export the grey B-mode image`,
+			`${step.name}: only ${((1 - bands.maskedFraction) * 100).toFixed(0)} % of the measured ` +
+				'pixels are grey; colour images (flow, elastography) cannot be calibrated — export the ' +
+				'grey B-mode image',
 		);
 	}
 }
@@ -139,7 +141,8 @@ const powerDb = (db: number) => 10 ** (db / 10);
 
 export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 	if (input.gainSteps.length < minGainSteps) {
-		throw new CalibrationRefusal('gainSteps', `has ${input.gainSteps.length} image${input.gainSteps.length === 1 ? '' : 's'}; at least ${minGainSteps} of the same phantom with only the master gain changed are needed`);
+		throw new CalibrationRefusal('gainSteps', `has ${input.gainSteps.length} image${input.gainSteps.length === 1 ? '' : 's'}; at least ` +
+			`${minGainSteps} of the same phantom with only the master gain changed are needed`);
 	}
 	const notes: string[] = [];
 	const depth = input.displayDepthCm;
@@ -191,7 +194,8 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 			floor.push({depthCm: b.depthCm, levelDb: shown});
 		}
 		if (floor.length) noiseFloor = floor;
-		else notes.push(`the in-air image's greys lie outside the calibrated grey map (${lo.toFixed(0)}–${hi.toFixed(0)}); raise its master gain to measure the noise floor`);
+		else notes.push(`the in-air image's greys lie outside the calibrated grey map (${lo.toFixed(0)}–${hi.toFixed(0)}); ` +
+			'raise its master gain to measure the noise floor');
 	}
 
 	// Band levels, echo-only where the noise is known, and echo-to-noise.
@@ -273,7 +277,9 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 	const sliderTravelDb = sliderSteps.length ? sliderSteps.reduce((s, r) => s + r.travelDb, 0) / sliderSteps.length : null;
 
 	notes.push(
-		`rows are read as vertical depth; only ${Math.round(input.columns[0] * 100)}–${Math.round(input.columns[1] * 100)} % of the region's width is measured, where depth and range along the beam agree for sector and curved images`,
+		`rows are read as vertical depth; only ${Math.round(input.columns[0] * 100)}–${Math.round(input.columns[1] * 100)} ` +
+			`% of the region's width is measured, where depth and range along the beam agree for ` +
+			'sector and curved images',
 	);
 	const lo = Math.ceil(fit.knots[0]!);
 	const hi = Math.floor(fit.knots[fit.knots.length - 1]!);

@@ -43,7 +43,8 @@ export const commandList: readonly CommandEntry[] = [
 		name: 'table',
 		term: 'table [options] [plan]',
 		description:
-			'default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, beam angle, receive mode and tissue swaps',
+			'default compensation tables for protocols: a plan or preset swept over habitus, probe ' +
+				'frequency, beam angle, receive mode and tissue swaps',
 		register: async () => (await import('./table-command.js')).registerTableCommand,
 	},
 	{
@@ -61,7 +62,8 @@ export const commandList: readonly CommandEntry[] = [
 	{
 		name: 'scanner',
 		term: 'scanner',
-		description: 'measure your scanner from phantom images and keep it as a profile plans can name (calibrate, list, show, delete, rename, export, import)',
+		description: 'measure your scanner from phantom images and keep it as a profile plans can name ' +
+			'(calibrate, list, show, delete, rename, export, import)',
 		register: async () => (await import('./scanner-command.js')).registerScannerCommand,
 	},
 ];

@@ -35,7 +35,8 @@ export function refuseRepeatedOptions(root: Command): void {
 export function unknownCommandError(command: Command, word: string): UsageError {
 	const names = command.commands.map((c) => c.name()).filter((n) => n !== 'help');
 	const path = command.parent ? `${command.name()} ` : '';
-	return new UsageError(`unknown command "${path}${printable(word, 60)}"; the commands are: ${names.map((n) => `${path}${n}`).join(', ')} (see evenecho ${path}--help)`);
+	return new UsageError(`unknown command "${path}${printable(word, 60)}"; the commands are: ` +
+		`${names.map((n) => `${path}${n}`).join(', ')} (see evenecho ${path}--help)`);
 }
 
 /**

@@ -26,7 +26,9 @@ async function comparedWith(result: CurveResult, path: string, stepCm: number): 
 	const b = other.plan;
 	if (a.sliders.count !== b.sliders.count || a.display.depthCm !== b.display.depthCm || a.sliders.knots !== b.sliders.knots) {
 		throw new UsageError(
-			`--against: ${printable(path)} must have the same display depth, slider count and knot placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
+			`--against: ${printable(path)} must have the same display depth, slider count and knot ` +
+				`placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it ` +
+				`has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
 		);
 	}
 	return {name: b.name, delta: settingsDelta(settingsOf(result.fit), settingsOf(other.fit)), knotsCm: result.fit.sliders.map((s) => s.depthCm)};
@@ -43,7 +45,9 @@ function deltaJson(c: Comparison) {
 function deltaText(c: Comparison): string {
 	const lines = ['', `Against ${c.name}: master ${signedDb(c.delta.masterDeltaDb)} dB`, '  slider  depth cm  slider change dB  total change dB'];
 	c.knotsCm.forEach((d, k) => {
-		lines.push(`  ${String(k + 1).padStart(6)}  ${d.toFixed(1).padStart(8)}  ${signedDb(c.delta.sliderDeltasDb[k]!).padStart(16)}  ${signedDb(c.delta.totalDeltasDb[k]!).padStart(15)}`);
+		lines.push(`  ${String(k + 1).padStart(6)}  ${d.toFixed(1).padStart(8)}  ` +
+			`${signedDb(c.delta.sliderDeltasDb[k]!).padStart(16)}  ` +
+			`${signedDb(c.delta.totalDeltasDb[k]!).padStart(15)}`);
 	});
 	return lines.join('\n') + '\n';
 }

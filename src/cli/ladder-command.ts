@@ -46,7 +46,9 @@ export function registerLadderCommand(program: Command): void {
 				);
 				return;
 			}
-			const lines = [`Frequency ladder for ${plan.name}: target ${Number(targetCm.toFixed(2))} cm with ${margin} dB to spare (noise budget ${plan.noiseBudgetDb.toFixed(1)} dB, same at every frequency)`, '  MHz   reaches cm   target'];
+			const lines = [`Frequency ladder for ${plan.name}: target ${Number(targetCm.toFixed(2))} cm with ` +
+				`${margin} dB to spare (noise budget ${plan.noiseBudgetDb.toFixed(1)} dB, same at every ` +
+				'frequency)', '  MHz   reaches cm   target'];
 			for (const r of ladder.rungs) {
 				const reach = r.penetrationDepthCm === null ? `>${ladderSearchCm}` : r.penetrationDepthCm.toFixed(1);
 				lines.push(`  ${r.centerMhz.toFixed(2).padStart(5)}  ${reach.padStart(10)}   ${r.reachesTarget ? 'yes' : 'no'}`);

@@ -34,7 +34,8 @@ function reportAndExit(error: unknown): never {
 // success on standard error wait for their output to be written first (see write-output.ts).
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
 	if (error.code === 'EPIPE') process.exit(0);
-	process.stderr.write(`evenecho: cannot write the output${error.code === 'ENOSPC' ? ' (the device is full)' : error.code ? ` (${error.code})` : ''}; it is incomplete\n`);
+	const why = error.code === 'ENOSPC' ? ' (the device is full)' : error.code ? ` (${error.code})` : '';
+	process.stderr.write(`evenecho: cannot write the output${why}; it is incomplete\n`);
 	process.exit(1);
 });
 

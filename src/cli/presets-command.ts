@@ -73,10 +73,12 @@ function wrap(text: string, indent = '  ', columns = 80): string {
 export function presetDescription(p: Preset): string {
 	const out: string[] = [];
 	out.push(`${printable(p.id)}  "${printable(p.name)}"  [${printable(p.region)}]`);
+	const saved = p.savedAt ? `, saved ${p.savedAt}` : '';
+	const migrated = p.migratedFrom ? `; stored as record version ${p.migratedFrom}, read as the current version` : '';
 	out.push(
 		p.isTemplate
 			? `  built-in template, read-only (${p.file}); "evenecho presets copy ${p.id} <name>" makes your own copy`
-			: `  user preset (${p.file})${p.savedAt ? `, saved ${p.savedAt}` : ''}${p.migratedFrom ? `; stored as record version ${p.migratedFrom}, read as the current version` : ''}`,
+			: `  user preset (${p.file})${saved}${migrated}`,
 	);
 	for (const problem of p.problems ?? []) out.push(`  ! ${printable(problem, 400)}`);
 	if (p.plan.note) {

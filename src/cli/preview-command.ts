@@ -50,7 +50,8 @@ export function registerPreviewCommand(program: Command): void {
 			const seed = wholeNumberOption('seed', opts.seed, seedLimit, '');
 			const dynamicRangeDb = numberOption('dynamic-range', opts.dynamicRange, dynamicRangeLimit, 'dB');
 			if (opts.scanner !== undefined && !profileIdPattern.test(opts.scanner)) {
-				throw new UsageError(`--scanner: must be a scanner profile id: lower-case letters, digits and hyphens, up to 64 (evenecho scanner list) (got "${opts.scanner}")`);
+				throw new UsageError('--scanner: must be a scanner profile id: lower-case letters, digits and hyphens, up to ' +
+					`64 (evenecho scanner list) (got "${opts.scanner}")`);
 			}
 			const read = await readPlanFile(planPath);
 			// The profile the plan names (or --scanner): its measured depth gain replaces the assumed ramp.
@@ -70,7 +71,8 @@ export function registerPreviewCommand(program: Command): void {
 					{Title: `evenecho preview: ${plan.name}`, Description: illustrationLabel, Software: 'evenecho'},
 				);
 				writeOutputFile('png', resolve(opts.png), bytes, opts.force === true);
-				process.stdout.write(`Wrote ${opts.png} (${pic.width}×${pic.height}, ${panel === 'both' ? 'both panels' : panel}). ${illustrationLabel}\n${travel ? `${travel}\n` : ''}`);
+				process.stdout.write(`Wrote ${opts.png} (${pic.width}×${pic.height}, ` +
+					`${panel === 'both' ? 'both panels' : panel}). ${illustrationLabel}\n${travel ? `${travel}\n` : ''}`);
 				return;
 			}
 			const kinds: PanelKind[] = panel === 'both' ? ['ramp', 'plan'] : [panel];

@@ -75,7 +75,8 @@ export function registerRefineCommand(program: Command): void {
 		.description('measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation')
 		.argument('<image>', 'DICOM still or PNG of the patient')
 		.requiredOption('--plan <plan>', 'the plan the image is compared with (JSON, or - for standard input)')
-		.option('--scanner <id>', 'scanner profile (evenecho scanner list) whose grey map, depth response and slider travel read the image (default: the one the plan names)')
+		.option('--scanner <id>', 'scanner profile (evenecho scanner list) whose grey map, depth response and slider ' +
+			'travel read the image (default: the one the plan names)')
 		.option('--applied <settings>', 'SETTINGS.json: the sliders and master the image was taken with (default: the plan\'s own fit)')
 		.option('--layer <n>', 'layer whose attenuation is measured, 1 = under the skin (default: the deepest in the image)')
 		.option('--frame <k>', 'frame of a multi-frame DICOM, 1-based')

@@ -34,7 +34,8 @@ function say(message: string): void {
 }
 
 export function registerScannerCommand(program: Command): void {
-	const scanner = program.command('scanner').description('measure your scanner from phantom images and keep it as a profile plans can name (calibrate, list, show, delete, rename, export, import)');
+	const scanner = program.command('scanner').description('measure your scanner from phantom images and keep it as a profile plans can name ' +
+		'(calibrate, list, show, delete, rename, export, import)');
 
 	scanner
 		.command('calibrate')

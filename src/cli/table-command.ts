@@ -72,14 +72,19 @@ Examples:
 export function registerTableCommand(program: Command): void {
 	program
 		.command('table')
-		.description('default compensation tables for protocols: a plan or preset swept over habitus, probe frequency, beam angle, receive mode and tissue swaps')
+		.description('default compensation tables for protocols: a plan or preset swept over habitus, probe ' +
+			'frequency, beam angle, receive mode and tissue swaps')
 		.argument('[plan]', 'plan file (JSON, format evenecho-plan/1) or - for standard input; or use --preset')
 		.option('--preset <id>', 'a template or saved preset instead of a plan file: the id or name "evenecho presets list" shows')
 		.option('--fat <cm,...>', 'thicknesses of the subcutaneous layer, cm, each above 0 and up to 50: a list (1,2,4,6,8) or from:to:step (1:8:0.5)')
 		.option('--layer <n>', 'the layer --fat sets, 1 = just under the skin (default: the first layer of tissue "fat")')
 		.option('--freq <MHz,...>', 'probe centre frequencies, MHz, each above 0 and up to 50, as a list or from:to:step (default: the plan\'s)')
 		.option('--angle <deg,...>', 'beam angles from the layer normal, degrees, each from 0 to 80, as a list (0,15,30) or from:to:step (default: the plan\'s)')
-		.option('--receive <mode>', 'fundamental, tissue-harmonic (or harmonic), scatterer-harmonic (contrast agents) or both (fundamental and tissue-harmonic; default: the plan\'s)')
+		.option(
+			'--receive <mode>',
+			'fundamental, tissue-harmonic (or harmonic), scatterer-harmonic (contrast agents) ' +
+				'or both (fundamental and tissue-harmonic; default: the plan\'s)',
+		)
 		.option('--swap <n=tissues>', 'give layer n each tissue in turn: library tissue ids or PRESET:M (layer M of a preset), comma-separated; repeat for other layers', collect)
 		.option('--delta', 'show sliders and master gain as differences from the standard habitus (the plan as it is)')
 		.option('--ladder <MHz,...>', 'frequencies tried for the highest-reaching column (default: the --freq list, else 1 to 15 MHz in 0.5 MHz steps)')

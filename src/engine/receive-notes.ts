@@ -21,7 +21,9 @@ export function receiveWarnings(plan: EnginePlan): CurveWarning[] {
 			code: 'harmonic-simplified',
 			severity: 'note',
 			message:
-				'With a Gaussian-like spectrum (steepness below 3) the harmonic band\'s long low-frequency tail carries deep echoes and flattens the deep loss (optimistic reach): set probe.spectrumSteepness from the bandwidth (README: which steepness to pick).',
+				'With a Gaussian-like spectrum (steepness below 3) the harmonic band\'s long low-frequency tail ' +
+				'carries deep echoes and flattens the deep loss (optimistic reach): ' +
+				'set probe.spectrumSteepness from the bandwidth (README: which steepness to pick).',
 		});
 	}
 	const budgetMode = plan.noiseBudgetReceive ?? 'fundamental';
@@ -29,7 +31,9 @@ export function receiveWarnings(plan: EnginePlan): CurveWarning[] {
 		out.push({
 			code: 'budget-receive-mismatch',
 			severity: 'warning',
-			message: `The noise budget is for ${receiveModeLabel(budgetMode)} receive, but this plan receives the ${receiveModeLabel(mode)}: the reach shown is not calibrated for it. Measure the phantom reach in ${receiveModeLabel(mode)} mode (or state a budget for it).`,
+			message: `The noise budget is for ${receiveModeLabel(budgetMode)} receive, but this plan receives ` +
+				`the ${receiveModeLabel(mode)}: the reach shown is not calibrated for it. Measure the ` +
+				`phantom reach in ${receiveModeLabel(mode)} mode (or state a budget for it).`,
 		});
 	}
 	return out;

@@ -61,7 +61,8 @@ const library = {
 		densityKgM3: 1015,
 		alphaDbPerCmMhz: 0.0014,
 		exponent: 2,
-		source: 'c: 0.9 % saline proxy, Duck 1990 Table 4.9 (from memory for urine itself); ρ: clinical specific gravity (from memory); α: as water at 37 °C (from memory)',
+		source: 'c: 0.9 % saline proxy, Duck 1990 Table 4.9 (from memory for urine itself); ρ: clinical ' +
+			'specific gravity (from memory); α: as water at 37 °C (from memory)',
 		spread: {speedMps: [1520, 1550], densityKgM3: [1005, 1030], alphaDbPerCmMhz: [0.001, 0.006], exponent: [1, 2]},
 	},
 	'amniotic-fluid': {
@@ -88,7 +89,8 @@ const library = {
 		densityKgM3: 911,
 		alphaDbPerCmMhz: 0.6,
 		exponent: 1,
-		source: 'c: in-vivo breast fat via Park 2023 Table 7; ρ: Hasgall 2018; α0: Breast USCT 2016 Table I (0.60), Diagnostics 2023 Table 4 (0.63); n: Szabo 2004 (from memory)',
+		source: 'c: in-vivo breast fat via Park 2023 Table 7; ρ: Hasgall 2018; α0: Breast USCT 2016 ' +
+			'Table I (0.60), Diagnostics 2023 Table 4 (0.63); n: Szabo 2004 (from memory)',
 		spread: {speedMps: [1412, 1488], densityKgM3: [812, 961], alphaDbPerCmMhz: [0.38, 0.8], exponent: [1, 1.3]},
 	},
 	skin: {
@@ -106,7 +108,8 @@ const library = {
 		densityKgM3: 1060,
 		alphaDbPerCmMhz: 0.5,
 		exponent: 1,
-		source: 'c: scanner convention (common practice, no source); ρ: ICRU 44 (from memory); α0: IEC 61391-2 phantom/soft-tissue average 0.5 dB/cm/MHz (secondary)',
+		source: 'c: scanner convention (common practice, no source); ρ: ICRU 44 (from memory); α0: IEC ' +
+			'61391-2 phantom/soft-tissue average 0.5 dB/cm/MHz (secondary)',
 		spread: {speedMps: [1500, 1600], densityKgM3: [1040, 1070], alphaDbPerCmMhz: [0.3, 1], exponent: [1, 1.2]},
 	},
 	liver: {
@@ -125,7 +128,11 @@ const library = {
 		alphaDbPerCmMhz: 0.8,
 		exponent: 1.1,
 		source:
-			'α0 range: Lin, Ophir & Potter 1988 (Ultrasound Med Biol 14(8):729, attenuation rises with histological fat; values from memory) and later scanner attenuation studies with cut-offs of about 0.6–0.7 dB/cm/MHz (from memory, unverified); c: lower than normal liver, Imbault et al. 2017 (Phys Med Biol 62:3582; values from memory); ρ, n: from memory',
+			'α0 range: Lin, Ophir & Potter 1988 (Ultrasound Med Biol 14(8):729, attenuation rises ' +
+				'with histological fat; values from memory) and later scanner attenuation studies with ' +
+				'cut-offs of about 0.6–0.7 dB/cm/MHz (from memory, unverified); c: lower than normal ' +
+				'liver, Imbault et al. 2017 (Phys Med Biol 62:3582; values from memory); ρ, n: from ' +
+				'memory',
 		spread: {speedMps: [1490, 1570], densityKgM3: [1020, 1060], alphaDbPerCmMhz: [0.62, 1], exponent: [1, 1.2]},
 	},
 	kidney: {
@@ -152,7 +159,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 0.96,
 		exponent: 1,
-		source: 'c: Sensors 2023 Table A2; ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n ≈ 1: bovine muscle study (Shore et al., from memory)',
+		source: 'c: Sensors 2023 Table A2; ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table ' +
+			'4; n ≈ 1: bovine muscle study (Shore et al., from memory)',
 		spread: {speedMps: [1517, 1600], densityKgM3: [1050, 1090], alphaDbPerCmMhz: [0.55, 0.96]},
 	},
 	'muscle-along': {
@@ -170,7 +178,8 @@ const library = {
 		densityKgM3: 1041,
 		alphaDbPerCmMhz: 0.75,
 		exponent: 1.5,
-		source: 'c: in-vivo tomography via Park 2023 Table 7; ρ, α0: Hasgall 2018 (also Breast USCT 2016 Table I); n: Szabo 2004 (from memory; 1.12–1.36 in Li 2022)',
+		source: 'c: in-vivo tomography via Park 2023 Table 7; ρ, α0: Hasgall 2018 (also Breast USCT 2016 ' +
+			'Table I); n: Szabo 2004 (from memory; 1.12–1.36 in Li 2022)',
 		spread: {speedMps: [1490, 1567], densityKgM3: [990, 1092], alphaDbPerCmMhz: [0.67, 0.83], exponent: [1.1, 1.5]},
 	},
 	brain: {
@@ -206,7 +215,8 @@ const library = {
 		densityKgM3: 1900,
 		alphaDbPerCmMhz: 13.3,
 		exponent: 1,
-		source: 'c, ρ: within Cardoso & Cowin 2012 Table 3; α0: Pinton et al. 2012 skull bulk value (secondary; 15 in Diagnostics 2023 Table 4); n: from memory',
+		source: 'c, ρ: within Cardoso & Cowin 2012 Table 3; α0: Pinton et al. 2012 skull bulk value ' +
+			'(secondary; 15 in Diagnostics 2023 Table 4); n: from memory',
 		spread: {speedMps: [2800, 4000], densityKgM3: [1800, 2200], alphaDbPerCmMhz: [1, 20]},
 	},
 	'trabecular-bone': {
@@ -242,7 +252,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 0.5,
 		exponent: 1,
-		source: 'IEC 61391 / IEC 61685 phantom targets 1540 m/s, 0.5 dB/cm/MHz (from memory; measured agar TMM: Sun 2012, 1547 m/s, linear in f: Browne 2003); ρ: from memory',
+		source: 'IEC 61391 / IEC 61685 phantom targets 1540 m/s, 0.5 dB/cm/MHz (from memory; measured ' +
+			'agar TMM: Sun 2012, 1547 m/s, linear in f: Browne 2003); ρ: from memory',
 		spread: {speedMps: [1525, 1555], alphaDbPerCmMhz: [0.45, 0.55]},
 	},
 	'phantom-07': {

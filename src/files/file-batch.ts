@@ -161,7 +161,9 @@ export function recoverBatches(dir: string, now = Date.now()): string[] {
 			finish(dir, journal);
 		} else {
 			rollBack(dir, journal);
-			notices.push(`an earlier import of ${journal.items.length} file${journal.items.length === 1 ? '' : 's'} was interrupted; it was rolled back (nothing from it was kept, nothing it would have replaced was lost): run it again`);
+			notices.push(`an earlier import of ${journal.items.length} file${journal.items.length === 1 ? '' : 's'} ` +
+				'was interrupted; it was rolled back (nothing from it was kept, nothing it would have ' +
+				'replaced was lost): run it again');
 		}
 		removeQuietly(path);
 	}

@@ -33,7 +33,9 @@ export function checkOwnedFolder(path: string, options: {create: boolean}): bool
 	if (!stat.isDirectory()) {
 		throw new FileRefusedError(
 			stat.isSymbolicLink() ? 'symbolic-link' : 'not-regular',
-			`${printable(path)} is ${describeKind(stat)}, not a real folder; evenecho does not follow links or write through them here. Move it away (or point EVENECHO_HOME at a folder of your own)`,
+			`${printable(path)} is ${describeKind(stat)}, not a real folder; evenecho does not ` +
+				'follow links or write through them here. Move it away (or point EVENECHO_HOME at a ' +
+				'folder of your own)',
 		);
 	}
 	const uid = process.getuid?.();

@@ -30,7 +30,8 @@ export function resolveLayer(l: LayerDocument, assumedSpeedMps: number): Layer {
 				...base,
 				alphaDbPerCmMhz: m.alphaDbPerCmMhz,
 				spread: {...base.spread, alphaDbPerCmMhz: [m.lowDbPerCmMhz, m.highDbPerCmMhz]},
-				source: `α0 ${m.alphaDbPerCmMhz} (${m.lowDbPerCmMhz}–${m.highDbPerCmMhz}) dB/cm/MHz^n ${measuredAlphaSource}; other values: ${base.source ?? 'custom'}`,
+				source: `α0 ${m.alphaDbPerCmMhz} (${m.lowDbPerCmMhz}–${m.highDbPerCmMhz}) dB/cm/MHz^n ` +
+					`${measuredAlphaSource}; other values: ${base.source ?? 'custom'}`,
 			}
 		: base;
 	const thicknessCm = l.thicknessAs === 'displayed' ? (l.thicknessCm * tissue.speedMps) / assumedSpeedMps : l.thicknessCm;

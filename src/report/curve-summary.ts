@@ -23,8 +23,12 @@ export function curveSummary(r: CurveResult): string {
 	const out: string[] = [];
 	const bw = p.probe.bandwidthFraction > 0 ? `${Math.round(p.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
 	out.push(`evenecho  ${p.name}  [${p.region}]`);
+	const receive =
+		(p.probe.receive ?? 'fundamental') !== 'fundamental' ? ` (${p.probe.receive} receive at ${2 * p.probe.centerMhz} MHz)` : '';
+	const steepness = (p.probe.spectrumSteepness ?? 2) !== 2 ? `, spectrum steepness ${p.probe.spectrumSteepness}` : '';
 	out.push(
-		`probe ${p.probe.centerMhz} MHz${(p.probe.receive ?? 'fundamental') !== 'fundamental' ? ` (${p.probe.receive} receive at ${2 * p.probe.centerMhz} MHz)` : ''}, ${bw}${(p.probe.spectrumSteepness ?? 2) !== 2 ? `, spectrum steepness ${p.probe.spectrumSteepness}` : ''}, scatterer f^${p.scattererExponent}; display ${p.display.depthCm} cm at ${p.display.assumedSpeedMps} m/s`,
+		`probe ${p.probe.centerMhz} MHz${receive}, ${bw}${steepness}, scatterer f^${p.scattererExponent}; ` +
+			`display ${p.display.depthCm} cm at ${p.display.assumedSpeedMps} m/s`,
 	);
 	out.push('');
 	out.push('Layers, skin down        true cm  c m/s  rho    Z MRayl  a0 dB/cm/MHz^n  n');
@@ -32,7 +36,10 @@ export function curveSummary(r: CurveResult): string {
 		const t = l.tissue;
 		const last = i === p.layers.length - 1;
 		out.push(
-			`  ${pad(`${i + 1} ${t.label}`.slice(0, 22), 22)} ${lpad(last ? 'rest' : f1(l.thicknessCm), 6)}  ${lpad(String(t.speedMps), 5)}  ${lpad(String(t.densityKgM3), 5)}  ${lpad(impedanceMrayl(t).toFixed(3), 7)}  ${lpad(String(t.alphaDbPerCmMhz), 14)}  ${t.exponent}`,
+			`  ${pad(`${i + 1} ${t.label}`.slice(0, 22), 22)} ` +
+				`${lpad(last ? 'rest' : f1(l.thicknessCm), 6)}  ${lpad(String(t.speedMps), 5)}  ` +
+				`${lpad(String(t.densityKgM3), 5)}  ${lpad(impedanceMrayl(t).toFixed(3), 7)}  ` +
+				`${lpad(String(t.alphaDbPerCmMhz), 14)}  ${t.exponent}`,
 		);
 	});
 	out.push('');
@@ -41,7 +48,8 @@ export function curveSummary(r: CurveResult): string {
 	const travel = p.scanner?.sliderTravelDb ?? null;
 	out.push(
 		p.scanner
-			? `  sliders are offsets from the scanner's own depth gain, measured on "${p.scanner.label}" (${p.scanner.id})${travel ? `; full travel = ${f1(travel)} dB` : ''}`
+			? `  sliders are offsets from the scanner's own depth gain, measured on "${p.scanner.label}" ` +
+				`(${p.scanner.id})${travel ? `; full travel = ${f1(travel)} dB` : ''}`
 			: bank.rampDbPerCmMhz > 0
 				? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
 				: '  sliders are absolute (no built-in ramp assumed)',
@@ -52,7 +60,9 @@ export function curveSummary(r: CurveResult): string {
 		const fraction = travel ? `  ${lpad(travelFractionText(s.gainDb / travel), 9)}` : '';
 		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}${fraction}`);
 	});
-	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst at ${f1(r.fit.residualAtCm)} cm)`);
+	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); ` +
+		`fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst ` +
+		`at ${f1(r.fit.residualAtCm)} cm)`);
 	out.push(
 		r.penetrationDepthCm === null
 			? `  above the noise floor (${f1(p.noiseBudgetDb)} dB budget) over the whole ${p.display.depthCm} cm display`
@@ -66,7 +76,9 @@ export function curveSummary(r: CurveResult): string {
 		if (i % every !== 0 && i !== r.samples.length - 1) return;
 		const flag = s.blocked ? ' blocked' : s.belowNoise ? ' noise' : '';
 		out.push(
-			`       ${lpad(f1(s.displayedDepthCm), 8)}  ${lpad(f1(s.trueDepthCm), 7)}  ${lpad(f1(s.compensationDb), 7)}  ${lpad(`${f1(s.lowDb)}-${f1(s.highDb)}`, 11)}  ${lpad(s.echoCenterMhz.toFixed(2), 8)}${flag}`,
+			`       ${lpad(f1(s.displayedDepthCm), 8)}  ${lpad(f1(s.trueDepthCm), 7)}  ` +
+				`${lpad(f1(s.compensationDb), 7)}  ${lpad(`${f1(s.lowDb)}-${f1(s.highDb)}`, 11)}  ` +
+				`${lpad(s.echoCenterMhz.toFixed(2), 8)}${flag}`,
 		);
 	});
 	out.push(`  ${bandScopeNote}`);

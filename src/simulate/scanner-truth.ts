@@ -63,7 +63,8 @@ export function scannerTruth(plan: EnginePlan, scanner: ScannerBehaviour): Scann
 	for (let d = 0; d <= plan.display.depthCm + 1e-9; d += stepCm) depthResponse.push({depthCm: round(d, 2), gainDb: round(scanner.depthResponseDb(d))});
 	const m = scanner.display;
 	return {
-		levelScale: '0 dB = reference echo under the skin at the reference master gain, sliders centred; level = master − referenceMaster + depth response + sliders − loss',
+		levelScale: '0 dB = reference echo under the skin at the reference master gain, sliders centred; ' +
+			'level = master − referenceMaster + depth response + sliders − loss',
 		referenceMasterDb: scanner.referenceMasterDb,
 		pixelMap: {topDb: m.topDb, dynamicRangeDb: m.dynamicRangeDb, curveExponent: m.curveExponent, formula: 'grey = 255·u^curveExponent, u = (20·log10 A − (topDb − dynamicRangeDb))/dynamicRangeDb clipped to 0–1'},
 		greyMap,

@@ -137,12 +137,14 @@ export class PresetStore {
 		let settings: Record<string, unknown> = read.kind === 'ok' ? read.settings : {};
 		if (read.kind === 'damaged') {
 			const backup = read.identity ? keepDamaged(file, read.identity) : undefined;
-			if (backup) this.notices.push(`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ${printable(backup)} and started a fresh one; your presets are not affected`);
+			if (backup) this.notices.push(`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ` +
+				`${printable(backup)} and started a fresh one; your presets are not affected`);
 			settings = {};
 		}
 		const written = typeof settings['recordVersion'] === 'number' ? settings['recordVersion'] : undefined;
 		if (written !== undefined && written > currentRecordVersion) {
-			this.notices.push(`this preset store was last written by a newer evenecho (record version ${written}); presets it wrote may not load here and are left unchanged`);
+			this.notices.push(`this preset store was last written by a newer evenecho (record version ${written}); ` +
+				'presets it wrote may not load here and are left unchanged');
 		}
 		if (settings['layout'] !== storeLayout || written === undefined || written < currentRecordVersion) {
 			try {
@@ -164,7 +166,9 @@ export class PresetStore {
 		const problems = [...templates.problems, ...scan.problems];
 		for (const e of scan.entries) {
 			if (e.record.status === 'invalid') {
-				problems.push(`user preset ${e.id} (${e.file}) no longer validates and is kept as it is: ${e.record.problems.join('; ')}. Fix the file or delete it with "evenecho presets delete ${e.id}".`);
+				problems.push(`user preset ${e.id} (${e.file}) no longer validates and is kept as it is: ` +
+					`${e.record.problems.join('; ')}. ` +
+					`Fix the file or delete it with "evenecho presets delete ${e.id}".`);
 			}
 		}
 		return {presets: [...templates.templates.map(templateSummary), ...users.map(summaryOf)], problems};
@@ -229,11 +233,17 @@ export class PresetStore {
 		if (newSlug === entry.stem) {
 			// Same file (the name changes only in case or punctuation): replace it if unchanged.
 			const outcome = this.#records.replace(entry, text);
-			if (outcome !== 'done') throw new PresetStoreError(`${entry.id} was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; nothing was renamed; run the command again`);
+			if (outcome !== 'done') {
+				throw new PresetStoreError(
+					`${entry.id} was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; ` +
+						'nothing was renamed; run the command again',
+				);
+			}
 		} else {
 			this.#writeRecord(newSlug, text, options.overwrite === true);
 			if (this.#records.remove(entry) === 'changed') {
-				this.notices.push(`${entry.id} was saved again by another process while it was being renamed; that newer version is kept under its old name, beside the renamed copy`);
+				this.notices.push(`${entry.id} was saved again by another process while it was being renamed; that newer ` +
+					'version is kept under its old name, beside the renamed copy');
 			}
 		}
 		return this.#written(newSlug, newName, source.plan, savedAt);
@@ -255,7 +265,10 @@ export class PresetStore {
 		const {entry} = match;
 		// Only the file that was read: a save landing in between is kept, and the delete refused.
 		if (this.#records.remove(entry) === 'changed') {
-			throw new PresetStoreError(`${entry.id} was saved again by another process after it was read; nothing was deleted; run the command again to delete the new version`);
+			throw new PresetStoreError(
+				`${entry.id} was saved again by another process after it was read; nothing was deleted; ` +
+					'run the command again to delete the new version',
+			);
 		}
 		const name = entry.record.name ?? entry.stem;
 		return {id: entry.id, name, region: entry.record.status === 'ok' ? entry.record.plan.region : '', isTemplate: false};
@@ -326,13 +339,17 @@ export class PresetStore {
 		if (outcome !== 'done') {
 			const taken = outcome.taken.map((i) => targets[i]!);
 			const first = taken[0];
+			const existing =
+				taken.length === 1
+					? 'a user preset with this name already exists'
+					: `${taken.length} user presets with these names already exist`;
 			if (outcome.raced) {
 				throw this.#existsError(first?.stem ?? targets[0]!.stem, `${where}: ${first ? `"${first.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`);
 			}
 			throw new PresetExistsError(
 				userIdPrefix + first!.stem,
 				first!.item.name,
-				`${where}: ${taken.length === 1 ? 'a user preset with this name already exists' : `${taken.length} user presets with these names already exist`}; use --force to replace ${taken.length === 1 ? 'it' : 'them'}; nothing was imported`,
+				`${where}: ${existing}; use --force to replace ${taken.length === 1 ? 'it' : 'them'}; nothing was imported`,
 				taken.map((t) => `"${t.item.name}" (${userIdPrefix}${t.stem})`),
 			);
 		}
@@ -364,7 +381,8 @@ export class PresetStore {
 		return new PresetExistsError(
 			id,
 			entry?.record.name ?? slug,
-			message ?? `the user preset file for ${id} (${this.#records.fileOf(slug)}) already exists but does not validate; use --force to replace it, or delete it first`,
+			message ?? `the user preset file for ${id} (${this.#records.fileOf(slug)}) already exists but does ` +
+				'not validate; use --force to replace it, or delete it first',
 		);
 	}
 

@@ -165,7 +165,8 @@ export class RecordFolder<D> {
 			if (isTempName(fileName) || fileName.startsWith('.') || !fileName.endsWith('.json')) continue;
 			const stem = fileName.slice(0, -'.json'.length);
 			if (slug(stem) !== stem) {
-				problems.push(`${printable(join(this.folder, fileName))}: not a ${this.#kind.noun} file name (lower-case letters, digits and hyphens); left as it is`);
+				problems.push(`${printable(join(this.folder, fileName))}: not a ${this.#kind.noun} file name ` +
+					'(lower-case letters, digits and hyphens); left as it is');
 				continue;
 			}
 			const entry = this.read(stem, problems);
@@ -196,7 +197,8 @@ export class RecordFolder<D> {
 			const problem = error.message.slice(error.message.indexOf(': ') + 2);
 			if (error.code === 'not-json' || error.code === 'encoding') {
 				const backup = keepDamaged(file, identity);
-				if (backup) this.#notices.push(`${kind.noun} file ${printable(file)} was damaged (${problem}); kept it as ${printable(backup)}; the other ${kind.plural} are not affected`);
+				if (backup) this.#notices.push(`${kind.noun} file ${printable(file)} was damaged (${problem}); kept it as ` +
+					`${printable(backup)}; the other ${kind.plural} are not affected`);
 				return undefined;
 			}
 			record = kind.refused(problem);

@@ -31,7 +31,8 @@ function escapeForClass(chars: string): string {
 }
 
 /** Human-readable statement of the rule, for messages and help. */
-export const presetNameRule = `${presetNameLimits.minLength} to ${presetNameLimits.maxLength} characters: letters, digits, spaces and ${[...punctuation].join(' ')}, starting with a letter or digit`;
+export const presetNameRule = `${presetNameLimits.minLength} to ${presetNameLimits.maxLength} characters: letters, ` +
+	`digits, spaces and ${[...punctuation].join(' ')}, starting with a letter or digit`;
 
 /** The file-name form of a name (the project's one slug rule, src/files/slug.ts). */
 export function presetSlug(name: string): string {

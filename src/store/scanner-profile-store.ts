@@ -35,7 +35,8 @@ export function checkProfileName(input: string, field = '--name'): {name: string
 	const name = input.normalize('NFC').trim();
 	const length = [...name].length;
 	if (length < 1 || length > 60 || !namePattern.test(name)) {
-		throw new ScannerStoreError(`${field}: "${printable(name)}" is not a profile name: 1 to 60 characters, letters, digits, spaces and - _ . , ( ) + ' &, starting with a letter or digit`);
+		throw new ScannerStoreError(`${field}: "${printable(name)}" is not a profile name: 1 to 60 characters, letters, ` +
+			`digits, spaces and - _ . , ( ) + ' &, starting with a letter or digit`);
 	}
 	const id = slug(name, {maxChars: 64});
 	if (!id) throw new ScannerStoreError(`${field}: "${printable(name)}" has no letters or digits that can name a file`);
@@ -154,7 +155,8 @@ export class ScannerProfileStore {
 		}
 		this.save(renamed, options);
 		if (this.#records.remove(found.entry) === 'changed') {
-			this.notices.push(`"${found.profile.id}" was saved again by another process while it was being renamed; that newer version is kept beside the renamed copy`);
+			this.notices.push(`"${found.profile.id}" was saved again by another process while it was being renamed; ` +
+				'that newer version is kept beside the renamed copy');
 		}
 		return renamed;
 	}

@@ -22,7 +22,9 @@ export function parseDecimal(text: string): number {
  */
 export function parseNumberList(option: string, text: string, limit: Limit, unit: string, maxLength = maxTableRows): number[] {
 	const range = describeRange(limit, unit);
-	const form = `a comma-separated list of numbers ${range} (e.g. ${option === 'fat' ? '1,2,4,6,8' : option === 'angle' ? '0,15,30' : '2.5,3.5,5'}) or from:to:step`;
+	const form = `a comma-separated list of numbers ${range} (e.g. ` +
+		`${option === 'fat' ? '1,2,4,6,8' : option === 'angle' ? '0,15,30' : '2.5,3.5,5'}) or ` +
+		'from:to:step';
 	const trimmed = text.trim();
 	if (trimmed === '') throw new SweepError(option, `--${option}: no values given; expected ${form}`);
 	let values: number[];

@@ -144,7 +144,8 @@ export function checkNumberList(option: string, values: readonly number[], limit
 function choiceRecord(layer: number, choice: TissueChoice): Tissue {
 	if (typeof choice.tissue === 'string') {
 		const found = libraryTissue(choice.tissue);
-		if (!found) throw new SweepError('swap', `--swap: unknown tissue "${choice.tissue}" for layer ${layer}; known tissues: ${tissueIds.join(', ')} (or PRESET:M for layer M of a preset)`);
+		if (!found) throw new SweepError('swap', `--swap: unknown tissue "${choice.tissue}" for layer ${layer}; known tissues: ` +
+			`${tissueIds.join(', ')} (or PRESET:M for layer M of a preset)`);
 		return found;
 	}
 	return resolveTissue(choice.tissue);
@@ -164,7 +165,8 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	let layerIndex: number | null;
 	if (spec.layer !== undefined) {
 		if (!Number.isInteger(spec.layer) || spec.layer < 1 || spec.layer > layerCount) {
-			throw new SweepError('layer', `--layer: must be a whole number ${layerRange} (the plan has ${layerCount} layer${layerCount === 1 ? '' : 's'}; got ${show(spec.layer)})`);
+			throw new SweepError('layer', `--layer: must be a whole number ${layerRange} (the plan has ${layerCount} layer${layerCount === 1 ? '' : 's'}; ` +
+				`got ${show(spec.layer)})`);
 		}
 		layerIndex = spec.layer - 1;
 	} else {
@@ -178,7 +180,9 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	if (layerIndex === layerCount - 1) {
 		// The deepest layer extends as far as needed: its thickness means nothing.
 		if (fatSwept || spec.layer !== undefined) {
-			throw new SweepError('layer', `--${fatSwept ? 'fat' : 'layer'}: layer ${layerIndex + 1} is the deepest layer, which extends as far as needed, so its thickness changes nothing; choose another with --layer N${layerCount > 1 ? ` (from 1 to ${layerCount - 1})` : ''}`);
+			throw new SweepError('layer', `--${fatSwept ? 'fat' : 'layer'}: layer ${layerIndex + 1} is the deepest layer, which ` +
+				'extends as far as needed, so its thickness changes nothing; choose another with --layer ' +
+				`N${layerCount > 1 ? ` (from 1 to ${layerCount - 1})` : ''}`);
 		}
 		layerIndex = null;
 	}
@@ -250,7 +254,8 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 			`${receive.length} --receive`,
 			...swaps.map((s) => `${s.choices.length} --swap ${s.layer}`),
 		].join(' × ');
-		throw new SweepError('sweep', `the sweep has ${rowCount.toLocaleString('en-US')} combinations (${named}); a table holds at most ${maxTableRows.toLocaleString('en-US')} rows. Shorten a list.`);
+		throw new SweepError('sweep', `the sweep has ${rowCount.toLocaleString('en-US')} combinations (${named}); a table ` +
+			`holds at most ${maxTableRows.toLocaleString('en-US')} rows. Shorten a list.`);
 	}
 
 	return {

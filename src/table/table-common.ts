@@ -49,7 +49,9 @@ export const warningLegend: Record<WarningCode, string> = {
 	'below-noise-floor': 'the echo falls below the noise floor within the display: gain there lifts noise, not signal',
 	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
 	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
-	'harmonic-simplified': 'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
+	'harmonic-simplified':
+		'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, ' +
+		'or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
 	'thick-body-wall': 'over 3 cm of fat under the skin: depth and reach change, the slider shape barely does; gain cannot fix body-wall clutter',
 	'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
 	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
@@ -103,7 +105,9 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 		]);
 	}
 	const bw = doc.probe.bandwidthFraction > 0 ? `${plain(doc.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
-	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${s.freqSwept && !(s.freqMhz.length === 1 && s.freqMhz[0] === doc.probe.centerMhz) ? ` (the plan has ${plain(doc.probe.centerMhz)} MHz)` : ''}, ${bw}`]);
+	const planFreqShown = s.freqMhz.length === 1 && s.freqMhz[0] === doc.probe.centerMhz;
+	const planFreq = s.freqSwept && !planFreqShown ? ` (the plan has ${plain(doc.probe.centerMhz)} MHz)` : '';
+	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${planFreq}, ${bw}`]);
 	if (s.angleSwept || s.angleDeg.some((a) => a !== 0)) {
 		const own = doc.probe.angleDeg ?? 0;
 		out.push(['Beam angle', `${list(s.angleDeg, '°')} from the layer normal${s.angleSwept ? `; the plan has ${plain(own)}°` : ''}`]);
@@ -114,9 +118,16 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	}
 	out.push(['Display', `${plain(doc.display.depthCm)} cm at an assumed ${plain(doc.display.assumedSpeedMps)} m/s; samples every ${plain(s.stepCm)} cm`]);
 	const bank = doc.sliders;
+	const sliderBase =
+		bank.rampDbPerCmMhz > 0
+			? `as offsets from the scanner's own ramp of ${plain(bank.rampDbPerCmMhz)} dB/cm/MHz (0 = centre detent)`
+			: 'absolute (no built-in ramp)';
 	out.push([
 		'Controls',
-		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB, knots at ${bank.knots} (${bank.ends} ends), knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${bank.rampDbPerCmMhz > 0 ? `as offsets from the scanner's own ramp of ${plain(bank.rampDbPerCmMhz)} dB/cm/MHz (0 = centre detent)` : 'absolute (no built-in ramp)'}; master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
+		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB, ` +
+			`knots at ${bank.knots} (${bank.ends} ends), ` +
+			`knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${sliderBase}; ` +
+			`master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
 	]);
 	const budget = sharedNoiseBudget(t);
 	const budgets = [...new Set(t.rows.map((r) => fixed(r.noiseBudgetDb, 1)))];
@@ -127,16 +138,22 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 			: `per row, ${budgets.join(' or ')} dB (from the phantom calibration at each row's probe settings)`,
 	]);
 	const ladderFrom = s.ladderFrom === 'freq' ? 'the probe frequencies above' : s.ladderFrom === 'default' ? 'the default ladder' : 'the --ladder list';
+	const targetText = s.targetFollowsLayer
+		? `, ${s.targetRule} (${plain(roundTo(s.targetDepthCm, 2))} cm in the plan as it is; it follows the layers above it),`
+		: ` ${plain(s.targetDepthCm)} cm`;
 	out.push([
 		'Highest reaching frequency',
-		`the highest of ${list(s.ladderMhz, 'MHz')} (${ladderFrom}) whose echo from the target depth${s.targetFollowsLayer ? `, ${s.targetRule} (${plain(roundTo(s.targetDepthCm, 2))} cm in the plan as it is; it follows the layers above it),` : ` ${plain(s.targetDepthCm)} cm`} stays within the noise budget less a ${plain(s.marginDb)} dB margin`,
+		`the highest of ${list(s.ladderMhz, 'MHz')} (${ladderFrom}) whose echo from the target depth${targetText} ` +
+			`stays within the noise budget less a ${plain(s.marginDb)} dB margin`,
 	]);
 	if (s.delta) {
 		const ref = t.reference;
 		const own = s.layerIndex !== null ? `layer ${s.layerIndex + 1} at ${plain(doc.layers[s.layerIndex]!.thicknessCm)} cm, ` : '';
 		out.push([
 			'Deltas',
-			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ${doc.probe.receive ?? 'fundamental'}): master ${fixed(ref.masterGainDb, 1)} dB, sliders ${ref.slidersDb.map((x) => signed(x, 1)).join(' ')} dB`,
+			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ` +
+				`${doc.probe.receive ?? 'fundamental'}): master ${fixed(ref.masterGainDb, 1)} dB, ` +
+				`sliders ${ref.slidersDb.map((x) => signed(x, 1)).join(' ')} dB`,
 		]);
 	}
 	if (o.generatedAt) out.push(['Generated', o.generatedAt]);

@@ -168,7 +168,9 @@ export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {
 	out.length = 0;
 	out.push('');
 	out.push(
-		`Sliders in dB at their knot depths (displayed cm)${s.delta ? ', as the row minus the standard habitus' : ''}; "Fit ± dB" is the worst gap between the fitted controls and the curve; "Noise floor at" is the displayed depth where the echo meets the noise floor.`,
+		`Sliders in dB at their knot depths (displayed cm)${s.delta ? ', as the row minus the standard habitus' : ''}; ` +
+			'"Fit ± dB" is the worst gap between the fitted controls and the curve; "Noise floor at" ' +
+			'is the displayed depth where the echo meets the noise floor.',
 	);
 
 	if (!highestPerRow(t)) {

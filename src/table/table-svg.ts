@@ -4,8 +4,9 @@
  * layer) in each group, all on one scale, so six fat values never sit on top of each other. Depth
  * runs down the page as on the image, compensation (dB) to the right; the part below the noise floor
  * is dashed grey; slider knots carry their values; each chart names the highest reaching frequency.
- * With `--delta` the curves are differences from the standard habitus. Under the panels: legend, inputs, tissues with sources, model, notes and the
- * caution line. Hand-written SVG 1.1, all text escaped, coordinates with fixed decimals.
+ * With `--delta` the curves are differences from the standard habitus. Under the panels: legend,
+ * inputs, tissues with sources, model, notes and the caution line. Hand-written SVG 1.1, all text
+ * escaped, coordinates with fixed decimals.
  */
 import {computeCurve, modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
@@ -46,7 +47,9 @@ export function checkSvgSweep(sweep: ResolvedSweep): void {
 	}
 	const panels = sweep.rowCount / lines;
 	if (panels > maxSvgPanels) {
-		throw new SweepError('format', `--format svg: draws one panel per frequency, beam angle, receive mode and swapped tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --angle, --receive or --swap, or use markdown, csv or json`);
+		throw new SweepError('format', '--format svg: draws one panel per frequency, beam angle, receive mode and swapped ' +
+			`tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --angle, --receive or ` +
+			'--swap, or use markdown, csv or json');
 	}
 }
 
@@ -106,6 +109,11 @@ function panelTitle(r: TableRow, t: ProtocolTable): string {
 	const parts = [`${plain(r.centerMhz)} MHz${showsAngle(t) ? ` at ${plain(r.angleDeg)}°` : ''} ${r.receive}`];
 	t.sweep.swaps.forEach((s, k) => parts.push(`layer ${s.layer}: ${r.swapLabels[k]}`));
 	return parts.join(', ');
+}
+
+/** Where the highest reaching frequency meets the noise floor, when it does within the search. */
+function floorText(penetrationCm: number | null): string {
+	return penetrationCm !== null ? ` (floor ${fixed(penetrationCm, 1)} cm)` : '';
 }
 
 /** Small multiples: at most this many habitus side by side before a group wraps. */
@@ -170,7 +178,10 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const what = s.delta
 		? 'each curve is the habitus minus the standard habitus (the plan as it is), in dB; slider and master values are deltas too'
 		: 'compensation (dB, round trip) to the right';
-	const sub = `${swept ? `One small chart per thickness of layer ${s.layerIndex! + 1} (${layerLabel}), on a shared scale. ` : ''}Depth (displayed cm) runs down, ${what}.`;
+	const perThickness = swept
+		? `One small chart per thickness of layer ${s.layerIndex! + 1} (${layerLabel}), on a shared scale. `
+		: '';
+	const sub = `${perThickness}Depth (displayed cm) runs down, ${what}.`;
 	for (const l of wrap(sub, wide(12))) {
 		head.push(`<text x="${pad}" y="${y}" font-size="12">${xmlText(l)}</text>`);
 		y += 16;
@@ -218,7 +229,7 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 			const reach =
 				r.highestReachingMhz === null
 					? `no listed MHz reaches ${plain(roundTo(r.targetDepthCm, 1))} cm`
-					: `highest reaching ${plain(r.highestReachingMhz)} MHz${r.highestReachingPenetrationCm !== null ? ` (floor ${fixed(r.highestReachingPenetrationCm, 1)} cm)` : ''}`;
+					: `highest reaching ${plain(r.highestReachingMhz)} MHz${floorText(r.highestReachingPenetrationCm)}`;
 			g.push(`<text x="-${cell.left - 4}" y="-16" font-size="10">${xmlText(reach)}</text>`);
 			const master = s.delta && r.delta ? `Δ master ${signed(r.delta.masterDeltaDb, 1)} dB` : `master ${fixed(r.masterGainDb, 1)} dB`;
 			g.push(`<text x="-${cell.left - 4}" y="-4" font-size="10">${xmlText(`${master}, fit ±${fixed(r.residualDb, 1)} dB`)}</text>`);
@@ -243,7 +254,11 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 			const below = segment(c, good, depthCm, xOf, yOf);
 			const name = `${cellLabel(r)}, ${panelTitle(r, t)}, row ${r.index}`;
 			if (above) g.push(`<polyline fill="none" stroke="#0072B2" stroke-width="2.2" points="${above}"><title>${xmlText(name)}</title></polyline>`);
-			if (below) g.push(`<polyline fill="none" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3" points="${below}"><title>${xmlText(`${name}: below the noise floor`)}</title></polyline>`);
+			if (below) {
+				const dashed = `fill="none" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3"`;
+				const title = xmlText(`${name}: below the noise floor`);
+				g.push(`<polyline ${dashed} points="${below}"><title>${title}</title></polyline>`);
+			}
 			const values = r.delta ? r.delta.sliderDeltasDb : r.slidersDb;
 			t.knotDepthsCm.forEach((d, j) => {
 				if (d > depthCm) return;
@@ -273,7 +288,9 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	for (const u of t.tissues) {
 		const tt = u.tissue;
 		para(
-			`${u.where}: ${tt.label}: c ${plain(tt.speedMps)} m/s, ρ ${plain(tt.densityKgM3)} kg/m³, α0 ${plain(tt.alphaDbPerCmMhz)}, n ${plain(tt.exponent)}. Source: ${tt.source ?? 'no source recorded'}${u.from ? `; taken from ${u.from}` : ''}`,
+			`${u.where}: ${tt.label}: c ${plain(tt.speedMps)} m/s, ρ ${plain(tt.densityKgM3)} kg/m³, ` +
+				`α0 ${plain(tt.alphaDbPerCmMhz)}, n ${plain(tt.exponent)}. Source: ` +
+				`${tt.source ?? 'no source recorded'}${u.from ? `; taken from ${u.from}` : ''}`,
 		);
 	}
 	y += 4;
@@ -283,7 +300,8 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 
 	out.push('<?xml version="1.0" encoding="UTF-8"?>');
 	out.push(
-		`<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="Helvetica, Arial, sans-serif">`,
+		`<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="${width}" height="${height}" ` +
+			`viewBox="0 0 ${width} ${height}" font-family="Helvetica, Arial, sans-serif">`,
 	);
 	out.push(`<title>${xmlText(title)}</title>`);
 	out.push(`<desc>${xmlText(`${t.rows.length} curves; ${modelVersion}. ${cautionLine}`)}</desc>`);

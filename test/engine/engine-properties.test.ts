@@ -113,7 +113,8 @@ describe('engine properties', () => {
 		expect(pathModelOf(p(0.01)).lossAt(10)).toBeCloseTo(nb, 2);
 	});
 
-	it('for linear-in-f tissue the loss depends only on Σβ·d: reordering layers keeps the final loss (derived, methods-and-checks §2.2 property ii)', () => {
+	it('for linear-in-f tissue the loss depends only on Σβ·d: reordering layers keeps the final ' +
+		'loss (derived, methods-and-checks §2.2 property ii)', () => {
 		const a = {tissue: custom('a', 1540, 1039, 0.6), thicknessCm: 3};
 		const b = {tissue: custom('b', 1540, 1039, 1.0), thicknessCm: 2};
 		const tail = {tissue: custom('c', 1540, 1039, 0.5), thicknessCm: 30};

@@ -16,17 +16,20 @@ import {bandwidthForSigma, custom, matched, plan, tissue} from '../helpers/plans
 const byZ = (z: number) => ({speedMps: 1540, densityKgM3: (z * 1e6) / 1540});
 
 describe('interface losses from Z = ρc', () => {
-	it('fat/muscle reflects about 1 % (Maier et al. 2018, Medical Imaging Systems, Table 11.3); Z 1.38/1.70 MRayl gives R = 0.0108 and 0.094 dB round trip (derived, case C7)', () => {
+	it('fat/muscle reflects about 1 % (Maier et al. 2018, Medical Imaging Systems, Table 11.3); ' +
+		'Z 1.38/1.70 MRayl gives R = 0.0108 and 0.094 dB round trip (derived, case C7)', () => {
 		const r = reflectionCoefficient(byZ(1.38), byZ(1.7));
 		expect(r).toBeCloseTo(0.0108, 4);
 		expect(roundTripTransmissionLossDb(r)).toBeCloseTo(0.094, 3);
 	});
 
-	it('soft tissue/air reflects 99.9 % (Maier et al. 2018, Table 11.3); muscle 1.71 vs air 0.0004 MRayl gives R = 0.9991 (derived, case C8)', () => {
+	it('soft tissue/air reflects 99.9 % (Maier et al. 2018, Table 11.3); muscle 1.71 vs air ' +
+		'0.0004 MRayl gives R = 0.9991 (derived, case C8)', () => {
 		expect(reflectionCoefficient(byZ(1.71), byZ(0.0004))).toBeCloseTo(0.9991, 4);
 	});
 
-	it('soft tissue → cortical bone with the library impedances: R = 0.367, 3.97 dB round trip (tissue table worked example 4a, computed from Cardoso & Cowin 2012 Table 3 values)', () => {
+	it('soft tissue → cortical bone with the library impedances: R = 0.367, 3.97 dB round trip ' +
+		'(tissue table worked example 4a, computed from Cardoso & Cowin 2012 Table 3 values)', () => {
 		const r = reflectionCoefficient(tissue('soft-tissue'), tissue('cortical-bone'));
 		expect(r).toBeCloseTo(0.367, 3);
 		expect(roundTripTransmissionLossDb(r)).toBeCloseTo(3.97, 2);
@@ -49,11 +52,14 @@ describe('interface losses from Z = ρc', () => {
 });
 
 describe('power-law attenuation conventions', () => {
-	it('regulatory derating 0.3 dB/cm/MHz at 3 MHz over 5 cm one way = 4.5 dB (IEC 62359 / FDA 2019 convention via NEMA UD 2, secondary; case C1)', () => {
+	it('regulatory derating 0.3 dB/cm/MHz at 3 MHz over 5 cm one way = 4.5 dB (IEC 62359 / FDA ' +
+		'2019 convention via NEMA UD 2, secondary; case C1)', () => {
 		expect(pathDb({exponents: [1], coefficients: [0.3 * 5]}, 3)).toBeCloseTo(4.5, 9);
 	});
 
-	it('soft-tissue rule of thumb 0.5 dB/cm/MHz one way (common practice, no source; IEC 61391-2 phantom average, secondary): 5 MHz reflector at 6 cm loses 30 dB round trip (case C4)', () => {
+	it('soft-tissue rule of thumb 0.5 dB/cm/MHz one way (common practice, no source; IEC ' +
+		'61391-2 phantom average, secondary): 5 MHz reflector at 6 cm loses 30 dB round trip ' +
+		'(case C4)', () => {
 		const soft = tissue('soft-tissue');
 		expect(soft.alphaDbPerCmMhz).toBe(0.5);
 		expect(soft.exponent).toBe(1);
@@ -61,7 +67,8 @@ describe('power-law attenuation conventions', () => {
 		expect(model.at(6).attenuationDb).toBeCloseTo(30, 9);
 	});
 
-	it('IEC agar phantom, α = 0.40 f + 0.0076 f² dB/cm: 4.76 / 7.71 / 11.04 dB/cm at 10 / 15 / 20 MHz (Sun et al. 2012, Ultrasound Med Biol 38(7); case C15)', () => {
+	it('IEC agar phantom, α = 0.40 f + 0.0076 f² dB/cm: 4.76 / 7.71 / 11.04 dB/cm at 10 / 15 / ' +
+		'20 MHz (Sun et al. 2012, Ultrasound Med Biol 38(7); case C15)', () => {
 		const agar = {exponents: [1, 2], coefficients: [0.4, 0.0076]};
 		expect(pathDb(agar, 10)).toBeCloseTo(4.76, 2);
 		expect(pathDb(agar, 15)).toBeCloseTo(7.71, 2);
@@ -80,7 +87,8 @@ describe('power-law attenuation conventions', () => {
 	});
 });
 
-describe('spectral downshift of a Gaussian pulse (Kuc 1984, IEEE Trans ASSP 32(1):1–6; closed form derived in methods-and-checks §1.3)', () => {
+describe('spectral downshift of a Gaussian pulse (Kuc 1984, IEEE Trans ASSP 32(1):1–6; closed ' +
+	'form derived in methods-and-checks §1.3)', () => {
 	const uniform = (alpha: number) => matched('uniform', 1540, alpha);
 
 	it('−6 dB bandwidth 60 % at 3.5 MHz ⇒ σ = 0.6317 MHz (derived, case C13)', () => {
@@ -114,7 +122,8 @@ describe('spectral downshift of a Gaussian pulse (Kuc 1984, IEEE Trans ASSP 32(1
 		expect(3.5 - at.echoCenterMhz).toBeCloseTo(0.919, 3);
 	});
 
-	it('backscatter ∝ f^1.4 and f^4 (Rayleigh) change the loss at 4 cm to 19.371 / 21.274 dB, centroids 4.414 / 4.923 MHz (numerical integration, case C14)', () => {
+	it('backscatter ∝ f^1.4 and f^4 (Rayleigh) change the loss at 4 cm to 19.371 / 21.274 dB, ' +
+		'centroids 4.414 / 4.923 MHz (numerical integration, case C14)', () => {
 		for (const [m, loss, centroid] of [
 			[1.4, 19.371, 4.414],
 			[4, 21.274, 4.923],
@@ -152,7 +161,8 @@ describe('displayed versus true depth at an assumed 1540 m/s', () => {
 	});
 });
 
-describe('layered abdominal test vector at 3.5 MHz (tissue table worked example 4c; skin ρ and n, fat n, liver n and c from memory)', () => {
+describe('layered abdominal test vector at 3.5 MHz (tissue table worked example 4c; skin ρ and n, ' +
+	'fat n, liver n and c from memory)', () => {
 	const layers = [
 		{tissue: tissue('skin'), thicknessCm: 0.2},
 		{tissue: tissue('fat'), thicknessCm: 2},
@@ -179,7 +189,8 @@ describe('layered abdominal test vector at 3.5 MHz (tissue table worked example 
 	});
 });
 
-describe('penetration from a phantom measurement (derived, methods-and-checks case C19; IEC 61391-2:2010 depth-of-penetration method)', () => {
+describe('penetration from a phantom measurement (derived, methods-and-checks case C19; IEC ' +
+	'61391-2:2010 depth-of-penetration method)', () => {
 	// Impedances matched so that interfaces add nothing, as in the worked case.
 	const layers = [
 		{tissue: matched('fat', 1450, 0.63), thicknessCm: 6},
@@ -188,7 +199,8 @@ describe('penetration from a phantom measurement (derived, methods-and-checks ca
 	];
 
 	for (const bandwidth of [0, 0.6]) {
-		it(`DOP 16 cm in a 0.5 dB/cm/MHz phantom at 3.5 MHz ⇒ the patient reaches true 13.06 cm, displayed 13.29 cm (bandwidth ${bandwidth})`, () => {
+		it('DOP 16 cm in a 0.5 dB/cm/MHz phantom at 3.5 MHz ⇒ the patient reaches true 13.06 cm, ' +
+			`displayed 13.29 cm (bandwidth ${bandwidth})`, () => {
 			const budget = noiseBudgetFromPhantom({centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}, {bandwidthFraction: bandwidth}, 0);
 			const p = plan(layers, {centerMhz: 3.5, bandwidthFraction: bandwidth, depthCm: 20, noiseBudgetDb: budget});
 			const r = computeCurve(p);
@@ -252,7 +264,8 @@ describe('tissue library bookkeeping', () => {
 		}
 	});
 
-	it('the library stores one-way coefficients: liver 0.5, fat 0.6, muscle across fibres 0.96 dB/cm at 1 MHz (Diagnostics 2023 Table 4; Breast USCT 2016 Table I)', () => {
+	it('the library stores one-way coefficients: liver 0.5, fat 0.6, muscle across fibres 0.96 ' +
+		'dB/cm at 1 MHz (Diagnostics 2023 Table 4; Breast USCT 2016 Table I)', () => {
 		expect(tissue('liver').alphaDbPerCmMhz).toBe(0.5);
 		expect(tissue('fat').alphaDbPerCmMhz).toBe(0.6);
 		expect(tissue('muscle').alphaDbPerCmMhz).toBe(0.96);

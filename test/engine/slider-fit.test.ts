@@ -266,7 +266,8 @@ describe('properties', () => {
 		);
 	});
 
-	it('(ii) adding x dB to the target shifts every total by x when no bound is active — methods-and-checks §2.2 property (iii) (partition of unity)', () => {
+	it('(ii) adding x dB to the target shifts every total by x when no bound is active — ' +
+		'methods-and-checks §2.2 property (iii) (partition of unity)', () => {
 		fc.assert(
 			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, x) => {
 				const a = totals(fitSliders(scenarioRequest(s, 0, true)));
@@ -292,7 +293,8 @@ describe('properties', () => {
 		);
 	});
 
-	it('(iv) a linear target with band-edge knots and loose bounds is fitted with ~0 error — methods-and-checks §2.2 property (i) (derived)', () => {
+	it('(iv) a linear target with band-edge knots and loose bounds is fitted with ~0 error — ' +
+		'methods-and-checks §2.2 property (i) (derived)', () => {
 		fc.assert(
 			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, intercept) => {
 				const depths = grid(s.displayCm, 120);

@@ -40,7 +40,8 @@ describe('spectrum shape |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p)', () =
 		expect(dB(logSpectrum(0, 1, 0.3, 2))).toBeCloseTo(-66.67, 2);
 	});
 
-	it('steepness from a −6 dB bandwidth: p = ln126/ln(2/B) = 4.017 / 5.278 / 6.977 for 60 / 80 / 100 % (Garcia 2022, from memory; case C49)', () => {
+	it('steepness from a −6 dB bandwidth: p = ln126/ln(2/B) = 4.017 / 5.278 / 6.977 for 60 / 80 ' +
+		'/ 100 % (Garcia 2022, from memory; case C49)', () => {
 		expect(steepnessForBandwidth(0.6)).toBeCloseTo(4.017, 3);
 		expect(steepnessForBandwidth(0.8)).toBeCloseTo(5.278, 3);
 		expect(steepnessForBandwidth(1.0)).toBeCloseTo(6.977, 3);

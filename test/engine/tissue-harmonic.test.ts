@@ -64,7 +64,8 @@ describe('worked example C47: 2.5 MHz in liver, α0 = 0.5 dB/cm/MHz^1.1 (shared 
 });
 
 describe('worked example C48: the harmonic pressure p2 itself (shared reference §7, derived)', () => {
-	it('(a) 2.5 MHz, liver ρ 1060, c 1540, B/A 6.8: p2 re lossless at 1 cm is 64.4/89.3 at 1 cm; 87.2 / 34.1 / 10.0 kPa of 89.3 at 5 / 10 / 15 cm', () => {
+	it('(a) 2.5 MHz, liver ρ 1060, c 1540, B/A 6.8: p2 re lossless at 1 cm is 64.4/89.3 at 1 ' +
+		'cm; 87.2 / 34.1 / 10.0 kPa of 89.3 at 5 / 10 / 15 cm', () => {
 		const liver: Tissue = {...custom('liver', 1540, 1060, 0.5, 1.1), nonlinearityBA: 6.8};
 		const layers: [Tissue, number][] = [[liver, 40]];
 		// Lossless at 1 cm: p2 = β·ω·p0²·z/(2ρc³), i.e. D = strength × 1 cm with no attenuation.
@@ -76,7 +77,8 @@ describe('worked example C48: the harmonic pressure p2 itself (shared reference 
 		expect(kPa(15)).toBeCloseTo(10.0, 1);
 	});
 
-	it('(b) 1.75 MHz through fat 6 cm (B/A 10), muscle 1 cm (7.4), liver (6.8): peak at 4.1 cm; −10.7 / −1.8 / −4.7 / −16.5 dB at 0.5 / 2 / 8 / 16 cm', () => {
+	it('(b) 1.75 MHz through fat 6 cm (B/A 10), muscle 1 cm (7.4), liver (6.8): peak at 4.1 cm; ' +
+		'−10.7 / −1.8 / −4.7 / −16.5 dB at 0.5 / 2 / 8 / 16 cm', () => {
 		const fat: Tissue = {...custom('fat', 1440, 911, 0.6, 1), nonlinearityBA: 10};
 		const muscle: Tissue = {...custom('muscle', 1580, 1050, 0.96, 1), nonlinearityBA: 7.4};
 		const liver: Tissue = {...custom('liver', 1578, 1060, 0.5, 1.1), nonlinearityBA: 6.8};

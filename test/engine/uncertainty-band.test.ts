@@ -90,7 +90,8 @@ describe('harmonic receive: the band holds the brute-force envelope too', () => 
 		});
 	});
 
-	it('tissue harmonic, 0.8 MHz at 80 %: in the near field the build-up gains while attenuation loses, both held (within the 0.02 dB of a coarse brute-force grid)', () => {
+	it('tissue harmonic, 0.8 MHz at 80 %: in the near field the build-up gains while ' +
+		'attenuation loses, both held (within the 0.02 dB of a coarse brute-force grid)', () => {
 		const depths = [2, 25];
 		const p = liverAlone(0.8, 0.8, 'tissue-harmonic');
 		const r = computeCurve(p, {stepCm: 0.5});
@@ -103,7 +104,8 @@ describe('harmonic receive: the band holds the brute-force envelope too', () => 
 });
 
 describe('tissue harmonic over two layers: each layer at its own corner', () => {
-	it('fat 3 cm over liver, 2 MHz at 60 %, p = 4: holds the envelope over all 8 × 8 per-layer corners, boundary range added below it (within 0.02 dB)', () => {
+	it('fat 3 cm over liver, 2 MHz at 60 %, p = 4: holds the envelope over all 8 × 8 per-layer ' +
+		'corners, boundary range added below it (within 0.02 dB)', () => {
 		const layers: Layer[] = [
 			{tissue: tissue('fat'), thicknessCm: 3},
 			{tissue: tissue('liver'), thicknessCm: 30},
@@ -153,7 +155,8 @@ describe('speed and density spreads reach the band through depth mapping and the
 		expect(boundary.high).toBeCloseTo(0.409, 3);
 	});
 
-	it('above the boundary the band is the attenuation envelope; below it, the envelope plus the boundary\'s own range (within 0.01 dB)', () => {
+	it('above the boundary the band is the attenuation envelope; ' +
+		'below it, the envelope plus the boundary\'s own range (within 0.01 dB)', () => {
 		depths.forEach((d, k) => {
 			const s = sampleAt(r, d);
 			// The spread fat is drawn 3.6–3.9 cm thick (1412–1488 m/s): at 2 cm every corner is above the boundary.

@@ -17,7 +17,10 @@ export function frame(app: Rendered): string {
 	return app.lastFrame() ?? '';
 }
 
-/** Waits until the app has rendered and listens to stdin (Ink subscribes in an effect after the first frame; a key written before is lost). */
+/**
+ * Waits until the app has rendered and listens to stdin (Ink subscribes in an effect after the
+ * first frame; a key written before is lost).
+ */
 export async function ready(app: Rendered): Promise<void> {
 	await waitUntil(() => app.lastFrame() !== undefined && app.stdin.listenerCount('readable') > 0, 'the first frame and the input listener', 5000);
 }

@@ -41,7 +41,8 @@ const width = 300;
 const height = 320;
 
 describe('band means follow the model', () => {
-	it('uniform speckle at 0 dB on a 60 dB map, top 28 dB: mean grey 125.3, SD 23.7 (shared derivation C45: 255·(L − 2.507 − top + DR)/DR and 5.57·255/DR, Kaplan & Ma 1994)', () => {
+	it('uniform speckle at 0 dB on a 60 dB map, top 28 dB: mean grey 125.3, SD 23.7 (shared ' +
+		'derivation C45: 255·(L − 2.507 − top + DR)/DR and 5.57·255/DR, Kaplan & Ma 1994)', () => {
 		const p = plan([{tissue: matched('lossless scatterer', 1540, 0), thicknessCm: 100}], {bandwidthFraction: 0.6});
 		const f = simulateFrame({plan: p, width: 600, height: 480, seed: 5});
 		let s = 0;

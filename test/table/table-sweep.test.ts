@@ -177,14 +177,17 @@ describe('highest reaching frequency', () => {
 });
 
 describe('physics seen through the table', () => {
-	it('a higher centre frequency meets the noise floor no deeper (attenuation rises with frequency, α = α0·f^n: Szabo 2004, ch. 4, from memory)', () => {
+	it('a higher centre frequency meets the noise floor no deeper (attenuation rises with ' +
+		'frequency, α = α0·f^n: Szabo 2004, ch. 4, from memory)', () => {
 		const t = buildTable(template({display: {depthCm: 30, assumedSpeedMps: 1540}}), {freqMhz: [2, 3.5, 5, 7.5]});
 		const depth = (r: (typeof t.rows)[number]) => r.penetrationDepthCm ?? Infinity;
 		for (let i = 1; i < t.rows.length; i++) expect(depth(t.rows[i]!)).toBeLessThanOrEqual(depth(t.rows[i - 1]!));
 		expect(t.rows.at(-1)!.penetrationDepthCm).not.toBeNull();
 	});
 
-	it('tissue-harmonic receive at the same f0 meets the noise floor sooner: the way down costs 2·α(f0), the way back α(2·f0) (Cobb 1983 plane-wave build-up, formula via a textbook excerpt)', () => {
+	it('tissue-harmonic receive at the same f0 meets the noise floor sooner: the way down costs ' +
+		'2·α(f0), the way back α(2·f0) (Cobb 1983 plane-wave build-up, formula via a textbook ' +
+		'excerpt)', () => {
 		const doc = template({display: {depthCm: 30, assumedSpeedMps: 1540}});
 		// A steep spectrum (the README's pick for 60 %): a Gaussian's low tail would flatten the deep harmonic loss.
 		const t = buildTable({...doc, probe: {...doc.probe, spectrumSteepness: 4}}, {receive: ['fundamental', 'tissue-harmonic']});
