@@ -4,8 +4,8 @@
  * Calibrated from a phantom measurement (IEC 61391-2 describes how the maximum depth of penetration
  * is measured): if this probe reaches D cm in a uniform phantom of slope β, the budget is the loss of
  * the reference echo at D in that phantom, worked out with the same spectrum model. For linear-in-f
- * tissue a patient then reaches the depth where Σβᵢ·dᵢ = β·D, whatever the bandwidth (derived,
- * methods-and-checks case C19). It assumes the patient's backscatter matches the phantom's and the
+ * tissue a patient then reaches the depth where Σβᵢ·dᵢ = β·D, whatever the bandwidth (derived: the
+ * broadband loss depends on the layers only through Σβᵢ·dᵢ). It assumes the patient's backscatter matches the phantom's and the
  * scanner settings are the same.
  */
 import {PathModel} from './path-model.js';

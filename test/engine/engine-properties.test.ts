@@ -114,7 +114,7 @@ describe('engine properties', () => {
 	});
 
 	it('for linear-in-f tissue the loss depends only on Σβ·d: reordering layers keeps the final ' +
-		'loss (derived, methods-and-checks §2.2 property ii)', () => {
+		'loss (derived: the broadband loss depends on the layers only through Σβ·d)', () => {
 		const a = {tissue: custom('a', 1540, 1039, 0.6), thicknessCm: 3};
 		const b = {tissue: custom('b', 1540, 1039, 1.0), thicknessCm: 2};
 		const tail = {tissue: custom('c', 1540, 1039, 0.5), thicknessCm: 30};

@@ -12,7 +12,7 @@ import {runCli} from '../helpers/run-cli.js';
 
 describe('frequency ladder', () => {
 	it('100 dB of dynamic range at 3 MHz in 1 dB/cm/MHz tissue reaches 16.7 cm, and 33.3 cm at ' +
-		'0.5 dB/cm/MHz (round trip; methods-and-checks case C6, from memory, derived)', () => {
+		'0.5 dB/cm/MHz (round trip: depth = DR/(2·α·f), common practice, no source; derived)', () => {
 		const one = plan([{tissue: custom('one', 1540, 1000, 1), thicknessCm: 50}], {noiseBudgetDb: 100, depthCm: 40});
 		const half = plan([{tissue: custom('half', 1540, 1000, 0.5), thicknessCm: 50}], {noiseBudgetDb: 100, depthCm: 40});
 		expect(frequencyLadder(one, [3], 10).rungs[0]!.penetrationDepthCm).toBeCloseTo(16.67, 2);

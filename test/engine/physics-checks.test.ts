@@ -1,7 +1,7 @@
 /**
  * The engine against published values and worked examples. Each check names its source; "derived"
- * means reproducible arithmetic from the cited formula (reference arithmetic in methods-and-checks
- * §2.3, NumPy/SciPy). Values marked "from memory" are unverified inputs, kept marked.
+ * means reproducible arithmetic from the cited formula (worked independently in Python with NumPy/SciPy,
+ * Harris et al. 2020, Virtanen et al. 2020). Values marked "from memory" are unverified inputs, kept marked.
  */
 import {describe, expect, it} from 'vitest';
 import {computeCurve, pathModelOf} from '../../src/engine/compensation-curve.js';
@@ -88,7 +88,7 @@ describe('power-law attenuation conventions', () => {
 });
 
 describe('spectral downshift of a Gaussian pulse (Kuc 1984, IEEE Trans ASSP 32(1):1–6; closed ' +
-	'form derived in methods-and-checks §1.3)', () => {
+	'form derived from its Gaussian-spectrum model)', () => {
 	const uniform = (alpha: number) => matched('uniform', 1540, alpha);
 
 	it('−6 dB bandwidth 60 % at 3.5 MHz ⇒ σ = 0.6317 MHz (derived, case C13)', () => {
@@ -189,7 +189,7 @@ describe('layered abdominal test vector at 3.5 MHz (tissue table worked example 
 	});
 });
 
-describe('penetration from a phantom measurement (derived, methods-and-checks case C19; IEC ' +
+describe('penetration from a phantom measurement (derived: the loss depends only on Σβ·d; IEC ' +
 	'61391-2:2010 depth-of-penetration method)', () => {
 	// Impedances matched so that interfaces add nothing, as in the worked case.
 	const layers = [

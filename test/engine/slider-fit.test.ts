@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import {fitError, fitSliders, naiveFit, type FitRequest} from '../../src/engine/slider-fit.js';
 import type {EndBehaviour, KnotPlacement, SliderBank, SliderFit} from '../../src/engine/types.js';
 
-const C20_SOURCE = 'Reference arithmetic, methods-and-checks §2.2 case C20 (derived; scipy linprog/lsq_linear)';
+const C20_SOURCE = 'Reference arithmetic (derived; worked independently with SciPy linprog/lsq_linear, Virtanen et al. 2020)';
 
 /** Target of case C20: G(z) = 3.5z − 0.04594z² dB. */
 const c20 = (z: number): number => 3.5 * z - 0.04594 * z * z;
@@ -63,14 +63,14 @@ describe('case C20: 8 sliders on G = 3.5z − 0.04594z² over 0–16 cm, sampled
 		const req = request(depths, c20, bank(8, 'band-edges', 'flat', -100, 100), loose);
 		const fit = fitSliders(req);
 		expect(Math.abs(fit.residualDb - 0.0299)).toBeLessThanOrEqual(0.0001 + 1e-9);
-		// a·h²/8 with h = 16/7 cm (derived, methods-and-checks §1.10): a sampled fit can only do as well
+		// a·h²/8 with h = 16/7 cm (derived: linear-interpolation error bound, de Boor 1978, from memory): a sampled fit can only do as well
 		// or slightly better, because the knots themselves are not on the 0.02 cm grid.
 		const aH2Over8 = (0.04594 * (16 / 7) ** 2) / 8;
 		expect(fit.residualDb).toBeLessThanOrEqual(aH2Over8 + 1e-9);
 		expect(fit.residualDb).toBeGreaterThan(aH2Over8 - 3e-4);
 	});
 
-	it('(b′) with knots and segment midpoints on the grid the minimax is exactly a·h²/8 — derived, methods-and-checks §1.10', () => {
+	it('(b′) with knots and segment midpoints on the grid the minimax is exactly a·h²/8 — derived (linear-interpolation error bound, de Boor 1978, from memory)', () => {
 		// Step h/40: every knot and every segment midpoint is a sample, so the equioscillation points
 		// of the best piecewise-linear fit (error +ah²/8 at knots, −ah²/8 at midpoints) are all seen.
 		const req = request(grid(16, 280), c20, bank(8, 'band-edges', 'flat', -100, 100), loose);
@@ -80,7 +80,7 @@ describe('case C20: 8 sliders on G = 3.5z − 0.04594z² over 0–16 cm, sampled
 		expect(naiveFit(req).residualDb).toBeCloseTo((0.04594 * (16 / 7) ** 2) / 4, 7);
 	});
 
-	it('(a′) band centres with linear end extrapolation: 0.052 dB — methods-and-checks §1.10 (derived, case C20)', () => {
+	it('(a′) band centres with linear end extrapolation: 0.052 dB — derived (reference arithmetic with SciPy linprog, Virtanen et al. 2020)', () => {
 		const req = request(depths, c20, bank(8, 'band-centres', 'extrapolate', -100, 100), loose);
 		expect(Math.abs(fitSliders(req).residualDb - 0.052)).toBeLessThanOrEqual(0.001);
 	});
@@ -267,7 +267,7 @@ describe('properties', () => {
 	});
 
 	it('(ii) adding x dB to the target shifts every total by x when no bound is active — ' +
-		'methods-and-checks §2.2 property (iii) (partition of unity)', () => {
+		'derived: hat functions sum to one (partition of unity; de Boor 1978, A Practical Guide to Splines, from memory)', () => {
 		fc.assert(
 			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, x) => {
 				const a = totals(fitSliders(scenarioRequest(s, 0, true)));
@@ -294,7 +294,7 @@ describe('properties', () => {
 	});
 
 	it('(iv) a linear target with band-edge knots and loose bounds is fitted with ~0 error — ' +
-		'methods-and-checks §2.2 property (i) (derived)', () => {
+		'derived: a linear target is exactly a piecewise-linear curve with knots at the range edges', () => {
 		fc.assert(
 			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, intercept) => {
 				const depths = grid(s.displayCm, 120);

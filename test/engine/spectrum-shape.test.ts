@@ -31,7 +31,7 @@ describe('spectrum shape |H(f)| = 10^(−(6/20)·|2(f − f0)/(B·f0)|^p)', () =
 		}
 	});
 
-	it('p = 2 is the Gaussian exp(−(f − f0)²/(2σ²)) with σ = B·f0/3.3245 (methods-and-checks §1.3, derived)', () => {
+	it('p = 2 is the Gaussian exp(−(f − f0)²/(2σ²)) with σ = B·f0/3.3245 (the −6 dB half-width of a Gaussian, Kuc 1984 model; derived)', () => {
 		const sigma = (0.6 * 3.5) / (2 * Math.sqrt(1.2 * Math.log(10)));
 		for (const f of [0.5, 2, 3.5, 6]) expect(logSpectrum(f, 3.5, 1.05, 2)).toBeCloseTo(-((f - 3.5) ** 2) / (2 * sigma * sigma), 12);
 	});
