@@ -178,11 +178,12 @@ export class PathModel {
 
 	/**
 	 * {@link at} for many displayed depths at once, for the price of far fewer integrals: within a
-	 * layer that holds many of them, the broadband attenuation and centroid come from a checked
-	 * Chebyshev interpolant along depth (smooth-along-depth.ts), within 1e-4 dB and 1e-4 MHz.
+	 * layer that holds many of them, the broadband attenuation and centroid (the tissue harmonic's
+	 * level and centroid too, deeper than its near-field floor) come from a checked Chebyshev interpolant
+	 * along depth (smooth-along-depth.ts), within 1e-4 dB and 1e-4 MHz.
 	 */
 	pointsAt(displayedCm: readonly number[]): PathPoint[] {
-		if (this.harmonic || !this.bands.some((b) => b.broadband)) return displayedCm.map((d) => this.at(d));
+		if (!this.harmonic && !this.bands.some((b) => b.broadband)) return displayedCm.map((d) => this.at(d));
 		const order = displayedCm.map((_, i) => i).sort((a, b) => displayedCm[a]! - displayedCm[b]!);
 		const out: PathPoint[] = new Array(displayedCm.length);
 		let start = 0;
@@ -192,7 +193,15 @@ export class PathModel {
 			while (end < order.length && spanAtDisplayed(this.spans, displayedCm[order[end]!]!) === span) end++;
 			const xs = order.slice(start, end).map((i) => displayedCm[i]!);
 			const values: Pair[] = new Array(xs.length);
-			smoothAlong((d) => this.bandLossIn(span, d), xs, alongDepthTolerance, values);
+			// The tissue harmonic is held at its near-field floor above it (a corner): those few depths exactly.
+			let near = 0;
+			while (this.harmonic && near < xs.length && trueDepthAt(span, xs[near]!) <= harmonicNearFieldFloorCm) {
+				values[near] = this.exactIn(span, xs[near]!);
+				near++;
+			}
+			const rest: Pair[] = new Array(xs.length - near);
+			smoothAlong((d) => this.exactIn(span, d), xs.slice(near), alongDepthTolerance, rest);
+			for (let k = 0; k < rest.length; k++) values[near + k] = rest[k]!;
 			for (let k = 0; k < xs.length; k++) {
 				out[order[start + k]!] = {
 					trueDepthCm: trueDepthAt(span, xs[k]!),
@@ -208,7 +217,11 @@ export class PathModel {
 	}
 
 	/** Attenuation (dB) and surviving centroid (MHz) at a displayed depth inside `span`, exactly. */
-	private bandLossIn(span: LayerSpan, displayedCm: number): Pair {
+	private exactIn(span: LayerSpan, displayedCm: number): Pair {
+		if (this.harmonic) {
+			const p = this.at(displayedCm);
+			return [p.attenuationDb, p.echoCenterMhz];
+		}
 		const terms = this.termsAt(span, trueDepthAt(span, displayedCm));
 		let attenuationDb = 0;
 		let echoCenterMhz = 0;
