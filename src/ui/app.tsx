@@ -193,6 +193,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 	// A notice read whole (a written path) takes the key-hint line, then lines from the body's bottom.
 	const noticeRows = statusLines(state, layout.columns).length;
 	const bodyGiven = Math.max(0, noticeRows - 2);
+	const hintPage = state.overlay?.kind === 'scanner' && state.overlay.panel.kind === 'result' ? 'scanner-result' : undefined;
 	return (
 		<ThemeContext.Provider value={theme}>
 			<Box flexDirection="column" width={layout.columns}>
@@ -201,7 +202,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} scanner={planScanner} />}
 				</Box>
 				<StatusLine state={state} width={layout.columns} />
-				{noticeRows > 1 ? null : <HintLine mode={modeOf(state)} width={layout.columns} />}
+				{noticeRows > 1 ? null : <HintLine mode={modeOf(state)} width={layout.columns} page={hintPage} />}
 				<CautionLine width={layout.columns} />
 			</Box>
 		</ThemeContext.Provider>

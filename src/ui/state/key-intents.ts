@@ -218,8 +218,11 @@ export const noFlags: KeyFlags = {
 	meta: false,
 };
 
-/** Hint-line entries for a mode, in table order: `keys word`. Arrow names are shortened. */
-export function hintsFor(mode: Mode): string[] {
+/**
+ * Hint-line entries for a mode, in table order: `keys word`. Arrow names are shortened. `page`
+ * names a page of the mode whose keys differ: the scanner panel's results (pages, keep, no Enter).
+ */
+export function hintsFor(mode: Mode, page?: 'scanner-result'): string[] {
 	const extra: Partial<Record<Mode, string[]>> = {
 		browse: ['↑↓ move', '+/- nudge', '←→ step'],
 		stack: ['↑↓ move', 'J/K reorder', '+/- thickness'],
@@ -230,7 +233,7 @@ export function hintsFor(mode: Mode): string[] {
 		sweep: ['↑↓ rows', '←→ columns'],
 		tissue: ['type to filter', '↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
-		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
+		scanner: page === 'scanner-result' ? ['←→ page', 's keep', 'S keep, replacing'] : ['↑↓ move', 'Enter pick', '←→ page'],
 		'edit-path': ['type a path', 'Enter measure'],
 		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
 		refine: ['a accept', 'Enter another image'],
