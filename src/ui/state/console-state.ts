@@ -74,13 +74,15 @@ export interface Notice {
 }
 
 /** What stands where the curve plot is: the plot, or the simulated picture (both panels when
- * wide; on a narrow screen this plan's or the ramp's alone). */
-export type PictureChoice = 'off' | 'plan' | 'ramp';
+ * wide; on a narrow screen this plan's or the ramp's alone), or, narrow, the slider bank (wide
+ * shows it beside the slider table already). */
+export type PictureChoice = 'off' | 'plan' | 'ramp' | 'bank';
 
-/** The next choice for the picture key: wide off → both → off; narrow off → plan → ramp → off. */
+/** The next choice for the picture key: wide off → both → off; narrow off → plan → ramp → bank → off. */
 export function nextPicture(p: PictureChoice, isWide: boolean): PictureChoice {
-	if (p === 'off') return 'plan';
-	return isWide || p === 'ramp' ? 'off' : 'ramp';
+	if (p === 'off' || (isWide && p === 'bank')) return 'plan';
+	if (isWide) return 'off';
+	return p === 'plan' ? 'ramp' : p === 'ramp' ? 'bank' : 'off';
 }
 
 export interface ConsoleState {

@@ -178,7 +178,7 @@ export const bindings: readonly Binding[] = [
 			return Object.hasOwn(intents, i) ? intents[i] : undefined;
 		},
 	},
-	// One help line for both, so the overlay still fits 80×24 whole.
+	// One help line for both, so the overlay still fits 80×24 whole. At 80 columns p also cycles to the slider bank.
 	{keys: 'w  p  v', help: 'warnings; picture; vs.', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('v', 'compare')(i, k)},
 	{keys: 'i', help: 'refine from an image', section: 'The plan', modes: browsing, pick: is('i', 'refine-image')},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep', 'refine'], pick: is('?', 'help')},
