@@ -27,7 +27,7 @@ import type {PresetShelf} from './effects/preset-shelf.js';
 import {noScannerServices, type ScannerServices} from './effects/scanner-services.js';
 import {ScannerView} from './scanner/scanner-view.js';
 import {demoPoint} from './state/starting-point.js';
-import {StatusLine} from './frame/status-line.js';
+import {StatusLine, statusLines} from './frame/status-line.js';
 import {StepBar} from './frame/step-bar.js';
 import {StepPane} from './steps/step-pane.js';
 import {SweepView} from './sweep/sweep-view.js';
@@ -164,7 +164,6 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			shelf,
 			// Files get the note marked when the values left the starting plan's behind.
 			doc: planWithNote(state.doc, state.origin),
-			...(exportDir === undefined ? {} : {exportDir}),
 			exit,
 			scanners,
 			// Slow work (measuring a session) starts once the frame saying so has been drawn.
@@ -173,7 +172,7 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 			},
 		};
 		for (const effect of batch) for (const action of runEffect(effect, ctx)) dispatch(action);
-	}, [state.effects, state.doc, state.origin, shelf, exportDir, exit, scanners]);
+	}, [state.effects, state.doc, state.origin, shelf, exit, scanners]);
 
 	// The measured scanner the plan names: from the panel's fresh list while it is open (a profile
 	// may just have been kept), else from the store.
@@ -191,15 +190,19 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 	const planScanner = named && 'scanner' in named ? named.scanner : undefined;
 	const curve = useMemo(() => curveOf(state.doc, planScanner), [state.doc, planScanner]);
 
+	// A notice read whole (a written path) takes the key-hint line, then lines from the body's bottom.
+	const noticeRows = statusLines(state, layout.columns).length;
+	const bodyGiven = Math.max(0, noticeRows - 2);
+	const hintPage = state.overlay?.kind === 'scanner' && state.overlay.panel.kind === 'result' ? 'scanner-result' : undefined;
 	return (
 		<ThemeContext.Provider value={theme}>
 			<Box flexDirection="column" width={layout.columns}>
 				<StepBar step={state.step} width={layout.columns} isDirty={state.dirty} />
-				<Box height={layout.bodyRows} flexDirection="column">
+				<Box height={layout.bodyRows - bodyGiven} flexDirection="column" overflow="hidden">
 					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} scanner={planScanner} />}
 				</Box>
 				<StatusLine state={state} width={layout.columns} />
-				<HintLine mode={modeOf(state)} width={layout.columns} />
+				{noticeRows > 1 ? null : <HintLine mode={modeOf(state)} width={layout.columns} page={hintPage} />}
 				<CautionLine width={layout.columns} />
 			</Box>
 		</ThemeContext.Provider>

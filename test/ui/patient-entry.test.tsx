@@ -95,12 +95,12 @@ describe('target and display depth', () => {
 	it('the target row follows a layer when asked, and a shallow display brings a fixed target up', async () => {
 		const app = await open();
 		await press(app, '3');
-		await moveTo(app, keys.down, 'Target follows layer');
+		await moveTo(app, keys.down, 'Target layer (0 = fixed)');
 		await press(app, keys.enter);
 		await type(app, '4');
 		await press(app, keys.enter);
 		await press(app, keys.down);
-		expect(selectedLine(app)).toMatch(/Target, below top of/);
+		expect(selectedLine(app)).toMatch(/Target below layer \d top/);
 		expect(selectedLine(app)).toMatch(/\d+\.\d+ cm/);
 	});
 });

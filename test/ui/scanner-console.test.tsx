@@ -69,6 +69,9 @@ describe('the measured-scanner panel', () => {
 		for (const name of ['18 dB gain-18', 'in air 36 dB', 'slider 4 +1']) expect(images).toContain(name);
 		expect(images).toMatch(/-+:+-+/);
 		expect(images).toContain('confirm on the live image');
+		// The results page's own keys on the hint line: no Enter there.
+		expect(images).toContain('←→ page  s keep  S keep, replacing');
+		expect(images).not.toContain('Enter pick');
 
 		await press(app, keys.right);
 		expect(frame(app)).toContain('2/4: grey map');

@@ -24,7 +24,9 @@ function expectFits(text: string, columns: number, rows: number, what: string) {
 }
 
 async function screens(columns: number, rows: number, check: (app: Rendered, what: string) => void) {
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} columns={columns} rows={rows} exportDir={home} />);
+	// A folder of its own per size, so the export writes instead of asking to replace.
+	const out = mkdtempSync(join(home, `export-${columns}-`));
+	const app = render(<App shelf={openShelf({home})} theme={plainTheme} columns={columns} rows={rows} exportDir={out} />);
 	await ready(app);
 	const visit: [string, string[]][] = [
 		['step 1', []],
@@ -41,7 +43,8 @@ async function screens(columns: number, rows: number, check: (app: Rendered, wha
 		['fat sweep, deltas, next row', ['d', keys.down]],
 		['fat sweep, typing the list', [keys.enter, '0']],
 		['fat sweep, list refused', [keys.enter]],
-		['fat sweep, exported', [keys.escape, 'e']],
+		['fat sweep, export folder', [keys.escape, 'e']],
+		['fat sweep, exported', [keys.enter]],
 		['fat sweep, 16 rows', [keys.enter, ...'1:16:1', keys.enter, keys.pageDown]],
 		['fat sweep, help', ['?']],
 		['step 5, back from the sweep', [keys.escape, keys.escape]],

@@ -193,8 +193,13 @@ describe('sweep in the reducer', () => {
 		expect(s.sweep.column).toBe(Math.min(maxColumnOffset(8, false, 80), maxColumnOffset(8, true, 80)));
 		s = keysIn(s, 'd', 'd');
 		expect(s.sweep.isDelta).toBe(true);
+		// e asks for the folder through the plan export's prompt (the current one offered), then queues the one export.
 		s = keysIn(s, 'e');
-		expect(s.effects).toEqual([{kind: 'export-sweep', fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}]);
+		expect(s.overlay).toEqual({kind: 'path', text: '.', isFresh: true, sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}});
+		expect(modeOf(s)).toBe('edit-text');
+		s = keysIn(s, {return: true});
+		expect(s.effects).toEqual([{kind: 'export', dir: '.', replace: false, sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}}]);
+		expect(modeOf(s)).toBe('sweep');
 		expect(s.dirty).toBe(false);
 	});
 
@@ -287,14 +292,15 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		await press(app, keys.left);
 		expect(frame(app)).toContain('→ more');
 
-		// Export: four files in the current directory, names on screen, temp files gone.
+		// Export: the folder asked (the current one offered), four files written, the full path said, temp files gone.
 		await press(app, 'e');
-		await waitForText(app, 'Wrote here:');
-		f = frame(app);
-		for (const ext of formats) {
-			expect(f).toContain(`${stem}.${ext}`);
-			expect(existsSync(join(cwd, `${stem}.${ext}`))).toBe(true);
-		}
+		expect(frame(app)).toContain(`Export to folder: [${cwd}`);
+		await press(app, keys.enter);
+		await waitForText(app, 'Wrote ');
+		// The notice wraps at a space or after a `/` of the path: join its lines back.
+		f = frame(app).replace(/\/\n/g, '/').replace(/\n/g, ' ');
+		expect(f).toContain(`Wrote ${join(cwd, `${stem}.md`)}, .csv, .json and .svg`);
+		for (const ext of formats) expect(existsSync(join(cwd, `${stem}.${ext}`))).toBe(true);
 		expect(readdirSync(cwd).filter((n) => n.endsWith('.tmp'))).toEqual([]);
 		const read = (ext: string) => readFileSync(join(cwd, `${stem}.${ext}`), 'utf8');
 		const csv = parse(read('csv'), {columns: true}) as Record<string, string>[];
@@ -309,10 +315,12 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		expect(read('md')).toContain('# Depth-gain protocol table');
 		expect(read('md')).not.toMatch(/Generated/);
 
-		// The same plan and list give the same bytes.
+		// Again: asked before replacing the four; the same plan and list give the same bytes.
 		const before = formats.map(read);
-		await send(app, 'e');
-		await send(app, 'e');
+		await press(app, 'e', keys.enter);
+		await waitForText(app, 'Replace the 4 files already there? (y/n)');
+		await press(app, 'y');
+		await waitForText(app, 'Wrote ');
 		expect(formats.map(read)).toEqual(before);
 
 		// Back to step 5, on the sweep row; the list is kept for next time.
@@ -332,7 +340,8 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		expect(f.replace(/\s+/g, ' ')).toContain('the plan has no layer of tissue "fat", so there is no thickness to sweep');
 		expect(f).not.toContain('rows 1-');
 		await press(app, 'e');
-		expect(frame(app)).toContain('Nothing exported');
+		expect(frame(app)).toContain('Nothing exported: the plan has no fat layer to sweep.');
+		expect(frame(app)).not.toContain('Export to folder');
 		expect(readdirSync(cwd)).toEqual([]);
 	});
 

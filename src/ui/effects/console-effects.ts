@@ -6,18 +6,17 @@
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import type {Action} from '../state/console-reducer.js';
 import type {Effect} from '../state/console-state.js';
-import {exportPlanToFolder} from './export-files.js';
+import {exportToFolder, planEntries} from './export-files.js';
 import type {PresetShelf} from './preset-shelf.js';
 import {runScannerEffect} from './scanner-effects.js';
 import {noScannerServices, type ScannerServices} from './scanner-services.js';
-import {exportSweep} from './sweep-export.js';
+import {sweepEntries} from './sweep-export.js';
 import {sweepTable} from '../state/sweep-table.js';
 import {refineStill} from './refine-still.js';
 
 export interface EffectContext {
 	readonly shelf: PresetShelf;
 	readonly doc: PlanDocument;
-	readonly exportDir?: string;
 	readonly exit: () => void;
 	/** The scanner panel's store and reader. @default none */
 	readonly scanners?: ScannerServices;
@@ -53,22 +52,22 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			if (outcome.exists) return [{type: 'save-exists', name: effect.name}];
 			return [{type: 'failed', message: `Not saved: ${outcome.message}`}];
 		}
-		case 'export':
+		case 'export': {
+			// The plan's files, or the fat sweep's four: one prompt, one write path.
+			const {sweep} = effect;
+			let entries = planEntries(ctx.doc);
+			if (sweep) {
+				const outcome = sweepTable(ctx.doc, sweep.fatCm, sweep.isDelta);
+				if (!outcome.ok) return [{type: 'failed', message: 'Nothing exported: there is no table for this plan (the reason is under the list).'}];
+				entries = sweepEntries(outcome.table);
+			}
 			try {
-				const r = exportPlanToFolder(ctx.doc, effect.dir, effect.replace);
+				const r = exportToFolder(entries, effect.dir, effect.replace);
 				if (r.ok) return [{type: 'exported', files: r.paths}];
-				if ('exists' in r) return [{type: 'export-exists', dir: r.dir, files: r.exists}];
+				if ('exists' in r) return [{type: 'export-exists', dir: r.dir, files: r.exists, ...(sweep ? {sweep} : {})}];
 				return [{type: 'failed', message: r.message}];
 			} catch (error) {
 				return [{type: 'failed', message: `Export failed, nothing written: ${messageOf(error)}`}];
-			}
-		case 'export-sweep': {
-			const outcome = sweepTable(ctx.doc, effect.fatCm, effect.isDelta);
-			if (!outcome.ok) return [{type: 'failed', message: 'Nothing exported: there is no table for this plan (the reason is under the list).'}];
-			try {
-				return [{type: 'sweep-exported', files: exportSweep(outcome.table, ctx.exportDir)}];
-			} catch (error) {
-				return [{type: 'failed', message: `Export failed: ${messageOf(error)}`}];
 			}
 		}
 		case 'scanner-list':

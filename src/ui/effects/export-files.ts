@@ -8,7 +8,7 @@ import {lstatSync} from 'node:fs';
 import {join, resolve} from 'node:path';
 import {computeCurve} from '../../engine/compensation-curve.js';
 import {entryAt} from '../../files/atomic-write.js';
-import {commitBatch} from '../../files/file-batch.js';
+import {commitBatch, type BatchEntry} from '../../files/file-batch.js';
 import {writeNewFiles} from '../../files/new-file.js';
 import {printable} from '../../files/printable.js';
 import {slug} from '../../files/slug.js';
@@ -29,19 +29,28 @@ export function exportPlan(doc: PlanDocument, dir: string = process.cwd()): stri
 	]);
 }
 
-/** What writing the plan into a named folder came to. */
+/** What writing files into a named folder came to. */
 export type FolderExport =
 	| {readonly ok: true; readonly paths: readonly string[]}
 	| {readonly ok: false; readonly exists: readonly string[]; readonly dir: string}
 	| {readonly ok: false; readonly message: string};
 
+/** The plan's two files: `<stem>.plan.json` and `<stem>.summary.txt`. */
+export function planEntries(doc: PlanDocument): BatchEntry[] {
+	const stem = fileStem(doc.name);
+	return [
+		{name: `${stem}.plan.json`, data: `${JSON.stringify(doc, null, '\t')}\n`},
+		{name: `${stem}.summary.txt`, data: curveSummary(computeCurve(resolvePlan(doc)))},
+	];
+}
+
 /**
- * Writes `<stem>.plan.json` and `<stem>.summary.txt` into the folder the user typed (relative to
- * the current one), both or neither (the file layer's batch). Names already taken are reported
- * unless `replace` is given; only regular files are ever replaced, links and special files are
- * refused, and nothing is written outside `dir`.
+ * Writes `entries` into the folder the user typed (relative to the current one), all or none (the
+ * file layer's batch). Names already taken are reported unless `replace` is given; only regular
+ * files are ever replaced, links and special files are refused, and nothing is written outside
+ * `dir`. Every console export (the plan, the fat sweep) goes through here.
  */
-export function exportPlanToFolder(doc: PlanDocument, typed: string, replace: boolean): FolderExport {
+export function exportToFolder(entries: readonly BatchEntry[], typed: string, replace: boolean): FolderExport {
 	const dir = resolve(typed.trim() || '.');
 	let isFolder = false;
 	try {
@@ -50,13 +59,13 @@ export function exportPlanToFolder(doc: PlanDocument, typed: string, replace: bo
 		return {ok: false, message: `Export folder ${printable(dir)} does not exist; type an existing folder.`};
 	}
 	if (!isFolder) return {ok: false, message: `Export folder ${printable(dir)} is not a folder (a file or a link); type a folder.`};
-	const stem = fileStem(doc.name);
-	const entries = [
-		{name: `${stem}.plan.json`, data: `${JSON.stringify(doc, null, '\t')}\n`},
-		{name: `${stem}.summary.txt`, data: curveSummary(computeCurve(resolvePlan(doc)))},
-	];
 	const taken = entries.filter((e) => entryAt(join(dir, e.name)) !== undefined).map((e) => e.name);
 	if (taken.length > 0 && !replace) return {ok: false, exists: taken, dir};
 	commitBatch(dir, entries, {replace});
 	return {ok: true, paths: entries.map((e) => join(dir, e.name))};
+}
+
+/** The plan's two files into the typed folder (see `exportToFolder`). */
+export function exportPlanToFolder(doc: PlanDocument, typed: string, replace: boolean): FolderExport {
+	return exportToFolder(planEntries(doc), typed, replace);
 }

@@ -2,15 +2,19 @@
 import {Text} from 'ink';
 import {memo} from 'react';
 import {hintsFor, type Mode} from '../state/key-intents.js';
+
+/** A page of a mode with keys of its own (see `hintsFor`). */
+type HintPage = Parameters<typeof hintsFor>[1];
 import {useTheme} from '../kit/theme-context.js';
 
 export interface HintLineProps {
 	readonly mode: Mode;
 	readonly width: number;
+	readonly page?: HintPage;
 }
 
-export function hintText(mode: Mode, width: number): string {
-	const hints = hintsFor(mode);
+export function hintText(mode: Mode, width: number, page?: HintPage): string {
+	const hints = hintsFor(mode, page);
 	const tail = hints.filter((h) => h.startsWith('? ') || h.startsWith('q '));
 	const body = hints.filter((h) => !tail.includes(h));
 	const sep = '  ';
@@ -24,11 +28,11 @@ export function hintText(mode: Mode, width: number): string {
 	return [out, ...tail].filter(Boolean).join(sep);
 }
 
-function HintLineView({mode, width}: HintLineProps) {
+function HintLineView({mode, width, page}: HintLineProps) {
 	const theme = useTheme();
 	return (
 		<Text wrap="truncate" {...theme.muted}>
-			{hintText(mode, width)}
+			{hintText(mode, width, page)}
 		</Text>
 	);
 }

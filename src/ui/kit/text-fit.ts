@@ -19,6 +19,10 @@ const shortForms: readonly (readonly [RegExp, string])[] = [
 	[/ \(whole\)/, ''],
 	[/ \(full bladder\)/, ''],
 	[/ \(0\.7 grade\)/, ' 0.7'],
+	// Starting-point names beside the curve pane (100 columns).
+	[/^Paediatric /, 'Paed. '],
+	// Row labels: a layer number past 9 makes the target's label one character too long.
+	[/ below layer (\d+) top/, ' below L$1 top'],
 ];
 
 /** The deliberate short form of `text` that fits `width`, or the shortest one there is. */

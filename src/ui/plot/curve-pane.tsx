@@ -42,7 +42,7 @@ export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isP
 			<Text wrap="truncate" {...(isFocused ? theme.current : theme.muted)}>
 				{clip(title, width)}
 			</Text>
-			{picture === 'off' ? (
+			{picture === 'off' || picture === 'bank' ? (
 				<PlotView curve={curve} width={width} height={plotRows} {...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})} />
 			) : (
 				// The plot adds its axis and legend lines to plotRows; the picture counts its own, so it gets them too.

@@ -4,7 +4,7 @@
  * `state.effects` and carried out by the app, which reports back with a result action.
  */
 import type {PlanDocument} from '../../plan/plan-schema.js';
-import type {ConsoleState, Overlay, StepId} from './console-state.js';
+import type {ConsoleState, Overlay, StepId, SweepExport} from './console-state.js';
 import {nextPicture, stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
@@ -34,9 +34,8 @@ export type Action =
 	| {readonly type: 'saved'; readonly name: string}
 	| {readonly type: 'save-exists'; readonly name: string}
 	| {readonly type: 'exported'; readonly files: readonly string[]}
-	| {readonly type: 'export-exists'; readonly dir: string; readonly files: readonly string[]}
+	| {readonly type: 'export-exists'; readonly dir: string; readonly files: readonly string[]; readonly sweep?: SweepExport}
 	| {readonly type: 'compare-loaded'; readonly index: number; readonly name: string; readonly plan: PlanDocument}
-	| {readonly type: 'sweep-exported'; readonly files: readonly string[]}
 	| {readonly type: 'failed'; readonly message: string}
 	| {readonly type: 'refined'; readonly still: PhantomImage; readonly result: RefineResult}
 	| {readonly type: 'refine-failed'; readonly problem: string}
@@ -333,7 +332,7 @@ function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent):
 		case 'overwrite':
 			return queue(closed, {kind: 'save', name: o.then.name, overwrite: true});
 		case 'replace-export':
-			return queue(closed, {kind: 'export', dir: o.then.dir, replace: true});
+			return queue(closed, {kind: 'export', dir: o.then.dir, replace: true, ...(o.then.sweep ? {sweep: o.then.sweep} : {})});
 	}
 }
 
@@ -374,7 +373,8 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 	switch (a.type) {
 		case 'key':
-			return keyPress(s, a.input, a.key);
+			// A notice shown whole gives the key hints their line back at the next key.
+			return keyPress(s.notice?.isWhole ? {...s, notice: {text: s.notice.text, tone: s.notice.tone}} : s, a.input, a.key);
 		case 'resize': {
 			const columns = a.columns ?? s.columns;
 			const rows = a.rows ?? s.rows;
@@ -409,22 +409,27 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		case 'save-exists':
 			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
 		case 'exported': {
-			// The full path of the first file, then the others' endings (same folder and name): one line.
+			// The full path of the first file, then the others' endings (same folder, same name up to a dot).
 			const [first = '', ...rest] = a.files;
-			const name = first.slice(first.lastIndexOf('/') + 1);
-			const stem = name.slice(0, Math.max(0, name.indexOf('.')));
+			const names = a.files.map((f) => f.slice(f.lastIndexOf('/') + 1));
+			const shared = names.reduce((p, n) => {
+				let i = 0;
+				while (i < p.length && p[i] === n[i]) i++;
+				return p.slice(0, i);
+			}, names[0] ?? '');
+			const stem = shared.slice(0, Math.max(0, shared.lastIndexOf('.')));
 			const others = rest.map((f) => f.slice(f.lastIndexOf('/') + 1)).map((b) => (stem && b.startsWith(`${stem}.`) ? b.slice(stem.length) : b));
-			return withNotice(s, `Wrote ${[first, ...others].join(' and ')}`, 'done');
+			const all = [first, ...others];
+			const said = all.length > 1 ? `${all.slice(0, -1).join(', ')} and ${all.at(-1)}` : first;
+			return {...s, notice: {text: `Wrote ${said}`, tone: 'done', isWhole: true}};
 		}
 		case 'export-exists': {
 			const n = a.files.length;
 			const question = `Replace the ${n > 1 ? `${n} files` : 'file'} already there? (y/n)  ${a.files.join(', ')} in ${a.dir}`;
-			return {...s, overlay: {kind: 'ask', question, then: {kind: 'replace-export', dir: a.dir}}};
+			return {...s, overlay: {kind: 'ask', question, then: {kind: 'replace-export', dir: a.dir, ...(a.sweep ? {sweep: a.sweep} : {})}}};
 		}
-		case 'sweep-exported':
-			return withNotice({...s, sweep: {...s.sweep, files: a.files}}, `Exported the table in ${a.files.length} formats (Markdown, CSV, JSON, SVG) here.`, 'done');
 		case 'failed':
-			return withNotice(s, a.message, 'warning');
+			return {...s, notice: {text: a.message, tone: 'warning', isWhole: true}};
 		case 'refined':
 			return refineDone(s, {still: a.still, result: a.result});
 		case 'refine-failed':

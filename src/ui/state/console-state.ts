@@ -20,12 +20,18 @@ export const stepTitles: Record<StepId, {readonly title: string; readonly short:
 	curve: {title: 'Curve & save', short: 'Curve'},
 };
 
+/** The fat sweep to export instead of the plan: the thickness list and whether rows are deltas. */
+export interface SweepExport {
+	readonly fatCm: readonly number[];
+	readonly isDelta: boolean;
+}
+
 /** What a yes answer goes on to do. */
 export type FollowUp =
 	| {readonly kind: 'quit'}
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'overwrite'; readonly name: string}
-	| {readonly kind: 'replace-export'; readonly dir: string};
+	| {readonly kind: 'replace-export'; readonly dir: string; readonly sweep?: SweepExport};
 
 export type Overlay =
 	| {readonly kind: 'help'}
@@ -37,8 +43,8 @@ export type Overlay =
 	| {readonly kind: 'compare'; readonly index: number; readonly against?: {readonly name: string; readonly plan: PlanDocument}}
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
-	/** The folder to export the plan into, typed (the current one offered). */
-	| {readonly kind: 'path'; readonly text: string; readonly isFresh: boolean}
+	/** The folder to export the plan (or the fat sweep) into, typed (the current one offered). */
+	| {readonly kind: 'path'; readonly text: string; readonly isFresh: boolean; readonly sweep?: SweepExport}
 	| {readonly kind: 'tissue'; readonly layer: number; readonly cursor: number; readonly filter?: string}
 	| ScannerOverlay;
 
@@ -48,8 +54,7 @@ export type Effect =
 	| {readonly kind: 'load'; readonly pointId: string}
 	| {readonly kind: 'load-compare'; readonly pointId: string; readonly index: number}
 	| {readonly kind: 'save'; readonly name: string; readonly overwrite: boolean}
-	| {readonly kind: 'export'; readonly dir: string; readonly replace: boolean}
-	| {readonly kind: 'export-sweep'; readonly fatCm: readonly number[]; readonly isDelta: boolean}
+	| {readonly kind: 'export'; readonly dir: string; readonly replace: boolean; readonly sweep?: SweepExport}
 	| {readonly kind: 'refine'; readonly path: string; readonly frame?: number; readonly settings?: string}
 	| ScannerEffect;
 
@@ -64,16 +69,20 @@ export interface Editing {
 export interface Notice {
 	readonly text: string;
 	readonly tone: 'done' | 'warning' | 'info';
+	/** Shown whole (wrapped over the key-hint line, and more if needed) until the next key: a written path. */
+	readonly isWhole?: boolean;
 }
 
 /** What stands where the curve plot is: the plot, or the simulated picture (both panels when
- * wide; on a narrow screen this plan's or the ramp's alone). */
-export type PictureChoice = 'off' | 'plan' | 'ramp';
+ * wide; on a narrow screen this plan's or the ramp's alone), or, narrow, the slider bank (wide
+ * shows it beside the slider table already). */
+export type PictureChoice = 'off' | 'plan' | 'ramp' | 'bank';
 
-/** The next choice for the picture key: wide off → both → off; narrow off → plan → ramp → off. */
+/** The next choice for the picture key: wide off → both → off; narrow off → plan → ramp → bank → off. */
 export function nextPicture(p: PictureChoice, isWide: boolean): PictureChoice {
-	if (p === 'off') return 'plan';
-	return isWide || p === 'ramp' ? 'off' : 'ramp';
+	if (p === 'off' || (isWide && p === 'bank')) return 'plan';
+	if (isWide) return 'off';
+	return p === 'plan' ? 'ramp' : p === 'ramp' ? 'bank' : 'off';
 }
 
 export interface ConsoleState {

@@ -178,7 +178,7 @@ export const bindings: readonly Binding[] = [
 			return Object.hasOwn(intents, i) ? intents[i] : undefined;
 		},
 	},
-	// One help line for both, so the overlay still fits 80×24 whole.
+	// One help line for both, so the overlay still fits 80×24 whole. At 80 columns p also cycles to the slider bank.
 	{keys: 'w  p  v', help: 'warnings; picture; vs.', section: 'The plan', modes: browsing, pick: (i, k) => is('w', 'warnings')(i, k) ?? is('p', 'picture')(i, k) ?? is('v', 'compare')(i, k)},
 	{keys: 'i', help: 'refine from an image', section: 'The plan', modes: browsing, pick: is('i', 'refine-image')},
 	{keys: '?', hint: 'keys', help: 'this list of keys', section: 'The plan', modes: [...browsing, 'overlay', 'sweep', 'refine'], pick: is('?', 'help')},
@@ -218,8 +218,11 @@ export const noFlags: KeyFlags = {
 	meta: false,
 };
 
-/** Hint-line entries for a mode, in table order: `keys word`. Arrow names are shortened. */
-export function hintsFor(mode: Mode): string[] {
+/**
+ * Hint-line entries for a mode, in table order: `keys word`. Arrow names are shortened. `page`
+ * names a page of the mode whose keys differ: the scanner panel's results (pages, keep, no Enter).
+ */
+export function hintsFor(mode: Mode, page?: 'scanner-result'): string[] {
 	const extra: Partial<Record<Mode, string[]>> = {
 		browse: ['↑↓ move', '+/- nudge', '←→ step'],
 		stack: ['↑↓ move', 'J/K reorder', '+/- thickness'],
@@ -230,7 +233,7 @@ export function hintsFor(mode: Mode): string[] {
 		sweep: ['↑↓ rows', '←→ columns'],
 		tissue: ['type to filter', '↑↓ move', 'Enter pick'],
 		overlay: ['Esc close'],
-		scanner: ['↑↓ move', 'Enter pick', '←→ page'],
+		scanner: page === 'scanner-result' ? ['←→ page', 's keep', 'S keep, replacing'] : ['↑↓ move', 'Enter pick', '←→ page'],
 		'edit-path': ['type a path', 'Enter measure'],
 		'refine-pick': ['type a path', 'Tab next field', 'Enter measure'],
 		refine: ['a accept', 'Enter another image'],

@@ -147,7 +147,7 @@ export const numberFields: Record<NumberKey, NumberField> = {
 			}),
 	},
 	measuredAlpha: {
-		spec: spec('a0 measured, this patient (0 = none)', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
+		spec: spec('a0 measured (0 = none)', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
 		get: (doc, i) => doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz,
 		set: (doc, i, v) =>
 			edit(doc, (d) => {
@@ -176,7 +176,7 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		check: (doc, i, v) => (v < (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be below the measured value' : undefined),
 	},
 	targetLayer: {
-		spec: spec('Target follows layer (0 = fixed)', '', {min: 0, max: limits.layers.max}, 1, 1, 0, true),
+		spec: spec('Target layer (0 = fixed)', '', {min: 0, max: limits.layers.max}, 1, 1, 0, true),
 		get: (doc) => doc.targetBelowLayer?.layer ?? 0,
 		set: (doc, _i, v) => setTargetLayer(doc, v, resolvePlan(doc)),
 		check: (doc, _i, v) => (v > doc.layers.length ? `must be 0 (a fixed depth) or a layer from 1 to ${doc.layers.length}` : undefined),

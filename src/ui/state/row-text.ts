@@ -50,7 +50,7 @@ export function thicknessText(cm: number): string {
 
 export function numberLabel(row: Row & {kind: 'number'}, doc?: PlanDocument): string {
 	if (row.key === 'refSliderDb') return `Usual slider ${row.index + 1}`;
-	if (row.key === 'target' && doc?.targetBelowLayer) return `Target, below top of layer ${doc.targetBelowLayer.layer}`;
+	if (row.key === 'target' && doc?.targetBelowLayer) return `Target below layer ${doc.targetBelowLayer.layer} top`;
 	if (row.key === 'target' && doc && doc.targetDepthCm === undefined) return 'Target depth (= display)';
 	return numberFields[row.key].spec.label;
 }

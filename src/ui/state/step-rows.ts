@@ -73,7 +73,7 @@ function usualRows(s: ConsoleState): Row[] {
 
 function curveRows(s: ConsoleState): Row[] {
 	const rows: Row[] = Array.from({length: s.doc.sliders.count}, (_, k): Row => ({kind: 'slider', id: `s:${k}`, index: k}));
-	rows.push(action('save', 'Save as a preset'), action('export', 'Export JSON + text summary'), action('sweep', 'Sweep over fat thickness'), action('refine', 'Refine from an image of the patient'));
+	rows.push(action('save', 'Save as a preset'), action('export', 'Export JSON + text summary'), action('sweep', 'Sweep over fat thickness'), action('refine', 'Refine from an image'));
 	return rows;
 }
 

@@ -7,7 +7,7 @@ import {fatLayerToSweep} from '../../plan/fat-layer.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {layoutFor} from '../kit/layout.js';
-import {queue, setCursor} from './state-helpers.js';
+import {setCursor, withNotice} from './state-helpers.js';
 import {rowsOf} from './step-rows.js';
 import {sweepFatCm, sweepFieldText, sweepTextMax, type SweepState} from './sweep-state.js';
 import {parseFatList} from './sweep-table.js';
@@ -35,7 +35,7 @@ export function openSweep(s: ConsoleState): ConsoleState {
 	const own = layer === null ? -1 : fatCm.indexOf(s.doc.layers[layer]!.thicknessCm);
 	const at = rowsOf(s, 'curve').findIndex((r) => r.kind === 'action' && r.action === 'sweep');
 	const onStep = setCursor({...s, step: 'curve', pane: 'step', returnStep: null, openLayer: null, refusal: null, editing: null}, 'curve', Math.max(0, at));
-	return withSweep(onStep, {isOpen: true, typing: null, refusal: null, files: [], column: 0, row: Math.max(0, own)});
+	return withSweep(onStep, {isOpen: true, typing: null, refusal: null, column: 0, row: Math.max(0, own)});
 }
 
 export function closeSweep(s: ConsoleState): ConsoleState {
@@ -65,7 +65,9 @@ export function sweepIntent(s: ConsoleState, intent: Intent): ConsoleState | und
 		case 'enter':
 			return withSweep(s, {typing: openEntry(sweepFieldText(sw, s.doc)), refusal: null});
 		case 'export':
-			return queue(s, {kind: 'export-sweep', fatCm: sweepFatCm(sw, s.doc), isDelta: sw.isDelta});
+			if (fatLayerToSweep(s.doc) === null) return withNotice(s, 'Nothing exported: the plan has no fat layer to sweep.', 'warning');
+			// The plan export's folder prompt, carrying the list and the deltas choice.
+			return {...s, overlay: {kind: 'path', ...openEntry(s.exportFolder), sweep: {fatCm: sweepFatCm(sw, s.doc), isDelta: sw.isDelta}}};
 		case 'back':
 			return closeSweep(s);
 		default:
@@ -90,7 +92,7 @@ export function sweepTypingIntent(s: ConsoleState, intent: Intent, input: string
 		case 'enter': {
 			const r = parseFatList(typing.text);
 			if (!r.ok) return withSweep(s, {refusal: r.message});
-			return withSweep(s, {list: {text: typing.text.trim(), fatCm: r.fatCm}, typing: null, refusal: null, row: Math.min(s.sweep.row, r.fatCm.length - 1), files: []});
+			return withSweep(s, {list: {text: typing.text.trim(), fatCm: r.fatCm}, typing: null, refusal: null, row: Math.min(s.sweep.row, r.fatCm.length - 1)});
 		}
 		default:
 			return s;

@@ -31,11 +31,9 @@ export interface SweepState {
 	readonly row: number;
 	/** The first scrolled column (the thickness column always stays), 0-based. */
 	readonly column: number;
-	/** The files the last export from this view wrote. */
-	readonly files: readonly string[];
 }
 
-export const closedSweep: SweepState = {isOpen: false, list: null, typing: null, refusal: null, isDelta: false, row: 0, column: 0, files: []};
+export const closedSweep: SweepState = {isOpen: false, list: null, typing: null, refusal: null, isDelta: false, row: 0, column: 0};
 
 /**
  * The default list: 1, 2, 3, 4, 6, 8 cm for displays 8 cm deep or more, 0.25, 0.5, 0.75, 1, 1.5,

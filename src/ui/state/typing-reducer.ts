@@ -90,7 +90,7 @@ export function editTextIntent(s: ConsoleState, intent: Intent, input: string): 
 /** Longest folder path typed for an export. */
 const pathMax = 400;
 
-/** Keys while typing the export folder: Enter exports there (asking first if it would replace files). */
+/** Keys while typing the export folder (the plan's or the fat sweep's): Enter exports there, asking first if it would replace files. */
 function editPathIntent(s: ConsoleState, o: Overlay & {kind: 'path'}, intent: Intent, input: string): ConsoleState {
 	switch (intent) {
 		case 'back':
@@ -101,7 +101,7 @@ function editPathIntent(s: ConsoleState, o: Overlay & {kind: 'path'}, intent: In
 			return {...s, overlay: {...o, ...eraseIn(o)}};
 		case 'enter': {
 			const dir = o.text.trim() || '.';
-			return queue({...s, overlay: null, exportFolder: dir}, {kind: 'export', dir, replace: false});
+			return queue({...s, overlay: null, exportFolder: dir}, {kind: 'export', dir, replace: false, ...(o.sweep ? {sweep: o.sweep} : {})});
 		}
 		default:
 			return s;

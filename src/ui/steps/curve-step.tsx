@@ -10,6 +10,7 @@ import {fitLine, masterLine, reachText, shortWarning} from '../state/curve-facts
 import {wrapWords} from '../kit/layout.js';
 import type {Layout} from '../kit/layout.js';
 import {PictureView} from '../picture/picture-view.js';
+import {BankView} from '../plot/bank-view.js';
 import {PlotView} from '../plot/plot-view.js';
 import {RowLine} from '../kit/row-line.js';
 import {bankTrackFor, SliderTable} from '../plot/slider-table.js';
@@ -93,6 +94,8 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 			<Box flexDirection="row" width={width} height={sideRows}>
 				{state.picture === 'off' ? (
 					<PlotView curve={curve} width={layout.plotWidth} height={sideRows - 2} {...(slider >= 0 ? {selectedSlider: slider} : {})} />
+				) : state.picture === 'bank' ? (
+					<BankView curve={curve} width={layout.plotWidth} height={sideRows} selected={slider} />
 				) : (
 					<PictureView curve={curve} kinds={[state.picture]} width={layout.plotWidth} height={sideRows - 2} />
 				)}

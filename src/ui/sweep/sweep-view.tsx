@@ -1,7 +1,7 @@
 /**
  * Step 5's fat-thickness sweep: the current plan fitted at each thickness of its fat layer, one
  * row per thickness, the thickness column fixed and the others scrolling, with the list field on
- * top and the files of the last export underneath. Uses the whole width in both layouts.
+ * top; the export's full path is said on the status line. Uses the whole width in both layouts.
  */
 import {Box, Text} from 'ink';
 import {fatLayerToSweep} from '../../plan/fat-layer.js';
@@ -49,7 +49,6 @@ export function SweepView({state, width, height}: SweepViewProps) {
 	const sw = state.sweep;
 	const outcome = sweepTable(state.doc, sweepFatCm(sw, state.doc), sw.isDelta);
 	const field = fieldLines(state, width);
-	const files = sw.files.length ? wrapWords(`Wrote here: ${sw.files.join(' ')}`, width) : [];
 	const top = (
 		<>
 			<Text wrap="truncate" {...theme.current}>
@@ -69,19 +68,18 @@ export function SweepView({state, width, height}: SweepViewProps) {
 			</Text>
 		));
 	if (!outcome.ok) {
-		const room = Math.max(1, height - 1 - field.length - files.length);
+		const room = Math.max(1, height - 1 - field.length);
 		return (
 			<Box flexDirection="column" width={width}>
 				{top}
 				{bottom(wrapWords(`! ${outcome.message}`, width).slice(0, room), theme.refusal)}
-				{bottom(files, theme.done)}
 			</Box>
 		);
 	}
 	const table = outcome.table;
 	const warnLine = warningKey(table);
 	// Notes under the table give way (the column key first, from its end) when the rows would get too few.
-	const fixedRows = 1 + field.length + 1 + 2 + files.length;
+	const fixedRows = 1 + field.length + 1 + 2;
 	// Whole notes, each a paragraph: the warning codes first, then what the columns mean.
 	const paragraphs = [...(warnLine === null ? [] : [warnLine]), ...columnKey(table)].map((p) => wrapWords(p, width));
 	const lineCount = () => paragraphs.reduce((n, p) => n + p.length, 0);
@@ -109,7 +107,6 @@ export function SweepView({state, width, height}: SweepViewProps) {
 					{clip(l, width)}
 				</Text>
 			))}
-			{bottom(files, theme.done)}
 		</Box>
 	);
 }
