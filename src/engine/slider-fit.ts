@@ -294,8 +294,14 @@ function splitTotals(totals: readonly number[], req: FitRequest, prepared?: Prep
 	const ideal = usableMeanTotal(totals, req, prepared) - (bank.minDb + bank.maxDb) / 2;
 	const lo = Math.max(master.minDb, hMax - bank.maxDb);
 	const hi = Math.min(master.maxDb, hMin - bank.minDb);
+	// When the fitted totals use the whole slider range, rounding (or the tie-break's 1e-9 slack) can
+	// leave lo above hi by a hair; the master then goes midway, so no slider is clipped by more than
+	// that hair. Clamping `ideal` into the master range instead clipped sliders by up to ~12 dB.
+	const hair = 1e-6 * (1 + Math.abs(lo) + Math.abs(hi));
+	const nearlyReachable = lo > hi && lo - hi <= hair;
 	// Unreachable totals (naive fit only): centre the sliders as far as the master allows.
-	const m = lo <= hi ? clamp(ideal, lo, hi) : clamp(ideal, master.minDb, master.maxDb);
+	let m = lo <= hi ? clamp(ideal, lo, hi) : clamp(ideal, master.minDb, master.maxDb);
+	if (nearlyReachable) m = clamp((lo + hi) / 2, master.minDb, master.maxDb);
 	const masterDb = finiteOr(m, finiteOr(master.minDb, 0));
 	const sliderDb = totals.map((h) => finiteOr(clamp(h - masterDb, bank.minDb, bank.maxDb), finiteOr(bank.minDb, 0)));
 	return {masterDb, sliderDb};
