@@ -77,7 +77,13 @@ export function ScannerView({overlay, plan, chosen, width, height}: ScannerViewP
 		const {cal, input, page} = mode;
 		const p = measurePages[page]!;
 		push(`"${cal.label}" ${page + 1}/${measurePages.length}: ${pageTitles[p]}   (←→ pages, s keeps, Esc drops)`, 'current');
-		push(`  ${measurePages.map((q, i) => (i === page ? `[${pageTitles[q]}]` : pageTitles[q])).join(' · ')}`, 'muted');
+		const naming = mode.naming;
+		if (naming) {
+			// The name line takes the page list's place, so the page below keeps its size.
+			const what = naming.replace ? 'Enter keeps it, replacing one of that name' : 'Enter keeps it';
+			push(`  keep as: ${naming.text}_   (${what}; Esc back)`, 'selected');
+			if (naming.error) push(`  ${naming.error}`, 'warn');
+		} else push(`  ${measurePages.map((q, i) => (i === page ? `[${pageTitles[q]}]` : pageTitles[q])).join(' · ')}`, 'muted');
 		const body = height - 4;
 		if (p === 'images') {
 			const shots = [

@@ -7,12 +7,15 @@
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
-import {measurePages, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
+import {measurePages, type KeepNaming, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
 import {buildSession, labelFor} from './session-builder.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
+import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
 
 /** Longest session path the panel takes. */
 const pathMax = 1000;
+/** Longest profile name the store takes (its own check says so in full). */
+const profileNameMax = 60;
 
 /** The list row of the plan's current choice: 0 is "none", then the profiles in order. */
 function rowOf(profiles: readonly ScannerProfile[], id: string | undefined): number {
@@ -83,6 +86,7 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 		case 'build':
 			return buildIntent(s, o, p, intent, input);
 		case 'result': {
+			if (p.naming) return namingIntent(s, o, p, p.naming, intent, input);
 			if (intent === 'back') return withPanel(s, o, {kind: 'list', cursor: rowOf(o.profiles ?? [], s.doc.scanner)});
 			if (intent === 'prev-step' || intent === 'next-step') {
 				const page = Math.max(0, Math.min(measurePages.length - 1, p.page + (intent === 'prev-step' ? -1 : 1)));
@@ -90,10 +94,35 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 			}
 			if (intent === 'keep' || intent === 'keep-replace') {
 				const {message: _, ...rest} = p;
-				return queue(withPanel(s, o, rest), {kind: 'scanner-keep', cal: p.cal, replace: intent === 'keep-replace'});
+				const naming = {...openEntry(p.name ?? p.cal.label), replace: intent === 'keep-replace'};
+				return withPanel(s, o, {...rest, naming});
 			}
 			return s;
 		}
+	}
+}
+
+type ResultPanel = ScannerPanel & {kind: 'result'};
+
+/** Keys while typing the name a measurement is kept under: the console's shared text entry. */
+function namingIntent(s: ConsoleState, o: ScannerOverlay, p: ResultPanel, naming: KeepNaming, intent: Intent, input: string): ConsoleState {
+	const {naming: _, ...panel} = p;
+	const {error: __, ...entry} = naming;
+	switch (intent) {
+		case 'back':
+			return withPanel(s, o, panel);
+		case 'type':
+			return withPanel(s, o, {...panel, naming: {...entry, ...typeInto(entry, printableChars(input), profileNameMax)}});
+		case 'erase':
+			return withPanel(s, o, {...panel, naming: {...entry, ...eraseIn(entry)}});
+		case 'enter': {
+			const name = naming.text.trim();
+			if (!name) return withPanel(s, o, {...p, naming: {...entry, error: `name: type 1 to ${profileNameMax} characters`}});
+			const {message: ___, ...rest} = panel;
+			return queue(withPanel(s, o, {...rest, name}), {kind: 'scanner-keep', cal: p.cal, replace: naming.replace, name});
+		}
+		default:
+			return s;
 	}
 }
 
