@@ -8,7 +8,7 @@ import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {measurePages, type KeepNaming, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
-import {buildSession, labelFor} from './session-builder.js';
+import {buildSession, labelFor, needsPixelScale} from './session-builder.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
 import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
 
@@ -139,8 +139,15 @@ export function scannerResult(s: ConsoleState, a: ScannerAction): ConsoleState {
 		}
 		case 'scanner-folder':
 			if (o.panel.kind !== 'measuring') return s;
-			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM images (.dcm) here; give a session file for PNG images`});
-			return withPanel(s, o, {kind: 'build', folder: a.folder, images: a.images.map((name) => ({name, entry: ''})), cursor: 0, typing: null});
+			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM (.dcm) or PNG (.png) images here`});
+			return withPanel(s, o, {
+				kind: 'build',
+				folder: a.folder,
+				images: a.images.map((name) => ({name, entry: ''})),
+				cursor: 0,
+				typing: null,
+				...(a.images.some(needsPixelScale) ? {scale: ''} : {}),
+			});
 		case 'scanner-measured':
 			return o.panel.kind === 'measuring' ? withPanel(s, fresh(o), {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0}) : s;
 		case 'scanner-refused':
@@ -156,25 +163,30 @@ type BuildPanel = ScannerPanel & {kind: 'build'};
 /** Keys while building a session from a folder's images: move, type each image's line, measure. */
 function buildIntent(s: ConsoleState, o: ScannerOverlay, p: BuildPanel, intent: Intent, input: string): ConsoleState {
 	const {error: _, ...panel} = p;
+	// Rows: the images, then the depth-scale line when the folder has PNG images, then "measure".
+	const scaleRow = p.scale === undefined ? -1 : p.images.length;
+	const lastRow = p.images.length + (p.scale === undefined ? 0 : 1);
 	if (p.typing !== null) {
 		if (intent === 'back') return withPanel(s, o, {...panel, typing: null});
 		if (intent === 'erase') return withPanel(s, o, {...panel, typing: p.typing.slice(0, -1)});
 		if (intent === 'type') return withPanel(s, o, {...panel, typing: (p.typing + [...input].filter((c) => c >= ' ' && c !== '\u007F').join('')).slice(0, 40)});
 		if (intent === 'enter') {
+			if (p.cursor === scaleRow) return withPanel(s, o, {...panel, scale: p.typing, typing: null, cursor: lastRow});
 			const images = p.images.map((im, i) => (i === p.cursor ? {...im, entry: p.typing!} : im));
-			return withPanel(s, o, {...panel, images, typing: null, cursor: Math.min(p.images.length, p.cursor + 1)});
+			return withPanel(s, o, {...panel, images, typing: null, cursor: Math.min(lastRow, p.cursor + 1)});
 		}
 		return s;
 	}
 	if (intent === 'back') return withPanel(s, o, {kind: 'path', text: p.folder});
 	if (intent === 'up' || intent === 'down') {
-		const cursor = Math.max(0, Math.min(p.images.length, p.cursor + (intent === 'up' ? -1 : 1)));
+		const cursor = Math.max(0, Math.min(lastRow, p.cursor + (intent === 'up' ? -1 : 1)));
 		return withPanel(s, o, {...panel, cursor});
 	}
 	if (intent !== 'enter') return s;
 	if (p.cursor < p.images.length) return withPanel(s, o, {...panel, typing: p.images[p.cursor]!.entry});
+	if (p.cursor === scaleRow) return withPanel(s, o, {...panel, typing: p.scale ?? ''});
 	const folderName = p.folder.replace(/[\\/]+$/, '').split(/[\\/]/).pop() ?? '';
-	const built = buildSession(p.images, s.doc, labelFor(folderName));
+	const built = buildSession(p.images, s.doc, labelFor(folderName), s.doc.display.depthCm, p.scale);
 	if (!built.ok) return withPanel(s, o, {...panel, error: built.message});
 	const measuring = {...s, overlay: {...o, panel: {kind: 'measuring', path: p.folder} as const, built: panel}};
 	return queue(measuring, {kind: 'scanner-measure-built', folder: p.folder, session: built.session});

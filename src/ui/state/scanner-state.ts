@@ -27,8 +27,10 @@ export type ScannerPanel =
 			readonly kind: 'build';
 			readonly folder: string;
 			readonly images: readonly BuiltImage[];
-			/** Row under the cursor: an image, or the last row (measure these). */
+			/** Row under the cursor: an image, the depth-scale line (PNG folders), or the last row (measure these). */
 			readonly cursor: number;
+			/** The folder's depth-scale line (cm per pixel, top row cm) when it holds PNG images. */
+			readonly scale?: string;
 			/** The line being typed for the image under the cursor, or null. */
 			readonly typing: string | null;
 			readonly error?: string;
