@@ -403,9 +403,12 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 			};
 		}
 	}
-	const attenuation: AttenuationResult | null = lf.estimate
+	// Without a profile the 95 % interval from the speckle statistics is widened to hold what the
+	// assumptions (range ±10 dB, ramp ±0.1 dB/cm/MHz) alone would read: calibration uncertainty.
+	const widened = lf.estimate && uncalibrated ? widen(lf.estimate, [uncalibrated.alphaAtRange, uncalibrated.alphaAtRamp]) : lf.estimate;
+	const attenuation: AttenuationResult | null = widened
 		? {
-				...lf.estimate,
+				...widened,
 				layerIndex,
 				label: span.layer.tissue.label,
 				planAlphaDbPerCmMhz: span.layer.tissue.alphaDbPerCmMhz,
@@ -473,7 +476,7 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		const fmt = (r: readonly [number, number] | null) => (r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable');
 		warnings.unshift({
 			code: 'uncalibrated',
-			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display, the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz) and its noise ${noiseSource(uncalibrated)}. Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; ${noiseCost(uncalibrated)}; a focal zone or processing curve adds its own dB per slider. Calibrate the scanner for measured corrections.`,
+			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display, the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz) and its noise ${noiseSource(uncalibrated)}. Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; ${noiseCost(uncalibrated)}; a focal zone or processing curve adds its own dB per slider.${attenuation ? ' The α0 interval is widened to hold the range and ramp readings.' : ''} Calibrate the scanner for measured corrections.`,
 		});
 	}
 
@@ -497,6 +500,18 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		uncalibrated,
 		warnings,
 	};
+}
+
+/** The estimate with its interval stretched over the assumption-shifted readings. */
+function widen(est: AttenuationEstimate, pairs: readonly (readonly [number, number] | null)[]): AttenuationEstimate {
+	let low = est.low;
+	let high = est.high;
+	for (const p of pairs) {
+		if (!p) continue;
+		low = Math.min(low, Math.max(0, p[0]));
+		high = Math.max(high, p[1]);
+	}
+	return {...est, low, high};
 }
 
 function noiseSource(u: UncalibratedCost): string {
