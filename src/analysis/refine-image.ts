@@ -25,6 +25,7 @@ import {fitLayerAttenuation, withLayerAlpha, type AttenuationEstimate, type FitB
 import {bandRows, measureBands, type BandMeasurement} from './band-levels.js';
 import {windowStatistics} from '../speckle/correlation-area.js';
 import {regionBottomCm, type GreyFrame, type MeasuredRegion} from './grey-frame.js';
+import {imageNoiseLevel, type ImageNoise} from './image-noise.js';
 import {logLevelMap, type LevelMap} from './level-map.js';
 import {maskNonSpeckle, type SpeckleMask} from './speckle-mask.js';
 
@@ -115,7 +116,15 @@ export interface UncalibratedCost {
 	readonly alphaAtRange: readonly [number, number] | null;
 	/** α0 if the scanner's own ramp were 0.1 dB/cm/MHz lower / higher than assumed. */
 	readonly alphaAtRamp: readonly [number, number] | null;
+	/** The plan's noise budget, and the one the image's own level course shows (null when it shows no noise), dB. */
+	readonly planNoiseBudgetDb: number;
+	readonly imageNoiseBudgetDb: number | null;
+	/** α0 had the plan's noise budget been trusted, when the image shows more noise than it allows. */
+	readonly alphaAtPlanBudget: number | null;
 }
+
+/** Without a profile, α0 is not reported when the image's noise sits this far (dB) above the plan's budget. */
+export const noiseBudgetDisagreementDb = 6;
 
 export interface RefineResult {
 	readonly ok: true;
@@ -202,6 +211,8 @@ function evaluate(
 	map: LevelMap,
 	measured: readonly BandMeasurement[],
 	levelOf: (m: BandMeasurement) => number,
+	/** Noise relative to the delivered gain on the image's scale, dB, when judged from the image. */
+	imageNoiseDb: number | null = null,
 ): Evaluated {
 	const model = pathModelOf(plan);
 	const spans = model.spans;
@@ -234,7 +245,7 @@ function evaluate(
 	const shallow = drafts.filter((d) => d.verdict === 'usable').slice(0, 3).map((d) => d.residualDb);
 	const offsetDb = shallow.length ? median(shallow) : 0;
 	for (const d of drafts) {
-		d.noiseDb = d.delivered - plan.noiseBudgetDb + offsetDb;
+		d.noiseDb = d.delivered + Math.max(offsetDb - plan.noiseBudgetDb, imageNoiseDb ?? Number.NEGATIVE_INFINITY);
 		if (d.verdict !== 'usable') continue;
 		const excess = 10 ** ((levelOf(d.m) - d.noiseDb) / 10) - 1;
 		d.echoToNoiseDb = excess > 0 ? 10 * Math.log10(excess) : Number.NEGATIVE_INFINITY;
@@ -242,6 +253,15 @@ function evaluate(
 		else if (d.m.halfWidthDb > usableHalfWidthDb) d.verdict = 'too-few-cells';
 	}
 	return {bands: drafts, offsetDb};
+}
+
+/** The image's own noise level from the bands of the fitted layer and below that show speckle. */
+function noiseFromImage(ev: Evaluated, plan: EnginePlan, layerIndex: number): ImageNoise | null {
+	const span = pathModelOf(plan).spans[layerIndex]!;
+	const bands = ev.bands
+		.filter((d) => (d.verdict === 'usable' || d.verdict === 'below-noise') && d.m.topCm >= span.shownTopCm - 1e-6)
+		.map((d) => ({sampleDepthsCm: d.samples, residualDb: d.residualDb, sdDb: d.m.sdDb}));
+	return imageNoiseLevel(plan, layerIndex, bands);
 }
 
 /** The tissue echo's level with the noise power taken out (the level itself when it does not exceed the noise). */
@@ -323,7 +343,13 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const mask = maskNonSpeckle(frame, region, map, cellAreaPx);
 	const measured = measureBands(frame, region, mask, map);
 	const levelOf = (m: BandMeasurement) => m.levelDb;
-	const ev = evaluate(plan, applied, own, map, measured, levelOf);
+	const bottom = regionBottomCm(region);
+	const layerIndex = req.layerIndex ?? deepestShownLayer(plan, bottom);
+	let ev = evaluate(plan, applied, own, map, measured, levelOf);
+	// Without a profile the plan's noise budget is an assumption the scanner may not meet: judge the
+	// noise from the image's own level course in the fitted layer, and keep the higher of the two.
+	const noise = map.calibrated ? null : noiseFromImage(ev, plan, layerIndex);
+	if (noise?.seen) ev = evaluate(plan, applied, own, map, measured, levelOf, noise.noiseDb);
 	req.onStage?.('bands');
 	const usableBands = ev.bands.filter((d) => d.verdict === 'usable');
 	if (usableBands.length < fewestTissueBands) {
@@ -351,13 +377,38 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		}
 	}
 
-	const bottom = regionBottomCm(region);
-	const layerIndex = req.layerIndex ?? deepestShownLayer(plan, bottom);
-	const lf = fitLayer(ev, plan, layerIndex, levelOf);
+	let lf = fitLayer(ev, plan, layerIndex, levelOf);
 	const span = pathModelOf(plan).spans[layerIndex]!;
-	const attenuation: AttenuationResult | null = lf.estimate
+	const imageNoiseDb = noise?.seen ? noise.noiseDb : null;
+	let uncalibrated: UncalibratedCost | null = null;
+	if (!map.calibrated) {
+		const cost = uncalibratedCost(req, layerIndex, applied, own, measured, dynamicRangeDb, lf.estimate?.alphaDbPerCmMhz ?? null, imageNoiseDb);
+		uncalibrated = {
+			...cost,
+			planNoiseBudgetDb: plan.noiseBudgetDb,
+			imageNoiseBudgetDb: imageNoiseDb === null ? null : ev.offsetDb - imageNoiseDb,
+			alphaAtPlanBudget: imageNoiseDb === null || !lf.estimate ? null : alphaAtPlanBudget(plan, applied, own, map, measured, layerIndex),
+		};
+		// Noise and tissue are told apart by how their levels follow the delivered gain, which without a
+		// profile is the assumed ramp. When the image's noise sits far above the plan's budget it covers
+		// much of the layer, and a ramp error tilts those bands like a change of α0: then say so, not a number.
+		const est = lf.estimate;
+		const short = uncalibrated.imageNoiseBudgetDb === null ? 0 : plan.noiseBudgetDb - uncalibrated.imageNoiseBudgetDb;
+		if (est && short > noiseBudgetDisagreementDb) {
+			const trusted = uncalibrated.alphaAtPlanBudget === null ? '' : `, ${uncalibrated.alphaAtPlanBudget.toFixed(2)} trusting the plan's noise budget`;
+			lf = {
+				estimate: null,
+				fitted: new Set(),
+				cannotTell: `without a scanner profile the image cannot tell layer ${layerIndex + 1} (${span.layer.tissue.label}): its noise shows at ${uncalibrated.imageNoiseBudgetDb!.toFixed(0)} dB of loss, ${short.toFixed(0)} dB short of the plan's ${plan.noiseBudgetDb.toFixed(0)} dB budget, so deep bands are noise and telling them from tissue rests on the assumed ramp (α0 would read ${est.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz leaving them out${trusted}); calibrate the scanner to measure it`,
+			};
+		}
+	}
+	// Without a profile the 95 % interval from the speckle statistics is widened to hold what the
+	// assumptions (range ±10 dB, ramp ±0.1 dB/cm/MHz) alone would read: calibration uncertainty.
+	const widened = lf.estimate && uncalibrated ? widen(lf.estimate, [uncalibrated.alphaAtRange, uncalibrated.alphaAtRamp]) : lf.estimate;
+	const attenuation: AttenuationResult | null = widened
 		? {
-				...lf.estimate,
+				...widened,
 				layerIndex,
 				label: span.layer.tissue.label,
 				planAlphaDbPerCmMhz: span.layer.tissue.alphaDbPerCmMhz,
@@ -421,13 +472,11 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		});
 	}
 
-	let uncalibrated: UncalibratedCost | null = null;
-	if (!map.calibrated) {
-		uncalibrated = uncalibratedCost(req, layerIndex, applied, own, measured, dynamicRangeDb, attenuation?.alphaDbPerCmMhz ?? null);
+	if (uncalibrated) {
 		const fmt = (r: readonly [number, number] | null) => (r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable');
 		warnings.unshift({
 			code: 'uncalibrated',
-			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display and the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz). Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; a focal zone or processing curve adds its own dB per slider. Calibrate the scanner for measured corrections.`,
+			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display, the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz) and its noise ${noiseSource(uncalibrated)}. Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; ${noiseCost(uncalibrated)}; a focal zone or processing curve adds its own dB per slider.${attenuation ? ' The α0 interval is widened to hold the range and ramp readings.' : ''} Calibrate the scanner for measured corrections.`,
 		});
 	}
 
@@ -453,6 +502,47 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	};
 }
 
+/** The estimate with its interval stretched over the assumption-shifted readings. */
+function widen(est: AttenuationEstimate, pairs: readonly (readonly [number, number] | null)[]): AttenuationEstimate {
+	let low = est.low;
+	let high = est.high;
+	for (const p of pairs) {
+		if (!p) continue;
+		low = Math.min(low, Math.max(0, p[0]));
+		high = Math.max(high, p[1]);
+	}
+	return {...est, low, high};
+}
+
+function noiseSource(u: UncalibratedCost): string {
+	return u.imageNoiseBudgetDb === null
+		? `as the plan's budget (${u.planNoiseBudgetDb.toFixed(0)} dB), which the image does not contradict`
+		: `as the image's own level course shows it (at ${u.imageNoiseBudgetDb.toFixed(0)} dB of loss; the plan budgets ${u.planNoiseBudgetDb.toFixed(0)} dB)`;
+}
+
+function noiseCost(u: UncalibratedCost): string {
+	if (u.imageNoiseBudgetDb === null) {
+		return 'if the scanner\'s noise is higher than the budget, deep noise can pass as tissue and α0 reads low';
+	}
+	const trusted = u.alphaAtPlanBudget === null ? '' : ` (trusting the plan's budget, α0 would read ${u.alphaAtPlanBudget.toFixed(2)})`;
+	return `bands where the image's level follows the gain the way noise does are left out${trusted}, but without a probe-in-air image the noise level is itself an estimate`;
+}
+
+/** α0 with the plan's stated noise budget, as if the image's noise had not been judged. */
+function alphaAtPlanBudget(
+	plan: EnginePlan,
+	applied: AppliedSettings,
+	own: OwnDepthGain,
+	map: LevelMap,
+	measured: readonly BandMeasurement[],
+	layerIndex: number,
+): number | null {
+	const levelOf = (m: BandMeasurement) => m.levelDb;
+	const ev = evaluate(plan, applied, own, map, measured, levelOf);
+	const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);
+	return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands).alphaDbPerCmMhz : null;
+}
+
 /** Re-runs the fit with the dynamic range ±10 dB and the ramp ±0.1 dB/cm/MHz. */
 function uncalibratedCost(
 	req: RefineRequest,
@@ -462,7 +552,8 @@ function uncalibratedCost(
 	measured: readonly BandMeasurement[],
 	dynamicRangeDb: number,
 	measuredAlpha: number | null,
-): UncalibratedCost {
+	imageNoiseDb: number | null,
+): Pick<UncalibratedCost, 'dynamicRangeDb' | 'alphaAtRange' | 'alphaAtRamp'> {
 	if (measuredAlpha === null) return {dynamicRangeDb, alphaAtRange: null, alphaAtRamp: null};
 	const {plan} = req;
 	const alphaWith = (range: number, rampShift: number): number => {
@@ -470,7 +561,8 @@ function uncalibratedCost(
 		const levelOf = (m: BandMeasurement) => map.levelDb(m.meanGrey);
 		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * ((plan.probe.receive ?? 'fundamental') !== 'fundamental' ? 3 : 2) * plan.probe.centerMhz * d);
 		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
-		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf);
+		// The image's noise scales with the range like every level read through the map.
+		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf, imageNoiseDb === null ? null : (imageNoiseDb * range) / dynamicRangeDb);
 		const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);
 		return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands, measuredAlpha).alphaDbPerCmMhz : Number.NaN;
 	};

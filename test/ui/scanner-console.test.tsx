@@ -85,7 +85,10 @@ describe('the measured-scanner panel', () => {
 		expect(noise).toMatch(/penetration \d+\.\d cm \(v\)/);
 		expect(noise).toMatch(/full travel adds \d+\.\d dB/);
 
+		// s asks for the name, offering the session's label.
 		await press(app, 's');
+		expect(frame(app)).toContain('keep as: Cart B, curved array, abdomen (simulated)_');
+		await press(app, keys.enter);
 		await waitForText(app, 'Kept the scanner profile');
 		const listed = lib.store.openScannerProfileStore(home).list().profiles;
 		expect(listed.map((p) => p.id)).toEqual(['cart-b-curved-array-abdomen-simulated']);

@@ -36,7 +36,7 @@ export function runScannerEffect(effect: ScannerEffect, scanners: ScannerService
 			return [];
 		case 'scanner-keep':
 			try {
-				const kept = scanners.keep(effect.cal, effect.replace);
+				const kept = scanners.keep(effect.cal, effect.replace, effect.name);
 				return [{type: 'scanner-profiles', ...scanners.list(), kept}];
 			} catch (error) {
 				return [{type: 'scanner-refused', message: `Not kept: ${messageOf(error)}`}];

@@ -23,8 +23,8 @@ export interface ScannerServices {
 	folderImages(path: string): readonly string[] | null;
 	/** Measures a session built in the console from a folder's images. */
 	measureBuilt(folder: string, session: ScannerSession): Promise<{readonly input: CalibrationInput; readonly cal: ScannerCalibration}>;
-	/** Stores the measurement under its label; returns the profile id. Throws when taken and not `replace`. */
-	keep(cal: ScannerCalibration, replace: boolean): string;
+	/** Stores the measurement under `name` (default its label); returns the profile id. Throws when taken and not `replace`. */
+	keep(cal: ScannerCalibration, replace: boolean, name?: string): string;
 }
 
 const messageOf = (e: unknown) => printable(e instanceof Error ? e.message : String(e));
@@ -78,9 +78,9 @@ export function scannerServicesOver(open: () => ScannerProfileStore): ScannerSer
 				throw new Error(messageOf(error));
 			}
 		},
-		keep(cal, replace) {
+		keep(cal, replace, typed) {
 			try {
-				const {name, id} = checkProfileName(cal.label, 'label (the session label names the profile)');
+				const {name, id} = typed === undefined ? checkProfileName(cal.label, 'label (the session label names the profile)') : checkProfileName(typed, 'name');
 				const store = open();
 				if (!replace && store.list().profiles.some((p) => p.id === id)) throw new Error(`a scanner profile "${id}" already exists; S replaces it`);
 				store.save(profileFromCalibration(cal, id, name), {replace});

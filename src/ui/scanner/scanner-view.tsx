@@ -11,7 +11,7 @@ import {wrapWords} from '../kit/layout.js';
 import {useTheme} from '../kit/theme-context.js';
 import type {PlanDocument} from '../../plan/plan-schema.js';
 import {measurePages, type MeasurePage, type ScannerOverlay} from '../state/scanner-state.js';
-import {roleText} from '../state/session-builder.js';
+import {pixelScaleOf, roleText} from '../state/session-builder.js';
 import {depthResponsePlot, greyMapPlot, penetrationPlot} from './calibration-plots.js';
 import {imageThumbnail} from './image-thumbnail.js';
 
@@ -54,7 +54,7 @@ export function ScannerView({overlay, plan, chosen, width, height}: ScannerViewP
 		else if (!profiles.length) push('  No profiles yet: press c and give a session file (evenecho-scanner-session/1).', 'muted');
 		for (const problem of overlay.problems.slice(0, 2)) push(`  note: ${problem}`, 'warn');
 	} else if (mode.kind === 'path' || mode.kind === 'measuring') {
-		push('Measure a scanner from phantom images: a session file, or a folder of DICOM images to build one', 'current');
+		push('Measure a scanner from phantom images: a session file, or a folder of DICOM or PNG images to build one', 'current');
 		push(`  session file or folder: ${mode.kind === 'path' ? mode.text : mode.path}${mode.kind === 'path' ? '_' : ''}`);
 		if (mode.kind === 'measuring') push('  measuring… (reading the images, then fitting the grey map)', 'muted');
 		if (mode.kind === 'path' && mode.error) for (const part of wrapWords(mode.error, width - 4).slice(0, 4)) push(`  ${part}`, 'warn');
@@ -70,14 +70,28 @@ export function ScannerView({overlay, plan, chosen, width, height}: ScannerViewP
 			const typed = isHere && mode.typing !== null ? `${mode.typing}_` : im.entry;
 			push(`${isHere ? '>' : ' '} ${clip(im.name, 24).padEnd(24)} ${typed.padEnd(14)} ${isHere && mode.typing !== null ? '' : roleText(im.entry)}`, isHere ? 'selected' : undefined);
 		});
-		push(`${mode.cursor === mode.images.length ? '>' : ' '} [ Measure these ]`, mode.cursor === mode.images.length ? 'selected' : undefined);
+		const lastRow = mode.images.length + (mode.scale === undefined ? 0 : 1);
+		if (mode.scale !== undefined) {
+			const isHere = mode.cursor === mode.images.length;
+			const typed = isHere && mode.typing !== null ? `${mode.typing}_` : mode.scale;
+			const read = pixelScaleOf(mode.scale);
+			const said = typeof read === 'string' ? 'cm per pixel, top row cm (e.g. 0.02 0)' : `${read.cmPerPixel} cm per pixel, top row at ${read.topRowCm} cm`;
+			push(`${isHere ? '>' : ' '} ${'PNG depth scale'.padEnd(24)} ${typed.padEnd(14)} ${isHere && mode.typing !== null ? '' : said}`, isHere ? 'selected' : undefined);
+		}
+		push(`${mode.cursor === lastRow ? '>' : ' '} [ Measure these ]`, mode.cursor === lastRow ? 'selected' : undefined);
 		note(`  Probe ${plan.probe.centerMhz} MHz (${Math.round(plan.probe.bandwidthFraction * 100)} % bandwidth), ${plan.sliders.count} sliders and ${plan.display.depthCm} cm depth come from this plan (step 3); the phantom is taken as 0.5 dB/cm/MHz at 1540 m/s — write a session file for another.`, 'muted');
 		if (mode.error) note(mode.error, 'warn');
 	} else {
 		const {cal, input, page} = mode;
 		const p = measurePages[page]!;
 		push(`"${cal.label}" ${page + 1}/${measurePages.length}: ${pageTitles[p]}   (←→ pages, s keeps, Esc drops)`, 'current');
-		push(`  ${measurePages.map((q, i) => (i === page ? `[${pageTitles[q]}]` : pageTitles[q])).join(' · ')}`, 'muted');
+		const naming = mode.naming;
+		if (naming) {
+			// The name line takes the page list's place, so the page below keeps its size.
+			const what = naming.replace ? 'Enter keeps it, replacing one of that name' : 'Enter keeps it';
+			push(`  keep as: ${naming.text}_   (${what}; Esc back)`, 'selected');
+			if (naming.error) push(`  ${naming.error}`, 'warn');
+		} else push(`  ${measurePages.map((q, i) => (i === page ? `[${pageTitles[q]}]` : pageTitles[q])).join(' · ')}`, 'muted');
 		const body = height - 4;
 		if (p === 'images') {
 			const shots = [

@@ -48,7 +48,10 @@ export function modeOf(s: ConsoleState): Mode {
 		if (o.kind === 'ask') return 'ask';
 		if (o.kind === 'name' || o.kind === 'path') return 'edit-text';
 		if (o.kind === 'tissue') return 'tissue';
-		if (o.kind === 'scanner') return o.panel.kind === 'path' || (o.panel.kind === 'build' && o.panel.typing !== null) ? 'edit-path' : 'scanner';
+		if (o.kind === 'scanner') {
+			if (o.panel.kind === 'result' && o.panel.naming) return 'edit-text';
+			return o.panel.kind === 'path' || (o.panel.kind === 'build' && o.panel.typing !== null) ? 'edit-path' : 'scanner';
+		}
 		return 'overlay';
 	}
 	if (s.refine.phase !== 'closed') return s.refine.phase === 'pick' ? 'refine-pick' : 'refine';
@@ -352,7 +355,7 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 		case 'tissue':
 			return tissueIntent(s, o as Overlay & {kind: 'tissue'}, intent, input);
 		case 'edit-text':
-			return editTextIntent(s, intent, input);
+			return o?.kind === 'scanner' ? scannerIntent(s, o, intent, input) : editTextIntent(s, intent, input);
 		case 'edit-number':
 			return editNumberIntent(s, intent, input);
 		case 'edit-list':

@@ -7,12 +7,15 @@
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
-import {measurePages, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
-import {buildSession, labelFor} from './session-builder.js';
+import {measurePages, type KeepNaming, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
+import {buildSession, labelFor, needsPixelScale} from './session-builder.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
+import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
 
 /** Longest session path the panel takes. */
 const pathMax = 1000;
+/** Longest profile name the store takes (its own check says so in full). */
+const profileNameMax = 60;
 
 /** The list row of the plan's current choice: 0 is "none", then the profiles in order. */
 function rowOf(profiles: readonly ScannerProfile[], id: string | undefined): number {
@@ -83,6 +86,7 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 		case 'build':
 			return buildIntent(s, o, p, intent, input);
 		case 'result': {
+			if (p.naming) return namingIntent(s, o, p, p.naming, intent, input);
 			if (intent === 'back') return withPanel(s, o, {kind: 'list', cursor: rowOf(o.profiles ?? [], s.doc.scanner)});
 			if (intent === 'prev-step' || intent === 'next-step') {
 				const page = Math.max(0, Math.min(measurePages.length - 1, p.page + (intent === 'prev-step' ? -1 : 1)));
@@ -90,10 +94,35 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 			}
 			if (intent === 'keep' || intent === 'keep-replace') {
 				const {message: _, ...rest} = p;
-				return queue(withPanel(s, o, rest), {kind: 'scanner-keep', cal: p.cal, replace: intent === 'keep-replace'});
+				const naming = {...openEntry(p.name ?? p.cal.label), replace: intent === 'keep-replace'};
+				return withPanel(s, o, {...rest, naming});
 			}
 			return s;
 		}
+	}
+}
+
+type ResultPanel = ScannerPanel & {kind: 'result'};
+
+/** Keys while typing the name a measurement is kept under: the console's shared text entry. */
+function namingIntent(s: ConsoleState, o: ScannerOverlay, p: ResultPanel, naming: KeepNaming, intent: Intent, input: string): ConsoleState {
+	const {naming: _, ...panel} = p;
+	const {error: __, ...entry} = naming;
+	switch (intent) {
+		case 'back':
+			return withPanel(s, o, panel);
+		case 'type':
+			return withPanel(s, o, {...panel, naming: {...entry, ...typeInto(entry, printableChars(input), profileNameMax)}});
+		case 'erase':
+			return withPanel(s, o, {...panel, naming: {...entry, ...eraseIn(entry)}});
+		case 'enter': {
+			const name = naming.text.trim();
+			if (!name) return withPanel(s, o, {...p, naming: {...entry, error: `name: type 1 to ${profileNameMax} characters`}});
+			const {message: ___, ...rest} = panel;
+			return queue(withPanel(s, o, {...rest, name}), {kind: 'scanner-keep', cal: p.cal, replace: naming.replace, name});
+		}
+		default:
+			return s;
 	}
 }
 
@@ -110,8 +139,15 @@ export function scannerResult(s: ConsoleState, a: ScannerAction): ConsoleState {
 		}
 		case 'scanner-folder':
 			if (o.panel.kind !== 'measuring') return s;
-			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM images (.dcm) here; give a session file for PNG images`});
-			return withPanel(s, o, {kind: 'build', folder: a.folder, images: a.images.map((name) => ({name, entry: ''})), cursor: 0, typing: null});
+			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM (.dcm) or PNG (.png) images here`});
+			return withPanel(s, o, {
+				kind: 'build',
+				folder: a.folder,
+				images: a.images.map((name) => ({name, entry: ''})),
+				cursor: 0,
+				typing: null,
+				...(a.images.some(needsPixelScale) ? {scale: ''} : {}),
+			});
 		case 'scanner-measured':
 			return o.panel.kind === 'measuring' ? withPanel(s, fresh(o), {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0}) : s;
 		case 'scanner-refused':
@@ -127,25 +163,30 @@ type BuildPanel = ScannerPanel & {kind: 'build'};
 /** Keys while building a session from a folder's images: move, type each image's line, measure. */
 function buildIntent(s: ConsoleState, o: ScannerOverlay, p: BuildPanel, intent: Intent, input: string): ConsoleState {
 	const {error: _, ...panel} = p;
+	// Rows: the images, then the depth-scale line when the folder has PNG images, then "measure".
+	const scaleRow = p.scale === undefined ? -1 : p.images.length;
+	const lastRow = p.images.length + (p.scale === undefined ? 0 : 1);
 	if (p.typing !== null) {
 		if (intent === 'back') return withPanel(s, o, {...panel, typing: null});
 		if (intent === 'erase') return withPanel(s, o, {...panel, typing: p.typing.slice(0, -1)});
 		if (intent === 'type') return withPanel(s, o, {...panel, typing: (p.typing + [...input].filter((c) => c >= ' ' && c !== '\u007F').join('')).slice(0, 40)});
 		if (intent === 'enter') {
+			if (p.cursor === scaleRow) return withPanel(s, o, {...panel, scale: p.typing, typing: null, cursor: lastRow});
 			const images = p.images.map((im, i) => (i === p.cursor ? {...im, entry: p.typing!} : im));
-			return withPanel(s, o, {...panel, images, typing: null, cursor: Math.min(p.images.length, p.cursor + 1)});
+			return withPanel(s, o, {...panel, images, typing: null, cursor: Math.min(lastRow, p.cursor + 1)});
 		}
 		return s;
 	}
 	if (intent === 'back') return withPanel(s, o, {kind: 'path', text: p.folder});
 	if (intent === 'up' || intent === 'down') {
-		const cursor = Math.max(0, Math.min(p.images.length, p.cursor + (intent === 'up' ? -1 : 1)));
+		const cursor = Math.max(0, Math.min(lastRow, p.cursor + (intent === 'up' ? -1 : 1)));
 		return withPanel(s, o, {...panel, cursor});
 	}
 	if (intent !== 'enter') return s;
 	if (p.cursor < p.images.length) return withPanel(s, o, {...panel, typing: p.images[p.cursor]!.entry});
+	if (p.cursor === scaleRow) return withPanel(s, o, {...panel, typing: p.scale ?? ''});
 	const folderName = p.folder.replace(/[\\/]+$/, '').split(/[\\/]/).pop() ?? '';
-	const built = buildSession(p.images, s.doc, labelFor(folderName));
+	const built = buildSession(p.images, s.doc, labelFor(folderName), s.doc.display.depthCm, p.scale);
 	if (!built.ok) return withPanel(s, o, {...panel, error: built.message});
 	const measuring = {...s, overlay: {...o, panel: {kind: 'measuring', path: p.folder} as const, built: panel}};
 	return queue(measuring, {kind: 'scanner-measure-built', folder: p.folder, session: built.session});

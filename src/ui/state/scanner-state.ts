@@ -7,6 +7,13 @@ import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {CalibrationInput, ScannerCalibration} from '../../calibration/scanner-calibration.js';
 import type {ScannerSession} from '../../calibration/session-schema.js';
 import type {BuiltImage} from './session-builder.js';
+import type {TextEntry} from './text-entry.js';
+
+/** The name being typed for a measurement about to be kept; `replace` when opened with S. */
+export interface KeepNaming extends TextEntry {
+	readonly replace: boolean;
+	readonly error?: string;
+}
 
 /** The pages of a measurement, in the order they are shown before keeping it. */
 export const measurePages = ['images', 'grey', 'depth', 'noise'] as const;
@@ -20,8 +27,10 @@ export type ScannerPanel =
 			readonly kind: 'build';
 			readonly folder: string;
 			readonly images: readonly BuiltImage[];
-			/** Row under the cursor: an image, or the last row (measure these). */
+			/** Row under the cursor: an image, the depth-scale line (PNG folders), or the last row (measure these). */
 			readonly cursor: number;
+			/** The folder's depth-scale line (cm per pixel, top row cm) when it holds PNG images. */
+			readonly scale?: string;
 			/** The line being typed for the image under the cursor, or null. */
 			readonly typing: string | null;
 			readonly error?: string;
@@ -33,6 +42,10 @@ export type ScannerPanel =
 			readonly cal: ScannerCalibration;
 			readonly page: number;
 			readonly message?: string;
+			/** While typing the profile's name (s, or S to replace one of that name). */
+			readonly naming?: KeepNaming;
+			/** The last name typed, offered again after a refusal. */
+			readonly name?: string;
 	  };
 
 export interface ScannerOverlay {
@@ -48,7 +61,7 @@ export interface ScannerOverlay {
 export type ScannerEffect =
 	| {readonly kind: 'scanner-list'}
 	| {readonly kind: 'scanner-measure'; readonly path: string}
-	| {readonly kind: 'scanner-keep'; readonly cal: ScannerCalibration; readonly replace: boolean}
+	| {readonly kind: 'scanner-keep'; readonly cal: ScannerCalibration; readonly replace: boolean; readonly name: string}
 	| {readonly kind: 'scanner-measure-built'; readonly folder: string; readonly session: ScannerSession};
 
 export type ScannerAction =

@@ -5,6 +5,8 @@
  * - `air 30`: the probe in air at 30 dB;
  * - `s4 +1 30`: slider 4 moved to +1 of its travel (−1…1), at 30 dB;
  * - empty: not used.
+ * PNG images carry no depth scale, so a folder with any asks once for one line `0.02 0`: cm per
+ * pixel and the displayed depth of the top row (cm), checked by the session format's pixelScale.
  * The probe, slider count and display depth come from the plan; the phantom is the common
  * tissue-mimicking one (0.5 dB/cm/MHz, linear, 1540 m/s; change it in a session file if yours
  * differs). The result is checked by the session format itself, so refusals name its fields. Pure.
@@ -18,9 +20,23 @@ export interface BuiltImage {
 	readonly entry: string;
 }
 
-/** Image files the builder offers: DICOM stills (PNG needs a depth scale, so a session file). */
+/** Image files the builder offers: DICOM stills, and PNG with a depth scale typed once for the folder. */
 export function isBuilderImage(name: string): boolean {
-	return /\.(dcm|dicom)$/i.test(name) && !name.startsWith('.');
+	return /\.(dcm|dicom|png)$/i.test(name) && !name.startsWith('.');
+}
+
+/** True when an image needs the folder's depth scale (it has none of its own). */
+export function needsPixelScale(name: string): boolean {
+	return /\.png$/i.test(name);
+}
+
+const scaleLine = /^\s*([+-]?\d*\.?\d+(?:e[+-]?\d+)?)\s+([+-]?\d*\.?\d+)\s*$/i;
+
+/** The depth-scale line as numbers, or a message saying how to write it (limits are the session format's). */
+export function pixelScaleOf(entry: string): {cmPerPixel: number; topRowCm: number} | string {
+	const m = scaleLine.exec(entry);
+	if (!m) return 'pixelScale: write cm per pixel and the top row\'s depth in cm, e.g. 0.02 0';
+	return {cmPerPixel: Number(m[1]), topRowCm: Number(m[2])};
 }
 
 const numberText = '([+-]?\\d+(?:\\.\\d+)?)';
@@ -78,7 +94,15 @@ export function buildSession(
 	doc: PlanDocument,
 	label: string,
 	depthCm = doc.display.depthCm,
+	/** The folder's depth-scale line, when it holds PNG images. */
+	scale?: string,
 ): {ok: true; session: ScannerSession} | {ok: false; message: string} {
+	let pixelScale: {cmPerPixel: number; topRowCm: number} | undefined;
+	if (images.some((im) => needsPixelScale(im.name) && im.entry.trim())) {
+		const parsed = pixelScaleOf(scale ?? '');
+		if (typeof parsed === 'string') return {ok: false, message: parsed};
+		pixelScale = parsed;
+	}
 	const gainSteps: {image: string; masterGainDb: number}[] = [];
 	const sliderSteps: {image: string; slider: number; position: number; masterGainDb: number}[] = [];
 	let probeInAir: {image: string; masterGainDb: number} | undefined;
@@ -103,6 +127,7 @@ export function buildSession(
 		gainSteps,
 		...(probeInAir ? {probeInAir} : {}),
 		...(sliderSteps.length ? {sliderSteps} : {}),
+		...(pixelScale ? {pixelScale} : {}),
 	});
 	return parsed.ok ? {ok: true, session: parsed.value} : {ok: false, message: parsed.errors.join('; ')};
 }

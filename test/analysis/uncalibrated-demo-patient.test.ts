@@ -1,0 +1,92 @@
+/**
+ * Refining without a scanner profile on the realistic simulated scanner (`simulate --kind patient`):
+ * its own depth gain, focus and noise are not the plan's assumptions, and its noise sits well above
+ * the plan's stated budget, so deep noise could pass as tissue. Each still is written as a file by
+ * our own writers (DICOM, and PNG cropped to the tissue region with its pixel scale) and read back.
+ *
+ * The scenario is invented: the standard adult upper abdomen of the helpers' plan whose liver truly
+ * attenuates 0.8 dB/cm/MHz against the plan's 0.5. The truth is the simulator's.
+ *
+ * What must hold: either the liver's true α0 lies inside the reported 95 % interval, or the output
+ * says it cannot tell; and every output names what the uncalibrated assumptions (display range, ramp,
+ * noise) can cost.
+ */
+import {mkdtempSync, rmSync, writeFileSync} from 'node:fs';
+import {tmpdir} from 'node:os';
+import {join} from 'node:path';
+import {afterAll, describe, expect, it} from 'vitest';
+import {frameFromImage} from '../../src/analysis/frame-from-image.js';
+import {refineImage} from '../../src/analysis/refine-image.js';
+import {imageFiles} from '../../src/cli/simulate-command.js';
+import {encodePng} from '../../src/image/png-writer.js';
+import {readImageFile} from '../../src/image/read-image.js';
+import {parsePlan} from '../../src/plan/resolve-plan.js';
+import {patientImage, type DemoSet} from '../../src/simulate/demo-images.js';
+import {abdomenPlanJson} from '../helpers/plans.js';
+
+const dir = mkdtempSync(join(tmpdir(), 'evenecho-uncalibrated-'));
+afterAll(() => rmSync(dir, {recursive: true, force: true}));
+
+const parsed = parsePlan(abdomenPlanJson({}, 0.5));
+if (!parsed.ok) throw new Error(parsed.errors.join('; '));
+const {plan} = parsed.value;
+const size = {width: 360, height: 200};
+
+function read(set: DemoSet, seed: number, format: 'dicom' | 'png') {
+	if (format === 'dicom') {
+		const path = join(dir, `patient-${seed}.dcm`);
+		writeFileSync(path, imageFiles(set, 'dicom', 'patient', seed, plan.name)[0]!.data);
+		return readImageFile(path);
+	}
+	const img = set.images[0]!;
+	const {x0, y0, x1, y1} = set.region;
+	const w = x1 - x0 + 1;
+	const h = y1 - y0 + 1;
+	const data = new Uint8Array(w * h * img.channels);
+	for (let y = 0; y < h; y++) {
+		const from = ((y + y0) * img.width + x0) * img.channels;
+		data.set(img.data.subarray(from, from + w * img.channels), y * w * img.channels);
+	}
+	const path = join(dir, `patient-${seed}.png`);
+	writeFileSync(path, encodePng({width: w, height: h, channels: img.channels, data}));
+	return readImageFile(path, {pixelScale: {cmPerPixel: set.cmPerPixel, topRowCm: 0}});
+}
+
+describe('the demo patient refined without a scanner profile', () => {
+	const runs = [1, 2, 3, 4, 5, 6].map((seed) => {
+		const format = seed % 2 === 0 ? 'dicom' : 'png';
+		const set = patientImage(plan, seed, format === 'dicom' ? 'dcm' : 'png', {size, cyst: seed % 3 === 1, brightLine: seed % 3 === 2});
+		const {frame, region} = frameFromImage(read(set, seed, format));
+		const a = set.appliedSettings!;
+		const out = refineImage({frame, region, plan, applied: {slidersDb: a.sliders, masterGainDb: a.masterGainDb}});
+		if (!out.ok) throw new Error(`seed ${seed}: ${out.problem}`);
+		return {seed, truth: set.truth['trueAlphaDbPerCmMhz'] as number, out};
+	});
+
+	it('either holds the true α0 in its interval or says it cannot tell', () => {
+		for (const {seed, truth, out} of runs) {
+			const a = out.attenuation;
+			if (a) {
+				expect(truth, `seed ${seed}`).toBeGreaterThanOrEqual(a.low);
+				expect(truth, `seed ${seed}`).toBeLessThanOrEqual(a.high);
+			} else {
+				expect(out.cannotTell, `seed ${seed}`).toMatch(/cannot tell/);
+				expect(out.warnings.find((w) => w.code === 'cannot-tell')?.message).toMatch(/Attenuation not measured/);
+			}
+		}
+	});
+
+	it('judges the noise from the image, not from the plan\'s budget, and says what that costs', () => {
+		for (const {seed, out} of runs) {
+			const u = out.uncalibrated!;
+			// The simulated scanner's noise meets the echo well above the plan's budget: the image shows it.
+			expect(u.imageNoiseBudgetDb, `seed ${seed}`).not.toBeNull();
+			expect(u.imageNoiseBudgetDb!, `seed ${seed}`).toBeLessThan(u.planNoiseBudgetDb);
+			const w = out.warnings.find((x) => x.code === 'uncalibrated')!.message;
+			expect(w.split('. ')[0]).toMatch(/logarithmic display, the scanner's own depth gain as the assumed ramp .* and its noise/);
+			expect(w).toMatch(/noise level is itself an estimate/);
+			// Bands deep in the noise are not used as tissue.
+			expect(out.bands.filter((b) => b.depthCm > 13).every((b) => !b.usable), `seed ${seed}`).toBe(true);
+		}
+	});
+});
