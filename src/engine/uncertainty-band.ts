@@ -20,7 +20,8 @@
  */
 import {obliqueRoundTripLossDb, refractedAnglesDeg} from './beam-angle.js';
 import {reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
-import {PathModel} from './path-model.js';
+import {PathModel, type PathPoint} from './path-model.js';
+import {pointsAlongDepth} from './points-along-depth.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
 import {harmonicReferenceCm} from './tissue-harmonic.js';
 import type {EnginePlan, Layer, Range, Tissue} from './types.js';
@@ -171,13 +172,6 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 		return m;
 	};
 	const tissueHarmonic = plan.probe.receive === 'tissue-harmonic';
-	const lossOf = (end: BandEnd, d: number, sides: ExponentSide[]): number[] =>
-		sides.flatMap((side) =>
-			cornersFor(end, side, tissueHarmonic).map((c) => {
-				const p = modelOf(c).at(d);
-				return p.attenuationDb + crossedBy[end][p.layerIndex]!;
-			}),
-		);
 	const xs = new Set(grid);
 	// The boundaries of the spread layers, so steps in the boundary loss are not smeared.
 	const last = grid[grid.length - 1] ?? 0;
@@ -185,10 +179,36 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 		for (const s of modelOf({alpha: speed, exponent: speed, speed}).spans) if (s.shownBottomCm < last) xs.add(s.shownBottomCm);
 	}
 	const depths = [...xs].sort((a, b) => a - b);
-	const ends = depths.map((d) => {
+	// Which corners each end is taken over at each depth; each corner's model is then worked out once
+	// over all the depths it is wanted at (interpolated along depth, checked), shared by both ends.
+	const wanted = new Map<PathModel, {corner: SpreadCorner; at: number[]}>();
+	const cornersAt = depths.map((d, k) => {
 		const sides = exponentSides(plan.probe.receive, centroidAt(d));
-		return {lowDb: Math.min(...lossOf('low', d, sides)), highDb: Math.max(...lossOf('high', d, sides))};
+		const of = (end: BandEnd) =>
+			sides.flatMap((side) =>
+				cornersFor(end, side, tissueHarmonic).map((corner) => {
+					const m = modelOf(corner);
+					const w = wanted.get(m) ?? {corner, at: []};
+					if (w.at[w.at.length - 1] !== k) w.at.push(k);
+					wanted.set(m, w);
+					return m;
+				}),
+			);
+		return {low: of('low'), high: of('high')};
 	});
+	const pointsOf = new Map<PathModel, Map<number, PathPoint>>();
+	for (const [m, w] of wanted) {
+		const points = pointsAlongDepth(m, w.at.map((k) => depths[k]!));
+		pointsOf.set(m, new Map(w.at.map((k, i) => [k, points[i]!])));
+	}
+	const lossOf = (end: BandEnd, m: PathModel, k: number): number => {
+		const p = pointsOf.get(m)!.get(k)!;
+		return p.attenuationDb + crossedBy[end][p.layerIndex]!;
+	};
+	const ends = cornersAt.map((c, k) => ({
+		lowDb: Math.min(...c.low.map((m) => lossOf('low', m, k))),
+		highDb: Math.max(...c.high.map((m) => lossOf('high', m, k))),
+	}));
 	return {
 		at(d) {
 			let i = 1;
