@@ -12,10 +12,11 @@ import {smoothAlong, type Pair} from './smooth-along-depth.js';
 import {harmonicNearFieldFloorCm} from './tissue-harmonic.js';
 
 /** Loss (dB) and centroid (MHz) tolerances: those of PathModel.pointsAt. */
-const tolerance: Pair = [1e-4, 1e-4];
+const pathTolerance: Pair = [1e-4, 1e-4];
 
-/** `model.at` at every depth of `displayedCm` (ascending), the tissue harmonic interpolated along depth. */
-export function pointsAlongDepth(model: PathModel, displayedCm: readonly number[]): PathPoint[] {
+/** `model.at` at every depth of `displayedCm` (ascending), the tissue harmonic interpolated along depth
+ * within `tolerance`. */
+export function pointsAlongDepth(model: PathModel, displayedCm: readonly number[], tolerance: Pair = pathTolerance): PathPoint[] {
 	if (model.receive !== 'tissue-harmonic') return model.pointsAt(displayedCm);
 	const out: PathPoint[] = new Array(displayedCm.length);
 	let start = 0;
