@@ -122,14 +122,19 @@ function exponentSides(receive: EnginePlan['probe']['receive'], centroidMhz: num
  * Tissue harmonic: relative to its 1 cm reference the near field's build-up gains with depth while
  * attenuation loses, so α0 and speed can act either way, and the speed of the layers over the
  * reference (which sets how deep the reference really is) acts apart from the speed below it: every
- * combination of α0, speed below and speed over the reference is tried (8 per exponent end).
+ * combination of α0, speed below and speed over the reference is tried. Above the reference the
+ * exponent acts either way too (a larger one loses more between the depth and the reference, which
+ * counts against the reference): both exponent ends are tried, whatever the echo's frequency. The
+ * 16 corners are the same models for both band ends, each worked out once.
  */
 function cornersFor(end: BandEnd, side: ExponentSide, tissueHarmonic: boolean): SpreadCorner[] {
 	const lossier = (e: BandEnd): BandEnd => (side === 'above' ? e : e === 'low' ? 'high' : 'low');
 	if (!tissueHarmonic) return [{alpha: end, exponent: lossier(end), speed: end}];
 	const ends: BandEnd[] = ['low', 'high'];
 	const pairs = ends.flatMap((alpha) => ends.map((speed) => ({alpha, speed})));
-	return pairs.flatMap((deep) => ends.map((speed) => ({...deep, exponent: lossier(end), reference: {alpha: deep.alpha, speed}})));
+	return pairs.flatMap((deep) =>
+		ends.flatMap((exponent) => ends.map((speed) => ({...deep, exponent, reference: {alpha: deep.alpha, speed}}))),
+	);
 }
 
 /** Spacing of the band's grid, cm: away from the skin the band is smooth, so linear interpolation
@@ -204,7 +209,7 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 	// over all the depths it is wanted at (interpolated along depth, checked), shared by both ends.
 	const wanted = new Map<PathModel, {corner: SpreadCorner; at: number[]}>();
 	const cornersAt = depths.map((d, k) => {
-		const sides = exponentSides(plan.probe.receive, centroidAt(d));
+		const sides: ExponentSide[] = tissueHarmonic ? ['above'] : exponentSides(plan.probe.receive, centroidAt(d));
 		const of = (end: BandEnd) =>
 			sides.flatMap((side) =>
 				cornersFor(end, side, tissueHarmonic).map((corner) => {
