@@ -28,7 +28,7 @@ import type {EnginePlan, Layer, Range, Tissue} from './types.js';
 
 /** What the band holds and what it leaves out: stated, from here, in every output that shows it. */
 export const bandScopeNote =
-	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
+	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth, both ends for tissue harmonic), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
 
 export type BandEnd = 'low' | 'high';
 
