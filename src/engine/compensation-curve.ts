@@ -12,7 +12,8 @@ import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
 import {receiveWarnings} from './receive-notes.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit} from './types.js';
-import {bandGridCm, uncertaintyBand} from './uncertainty-band.js';
+import {pointsAlongDepth} from './points-along-depth.js';
+import {bandDepths, uncertaintyBand} from './uncertainty-band.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
 export const modelVersion = 'evenecho-model 2 (1-D parallel layers at the plan\'s beam angle, pulse-echo spectrum of the probe\'s steepness, fundamental or harmonic receive)';
@@ -208,7 +209,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
 	const blockedDepthCm = barrier ? barrier.displayedCm : null;
 	const depths = sampleDepths(depthCm, stepCm);
-	const points = nominal.pointsAt(depths);
+	const points = pointsAlongDepth(nominal, depths);
 	const centroidAt = (d: number): number => {
 		let i = 0;
 		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;
@@ -217,7 +218,7 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const band =
 		options.band === false
 			? {at: (d: number) => ({lowDb: nominal.lossAt(d), highDb: nominal.lossAt(d)}), isNominal: true}
-			: {...uncertaintyBand(plan, sampleDepths(depthCm, bandGridCm), centroidAt), isNominal: false};
+			: {...uncertaintyBand(plan, bandDepths(plan, depths), centroidAt), isNominal: false};
 	const heldAt = blockedDepthCm === null ? null : {nominal: nominal.lossAt(blockedDepthCm), ...band.at(blockedDepthCm)};
 	const samples: CurveSample[] = depths.map((d, i) => {
 		const p = points[i]!;

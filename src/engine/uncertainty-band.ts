@@ -20,14 +20,15 @@
  */
 import {obliqueRoundTripLossDb, refractedAnglesDeg} from './beam-angle.js';
 import {reflectionCoefficient, roundTripTransmissionLossDb} from './interface-loss.js';
-import {PathModel} from './path-model.js';
+import {PathModel, type PathPoint} from './path-model.js';
+import {pointsAlongDepth} from './points-along-depth.js';
 import {minimumAttenuationSpread} from './tissue-library.js';
 import {harmonicReferenceCm} from './tissue-harmonic.js';
 import type {EnginePlan, Layer, Range, Tissue} from './types.js';
 
 /** What the band holds and what it leaves out: stated, from here, in every output that shows it. */
 export const bandScopeNote =
-	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
+	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth, both ends for tissue harmonic), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
 
 export type BandEnd = 'low' | 'high';
 
@@ -121,19 +122,45 @@ function exponentSides(receive: EnginePlan['probe']['receive'], centroidMhz: num
  * Tissue harmonic: relative to its 1 cm reference the near field's build-up gains with depth while
  * attenuation loses, so α0 and speed can act either way, and the speed of the layers over the
  * reference (which sets how deep the reference really is) acts apart from the speed below it: every
- * combination of α0, speed below and speed over the reference is tried (8 per exponent end).
+ * combination of α0, speed below and speed over the reference is tried. Above the reference the
+ * exponent acts either way too (a larger one loses more between the depth and the reference, which
+ * counts against the reference): both exponent ends are tried, whatever the echo's frequency. The
+ * 16 corners are the same models for both band ends, each worked out once.
  */
 function cornersFor(end: BandEnd, side: ExponentSide, tissueHarmonic: boolean): SpreadCorner[] {
 	const lossier = (e: BandEnd): BandEnd => (side === 'above' ? e : e === 'low' ? 'high' : 'low');
 	if (!tissueHarmonic) return [{alpha: end, exponent: lossier(end), speed: end}];
 	const ends: BandEnd[] = ['low', 'high'];
 	const pairs = ends.flatMap((alpha) => ends.map((speed) => ({alpha, speed})));
-	return pairs.flatMap((deep) => ends.map((speed) => ({...deep, exponent: lossier(end), reference: {alpha: deep.alpha, speed}})));
+	return pairs.flatMap((deep) =>
+		ends.flatMap((exponent) => ends.map((speed) => ({...deep, exponent, reference: {alpha: deep.alpha, speed}}))),
+	);
 }
 
-/** Spacing of the band's grid, cm: the band is smooth, so linear interpolation between these points
- * is far finer than the band itself. */
+/** Spacing of the band's grid, cm: away from the skin the band is smooth, so linear interpolation
+ * between these points is far finer than the band itself. */
 const bandGridCm = 0.5;
+
+/**
+ * The depths a plan's band is worked out at, given the curve's own samples (ascending). Every 0.5 cm
+ * where the curve is smooth. The tissue harmonic's loss goes as about −20·log10(z) near the skin
+ * (the build-up grows as z), whose second derivative 8.69/z² dB/cm² makes linear interpolation over
+ * 0.5 cm err by up to h²/8 · 8.69/z²: 1.1 dB at 0.5 cm, 0.07 dB at 2 cm. So its band is worked out
+ * at every sample of the curve, interpolated along depth per corner (points-along-depth.ts): that
+ * costs about what the 0.5 cm grid with the near field filled in would.
+ */
+export function bandDepths(plan: EnginePlan, samples: readonly number[]): number[] {
+	if (plan.probe.receive === 'tissue-harmonic') return [...samples];
+	const depthCm = plan.display.depthCm;
+	const coarse: number[] = [];
+	for (let i = 0; i * bandGridCm < depthCm - 1e-9; i++) coarse.push(i * bandGridCm);
+	coarse.push(depthCm);
+	return coarse;
+}
+
+/** Loss tolerance of each corner's interpolant along depth, dB (and MHz for its centroid): 20×
+ * below the 0.02 dB the band holds the per-corner envelope to. */
+const cornerTolerance = 1e-3;
 
 export interface UncertaintyBand {
 	/** Band ends at a displayed depth, dB (not yet ordered against each other or the curve). */
@@ -171,13 +198,6 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 		return m;
 	};
 	const tissueHarmonic = plan.probe.receive === 'tissue-harmonic';
-	const lossOf = (end: BandEnd, d: number, sides: ExponentSide[]): number[] =>
-		sides.flatMap((side) =>
-			cornersFor(end, side, tissueHarmonic).map((c) => {
-				const p = modelOf(c).at(d);
-				return p.attenuationDb + crossedBy[end][p.layerIndex]!;
-			}),
-		);
 	const xs = new Set(grid);
 	// The boundaries of the spread layers, so steps in the boundary loss are not smeared.
 	const last = grid[grid.length - 1] ?? 0;
@@ -185,10 +205,36 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 		for (const s of modelOf({alpha: speed, exponent: speed, speed}).spans) if (s.shownBottomCm < last) xs.add(s.shownBottomCm);
 	}
 	const depths = [...xs].sort((a, b) => a - b);
-	const ends = depths.map((d) => {
-		const sides = exponentSides(plan.probe.receive, centroidAt(d));
-		return {lowDb: Math.min(...lossOf('low', d, sides)), highDb: Math.max(...lossOf('high', d, sides))};
+	// Which corners each end is taken over at each depth; each corner's model is then worked out once
+	// over all the depths it is wanted at (interpolated along depth, checked), shared by both ends.
+	const wanted = new Map<PathModel, {corner: SpreadCorner; at: number[]}>();
+	const cornersAt = depths.map((d, k) => {
+		const sides: ExponentSide[] = tissueHarmonic ? ['above'] : exponentSides(plan.probe.receive, centroidAt(d));
+		const of = (end: BandEnd) =>
+			sides.flatMap((side) =>
+				cornersFor(end, side, tissueHarmonic).map((corner) => {
+					const m = modelOf(corner);
+					const w = wanted.get(m) ?? {corner, at: []};
+					if (w.at[w.at.length - 1] !== k) w.at.push(k);
+					wanted.set(m, w);
+					return m;
+				}),
+			);
+		return {low: of('low'), high: of('high')};
 	});
+	const pointsOf = new Map<PathModel, Map<number, PathPoint>>();
+	for (const [m, w] of wanted) {
+		const points = pointsAlongDepth(m, w.at.map((k) => depths[k]!), [cornerTolerance, cornerTolerance]);
+		pointsOf.set(m, new Map(w.at.map((k, i) => [k, points[i]!])));
+	}
+	const lossOf = (end: BandEnd, m: PathModel, k: number): number => {
+		const p = pointsOf.get(m)!.get(k)!;
+		return p.attenuationDb + crossedBy[end][p.layerIndex]!;
+	};
+	const ends = cornersAt.map((c, k) => ({
+		lowDb: Math.min(...c.low.map((m) => lossOf('low', m, k))),
+		highDb: Math.max(...c.high.map((m) => lossOf('high', m, k))),
+	}));
 	return {
 		at(d) {
 			let i = 1;
@@ -203,4 +249,3 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 	};
 }
 
-export {bandGridCm};

@@ -73,8 +73,13 @@ const csvColumns = [
 	'belowNoise',
 ] as const;
 
-/** The samples as RFC 4180 CSV: one header row, then one row per depth. */
+/**
+ * The samples as RFC 4180 CSV: one header row, then one row per depth. RFC 4180 has no comments, so
+ * the band's sentence (what lowDb–highDb holds and leaves out) is a last column, `bandNote`, filled
+ * on the first data row and empty below it: every record keeps the same field count, and the columns
+ * before it keep their names and places.
+ */
 export function curveCsv(r: CurveResult): string {
-	const rows = curveJson(r).samples.map((s) => csvColumns.map((c) => String(s[c])));
-	return stringify([[...csvColumns], ...rows], {record_delimiter: '\r\n'});
+	const rows = curveJson(r).samples.map((s, i) => [...csvColumns.map((c) => String(s[c])), i === 0 ? bandScopeNote : '']);
+	return stringify([[...csvColumns, 'bandNote'], ...rows], {record_delimiter: '\r\n'});
 }

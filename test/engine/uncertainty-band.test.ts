@@ -103,6 +103,27 @@ describe('harmonic receive: the band holds the brute-force envelope too', () => 
 	});
 });
 
+describe('tissue harmonic near the skin: the band where the build-up bends the curve', () => {
+	// The build-up grows as z, so the loss goes as about -20·log10(z) (Cobb 1983, quasi-linear
+	// plane-wave solution, from memory): between 0.15 and 2.25 cm the build-up gains 23.5 dB, less
+	// the attenuation; the curve bends most near the skin. Samples between the old 0.5 cm points are where interpolation missed.
+	it('liver, 2.5 MHz at 60 %: at 0.05 cm samples over the first 2.5 cm the band holds the brute-force envelope over every corner (within 0.02 dB) and is no wider than it (0.05 dB)', () => {
+		const base = plan([{tissue: tissue('liver'), thicknessCm: 40}], {centerMhz: 2.5, bandwidthFraction: 0.6, depthCm: 6});
+		const p: EnginePlan = {...base, probe: {...base.probe, receive: 'tissue-harmonic'}};
+		const depths = [0.15, 0.25, 0.35, 0.45, 0.65, 0.85, 1.25, 1.75, 2.25];
+		const r = computeCurve(p, {stepCm: 0.05});
+		const env = bruteEnvelope(p, depths, 2000);
+		expect(env.high[0]! - env.high[8]!).toBeGreaterThan(8);
+		depths.forEach((d, k) => {
+			const s = sampleAt(r, d);
+			expect(s.lowDb).toBeLessThanOrEqual(env.low[k]! + 0.02);
+			expect(s.highDb).toBeGreaterThanOrEqual(env.high[k]! - 0.02);
+			expect(env.low[k]! - s.lowDb).toBeLessThan(0.05);
+			expect(s.highDb - env.high[k]!).toBeLessThan(0.05);
+		});
+	});
+});
+
 describe('tissue harmonic over two layers: each layer at its own corner', () => {
 	it('fat 3 cm over liver, 2 MHz at 60 %, p = 4: holds the envelope over all 8 × 8 per-layer ' +
 		'corners, boundary range added below it (within 0.02 dB)', () => {
