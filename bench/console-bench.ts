@@ -114,13 +114,16 @@ async function keystrokeToFrame(): Promise<void> {
 	for (const kind of editKinds) {
 		const stdout = new BenchStdout();
 		const stdin = new BenchStdin();
-		const instance = render(createElement(App, {shelf: shelfOver(undefined), theme: plainTheme, initialPlan: tenLayerDoc()}), {
-			...consoleRenderOptions,
-			stdout: stdout as unknown as NodeJS.WriteStream,
-			stdin: stdin as unknown as NodeJS.ReadStream,
-			stderr: stdout as unknown as NodeJS.WriteStream,
-			patchConsole: false,
-		});
+		const instance = render(
+			createElement(App, {shelf: shelfOver(undefined), theme: plainTheme, initialPlan: tenLayerDoc()}),
+			{
+				...consoleRenderOptions,
+				stdout: stdout as unknown as NodeJS.WriteStream,
+				stdin: stdin as unknown as NodeJS.ReadStream,
+				stderr: stdout as unknown as NodeJS.WriteStream,
+				patchConsole: false,
+			},
+		);
 		await sleep(200);
 		const pressAndWait = (key: string) =>
 			new Promise<{wall: number; cpu: number}>((resolve) => {
@@ -153,12 +156,21 @@ async function keystrokeToFrame(): Promise<void> {
 		const missed = got.length - framed.length;
 		note(
 			`${kind.name} (${pressesPerKind} presses${missed ? `, ${missed} without a frame` : ''})`,
-			`wall p50 ${quantile(framed.map((g) => g.wall), 0.5).toFixed(1)} ms, p95 ${quantile(framed.map((g) => g.wall), 0.95).toFixed(1)} ms; CPU median ${median(framed.map((g) => g.cpu)).toFixed(1)} ms`,
+			`wall p50 ${quantile(
+				framed.map((g) => g.wall),
+				0.5,
+			).toFixed(1)} ms, p95 ${quantile(
+				framed.map((g) => g.wall),
+				0.95,
+			).toFixed(1)} ms; CPU median ${median(framed.map((g) => g.cpu)).toFixed(1)} ms`,
 		);
 		all.push(...got);
 	}
 	const framed = all.filter((g) => !Number.isNaN(g.wall));
-	const p95 = quantile(framed.map((g) => g.wall), 0.95);
+	const p95 = quantile(
+		framed.map((g) => g.wall),
+		0.95,
+	);
 	const cpu = median(framed.map((g) => g.cpu));
 	const missed = all.length - framed.length;
 	target(
@@ -176,7 +188,11 @@ async function memoryAfterEdits(): Promise<void> {
 	const runs: {kind: string; firstMb?: number; peakMb?: number; editedMb?: number}[] = [];
 	try {
 		for (const kind of editKinds) {
-			const r = await inPty(`${process.execPath} ${cli}`, env, {marker: firstFrameMarker, keys: twoHundredEdits(kind), gapMs: 30});
+			const r = await inPty(`${process.execPath} ${cli}`, env, {
+				marker: firstFrameMarker,
+				keys: twoHundredEdits(kind),
+				gapMs: 30,
+			});
 			runs.push({kind: kind.name, ...r});
 		}
 	} finally {
@@ -185,10 +201,18 @@ async function memoryAfterEdits(): Promise<void> {
 	const read = runs.filter((r) => r.editedMb !== undefined);
 	if (!read.length) return note('console resident memory', 'not read (no /proc)');
 	for (const r of read) {
-		note(`console resident memory, ${r.kind}, after ${pressesPerKind} presses`, `${r.editedMb!.toFixed(0)} MB (first frame ${r.firstMb?.toFixed(0)} MB, peak ${r.peakMb?.toFixed(0)} MB)`);
+		note(
+			`console resident memory, ${r.kind}, after ${pressesPerKind} presses`,
+			`${r.editedMb!.toFixed(0)} MB (first frame ${r.firstMb?.toFixed(0)} MB, peak ${r.peakMb?.toFixed(0)} MB)`,
+		);
 	}
 	const edited = Math.max(...read.map((r) => r.editedMb!));
-	target(`console resident memory after ${pressesPerKind} edits (worst edit kind)`, `${edited.toFixed(0)} MB`, '≤ 110 MB', edited <= 110);
+	target(
+		`console resident memory after ${pressesPerKind} edits (worst edit kind)`,
+		`${edited.toFixed(0)} MB`,
+		'≤ 110 MB',
+		edited <= 110,
+	);
 }
 
 export async function run(): Promise<void> {

@@ -44,13 +44,29 @@ export function curvePlans(count: number): EnginePlan[] {
 	const templates = loadTemplates().templates.map((x) => resolvePlan(x.plan));
 	const base = tenLayerPlan();
 	const rand = seeded(7);
-	const pool = ['fat', 'muscle', 'liver', 'kidney', 'spleen', 'soft-tissue', 'breast', 'cyst-fluid', 'urine', 'blood', 'skin', 'tendon'];
+	const pool = [
+		'fat',
+		'muscle',
+		'liver',
+		'kidney',
+		'spleen',
+		'soft-tissue',
+		'breast',
+		'cyst-fluid',
+		'urine',
+		'blood',
+		'skin',
+		'tendon',
+	];
 	const varied: EnginePlan[] = Array.from({length: count}, (_, i) => {
 		const n = 1 + Math.floor(rand() * 8);
 		return {
 			...base,
 			name: `varied ${i}`,
-			layers: Array.from({length: n}, () => ({tissue: t(pool[Math.floor(rand() * pool.length)]!), thicknessCm: 0.2 + rand() * 6})),
+			layers: Array.from({length: n}, () => ({
+				tissue: t(pool[Math.floor(rand() * pool.length)]!),
+				thicknessCm: 0.2 + rand() * 6,
+			})),
 			// `harmonic` for the pinned build (its out-at-f0, back-at-2·f0 model), `receive` for this tree.
 			probe: probeOf(2 + rand() * 10, rand() < 0.2 ? 0 : 0.3 + rand() * 0.7, rand() < 0.2),
 			scattererExponent: rand() < 0.5 ? 0 : rand() * 4,
@@ -70,21 +86,33 @@ export function curveDifference(a: CurveResult, b: CurveResult): {curveDb: numbe
 	for (let i = 0; i < n; i++) {
 		const x = a.samples[i]!;
 		const y = b.samples[i]!;
-		curveDb = Math.max(curveDb, Math.abs(x.compensationDb - y.compensationDb), Math.abs(x.lowDb - y.lowDb), Math.abs(x.highDb - y.highDb));
+		curveDb = Math.max(
+			curveDb,
+			Math.abs(x.compensationDb - y.compensationDb),
+			Math.abs(x.lowDb - y.lowDb),
+			Math.abs(x.highDb - y.highDb),
+		);
 	}
 	if (a.samples.length !== b.samples.length) curveDb = Infinity;
 	let fitDb = Math.abs(a.fit.residualDb - b.fit.residualDb);
 	a.fit.sliders.forEach((s, k) => {
 		const other = b.fit.sliders[k];
-		fitDb = Math.max(fitDb, Math.abs(a.fit.masterGainDb + s.gainDb - (b.fit.masterGainDb + (other?.gainDb ?? Infinity))));
+		fitDb = Math.max(
+			fitDb,
+			Math.abs(a.fit.masterGainDb + s.gainDb - (b.fit.masterGainDb + (other?.gainDb ?? Infinity))),
+		);
 	});
-	const cm = Math.max(Math.abs((a.penetrationDepthCm ?? -1) - (b.penetrationDepthCm ?? -1)), Math.abs(a.usableDepthCm - b.usableDepthCm));
+	const cm = Math.max(
+		Math.abs((a.penetrationDepthCm ?? -1) - (b.penetrationDepthCm ?? -1)),
+		Math.abs(a.usableDepthCm - b.usableDepthCm),
+	);
 	return {curveDb, fitDb, cm};
 }
 
 export async function run(pinned: PinnedBuild): Promise<void> {
 	console.log('\ncurve engine');
-	const before = (await importPinned<{computeCurve: ComputeCurve}>(pinned, 'src/engine/compensation-curve.js')).computeCurve;
+	const before = (await importPinned<{computeCurve: ComputeCurve}>(pinned, 'src/engine/compensation-curve.js'))
+		.computeCurve;
 	const plans = curvePlans(1000);
 	const pass = (compute: ComputeCurve) => () => {
 		for (const p of plans) compute(p);
@@ -120,7 +148,10 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 	);
 	// The fit changes whenever the fitting model does (a new master/slider rule landed after the pinned
 	// build): printed, not held to the speed target.
-	note('largest difference in the fit (residual, master + each slider), all model changes included', `${worstFit.toFixed(4)} dB`);
+	note(
+		'largest difference in the fit (residual, master + each slider), all model changes included',
+		`${worstFit.toFixed(4)} dB`,
+	);
 
 	const plan = tenLayerPlan();
 	const depths = sampleDepths(30, 0.25);
@@ -132,9 +163,17 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 	const vs = await alternate(fast, brute, 3, 1);
 	const reference = brute();
 	const maxDiff = Math.max(...fast().map((v, i) => Math.abs(v - reference[i]!)));
-	note('10-layer broadband attenuation at 121 depths, fast path (median of 3)', `${median(vs.a.map((m) => m.cpuMs)).toFixed(2)} ms CPU`);
+	note(
+		'10-layer broadband attenuation at 121 depths, fast path (median of 3)',
+		`${median(vs.a.map((m) => m.cpuMs)).toFixed(2)} ms CPU`,
+	);
 	note('same depths, brute-force 20,000-point integration', `${median(vs.b.map((m) => m.cpuMs)).toFixed(0)} ms CPU`);
-	target('brute force ÷ fast path, alternated', `${median(vs.cpuRatios).toFixed(0)}× (pairs ${ratioList(vs.cpuRatios)})`, '≥ 50×', median(vs.cpuRatios) >= 50);
+	target(
+		'brute force ÷ fast path, alternated',
+		`${median(vs.cpuRatios).toFixed(0)}× (pairs ${ratioList(vs.cpuRatios)})`,
+		'≥ 50×',
+		median(vs.cpuRatios) >= 50,
+	);
 	target('fast path against brute force, largest difference', `${maxDiff.toFixed(5)} dB`, '≤ 0.05 dB', maxDiff <= 0.05);
 
 	await shapeAndModeComparison(plan);
@@ -165,7 +204,12 @@ async function shapeAndModeComparison(base: EnginePlan): Promise<void> {
 			const reference = brute();
 			const maxDiff = Math.max(...fast().map((v, i) => Math.abs(v - reference[i]!)));
 			const name = `${receive}, steepness ${steepness}, ${depths.length} depths`;
-			target(`${name}: brute force ÷ fast path`, `${median(vs.cpuRatios).toFixed(0)}×`, '≥ 50×', median(vs.cpuRatios) >= 50);
+			target(
+				`${name}: brute force ÷ fast path`,
+				`${median(vs.cpuRatios).toFixed(0)}×`,
+				'≥ 50×',
+				median(vs.cpuRatios) >= 50,
+			);
 			target(`${name}: largest difference`, `${maxDiff.toFixed(5)} dB`, '≤ 0.05 dB', maxDiff <= 0.05);
 		}
 	}

@@ -32,9 +32,13 @@ export function pinnedBuild(): PinnedBuild {
 	if (existsSync(done)) return {commit, distDir};
 	rmSync(dir, {recursive: true, force: true});
 	mkdirSync(dir, {recursive: true});
-	const archive = execFileSync('git', ['-C', root, 'archive', '--format=tar', commit, 'src', 'package.json', 'tsconfig.json'], {
-		maxBuffer: 1 << 28,
-	});
+	const archive = execFileSync(
+		'git',
+		['-C', root, 'archive', '--format=tar', commit, 'src', 'package.json', 'tsconfig.json'],
+		{
+			maxBuffer: 1 << 28,
+		},
+	);
 	execFileSync('tar', ['-x', '-C', dir], {input: archive});
 	symlinkSync(join(root, 'node_modules'), join(dir, 'node_modules'), 'dir');
 	writeFileSync(
@@ -46,7 +50,10 @@ export function pinnedBuild(): PinnedBuild {
 		}),
 	);
 	process.stdout.write(`  (compiling the pinned build ${commit} into ${dir} …)\n`);
-	execFileSync(join(root, 'node_modules', '.bin', 'tsc'), ['-p', join(dir, 'tsconfig.pinned.json')], {cwd: dir, stdio: 'inherit'});
+	execFileSync(join(root, 'node_modules', '.bin', 'tsc'), ['-p', join(dir, 'tsconfig.pinned.json')], {
+		cwd: dir,
+		stdio: 'inherit',
+	});
 	writeFileSync(done, `${commit}\n`);
 	return {commit, distDir};
 }

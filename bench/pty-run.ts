@@ -44,7 +44,10 @@ export function inPty(command: string, env: NodeJS.ProcessEnv, o: PtyOptions = {
 	const {marker, keys = [], gapMs = 30} = o;
 	return new Promise((resolve, reject) => {
 		const t0 = performance.now();
-		const child = spawn('script', ['-qfc', `stty cols 100 rows 30 2>/dev/null; exec ${command}`, '/dev/null'], {env, stdio: ['pipe', 'pipe', 'pipe']});
+		const child = spawn('script', ['-qfc', `stty cols 100 rows 30 2>/dev/null; exec ${command}`, '/dev/null'], {
+			env,
+			stdio: ['pipe', 'pipe', 'pipe'],
+		});
 		let out = '';
 		let seenAt: number | undefined;
 		const timer = setTimeout(() => {
@@ -70,7 +73,10 @@ export function inPty(command: string, env: NodeJS.ProcessEnv, o: PtyOptions = {
 			child.on('exit', () => {
 				clearTimeout(exit);
 				clearTimeout(timer);
-				resolve({ms: seenAt!, ...(first && edited ? {firstMb: first.rssMb, editedMb: edited.rssMb, peakMb: edited.peakMb} : {})});
+				resolve({
+					ms: seenAt!,
+					...(first && edited ? {firstMb: first.rssMb, editedMb: edited.rssMb, peakMb: edited.peakMb} : {}),
+				});
 			});
 		});
 		if (!marker) {

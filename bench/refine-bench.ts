@@ -31,10 +31,14 @@ const timeTool = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 function runCli(args: readonly string[], env: NodeJS.ProcessEnv): {wall: number; cpu: number | null; stdout: string} {
 	const t0 = performance.now();
 	const r = timeTool
-		? spawnSync(timeTool, ['-f', '@@cpu %U %S', process.execPath, cli, ...args], {env, stdio: ['ignore', 'pipe', 'pipe']})
+		? spawnSync(timeTool, ['-f', '@@cpu %U %S', process.execPath, cli, ...args], {
+				env,
+				stdio: ['ignore', 'pipe', 'pipe'],
+			})
 		: spawnSync(process.execPath, [cli, ...args], {env, stdio: ['ignore', 'pipe', 'pipe']});
 	const wall = performance.now() - t0;
-	if (r.status !== 0) throw new Error(`evenecho ${args.join(' ')} exited ${r.status}: ${r.stderr.toString().slice(0, 400)}`);
+	if (r.status !== 0)
+		throw new Error(`evenecho ${args.join(' ')} exited ${r.status}: ${r.stderr.toString().slice(0, 400)}`);
 	const m = /@@cpu ([\d.]+) ([\d.]+)/.exec(r.stderr.toString());
 	return {wall, cpu: m ? (Number(m[1]) + Number(m[2])) * 1000 : null, stdout: r.stdout.toString()};
 }
@@ -62,24 +66,79 @@ export async function run(): Promise<void> {
 	try {
 		const planPath = join(dir, 'plan.json');
 		writeFileSync(planPath, JSON.stringify(planJson));
-		runCli(['simulate', planPath, '--out', join(dir, 'phantom'), '--kind', 'phantom-series', '--format', 'dicom', '--seed', '3'], env);
+		runCli(
+			[
+				'simulate',
+				planPath,
+				'--out',
+				join(dir, 'phantom'),
+				'--kind',
+				'phantom-series',
+				'--format',
+				'dicom',
+				'--seed',
+				'3',
+			],
+			env,
+		);
 		runCli(['scanner', 'calibrate', join(dir, 'phantom', 'session.json'), '--name', 'bench cart'], env);
-		runCli(['simulate', planPath, '--out', join(dir, 'patient'), '--kind', 'patient', '--cyst', '--bright-line', '--format', 'dicom', '--seed', '5'], env);
+		runCli(
+			[
+				'simulate',
+				planPath,
+				'--out',
+				join(dir, 'patient'),
+				'--kind',
+				'patient',
+				'--cyst',
+				'--bright-line',
+				'--format',
+				'dicom',
+				'--seed',
+				'5',
+			],
+			env,
+		);
 		const measuredPlan = join(dir, 'plan-cart.json');
 		writeFileSync(measuredPlan, JSON.stringify({...planJson, scanner: 'bench-cart'}));
 		const image = join(dir, 'patient', 'patient.dcm');
-		const args = ['refine', image, '--plan', measuredPlan, '--applied', join(dir, 'patient', 'applied-settings.json'), '--format', 'json'];
+		const args = [
+			'refine',
+			image,
+			'--plan',
+			measuredPlan,
+			'--applied',
+			join(dir, 'patient', 'applied-settings.json'),
+			'--format',
+			'json',
+		];
 		const first = runCli(args, env);
-		const result = JSON.parse(first.stdout) as {attenuation: {alphaDbPerCmMhz: number; low: number; high: number} | null; calibrated: boolean};
+		const result = JSON.parse(first.stdout) as {
+			attenuation: {alphaDbPerCmMhz: number; low: number; high: number} | null;
+			calibrated: boolean;
+		};
 		const runs = Array.from({length: 7}, () => runCli(args, env));
 		const walls = runs.map((r) => r.wall);
 		const cpus = runs.flatMap((r) => (r.cpu === null ? [] : [r.cpu]));
 		const a = result.attenuation;
-		note('result', `calibrated ${result.calibrated}, liver α0 ${a ? `${a.alphaDbPerCmMhz} (${a.low}–${a.high})` : 'not measured'}, truth 0.8`);
+		note(
+			'result',
+			`calibrated ${result.calibrated}, liver α0 ${a ? `${a.alphaDbPerCmMhz} (${a.low}–${a.high})` : 'not measured'}, truth 0.8`,
+		);
 		const wall = median(walls);
 		const cpu = cpus.length ? `, CPU ${median(cpus).toFixed(0)} ms` : '';
-		target('`refine --scanner` cold process, wall (median of 7)', `${wall.toFixed(0)} ms${cpu}`, '≤ 1000 ms', wall <= 1000);
-		note('load average while measured', loadavg().map((l) => l.toFixed(1)).join(' '));
+		target(
+			'`refine --scanner` cold process, wall (median of 7)',
+			`${wall.toFixed(0)} ms${cpu}`,
+			'≤ 1000 ms',
+			wall <= 1000,
+		);
+		note(
+			'load average while measured',
+			loadavg()
+				.map((l) => l.toFixed(1))
+				.join(' '),
+		);
 
 		// The split, in this process, warm: the same work as the command, stage by stage.
 		const parsed = parsePlan(planJson);
@@ -114,7 +173,8 @@ export async function run(): Promise<void> {
 		const ms = (xs: number[]) => `${median(xs).toFixed(0)} ms`;
 		note(
 			'split, warm, in process (median of 5)',
-			`read+decode ${ms(split.read)}, analysis (mask, bands) ${ms(split.bands)}, α0 fit ${ms(split.attenuation)}, slider refit ${ms(split.sliders)}`,
+			`read+decode ${ms(split.read)}, analysis (mask, bands) ${ms(split.bands)}, α0 fit ${ms(split.attenuation)}, slider ` +
+				`refit ${ms(split.sliders)}`,
 		);
 	} finally {
 		rmSync(dir, {recursive: true, force: true});

@@ -18,10 +18,14 @@ const cli = join(root, 'dist', 'bundle', 'main.js');
 /** CPU time (user + system) of one run of node with these arguments, ms; wall time is too noisy on a shared machine. */
 function cpuOf(args: readonly string[], env: NodeJS.ProcessEnv): {cpu: number; wall: number} {
 	const t0 = performance.now();
-	const r = spawnSync('/usr/bin/time', ['-f', '@@time %U %S', process.execPath, ...args], {env, stdio: ['ignore', 'pipe', 'pipe']});
+	const r = spawnSync('/usr/bin/time', ['-f', '@@time %U %S', process.execPath, ...args], {
+		env,
+		stdio: ['ignore', 'pipe', 'pipe'],
+	});
 	const wall = performance.now() - t0;
 	const m = /@@time ([\d.]+) ([\d.]+)/.exec(r.stderr.toString());
-	if (r.status !== 0 || !m) throw new Error(`${args.join(' ')} exited ${r.status}: ${r.stderr.toString().slice(0, 300)}`);
+	if (r.status !== 0 || !m)
+		throw new Error(`${args.join(' ')} exited ${r.status}: ${r.stderr.toString().slice(0, 300)}`);
 	return {cpu: (Number(m[1]) + Number(m[2])) * 1000, wall};
 }
 
@@ -33,7 +37,11 @@ export async function run(): Promise<void> {
 	const commands: {name: string; args: string[]; targetRatio: number}[] = [
 		{name: '`--version`', args: [cli, '--version'], targetRatio: 1.3},
 		{name: '`--help`', args: [cli, '--help'], targetRatio: 1.3},
-		{name: '`curve presets/upper-abdomen.json`', args: [cli, 'curve', join(root, 'presets', 'upper-abdomen.json')], targetRatio: 2},
+		{
+			name: '`curve presets/upper-abdomen.json`',
+			args: [cli, 'curve', join(root, 'presets', 'upper-abdomen.json')],
+			targetRatio: 2,
+		},
 	];
 	const rounds = 9;
 	const bare: number[] = [];
@@ -55,12 +63,16 @@ export async function run(): Promise<void> {
 				ratios[k]!.push(ms.cpu / b.cpu);
 			});
 		}
-		note(`\`node -e 0\` (median of ${rounds})`, `${median(bare).toFixed(0)} ms CPU, ${median(bareWall).toFixed(0)} ms wall`);
+		note(
+			`\`node -e 0\` (median of ${rounds})`,
+			`${median(bare).toFixed(0)} ms CPU, ${median(bareWall).toFixed(0)} ms wall`,
+		);
 		commands.forEach((c, k) => {
 			const r = median(ratios[k]!);
 			target(
 				`${c.name} cold start ÷ \`node -e 0\``,
-				`${r.toFixed(2)}× in CPU time (${median(times[k]!).toFixed(0)} ms; rounds ${ratioList(ratios[k]!)}; wall ${median(walls[k]!).toFixed(2)}×)`,
+				`${r.toFixed(2)}× in CPU time (${median(times[k]!).toFixed(0)} ms; rounds ${ratioList(ratios[k]!)}; wall ` +
+					`${median(walls[k]!).toFixed(2)}×)`,
 				`≤ ${c.targetRatio}×`,
 				r <= c.targetRatio,
 			);
@@ -76,7 +88,12 @@ export async function run(): Promise<void> {
 			consoleRatios.push((await inPty(`${node} ${cli}`, env, {marker: '[1 Starting plan]'})).ms / b);
 		}
 		const r = median(consoleRatios);
-		target('console cold start to first frame ÷ `node -e 0` (pseudo-terminal)', `${r.toFixed(1)}× (rounds ${ratioList(consoleRatios)})`, '≤ 6×', r <= 6);
+		target(
+			'console cold start to first frame ÷ `node -e 0` (pseudo-terminal)',
+			`${r.toFixed(1)}× (rounds ${ratioList(consoleRatios)})`,
+			'≤ 6×',
+			r <= 6,
+		);
 	} finally {
 		rmSync(home, {recursive: true, force: true});
 	}

@@ -25,11 +25,26 @@ interface Timed {
 
 /** Runs `node <entry> table …` under /usr/bin/time, stdout to a file; wall, CPU and peak resident set. */
 function timedTable(entry: string, args: readonly string[], outFile: string, env: NodeJS.ProcessEnv): Timed {
-	const r = spawnSync('/usr/bin/time', ['-f', '@@time %e %U %S %M', 'sh', '-c', `exec "$0" "$@" > "${outFile}"`, process.execPath, entry, 'table', plan, ...args], {
-		env,
-		stdio: ['ignore', 'ignore', 'pipe'],
-		maxBuffer: 1 << 24,
-	});
+	const r = spawnSync(
+		'/usr/bin/time',
+		[
+			'-f',
+			'@@time %e %U %S %M',
+			'sh',
+			'-c',
+			`exec "$0" "$@" > "${outFile}"`,
+			process.execPath,
+			entry,
+			'table',
+			plan,
+			...args,
+		],
+		{
+			env,
+			stdio: ['ignore', 'ignore', 'pipe'],
+			maxBuffer: 1 << 24,
+		},
+	);
 	const err = r.stderr.toString();
 	const m = /@@time ([\d.]+) ([\d.]+) ([\d.]+) (\d+)/.exec(err);
 	if (r.status !== 0 || !m) throw new Error(`table run failed (${r.status}): ${err.slice(0, 400)}`);
@@ -63,7 +78,13 @@ function jsonDifference(a: unknown, b: unknown, path = ''): {max: number; where:
 		}
 		return worst;
 	}
-	return a === b ? {max: 0, where: path} : {max: 0, where: path, mismatch: `${path}: ${JSON.stringify(a)?.slice(0, 60)} vs ${JSON.stringify(b)?.slice(0, 60)}`};
+	return a === b
+		? {max: 0, where: path}
+		: {
+				max: 0,
+				where: path,
+				mismatch: `${path}: ${JSON.stringify(a)?.slice(0, 60)} vs ${JSON.stringify(b)?.slice(0, 60)}`,
+			};
 }
 
 export async function run(pinned: PinnedBuild): Promise<void> {
@@ -89,8 +110,16 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 		}
 		const wallRatios = a.map((x, i) => x.wallS / b[i]!.wallS);
 		const cpuRatios = a.map((x, i) => x.cpuS / b[i]!.cpuS);
-		note(`pinned build ${pinned.commit}, 10,000 rows JSON (median of ${pairs})`, `${median(a.map((x) => x.wallS)).toFixed(1)} s wall, ${median(a.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ${median(a.map((x) => x.peakMb)).toFixed(0)} MB`);
-		note('this tree, same table', `${median(b.map((x) => x.wallS)).toFixed(1)} s wall, ${median(b.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ${median(b.map((x) => x.peakMb)).toFixed(0)} MB; CPU ratios pinned ÷ now ${ratioList(cpuRatios)}`);
+		note(
+			`pinned build ${pinned.commit}, 10,000 rows JSON (median of ${pairs})`,
+			`${median(a.map((x) => x.wallS)).toFixed(1)} s wall, ${median(a.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ` +
+				`${median(a.map((x) => x.peakMb)).toFixed(0)} MB`,
+		);
+		note(
+			'this tree, same table',
+			`${median(b.map((x) => x.wallS)).toFixed(1)} s wall, ${median(b.map((x) => x.cpuS)).toFixed(1)} s CPU, peak ` +
+				`${median(b.map((x) => x.peakMb)).toFixed(0)} MB; CPU ratios pinned ÷ now ${ratioList(cpuRatios)}`,
+		);
 		const speedup = median(wallRatios);
 		target(
 			'10,000-row table, wall time, pinned build ÷ this tree (alternated)',
@@ -98,7 +127,10 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 			'≥ 4×',
 			speedup >= 4,
 		);
-		const d = jsonDifference(JSON.parse(readFileSync(join(dir, 'before.json'), 'utf8')), JSON.parse(readFileSync(join(dir, 'now.json'), 'utf8')));
+		const d = jsonDifference(
+			JSON.parse(readFileSync(join(dir, 'before.json'), 'utf8')),
+			JSON.parse(readFileSync(join(dir, 'now.json'), 'utf8')),
+		);
 		target(
 			'10,000-row table, largest difference from the pinned build (rounded outputs)',
 			d.mismatch ? `differs: ${d.mismatch}` : `${d.max.toFixed(3)}${d.where ? ` at ${d.where}` : ''}`,
@@ -106,8 +138,18 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 			!d.mismatch && d.max <= 0.0100001,
 		);
 		rmSync(join(dir, 'before.json'));
-		const largest = timedTable(cli, ['--fat', '0.25:50:0.25', '--freq', '2:11.8:0.2', '--receive', 'both', '--format', 'json'], join(dir, 'largest.json'), env);
-		target('20,000-row JSON table, peak resident memory', `${largest.peakMb.toFixed(0)} MB (${largest.wallS.toFixed(1)} s)`, '≤ 150 MB', largest.peakMb <= 150);
+		const largest = timedTable(
+			cli,
+			['--fat', '0.25:50:0.25', '--freq', '2:11.8:0.2', '--receive', 'both', '--format', 'json'],
+			join(dir, 'largest.json'),
+			env,
+		);
+		target(
+			'20,000-row JSON table, peak resident memory',
+			`${largest.peakMb.toFixed(0)} MB (${largest.wallS.toFixed(1)} s)`,
+			'≤ 150 MB',
+			largest.peakMb <= 150,
+		);
 	} finally {
 		rmSync(dir, {recursive: true, force: true});
 	}

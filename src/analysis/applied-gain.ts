@@ -25,7 +25,12 @@ export function settingsOfFit(fit: SliderFit): AppliedSettings {
 }
 
 /** Gain delivered at a displayed depth relative to the plan's skin level, dB. */
-export function deliveredGainDb(plan: EnginePlan, settings: AppliedSettings, own: OwnDepthGain, displayedCm: number): number {
+export function deliveredGainDb(
+	plan: EnginePlan,
+	settings: AppliedSettings,
+	own: OwnDepthGain,
+	displayedCm: number,
+): number {
 	const knots = knotDepths(plan.sliders, plan.display.depthCm);
 	return (
 		own(plan, displayedCm) +

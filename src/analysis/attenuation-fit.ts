@@ -36,7 +36,9 @@ export interface AttenuationEstimate {
 }
 
 export function withLayerAlpha(plan: EnginePlan, layerIndex: number, alpha: number): EnginePlan {
-	const layers: Layer[] = plan.layers.map((l, i) => (i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: alpha}} : l));
+	const layers: Layer[] = plan.layers.map((l, i) =>
+		i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: alpha}} : l,
+	);
 	return {...plan, layers};
 }
 
@@ -64,7 +66,12 @@ function profiled(r: readonly number[], m: readonly number[], w: readonly number
 }
 
 /** Fits α′ of `layerIndex`; needs at least three bands. */
-export function fitLayerAttenuation(plan: EnginePlan, layerIndex: number, bands: readonly FitBand[], start?: number): AttenuationEstimate {
+export function fitLayerAttenuation(
+	plan: EnginePlan,
+	layerIndex: number,
+	bands: readonly FitBand[],
+	start?: number,
+): AttenuationEstimate {
 	const planAlpha = plan.layers[layerIndex]!.tissue.alphaDbPerCmMhz;
 	const maxAlpha = Math.max(3, 6 * planAlpha);
 	const base = bandLosses(plan, layerIndex, planAlpha, bands);

@@ -60,7 +60,12 @@ export function bandRows(region: MeasuredRegion): {topCm: number; bottomCm: numb
 	return out;
 }
 
-export function measureBands(frame: GreyFrame, region: MeasuredRegion, mask: SpeckleMask, map: LevelMap): BandMeasurement[] {
+export function measureBands(
+	frame: GreyFrame,
+	region: MeasuredRegion,
+	mask: SpeckleMask,
+	map: LevelMap,
+): BandMeasurement[] {
 	const use = new Uint8Array(mask.codes.length);
 	for (let i = 0; i < use.length; i++) use[i] = mask.codes[i] === maskCodes.speckle ? 1 : 0;
 	const [c0, c1] = region.columns;

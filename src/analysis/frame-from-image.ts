@@ -32,6 +32,7 @@ export function frameFromImage(image: DecodedStill): {frame: GreyFrame; region: 
 		topRowCm: image.rows.originCm - 0.5 * image.rows.cmPerRow,
 		cmPerPixel: image.rows.cmPerRow,
 	};
-	const depthScale = image.depthScaleFrom === 'ultrasound-region' ? 'the DICOM ultrasound region' : 'the pixel scale given';
+	const depthScale =
+		image.depthScaleFrom === 'ultrasound-region' ? 'the DICOM ultrasound region' : 'the pixel scale given';
 	return {frame: {width: image.width, height: image.height, grey: image.grey, valid}, region, depthScale};
 }

@@ -23,7 +23,8 @@ export interface NoiseBand {
 export interface ImageNoise {
 	/** Noise level relative to the delivered gain on the residual's scale, dB. */
 	readonly noiseDb: number;
-	/** True when the noise shows in the image: the noise term fits clearly better than tissue alone, and the deepest band's fitted echo-to-noise is below `seenBelowDb`. */
+	/** True when the noise shows in the image: the noise term fits clearly better than tissue alone, and the
+	deepest band's fitted echo-to-noise is below `seenBelowDb`. */
 	readonly seen: boolean;
 	/** Fitted echo-to-noise of the deepest band, dB. */
 	readonly deepestEchoToNoiseDb: number;
@@ -69,7 +70,8 @@ export function imageNoiseLevel(plan: EnginePlan, layerIndex: number, bands: rea
 				const cost = (c: number) => {
 					const cp = 10 ** (c / 10);
 					let s = 0;
-					for (let i = 0; i < r.length; i++) s += w[i]! * (r[i]! - 10 * Math.log10(cp * tissuePower[i]! + noisePower[i]!)) ** 2;
+					for (let i = 0; i < r.length; i++)
+						s += w[i]! * (r[i]! - 10 * Math.log10(cp * tissuePower[i]! + noisePower[i]!)) ** 2;
 					return s;
 				};
 				// c lies within the residuals' span (the tissue term dominates somewhere).

@@ -37,7 +37,10 @@ export function logLevelMap(dynamicRangeDb: number): LevelMap {
  * A measured map given as points (grey ascending, level ascending), interpolated linearly between
  * them; not extended beyond the first and last point.
  */
-export function tableLevelMap(points: readonly {readonly grey: number; readonly levelDb: number}[], label: string): LevelMap {
+export function tableLevelMap(
+	points: readonly {readonly grey: number; readonly levelDb: number}[],
+	label: string,
+): LevelMap {
 	const pts = [...points].sort((a, b) => a.grey - b.grey);
 	const segment = (grey: number): number => {
 		let i = 1;

@@ -72,7 +72,14 @@ export interface RefineRequest {
 /** Stages of a refinement: band levels measured (mask included), α0 fitted, sliders refitted (and the rest). */
 export type RefineStage = 'bands' | 'attenuation' | 'sliders';
 
-export type BandVerdict = 'usable' | 'too-few-cells' | 'dark' | 'clipped' | 'below-noise' | 'off-map' | 'beyond-profile';
+export type BandVerdict =
+	| 'usable'
+	| 'too-few-cells'
+	| 'dark'
+	| 'clipped'
+	| 'below-noise'
+	| 'off-map'
+	| 'beyond-profile';
 
 export interface RefinedBand extends BandMeasurement {
 	/** Level the plan expects under the applied settings, with the image's offset added, dB. */
@@ -166,7 +173,10 @@ export function depthMismatch(plan: EnginePlan, region: MeasuredRegion): string 
 	const bottom = regionBottomCm(region);
 	const want = plan.display.depthCm;
 	if (Math.abs(bottom - want) > depthTolerance * want + region.cmPerPixel) {
-		return `the image shows ${bottom.toFixed(1)} cm of depth but the plan's display depth is ${want} cm (they must agree within ${depthTolerance * 100} %): use a plan made for this image's depth, or check the depth scale`;
+		return (
+			`the image shows ${bottom.toFixed(1)} cm of depth but the plan's display depth is ${want} cm (they must agree ` +
+			`within ${depthTolerance * 100} %): use a plan made for this image's depth, or check the depth scale`
+		);
 	}
 	return null;
 }
@@ -242,7 +252,10 @@ function evaluate(
 		};
 	});
 	// The image's offset: the shallowest measured bands are taken as tissue at the plan's reference.
-	const shallow = drafts.filter((d) => d.verdict === 'usable').slice(0, 3).map((d) => d.residualDb);
+	const shallow = drafts
+		.filter((d) => d.verdict === 'usable')
+		.slice(0, 3)
+		.map((d) => d.residualDb);
 	const offsetDb = shallow.length ? median(shallow) : 0;
 	for (const d of drafts) {
 		d.noiseDb = d.delivered + Math.max(offsetDb - plan.noiseBudgetDb, imageNoiseDb ?? Number.NEGATIVE_INFINITY);
@@ -271,7 +284,12 @@ function tissueLevelDb(levelDb: number, noiseDb: number): number {
 }
 
 /** Fit bands of one layer: noise power removed, its SD grown to match. */
-function fitBandsOf(ev: Evaluated, plan: EnginePlan, layerIndex: number, levelOf: (m: BandMeasurement) => number): {bands: FitBand[]; drafts: RefinedBandDraft[]} {
+function fitBandsOf(
+	ev: Evaluated,
+	plan: EnginePlan,
+	layerIndex: number,
+	levelOf: (m: BandMeasurement) => number,
+): {bands: FitBand[]; drafts: RefinedBandDraft[]} {
 	const spans = pathModelOf(plan).spans;
 	const span = spans[layerIndex]!;
 	const drafts = ev.bands.filter(
@@ -291,30 +309,45 @@ interface LayerFit {
 	fitted: Set<RefinedBandDraft>;
 }
 
-function fitLayer(ev: Evaluated, plan: EnginePlan, layerIndex: number, levelOf: (m: BandMeasurement) => number): LayerFit {
+function fitLayer(
+	ev: Evaluated,
+	plan: EnginePlan,
+	layerIndex: number,
+	levelOf: (m: BandMeasurement) => number,
+): LayerFit {
 	const spans = pathModelOf(plan).spans;
 	const span = spans[layerIndex]!;
 	const label = span.layer.tissue.label;
 	const barrier = pathModelOf(plan).barrier;
 	const none = (cannotTell: string): LayerFit => ({estimate: null, cannotTell, fitted: new Set()});
 	if (barrier && barrier.displayedCm <= span.shownTopCm + 1e-9) {
-		return none(`layer ${layerIndex + 1} (${label}) lies beyond a ${barrier.kind.replace('strong-', '')} at ${barrier.displayedCm.toFixed(1)} cm: no echo to measure`);
+		return none(
+			`layer ${layerIndex + 1} (${label}) lies beyond a ${barrier.kind.replace('strong-', '')} at ` +
+				`${barrier.displayedCm.toFixed(1)} cm: no echo to measure`,
+		);
 	}
 	const usable = ev.bands.filter((d) => d.verdict === 'usable');
 	const deepest = usable.length ? usable[usable.length - 1]!.m.bottomCm : 0;
 	if (deepest <= span.shownTopCm + 1e-9) {
-		return none(`the usable image stops at ${deepest.toFixed(1)} cm, above layer ${layerIndex + 1} (${label}) from ${span.shownTopCm.toFixed(1)} cm: too shallow to tell`);
+		return none(
+			`the usable image stops at ${deepest.toFixed(1)} cm, above layer ${layerIndex + 1} (${label}) from ` +
+				`${span.shownTopCm.toFixed(1)} cm: too shallow to tell`,
+		);
 	}
 	const {bands, drafts} = fitBandsOf(ev, plan, layerIndex, levelOf);
 	const spanCm = drafts.length ? drafts[drafts.length - 1]!.m.bottomCm - drafts[0]!.m.topCm : 0;
 	if (drafts.length < fewestFitBands || spanCm < leastFitSpanCm) {
 		return none(
-			`layer ${layerIndex + 1} (${label}) has ${drafts.length} usable band(s) over ${spanCm.toFixed(1)} cm; at least ${fewestFitBands} over ${leastFitSpanCm} cm are needed (layer too thin, or too few speckle cells above the noise)`,
+			`layer ${layerIndex + 1} (${label}) has ${drafts.length} usable band(s) over ${spanCm.toFixed(1)} cm; at least ` +
+				`${fewestFitBands} over ${leastFitSpanCm} cm are needed (layer too thin, or too few speckle cells above the noise)`,
 		);
 	}
 	const estimate = fitLayerAttenuation(plan, layerIndex, bands);
 	if (estimate.sd > largestAlphaSd) {
-		return none(`the image cannot tell layer ${layerIndex + 1} (${label}): α0 ${estimate.alphaDbPerCmMhz.toFixed(2)} ± ${(1.96 * estimate.sd).toFixed(2)} dB/cm/MHz is too uncertain (SD above ${largestAlphaSd})`);
+		return none(
+			`the image cannot tell layer ${layerIndex + 1} (${label}): α0 ${estimate.alphaDbPerCmMhz.toFixed(2)} ± ` +
+				`${(1.96 * estimate.sd).toFixed(2)} dB/cm/MHz is too uncertain (SD above ${largestAlphaSd})`,
+		);
 	}
 	return {estimate, cannotTell: null, fitted: new Set(drafts)};
 }
@@ -337,7 +370,9 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const allBands = bandRows(region);
 	const sampled = allBands.filter((_, i) => i % Math.max(1, Math.ceil(allBands.length / 5)) === 0);
 	const areas = sampled.map(
-		(b) => windowStatistics({grey: frame.grey, use: valid, width: frame.width, rows: b.rows, columns: region.columns}).cellAreaPx,
+		(b) =>
+			windowStatistics({grey: frame.grey, use: valid, width: frame.width, rows: b.rows, columns: region.columns})
+				.cellAreaPx,
 	);
 	const cellAreaPx = areas.length ? median(areas) : 1;
 	const mask = maskNonSpeckle(frame, region, map, cellAreaPx);
@@ -355,7 +390,9 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	if (usableBands.length < fewestTissueBands) {
 		return {
 			ok: false,
-			problem: `no tissue: ${usableBands.length} of ${ev.bands.length} depth bands show enough speckle from tissue above the noise (at least ${fewestTissueBands} are needed; the rest are anechoic, black, masked or noise)`,
+			problem:
+				`no tissue: ${usableBands.length} of ${ev.bands.length} depth bands show enough speckle from tissue above ` +
+				`the noise (at least ${fewestTissueBands} are needed; the rest are anechoic, black, masked or noise)`,
 		};
 	}
 	// Noise follows the applied gain; tissue echoes fall with the plan's loss. Levels that rise
@@ -373,7 +410,11 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 			sxx += (xs[i]! - mx) ** 2;
 		}
 		if (sxx > 100 && sxy / sxx > 0.7) {
-			return {ok: false, problem: 'no tissue: the measured levels follow the applied gain the way noise does, not the fall-off of tissue echoes (all anechoic or noise)'};
+			return {
+				ok: false,
+				problem:
+					'no tissue: the measured levels follow the applied gain the way noise does, not the fall-off of tissue echoes (all anechoic or noise)',
+			};
 		}
 	}
 
@@ -382,12 +423,22 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const imageNoiseDb = noise?.seen ? noise.noiseDb : null;
 	let uncalibrated: UncalibratedCost | null = null;
 	if (!map.calibrated) {
-		const cost = uncalibratedCost(req, layerIndex, applied, own, measured, dynamicRangeDb, lf.estimate?.alphaDbPerCmMhz ?? null, imageNoiseDb);
+		const cost = uncalibratedCost(
+			req,
+			layerIndex,
+			applied,
+			own,
+			measured,
+			dynamicRangeDb,
+			lf.estimate?.alphaDbPerCmMhz ?? null,
+			imageNoiseDb,
+		);
 		uncalibrated = {
 			...cost,
 			planNoiseBudgetDb: plan.noiseBudgetDb,
 			imageNoiseBudgetDb: imageNoiseDb === null ? null : ev.offsetDb - imageNoiseDb,
-			alphaAtPlanBudget: imageNoiseDb === null || !lf.estimate ? null : alphaAtPlanBudget(plan, applied, own, map, measured, layerIndex),
+			alphaAtPlanBudget:
+				imageNoiseDb === null || !lf.estimate ? null : alphaAtPlanBudget(plan, applied, own, map, measured, layerIndex),
 		};
 		// Noise and tissue are told apart by how their levels follow the delivered gain, which without a
 		// profile is the assumed ramp. When the image's noise sits far above the plan's budget it covers
@@ -395,17 +446,28 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		const est = lf.estimate;
 		const short = uncalibrated.imageNoiseBudgetDb === null ? 0 : plan.noiseBudgetDb - uncalibrated.imageNoiseBudgetDb;
 		if (est && short > noiseBudgetDisagreementDb) {
-			const trusted = uncalibrated.alphaAtPlanBudget === null ? '' : `, ${uncalibrated.alphaAtPlanBudget.toFixed(2)} trusting the plan's noise budget`;
+			const trusted =
+				uncalibrated.alphaAtPlanBudget === null
+					? ''
+					: `, ${uncalibrated.alphaAtPlanBudget.toFixed(2)} trusting the plan's noise budget`;
 			lf = {
 				estimate: null,
 				fitted: new Set(),
-				cannotTell: `without a scanner profile the image cannot tell layer ${layerIndex + 1} (${span.layer.tissue.label}): its noise shows at ${uncalibrated.imageNoiseBudgetDb!.toFixed(0)} dB of loss, ${short.toFixed(0)} dB short of the plan's ${plan.noiseBudgetDb.toFixed(0)} dB budget, so deep bands are noise and telling them from tissue rests on the assumed ramp (α0 would read ${est.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz leaving them out${trusted}); calibrate the scanner to measure it`,
+				cannotTell:
+					`without a scanner profile the image cannot tell layer ${layerIndex + 1} (${span.layer.tissue.label}): ` +
+					`its noise shows at ${uncalibrated.imageNoiseBudgetDb!.toFixed(0)} dB of loss, ${short.toFixed(0)} dB short of ` +
+					`the plan's ${plan.noiseBudgetDb.toFixed(0)} dB budget, so deep bands are noise and telling them from tissue ` +
+					`rests on the assumed ramp (α0 would read ${est.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz leaving them ` +
+					`out${trusted}); calibrate the scanner to measure it`,
 			};
 		}
 	}
 	// Without a profile the 95 % interval from the speckle statistics is widened to hold what the
 	// assumptions (range ±10 dB, ramp ±0.1 dB/cm/MHz) alone would read: calibration uncertainty.
-	const widened = lf.estimate && uncalibrated ? widen(lf.estimate, [uncalibrated.alphaAtRange, uncalibrated.alphaAtRamp]) : lf.estimate;
+	const widened =
+		lf.estimate && uncalibrated
+			? widen(lf.estimate, [uncalibrated.alphaAtRange, uncalibrated.alphaAtRamp])
+			: lf.estimate;
 	const attenuation: AttenuationResult | null = widened
 		? {
 				...widened,
@@ -423,11 +485,19 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 	const travel = req.sliderTravelDb && req.sliderTravelDb > 0 ? req.sliderTravelDb : null;
 	const sliders: RefinedSlider[] = refinedCurve.fit.sliders.map((s, k) => {
 		const correctionDb = s.gainDb - (applied.slidersDb[k] ?? 0);
-		return {depthCm: s.depthCm, gainDb: s.gainDb, correctionDb, correctionTravel: travel ? correctionDb / travel : null};
+		return {
+			depthCm: s.depthCm,
+			gainDb: s.gainDb,
+			correctionDb,
+			correctionTravel: travel ? correctionDb / travel : null,
+		};
 	});
 
 	const bands: RefinedBand[] = ev.bands.map((d) => {
-		const change = meanOver(d.samples, (z) => deliveredGainDb(plan, refinedSettings, own, z) - deliveredGainDb(plan, applied, own, z));
+		const change = meanOver(
+			d.samples,
+			(z) => deliveredGainDb(plan, refinedSettings, own, z) - deliveredGainDb(plan, applied, own, z),
+		);
 		const level = Number.isFinite(d.m.levelDb) ? tissueLevelDb(d.m.levelDb, d.noiseDb) : Number.NaN;
 		return {
 			...d.m,
@@ -447,10 +517,15 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		code: 'settings-stated',
 		message: req.applied
 			? 'Corrections are changes from the stated settings; if the image was taken with other settings, the corrections are wrong.'
-			: 'No settings given: the image is assumed to be taken with the plan\'s own sliders and master. If it was not, the corrections are wrong (give them with --applied).',
+			: "No settings given: the image is assumed to be taken with the plan's own sliders and master. If it was not, the " +
+				'corrections are wrong (give them with --applied).',
 	});
 	if (plan.scanner) warnings.push({code: 'scanner-profile', message: scannerProfileNote(plan)});
-	if (lf.cannotTell) warnings.push({code: 'cannot-tell', message: `Attenuation not measured: ${lf.cannotTell}. The sliders shown are the plan's own fit.`});
+	if (lf.cannotTell)
+		warnings.push({
+			code: 'cannot-tell',
+			message: `Attenuation not measured: ${lf.cannotTell}. The sliders shown are the plan's own fit.`,
+		});
 	const unusable = bands.filter((b) => !b.usable);
 	if (unusable.length) {
 		const list = unusable.map((b) => `${b.depthCm.toFixed(1)} cm ${b.verdict}`).join(', ');
@@ -461,22 +536,35 @@ export function refineImage(req: RefineRequest): RefineOutcome {
 		if (worst > leftoverWarningDb) {
 			warnings.push({
 				code: 'model-leftover',
-				message: `The measured levels in layer ${layerIndex + 1} differ from the fitted model by up to ${worst.toFixed(1)} dB: the patient differs from the plan in more than this layer's attenuation (thicknesses, tissues, or the stated settings).`,
+				message:
+					`The measured levels in layer ${layerIndex + 1} differ from the fitted model by up to ${worst.toFixed(1)} ` +
+					`dB: the patient differs from the plan in more than this layer's attenuation (thicknesses, tissues, or the stated settings).`,
 			});
 		}
 	}
 	if (refinedCurve.fit.residualDb > 2) {
 		warnings.push({
 			code: 'slider-range-exceeded',
-			message: `Sliders and master gain cannot follow the refined curve: they miss it by up to ${refinedCurve.fit.residualDb.toFixed(1)} dB at ${refinedCurve.fit.residualAtCm.toFixed(1)} cm.`,
+			message:
+				`Sliders and master gain cannot follow the refined curve: they miss it by up to ` +
+				`${refinedCurve.fit.residualDb.toFixed(1)} dB at ${refinedCurve.fit.residualAtCm.toFixed(1)} cm.`,
 		});
 	}
 
 	if (uncalibrated) {
-		const fmt = (r: readonly [number, number] | null) => (r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable');
+		const fmt = (r: readonly [number, number] | null) =>
+			r ? `${r[0].toFixed(2)}–${r[1].toFixed(2)}` : 'not measurable';
 		warnings.unshift({
 			code: 'uncalibrated',
-			message: `Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display, the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz) and its noise ${noiseSource(uncalibrated)}. Their errors go straight into the result: α0 would read ${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; ${noiseCost(uncalibrated)}; a focal zone or processing curve adds its own dB per slider.${attenuation ? ' The α0 interval is widened to hold the range and ramp readings.' : ''} Calibrate the scanner for measured corrections.`,
+			message:
+				`Uncalibrated: no scanner profile, so grey is read as a plain ${dynamicRangeDb} dB logarithmic display, ` +
+				`the scanner's own depth gain as the assumed ramp (${plan.sliders.rampDbPerCmMhz} dB/cm/MHz) and its noise ` +
+				`${noiseSource(uncalibrated)}. Their errors go straight into the result: α0 would read ` +
+				`${fmt(uncalibrated.alphaAtRange)} dB/cm/MHz if the true range were ${dynamicRangeDb - 10}–${dynamicRangeDb + 10} ` +
+				`dB, and ${fmt(uncalibrated.alphaAtRamp)} if the ramp were off by ±0.1 dB/cm/MHz; ${noiseCost(uncalibrated)}; a ` +
+				'focal zone or processing curve adds its own dB per slider.' +
+				(attenuation ? ' The α0 interval is widened to hold the range and ramp readings.' : '') +
+				' Calibrate the scanner for measured corrections.',
 		});
 	}
 
@@ -517,15 +605,22 @@ function widen(est: AttenuationEstimate, pairs: readonly (readonly [number, numb
 function noiseSource(u: UncalibratedCost): string {
 	return u.imageNoiseBudgetDb === null
 		? `as the plan's budget (${u.planNoiseBudgetDb.toFixed(0)} dB), which the image does not contradict`
-		: `as the image's own level course shows it (at ${u.imageNoiseBudgetDb.toFixed(0)} dB of loss; the plan budgets ${u.planNoiseBudgetDb.toFixed(0)} dB)`;
+		: `as the image's own level course shows it (at ${u.imageNoiseBudgetDb.toFixed(0)} dB of loss; the plan budgets ` +
+				`${u.planNoiseBudgetDb.toFixed(0)} dB)`;
 }
 
 function noiseCost(u: UncalibratedCost): string {
 	if (u.imageNoiseBudgetDb === null) {
-		return 'if the scanner\'s noise is higher than the budget, deep noise can pass as tissue and α0 reads low';
+		return "if the scanner's noise is higher than the budget, deep noise can pass as tissue and α0 reads low";
 	}
-	const trusted = u.alphaAtPlanBudget === null ? '' : ` (trusting the plan's budget, α0 would read ${u.alphaAtPlanBudget.toFixed(2)})`;
-	return `bands where the image's level follows the gain the way noise does are left out${trusted}, but without a probe-in-air image the noise level is itself an estimate`;
+	const trusted =
+		u.alphaAtPlanBudget === null
+			? ''
+			: ` (trusting the plan's budget, α0 would read ${u.alphaAtPlanBudget.toFixed(2)})`;
+	return (
+		`bands where the image's level follows the gain the way noise does are left out${trusted}, but without a ` +
+		`probe-in-air image the noise level is itself an estimate`
+	);
 }
 
 /** α0 with the plan's stated noise budget, as if the image's noise had not been judged. */
@@ -559,12 +654,24 @@ function uncalibratedCost(
 	const alphaWith = (range: number, rampShift: number): number => {
 		const map = logLevelMap(range);
 		const levelOf = (m: BandMeasurement) => map.levelDb(m.meanGrey);
-		const shifted: OwnDepthGain = (p, d) => own(p, d) + (rampShift * ((plan.probe.receive ?? 'fundamental') !== 'fundamental' ? 3 : 2) * plan.probe.centerMhz * d);
+		const shifted: OwnDepthGain = (p, d) =>
+			own(p, d) +
+			rampShift * ((plan.probe.receive ?? 'fundamental') !== 'fundamental' ? 3 : 2) * plan.probe.centerMhz * d;
 		const scaled = measured.map((m) => ({...m, sdDb: (m.sdDb * range) / dynamicRangeDb}));
 		// The image's noise scales with the range like every level read through the map.
-		const ev = evaluate(plan, applied, shifted, map, scaled, levelOf, imageNoiseDb === null ? null : (imageNoiseDb * range) / dynamicRangeDb);
+		const ev = evaluate(
+			plan,
+			applied,
+			shifted,
+			map,
+			scaled,
+			levelOf,
+			imageNoiseDb === null ? null : (imageNoiseDb * range) / dynamicRangeDb,
+		);
 		const {bands} = fitBandsOf(ev, plan, layerIndex, levelOf);
-		return bands.length >= fewestFitBands ? fitLayerAttenuation(plan, layerIndex, bands, measuredAlpha).alphaDbPerCmMhz : Number.NaN;
+		return bands.length >= fewestFitBands
+			? fitLayerAttenuation(plan, layerIndex, bands, measuredAlpha).alphaDbPerCmMhz
+			: Number.NaN;
 	};
 	const pair = (a: number, b: number): readonly [number, number] | null =>
 		Number.isFinite(a) && Number.isFinite(b) ? [Math.min(a, b), Math.max(a, b)] : null;

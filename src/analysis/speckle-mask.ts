@@ -73,7 +73,12 @@ function edges(first: number, end: number, side: number): number[] {
 }
 
 /** Classifies the measured columns of a frame; `cellAreaPx` sets the block size. */
-export function maskNonSpeckle(frame: GreyFrame, region: MeasuredRegion, map: LevelMap, cellAreaPx: number): SpeckleMask {
+export function maskNonSpeckle(
+	frame: GreyFrame,
+	region: MeasuredRegion,
+	map: LevelMap,
+	cellAreaPx: number,
+): SpeckleMask {
 	const {width, grey, valid} = frame;
 	const side = Math.max(4, Math.min(32, Math.ceil(Math.sqrt(maskThresholds.cellsPerBlock * cellAreaPx))));
 	const rowEdges = edges(region.rows[0], region.rows[1], side);
@@ -84,7 +89,15 @@ export function maskNonSpeckle(frame: GreyFrame, region: MeasuredRegion, map: Le
 	for (let i = 0; i < nRows; i++) {
 		const line: Block[] = [];
 		for (let j = 0; j < nCols; j++) {
-			const b: Block = {r0: rowEdges[i]!, r1: rowEdges[i + 1]!, c0: colEdges[j]!, c1: colEdges[j + 1]!, level: 0, sdDb: 0, reason: 'speckle'};
+			const b: Block = {
+				r0: rowEdges[i]!,
+				r1: rowEdges[i + 1]!,
+				c0: colEdges[j]!,
+				c1: colEdges[j + 1]!,
+				level: 0,
+				sdDb: 0,
+				reason: 'speckle',
+			};
 			let n = 0;
 			let total = 0;
 			let s = 0;
@@ -155,14 +168,16 @@ export function maskNonSpeckle(frame: GreyFrame, region: MeasuredRegion, map: Le
 	}
 
 	// Partly covered neighbours, then shadows and enhancement beneath structures.
-	const structural = (b: Block | undefined) => b !== undefined && (b.reason === 'anechoic' || b.reason === 'bright' || b.reason === 'notSpeckle');
+	const structural = (b: Block | undefined) =>
+		b !== undefined && (b.reason === 'anechoic' || b.reason === 'bright' || b.reason === 'notSpeckle');
 	const flagged = blocks.map((line) => line.map((b) => structural(b)));
 	for (let i = 0; i < nRows; i++) {
 		for (let j = 0; j < nCols; j++) {
 			const b = blocks[i]![j]!;
 			if (b.reason !== 'speckle') continue;
 			let near = false;
-			for (let di = -1; di <= 1 && !near; di++) for (let dj = -1; dj <= 1 && !near; dj++) near = flagged[i + di]?.[j + dj] === true;
+			for (let di = -1; di <= 1 && !near; di++)
+				for (let dj = -1; dj <= 1 && !near; dj++) near = flagged[i + di]?.[j + dj] === true;
 			if (near) b.reason = 'edge';
 		}
 	}
@@ -179,7 +194,16 @@ export function maskNonSpeckle(frame: GreyFrame, region: MeasuredRegion, map: Le
 	}
 
 	const codes = new Uint8Array(frame.width * frame.height).fill(maskCodes.outside);
-	const maskedPx: Record<MaskReason, number> = {speckle: 0, notImage: 0, anechoic: 0, bright: 0, notSpeckle: 0, edge: 0, beneath: 0, outside: 0};
+	const maskedPx: Record<MaskReason, number> = {
+		speckle: 0,
+		notImage: 0,
+		anechoic: 0,
+		bright: 0,
+		notSpeckle: 0,
+		edge: 0,
+		beneath: 0,
+		outside: 0,
+	};
 	for (const line of blocks) {
 		for (const b of line) {
 			for (let r = b.r0; r < b.r1; r++) {

@@ -60,11 +60,23 @@ export function speckleCellArea(image: PhantomImage, cols: readonly [number, num
 	const h = y1 - y0 + 1;
 	const use = image.mask.map((m) => (m ? 0 : 1));
 	const rows: [number, number] = [y0 + Math.floor(h / 4), y0 + Math.floor((3 * h) / 4) + 1];
-	return windowStatistics({grey: image.grey, use, width: image.width, rows, columns: [cols[0], cols[1] + 1], rowMeans: true}).cellAreaPx;
+	return windowStatistics({
+		grey: image.grey,
+		use,
+		width: image.width,
+		rows,
+		columns: [cols[0], cols[1] + 1],
+		rowMeans: true,
+	}).cellAreaPx;
 }
 
 /** Band means over the measured columns, bands of bandHeightCm from 0 to depthCm. */
-export function bandMeans(image: PhantomImage, fraction: readonly [number, number], depthCm: number, cellAreaPx?: number): ImageBands {
+export function bandMeans(
+	image: PhantomImage,
+	fraction: readonly [number, number],
+	depthCm: number,
+	cellAreaPx?: number,
+): ImageBands {
 	const cols = measuredColumns(image, fraction);
 	const s = cellAreaPx ?? speckleCellArea(image, cols);
 	const nBands = Math.ceil(depthCm / bandHeightCm - 1e-9);
@@ -96,7 +108,15 @@ export function bandMeans(image: PhantomImage, fraction: readonly [number, numbe
 		if (n < 2) continue;
 		const mean = sum[b]! / n;
 		const sd = Math.sqrt(Math.max(0, sum2[b]! / n - mean * mean));
-		bands.push({band: b, depthCm: (b + 0.5) * bandHeightCm, meanGrey: mean, sdGrey: sd, pixels: n, cells: n / s, sdMeanGrey: sdOfMean(sd, n, s)});
+		bands.push({
+			band: b,
+			depthCm: (b + 0.5) * bandHeightCm,
+			meanGrey: mean,
+			sdGrey: sd,
+			pixels: n,
+			cells: n / s,
+			sdMeanGrey: sdOfMean(sd, n, s),
+		});
 	}
 	return {bands, cellAreaPx: s, columns: cols, maskedFraction: seen ? masked / seen : 0};
 }

@@ -62,7 +62,8 @@ export function greyAtLevel(knots: readonly number[], values: readonly number[],
 	for (let j = 0; j < n - 1; j++) {
 		const lo = values[j]!;
 		const hi = values[j + 1]!;
-		if (levelDb >= lo && levelDb <= hi && hi > lo) return knots[j]! + ((levelDb - lo) / (hi - lo)) * (knots[j + 1]! - knots[j]!);
+		if (levelDb >= lo && levelDb <= hi && hi > lo)
+			return knots[j]! + ((levelDb - lo) / (hi - lo)) * (knots[j + 1]! - knots[j]!);
 	}
 	return knots[n - 1]!;
 }
@@ -134,9 +135,18 @@ export function fitGreyMap(observations: readonly StepObservation[], gainsDb: re
 	const smooth = 1 / 0.3 ** 2;
 	for (let j = 1; j < nKnots - 1; j++) add([j - 1, j, j + 1], [1, -2, 1], 0, smooth);
 	// Anchor: mean band level 0.
-	add(Array.from({length: nb}, (_, i) => nKnots + i), new Array<number>(nb).fill(1 / nb), 0, 1e4);
+	add(
+		Array.from({length: nb}, (_, i) => nKnots + i),
+		new Array<number>(nb).fill(1 / nb),
+		0,
+		1e4,
+	);
 	const l = Float64Array.from(ata);
-	if (!cholesky(l, n)) throw new CalibrationRefusal('gainSteps', 'the gain steps do not determine a grey map (too few distinct greys or bands)');
+	if (!cholesky(l, n))
+		throw new CalibrationRefusal(
+			'gainSteps',
+			'the gain steps do not determine a grey map (too few distinct greys or bands)',
+		);
 	const x = Float64Array.from(atb);
 	forwardSolve(l, n, x);
 	backSolveTransposed(l, n, x);

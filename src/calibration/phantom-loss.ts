@@ -25,8 +25,19 @@ function modelFor(phantom: PhantomMaterial, probe: ProbeSpectrum): PathModel {
 	const key = JSON.stringify([phantom, probe.centerMhz, probe.bandwidthFraction]);
 	let model = cache.get(key);
 	if (!model) {
-		const tissue = {label: 'calibration phantom', speedMps: phantom.speedMps, densityKgM3: 1050, alphaDbPerCmMhz: phantom.alphaDbPerCmMhz, exponent: phantom.exponent};
-		model = new PathModel([{tissue, thicknessCm: 100}], {centerMhz: probe.centerMhz, bandwidthFraction: probe.bandwidthFraction, receive: 'fundamental'}, 0, assumedSpeedMps);
+		const tissue = {
+			label: 'calibration phantom',
+			speedMps: phantom.speedMps,
+			densityKgM3: 1050,
+			alphaDbPerCmMhz: phantom.alphaDbPerCmMhz,
+			exponent: phantom.exponent,
+		};
+		model = new PathModel(
+			[{tissue, thicknessCm: 100}],
+			{centerMhz: probe.centerMhz, bandwidthFraction: probe.bandwidthFraction, receive: 'fundamental'},
+			0,
+			assumedSpeedMps,
+		);
 		if (cache.size > 16) cache.clear();
 		cache.set(key, model);
 	}

@@ -12,21 +12,35 @@ export const profileFormat = 'evenecho-scanner-profile/1';
 
 export const profileCaution =
 	'Measured on a phantom at the settings stated: a starting point to confirm on the live ' +
-		'image, not a diagnosis. Re-measure when the probe, preset, depth, focus or harmonic ' +
-		'mode changes. Receive gain before transmit output (ALARA); local protocols decide.';
+	'image, not a diagnosis. Re-measure when the probe, preset, depth, focus or harmonic ' +
+	'mode changes. Receive gain before transmit output (ALARA); local protocols decide.';
 
 const num = z.number({error: 'must be a number'}).refine(Number.isFinite, {error: 'must be a finite number'});
-const text = (max: number) => z.string({error: `must be text of up to ${max} characters`}).max(max, {error: `must be text of up to ${max} characters`});
+const text = (max: number) =>
+	z
+		.string({error: `must be text of up to ${max} characters`})
+		.max(max, {error: `must be text of up to ${max} characters`});
 
 export const profileSchema = z.strictObject({
 	format: z.literal(profileFormat, {error: `must be "${profileFormat}"`}),
-	id: z.string({error: 'must be a profile id'}).regex(/^[a-z0-9][a-z0-9-]{0,63}$/, {error: 'must be lower-case letters, digits and hyphens, up to 64'}),
+	id: z
+		.string({error: 'must be a profile id'})
+		.regex(/^[a-z0-9][a-z0-9-]{0,63}$/, {error: 'must be lower-case letters, digits and hyphens, up to 64'}),
 	name: text(60).min(1, {error: 'must be text of 1 to 60 characters'}),
 	label: text(80).min(1, {error: 'must be text of 1 to 80 characters'}),
-	greyMap: z.array(z.strictObject({grey: num, levelDb: num}), {error: 'must be a list of {grey, levelDb}'}).min(2).max(300),
-	depthResponse: z.array(z.strictObject({depthCm: num, gainDb: num}), {error: 'must be a list of {depthCm, gainDb}'}).min(2).max(200),
+	greyMap: z
+		.array(z.strictObject({grey: num, levelDb: num}), {error: 'must be a list of {grey, levelDb}'})
+		.min(2)
+		.max(300),
+	depthResponse: z
+		.array(z.strictObject({depthCm: num, gainDb: num}), {error: 'must be a list of {depthCm, gainDb}'})
+		.min(2)
+		.max(200),
 	sliderTravelDb: num.nullable(),
-	noiseFloor: z.array(z.strictObject({depthCm: num, levelDb: num})).max(200).nullable(),
+	noiseFloor: z
+		.array(z.strictObject({depthCm: num, levelDb: num}))
+		.max(200)
+		.nullable(),
 	penetrationCm: num.nullable(),
 	noiseBudgetDb: num.nullable(),
 	savedAt: text(40).optional(),
@@ -35,9 +49,13 @@ export const profileSchema = z.strictObject({
 	sliderCount: z.number().int().min(1).max(16),
 	phantom: z.strictObject({alphaDbPerCmMhz: num, exponent: num, speedMps: num}),
 	columns: z.tuple([num, num]),
-	sliderSteps: z.array(z.strictObject({slider: num, position: num, knotDepthCm: num, travelDb: num, influenceWidthCm: num})).max(32),
+	sliderSteps: z
+		.array(z.strictObject({slider: num, position: num, knotDepthCm: num, travelDb: num, influenceWidthCm: num}))
+		.max(32),
 	pixelRatioPenetration: z.strictObject({criterion: text(200), depthCm: num, echoToNoiseDb: num.nullable()}).nullable(),
-	bands: z.array(z.strictObject({depthCm: num, cells: num, levelDb: num, sdDb: num, echoToNoiseDb: num.nullable()})).max(200),
+	bands: z
+		.array(z.strictObject({depthCm: num, cells: num, levelDb: num, sdDb: num, echoToNoiseDb: num.nullable()}))
+		.max(200),
 	rmsResidualDb: num,
 	cellAreaPx: num,
 	notes: z.array(text(400)).max(20),
@@ -50,7 +68,12 @@ const round = (x: number, digits = 3) => Math.round(x * 10 ** digits) / 10 ** di
 const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : round(x));
 
 /** The stored form of a calibration under a name and id. */
-export function profileFromCalibration(c: ScannerCalibration, id: string, name: string, savedAt?: string): ScannerProfile {
+export function profileFromCalibration(
+	c: ScannerCalibration,
+	id: string,
+	name: string,
+	savedAt?: string,
+): ScannerProfile {
 	return {
 		format: profileFormat,
 		id,
@@ -68,11 +91,25 @@ export function profileFromCalibration(c: ScannerCalibration, id: string, name: 
 		sliderCount: c.sliderCount,
 		phantom: c.phantom,
 		columns: [c.columns[0], c.columns[1]],
-		sliderSteps: c.sliderSteps.map((s) => ({...s, travelDb: round(s.travelDb), influenceWidthCm: round(s.influenceWidthCm)})),
+		sliderSteps: c.sliderSteps.map((s) => ({
+			...s,
+			travelDb: round(s.travelDb),
+			influenceWidthCm: round(s.influenceWidthCm),
+		})),
 		pixelRatioPenetration: c.pixelRatioPenetration
-			? {criterion: c.pixelRatioPenetration.criterion, depthCm: round(c.pixelRatioPenetration.depthCm), echoToNoiseDb: finiteOrNull(c.pixelRatioPenetration.echoToNoiseDb)}
+			? {
+					criterion: c.pixelRatioPenetration.criterion,
+					depthCm: round(c.pixelRatioPenetration.depthCm),
+					echoToNoiseDb: finiteOrNull(c.pixelRatioPenetration.echoToNoiseDb),
+				}
 			: null,
-		bands: c.bands.map((b) => ({depthCm: b.depthCm, cells: Math.round(b.cells), levelDb: round(b.levelDb), sdDb: round(b.sdDb), echoToNoiseDb: b.echoToNoiseDb === null ? null : Number.isFinite(b.echoToNoiseDb) ? round(b.echoToNoiseDb) : -99})),
+		bands: c.bands.map((b) => ({
+			depthCm: b.depthCm,
+			cells: Math.round(b.cells),
+			levelDb: round(b.levelDb),
+			sdDb: round(b.sdDb),
+			echoToNoiseDb: b.echoToNoiseDb === null ? null : Number.isFinite(b.echoToNoiseDb) ? round(b.echoToNoiseDb) : -99,
+		})),
 		rmsResidualDb: round(c.rmsResidualDb),
 		cellAreaPx: round(c.cellAreaPx),
 		notes: [...c.notes],
@@ -102,8 +139,12 @@ export function parseProfile(value: unknown): {ok: true; value: ScannerProfile} 
 	const r = profileSchema.safeParse(value);
 	if (r.success) {
 		const depths = r.data.depthResponse.map((d) => d.depthCm);
-		if (depths.some((d, i) => i > 0 && d <= depths[i - 1]!)) return {ok: false, errors: ['depthResponse: depths must increase']};
+		if (depths.some((d, i) => i > 0 && d <= depths[i - 1]!))
+			return {ok: false, errors: ['depthResponse: depths must increase']};
 		return {ok: true, value: r.data};
 	}
-	return {ok: false, errors: r.error.issues.map((i) => `${i.path.length ? i.path.map(String).join('.') : '(profile)'}: ${i.message}`)};
+	return {
+		ok: false,
+		errors: r.error.issues.map((i) => `${i.path.length ? i.path.map(String).join('.') : '(profile)'}: ${i.message}`),
+	};
 }

@@ -91,7 +91,11 @@ export interface ScannerCalibration extends CalibrationSetting {
 	/** Round-trip loss in the phantom at penetrationCm with this probe: the engine's noise budget. */
 	readonly noiseBudgetDb: number | null;
 	/** Penetration by the pixel-ratio criterion of Rubert & Zagzebski 2015, with its echo-to-noise in dB. */
-	readonly pixelRatioPenetration: {readonly criterion: string; readonly depthCm: number; readonly echoToNoiseDb: number | null} | null;
+	readonly pixelRatioPenetration: {
+		readonly criterion: string;
+		readonly depthCm: number;
+		readonly echoToNoiseDb: number | null;
+	} | null;
 	readonly bands: readonly BandReport[];
 	readonly rmsResidualDb: number;
 	readonly cellAreaPx: number;
@@ -141,8 +145,11 @@ const powerDb = (db: number) => 10 ** (db / 10);
 
 export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 	if (input.gainSteps.length < minGainSteps) {
-		throw new CalibrationRefusal('gainSteps', `has ${input.gainSteps.length} image${input.gainSteps.length === 1 ? '' : 's'}; at least ` +
-			`${minGainSteps} of the same phantom with only the master gain changed are needed`);
+		throw new CalibrationRefusal(
+			'gainSteps',
+			`has ${input.gainSteps.length} image${input.gainSteps.length === 1 ? '' : 's'}; at least ` +
+				`${minGainSteps} of the same phantom with only the master gain changed are needed`,
+		);
 	}
 	const notes: string[] = [];
 	const depth = input.displayDepthCm;
@@ -166,14 +173,19 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 			observations.push({image: k, band: b.band, meanGrey: b.meanGrey, sdMeanGrey: b.sdMeanGrey});
 		}
 	});
-	if (thinBands) notes.push(`bands with fewer than ${minCellsPerBand} speckle cells were left out (${thinBands} band images)`);
+	if (thinBands)
+		notes.push(`bands with fewer than ${minCellsPerBand} speckle cells were left out (${thinBands} band images)`);
 	const fit = fitGreyMap(
 		observations,
 		input.gainSteps.map((s) => s.masterGainDb),
 	);
 	const level = (grey: number) => evaluateMap(fit.knots, fit.levelDb, grey);
 	const bandIds = [...fit.bandLevelDb.keys()].sort((a, b) => a - b);
-	if (bandIds.length < 3) throw new CalibrationRefusal('gainSteps', 'fewer than 3 depth bands have a usable grey level in any image; check the gain steps and the depth scale');
+	if (bandIds.length < 3)
+		throw new CalibrationRefusal(
+			'gainSteps',
+			'fewer than 3 depth bands have a usable grey level in any image; check the gain steps and the depth scale',
+		);
 	const depthOf = (band: number) => (band + 0.5) * 0.5;
 
 	// Noise floor from the probe-in-air image, on the same level scale.
@@ -194,16 +206,26 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 			floor.push({depthCm: b.depthCm, levelDb: shown});
 		}
 		if (floor.length) noiseFloor = floor;
-		else notes.push(`the in-air image's greys lie outside the calibrated grey map (${lo.toFixed(0)}–${hi.toFixed(0)}); ` +
-			'raise its master gain to measure the noise floor');
+		else
+			notes.push(
+				`the in-air image's greys lie outside the calibrated grey map (${lo.toFixed(0)}–${hi.toFixed(0)}); ` +
+					'raise its master gain to measure the noise floor',
+			);
 	}
 
 	// Band levels, echo-only where the noise is known, and echo-to-noise.
 	const bands: BandReport[] = bandIds.map((band) => {
 		const e = fit.bandLevelDb.get(band)!;
 		const n = noiseByBand?.get(band);
-		const enr = n === undefined ? null : powerDb(e - n) > 1 ? 10 * Math.log10(powerDb(e - n) - 1) : Number.NEGATIVE_INFINITY;
-		return {depthCm: depthOf(band), cells: cellsByBand.get(band) ?? 0, levelDb: e, sdDb: fit.bandSdDb.get(band) ?? Number.NaN, echoToNoiseDb: enr};
+		const enr =
+			n === undefined ? null : powerDb(e - n) > 1 ? 10 * Math.log10(powerDb(e - n) - 1) : Number.NEGATIVE_INFINITY;
+		return {
+			depthCm: depthOf(band),
+			cells: cellsByBand.get(band) ?? 0,
+			levelDb: e,
+			sdDb: fit.bandSdDb.get(band) ?? Number.NaN,
+			echoToNoiseDb: enr,
+		};
 	});
 
 	// Depth response R = P + L_ph over the bands with enough echo, smoothed over ~1 cm.
@@ -214,7 +236,11 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 		if (previous && b.depthCm - previous.depthCm > 1.01) break; // a gap over 1 cm: stop rather than bridge
 		contiguous.push(b);
 	}
-	if (contiguous.length < 3) throw new CalibrationRefusal('gainSteps', 'fewer than 3 contiguous depth bands carry echo above the noise; check the images and the depth scale');
+	if (contiguous.length < 3)
+		throw new CalibrationRefusal(
+			'gainSteps',
+			'fewer than 3 contiguous depth bands carry echo above the noise; check the images and the depth scale',
+		);
 	const rawResponse = contiguous.map((b) => {
 		const n = noiseByBand?.get(Math.round(b.depthCm / 0.5 - 0.5));
 		const echo = n === undefined ? b.levelDb : 10 * Math.log10(powerDb(b.levelDb) - powerDb(n));
@@ -223,7 +249,10 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 	const smoothed = smooth3(rawResponse);
 	const zero = smoothed[0]!;
 	const depthResponse = contiguous.map((b, i) => ({depthCm: b.depthCm, gainDb: smoothed[i]! - zero}));
-	if (contiguous[0]!.depthCm > 1) notes.push(`the shallowest usable band is at ${contiguous[0]!.depthCm} cm (deeper than 1 cm): the near field was clipped or masked`);
+	if (contiguous[0]!.depthCm > 1)
+		notes.push(
+			`the shallowest usable band is at ${contiguous[0]!.depthCm} cm (deeper than 1 cm): the near field was clipped or masked`,
+		);
 
 	// Penetration: echo-to-noise 0 dB, i.e. (echo + noise) − noise = 3.01 dB.
 	let penetrationCm: number | null = null;
@@ -233,7 +262,10 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 		const depths = withNoise.map((b) => b.depthCm);
 		const excess = smooth3(withNoise.map((b) => b.levelDb - noiseByBand!.get(Math.round(b.depthCm / 0.5 - 0.5))!));
 		penetrationCm = firstCrossing(depths, excess, 10 * Math.log10(2));
-		if (penetrationCm === null) notes.push(`the phantom's echo stays above the noise to the deepest measured band (${depths[depths.length - 1]} cm): penetration is beyond it`);
+		if (penetrationCm === null)
+			notes.push(
+				`the phantom's echo stays above the noise to the deepest measured band (${depths[depths.length - 1]} cm): penetration is beyond it`,
+			);
 		// Rubert & Zagzebski 2015: phantom grey at the in-air image's gain against 1.4 × the in-air grey.
 		const gAir = input.probeInAir!.masterGainDb;
 		const ratio = withNoise.map((b) => {
@@ -245,15 +277,26 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 		if (at !== null) {
 			const i = depths.findIndex((d) => d >= at);
 			const enr = withNoise[Math.max(0, i)]?.echoToNoiseDb ?? null;
-			pixelRatioPenetration = {criterion: 'phantom grey = 1.4 × in-air grey (Rubert & Zagzebski 2015)', depthCm: at, echoToNoiseDb: enr !== null && Number.isFinite(enr) ? enr : null};
+			pixelRatioPenetration = {
+				criterion: 'phantom grey = 1.4 × in-air grey (Rubert & Zagzebski 2015)',
+				depthCm: at,
+				echoToNoiseDb: enr !== null && Number.isFinite(enr) ? enr : null,
+			};
 		}
 	}
 	const noiseBudgetDb = penetrationCm === null ? null : phantomLossDb(input.phantom, input.probe, penetrationCm);
 
 	// Slider travel: the level change a moved slider makes, fitted to its interpolation basis.
-	const knots = knotDepths({count: input.sliderCount, knots: 'band-centres', ends: 'flat', minDb: -1, maxDb: 1, rampDbPerCmMhz: 0}, depth);
+	const knots = knotDepths(
+		{count: input.sliderCount, knots: 'band-centres', ends: 'flat', minDb: -1, maxDb: 1, rampDbPerCmMhz: 0},
+		depth,
+	);
 	const sliderSteps: SliderStepReport[] = (input.sliderSteps ?? []).map((step) => {
-		if (step.slider > input.sliderCount) throw new CalibrationRefusal(`${step.field}.slider`, `is ${step.slider}; the session has sliders.count ${input.sliderCount}`);
+		if (step.slider > input.sliderCount)
+			throw new CalibrationRefusal(
+				`${step.field}.slider`,
+				`is ${step.slider}; the session has sliders.count ${input.sliderCount}`,
+			);
 		const measured = bandMeans(step.image, input.columns, depth, cellAreaPx);
 		refuseMostlyColour(step, measured);
 		const lo = fit.knots[0]!;
@@ -267,14 +310,26 @@ export function calibrateScanner(input: CalibrationInput): ScannerCalibration {
 			deltas.push({depthCm: b.depthCm, delta: level(b.meanGrey) - step.masterGainDb - e, weight: w});
 		}
 		const sw2 = deltas.reduce((s, d) => s + d.weight * d.weight, 0);
-		if (sw2 < 0.5) throw new CalibrationRefusal(`${step.field}.image`, `${step.name}: too few usable bands around slider ${step.slider} to measure its travel`);
+		if (sw2 < 0.5)
+			throw new CalibrationRefusal(
+				`${step.field}.image`,
+				`${step.name}: too few usable bands around slider ${step.slider} to measure its travel`,
+			);
 		const amplitude = deltas.reduce((s, d) => s + d.weight * d.delta, 0) / sw2;
 		const peak = Math.max(...smooth3(deltas.map((d) => d.delta)).map((v) => v * Math.sign(amplitude)));
 		const above = deltas.filter((_, i) => smooth3(deltas.map((d) => d.delta))[i]! * Math.sign(amplitude) >= peak / 2);
 		const width = above.length ? above[above.length - 1]!.depthCm - above[0]!.depthCm + 0.5 : 0;
-		return {slider: step.slider, position: step.position, knotDepthCm: knots[step.slider - 1]!, travelDb: amplitude / step.position, influenceWidthCm: width};
+		return {
+			slider: step.slider,
+			position: step.position,
+			knotDepthCm: knots[step.slider - 1]!,
+			travelDb: amplitude / step.position,
+			influenceWidthCm: width,
+		};
 	});
-	const sliderTravelDb = sliderSteps.length ? sliderSteps.reduce((s, r) => s + r.travelDb, 0) / sliderSteps.length : null;
+	const sliderTravelDb = sliderSteps.length
+		? sliderSteps.reduce((s, r) => s + r.travelDb, 0) / sliderSteps.length
+		: null;
 
 	notes.push(
 		`rows are read as vertical depth; only ${Math.round(input.columns[0] * 100)}–${Math.round(input.columns[1] * 100)} ` +

@@ -27,13 +27,18 @@ const imagePath = z
 
 const frame = ranged(1, 100000, '', {integer: true}).optional();
 
-const shot = z.object({image: imagePath, masterGainDb: ranged(masterGainRange.min, masterGainRange.max, 'dB'), frame}, {error: 'must be an object with image and masterGainDb'});
+const shot = z.object(
+	{image: imagePath, masterGainDb: ranged(masterGainRange.min, masterGainRange.max, 'dB'), frame},
+	{error: 'must be an object with image and masterGainDb'},
+);
 
 const sliderShot = z.object(
 	{
 		image: imagePath,
 		slider: ranged(1, 16, '', {integer: true}),
-		position: ranged(-1, 1).refine((p) => p !== 0, {error: 'must be a number from -1 to 1 other than 0 (the slider must be moved)'}),
+		position: ranged(-1, 1).refine((p) => p !== 0, {
+			error: 'must be a number from -1 to 1 other than 0 (the slider must be moved)',
+		}),
 		masterGainDb: ranged(masterGainRange.min, masterGainRange.max, 'dB'),
 		frame,
 	},
@@ -44,9 +49,18 @@ export const sessionSchema = z
 	.object(
 		{
 			format: z.literal(sessionFormat, {error: `must be "${sessionFormat}"`}),
-			label: z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'}),
-			probe: z.object({centerMhz: ranged(0, 50, 'MHz', {exclusiveMin: true}), bandwidthFraction: ranged(0, 1.5).default(0.6)}, {error: 'must be an object with centerMhz'}),
-			display: z.object({depthCm: ranged(0, 40, 'cm', {exclusiveMin: true})}, {error: 'must be an object with depthCm'}),
+			label: z
+				.string({error: 'must be text of 1 to 80 characters'})
+				.min(1, {error: 'must be text of 1 to 80 characters'})
+				.max(80, {error: 'must be text of 1 to 80 characters'}),
+			probe: z.object(
+				{centerMhz: ranged(0, 50, 'MHz', {exclusiveMin: true}), bandwidthFraction: ranged(0, 1.5).default(0.6)},
+				{error: 'must be an object with centerMhz'},
+			),
+			display: z.object(
+				{depthCm: ranged(0, 40, 'cm', {exclusiveMin: true})},
+				{error: 'must be an object with depthCm'},
+			),
 			phantom: z
 				.object({
 					alphaDbPerCmMhz: ranged(0.05, 2, 'dB/cm/MHz').default(0.5),
@@ -57,7 +71,9 @@ export const sessionSchema = z
 			region: z
 				.object({
 					columns: z
-						.tuple([ranged(0, 1), ranged(0, 1)], {error: 'must be two fractions [from, to] of the region width, e.g. [0.3, 0.7]'})
+						.tuple([ranged(0, 1), ranged(0, 1)], {
+							error: 'must be two fractions [from, to] of the region width, e.g. [0.3, 0.7]',
+						})
 						.refine(([a, b]) => b - a >= 0.05, {error: 'must be [from, to] with to at least 0.05 above from'})
 						.default([0.3, 0.7]),
 				})
@@ -68,18 +84,34 @@ export const sessionSchema = z
 				.min(3, {error: 'must list at least 3 images of the same phantom with only the master gain changed'})
 				.max(64, {error: 'must list at most 64 images'}),
 			probeInAir: shot.optional(),
-			sliderSteps: z.array(sliderShot, {error: 'must be a list of slider-step images'}).max(32, {error: 'must list at most 32 images'}).optional(),
+			sliderSteps: z
+				.array(sliderShot, {error: 'must be a list of slider-step images'})
+				.max(32, {error: 'must list at most 32 images'})
+				.optional(),
 			pixelScale: z
-				.object({cmPerPixel: ranged(0, 1, 'cm', {exclusiveMin: true}), topRowCm: ranged(-10, 40, 'cm')}, {error: 'must be an object with cmPerPixel and topRowCm'})
+				.object(
+					{cmPerPixel: ranged(0, 1, 'cm', {exclusiveMin: true}), topRowCm: ranged(-10, 40, 'cm')},
+					{error: 'must be an object with cmPerPixel and topRowCm'},
+				)
 				.optional(),
 		},
 		{error: 'must be a JSON object'},
 	)
 	.superRefine((s, ctx) => {
 		const distinct = new Set(s.gainSteps.map((g) => g.masterGainDb));
-		if (distinct.size < 3) ctx.addIssue({code: 'custom', path: ['gainSteps'], message: 'must have at least 3 different masterGainDb values'});
+		if (distinct.size < 3)
+			ctx.addIssue({
+				code: 'custom',
+				path: ['gainSteps'],
+				message: 'must have at least 3 different masterGainDb values',
+			});
 		(s.sliderSteps ?? []).forEach((step, i) => {
-			if (step.slider > s.sliders.count) ctx.addIssue({code: 'custom', path: ['sliderSteps', i, 'slider'], message: `must be from 1 to sliders.count (${s.sliders.count})`});
+			if (step.slider > s.sliders.count)
+				ctx.addIssue({
+					code: 'custom',
+					path: ['sliderSteps', i, 'slider'],
+					message: `must be from 1 to sliders.count (${s.sliders.count})`,
+				});
 		});
 	});
 
@@ -90,5 +122,8 @@ export type SessionParse = {ok: true; value: ScannerSession} | {ok: false; error
 export function parseSession(input: unknown): SessionParse {
 	const r = sessionSchema.safeParse(input);
 	if (r.success) return {ok: true, value: r.data};
-	return {ok: false, errors: r.error.issues.map((i) => `${i.path.length ? i.path.map(String).join('.') : '(session)'}: ${i.message}`)};
+	return {
+		ok: false,
+		errors: r.error.issues.map((i) => `${i.path.length ? i.path.map(String).join('.') : '(session)'}: ${i.message}`),
+	};
 }

@@ -30,13 +30,15 @@ export const commandList: readonly CommandEntry[] = [
 	{
 		name: 'presets',
 		term: 'presets',
-		description: 'built-in region templates and your own presets (list, show, save, rename, copy, delete, export, import)',
+		description:
+			'built-in region templates and your own presets (list, show, save, rename, copy, delete, export, import)',
 		register: async () => (await import('./presets-command.js')).registerPresetsCommand,
 	},
 	{
 		name: 'refine',
 		term: 'refine [options] <image>',
-		description: 'measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation',
+		description:
+			"measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer's own attenuation",
 		register: async () => (await import('./refine-command.js')).registerRefineCommand,
 	},
 	{
@@ -44,25 +46,28 @@ export const commandList: readonly CommandEntry[] = [
 		term: 'table [options] [plan]',
 		description:
 			'default compensation tables for protocols: a plan or preset swept over habitus, probe ' +
-				'frequency, beam angle, receive mode and tissue swaps',
+			'frequency, beam angle, receive mode and tissue swaps',
 		register: async () => (await import('./table-command.js')).registerTableCommand,
 	},
 	{
 		name: 'preview',
 		term: 'preview [options] <plan>',
-		description: 'a simulated B-mode illustration of a plan: the built-in ramp alone and the plan\'s sliders, in the terminal or as PNG',
+		description:
+			"a simulated B-mode illustration of a plan: the built-in ramp alone and the plan's sliders, in the terminal or as PNG",
 		register: async () => (await import('./preview-command.js')).registerPreviewCommand,
 	},
 	{
 		name: 'simulate',
 		term: 'simulate [options] <plan>',
-		description: 'write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image',
+		description:
+			'write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image',
 		register: async () => (await import('./simulate-command.js')).registerSimulateCommand,
 	},
 	{
 		name: 'scanner',
 		term: 'scanner',
-		description: 'measure your scanner from phantom images and keep it as a profile plans can name ' +
+		description:
+			'measure your scanner from phantom images and keep it as a profile plans can name ' +
 			'(calibrate, list, show, delete, rename, export, import)',
 		register: async () => (await import('./scanner-command.js')).registerScannerCommand,
 	},

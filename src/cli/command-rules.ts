@@ -25,7 +25,8 @@ export function refuseRepeatedOptions(root: Command): void {
 			// Commander announces every occurrence of an option with this event.
 			command.on(`option:${option.name()}`, () => {
 				seen += 1;
-				if (seen > 1) throw new UsageError(`${option.long ?? option.flags}: given more than once; give each option once`);
+				if (seen > 1)
+					throw new UsageError(`${option.long ?? option.flags}: given more than once; give each option once`);
 			});
 		}
 	}
@@ -35,8 +36,10 @@ export function refuseRepeatedOptions(root: Command): void {
 export function unknownCommandError(command: Command, word: string): UsageError {
 	const names = command.commands.map((c) => c.name()).filter((n) => n !== 'help');
 	const path = command.parent ? `${command.name()} ` : '';
-	return new UsageError(`unknown command "${path}${printable(word, 60)}"; the commands are: ` +
-		`${names.map((n) => `${path}${n}`).join(', ')} (see evenecho ${path}--help)`);
+	return new UsageError(
+		`unknown command "${path}${printable(word, 60)}"; the commands are: ` +
+			`${names.map((n) => `${path}${n}`).join(', ')} (see evenecho ${path}--help)`,
+	);
 }
 
 /**

@@ -12,7 +12,6 @@ import {UsageError} from '../errors/usage-error.js';
 
 const formats = ['text', 'json', 'csv'] as const;
 
-
 interface Comparison {
 	readonly name: string;
 	readonly delta: SettingsDelta;
@@ -24,30 +23,48 @@ async function comparedWith(result: CurveResult, path: string, stepCm: number): 
 	const other = computeCurve((await readMeasuredPlanFile(path)).plan, {stepCm});
 	const a = result.plan;
 	const b = other.plan;
-	if (a.sliders.count !== b.sliders.count || a.display.depthCm !== b.display.depthCm || a.sliders.knots !== b.sliders.knots) {
+	if (
+		a.sliders.count !== b.sliders.count ||
+		a.display.depthCm !== b.display.depthCm ||
+		a.sliders.knots !== b.sliders.knots
+	) {
 		throw new UsageError(
 			`--against: ${printable(path)} must have the same display depth, slider count and knot ` +
 				`placement (${a.display.depthCm} cm, ${a.sliders.count} sliders, ${a.sliders.knots}); it ` +
 				`has ${b.display.depthCm} cm, ${b.sliders.count}, ${b.sliders.knots}`,
 		);
 	}
-	return {name: b.name, delta: settingsDelta(settingsOf(result.fit), settingsOf(other.fit)), knotsCm: result.fit.sliders.map((s) => s.depthCm)};
+	return {
+		name: b.name,
+		delta: settingsDelta(settingsOf(result.fit), settingsOf(other.fit)),
+		knotsCm: result.fit.sliders.map((s) => s.depthCm),
+	};
 }
 
 function deltaJson(c: Comparison) {
 	return {
 		plan: c.name,
 		masterDeltaDb: Number(c.delta.masterDeltaDb.toFixed(2)),
-		sliders: c.knotsCm.map((d, k) => ({depthCm: Number(d.toFixed(3)), deltaDb: Number(c.delta.sliderDeltasDb[k]!.toFixed(2)), totalDeltaDb: Number(c.delta.totalDeltasDb[k]!.toFixed(2))})),
+		sliders: c.knotsCm.map((d, k) => ({
+			depthCm: Number(d.toFixed(3)),
+			deltaDb: Number(c.delta.sliderDeltasDb[k]!.toFixed(2)),
+			totalDeltaDb: Number(c.delta.totalDeltasDb[k]!.toFixed(2)),
+		})),
 	};
 }
 
 function deltaText(c: Comparison): string {
-	const lines = ['', `Against ${c.name}: master ${signedDb(c.delta.masterDeltaDb)} dB`, '  slider  depth cm  slider change dB  total change dB'];
+	const lines = [
+		'',
+		`Against ${c.name}: master ${signedDb(c.delta.masterDeltaDb)} dB`,
+		'  slider  depth cm  slider change dB  total change dB',
+	];
 	c.knotsCm.forEach((d, k) => {
-		lines.push(`  ${String(k + 1).padStart(6)}  ${d.toFixed(1).padStart(8)}  ` +
-			`${signedDb(c.delta.sliderDeltasDb[k]!).padStart(16)}  ` +
-			`${signedDb(c.delta.totalDeltasDb[k]!).padStart(15)}`);
+		lines.push(
+			`  ${String(k + 1).padStart(6)}  ${d.toFixed(1).padStart(8)}  ` +
+				`${signedDb(c.delta.sliderDeltasDb[k]!).padStart(16)}  ` +
+				`${signedDb(c.delta.totalDeltasDb[k]!).padStart(15)}`,
+		);
 	});
 	return lines.join('\n') + '\n';
 }
@@ -59,7 +76,10 @@ export function registerCurveCommand(program: Command): void {
 		.argument('<plan>', 'plan file (JSON, format evenecho-plan/1) or - for standard input')
 		.option('--format <format>', 'text, json or csv', 'text')
 		.option('--step <cm>', 'sample spacing in displayed depth, cm (0.01 to 5)', '0.1')
-		.option('--against <plan>', 'a second plan (e.g. the region\'s standard habitus): print per-slider differences from it')
+		.option(
+			'--against <plan>',
+			"a second plan (e.g. the region's standard habitus): print per-slider differences from it",
+		)
 		.action(async (planPath: string, opts: {format: string; step: string; against?: string}) => {
 			if (!(formats as readonly string[]).includes(opts.format)) {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
@@ -69,7 +89,10 @@ export function registerCurveCommand(program: Command): void {
 			const result = computeCurve(plan, {stepCm});
 			const against = opts.against === undefined ? undefined : await comparedWith(result, opts.against, stepCm);
 			if (opts.format === 'json') {
-				process.stdout.write(JSON.stringify(against ? {...curveJson(result), against: deltaJson(against)} : curveJson(result), null, 2) + '\n');
+				process.stdout.write(
+					JSON.stringify(against ? {...curveJson(result), against: deltaJson(against)} : curveJson(result), null, 2) +
+						'\n',
+				);
 			} else if (opts.format === 'csv') {
 				process.stdout.write(curveCsv(result));
 			} else {

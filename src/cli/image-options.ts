@@ -12,14 +12,23 @@ export const pixelLimit = {min: 8, max: 4096} as const;
 export const seedLimit = {min: 0, max: 4294967295} as const;
 export const dynamicRangeLimit = {min: 10, max: 120} as const;
 
-export function wholeNumberOption(option: string, text: string, limit: {min: number; max: number}, unit: string): number {
+export function wholeNumberOption(
+	option: string,
+	text: string,
+	limit: {min: number; max: number},
+	unit: string,
+): number {
 	const v = numberOption(option, text, limit, unit);
-	if (!Number.isInteger(v)) throw new UsageError(`--${option}: must be a whole number from ${limit.min} to ${limit.max}${unit ? ` ${unit}` : ''} (got "${text}")`);
+	if (!Number.isInteger(v))
+		throw new UsageError(
+			`--${option}: must be a whole number from ${limit.min} to ${limit.max}${unit ? ` ${unit}` : ''} (got "${text}")`,
+		);
 	return v;
 }
 
 export function choiceOption<T extends string>(option: string, text: string, choices: readonly T[]): T {
-	if (!(choices as readonly string[]).includes(text)) throw new UsageError(`--${option}: must be one of ${choices.join(', ')} (got "${text}")`);
+	if (!(choices as readonly string[]).includes(text))
+		throw new UsageError(`--${option}: must be one of ${choices.join(', ')} (got "${text}")`);
 	return text as T;
 }
 
@@ -34,7 +43,9 @@ export function outputFolder(dir: string): boolean {
 		mkdirSync(dir);
 		return true;
 	} catch (error) {
-		throw new UsageError(`--out: cannot create the folder ${dir} (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
+		throw new UsageError(
+			`--out: cannot create the folder ${dir} (${(error as NodeJS.ErrnoException).code ?? 'error'})`,
+		);
 	}
 }
 
@@ -43,7 +54,10 @@ export function writeOutputFile(option: string, path: string, bytes: Uint8Array,
 	try {
 		writeFileAtomic(path, bytes, {replace: force});
 	} catch (error) {
-		if (error instanceof FileRefusedError) throw new UsageError(`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace it)' : ''}`);
+		if (error instanceof FileRefusedError)
+			throw new UsageError(
+				`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace it)' : ''}`,
+			);
 		throw error;
 	}
 }
@@ -52,12 +66,18 @@ export function writeOutputFile(option: string, path: string, bytes: Uint8Array,
 export function writeOutputBatch(option: string, dir: string, files: readonly BatchEntry[], force: boolean): void {
 	if (!force) {
 		const taken = files.filter((f) => existsSync(join(dir, f.name))).map((f) => f.name);
-		if (taken.length > 0) throw new UsageError(`--${option}: ${taken.join(', ')} already exist${taken.length === 1 ? 's' : ''} in ${dir}; nothing written (add --force to replace)`);
+		if (taken.length > 0)
+			throw new UsageError(
+				`--${option}: ${taken.join(', ')} already exist${taken.length === 1 ? 's' : ''} in ${dir}; nothing written (add --force to replace)`,
+			);
 	}
 	try {
 		commitBatch(dir, files, {replace: force});
 	} catch (error) {
-		if (error instanceof FileRefusedError) throw new UsageError(`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace)' : ''}`);
+		if (error instanceof FileRefusedError)
+			throw new UsageError(
+				`--${option}: ${error.message}${error.code === 'exists' ? ' (add --force to replace)' : ''}`,
+			);
 		throw error;
 	}
 }

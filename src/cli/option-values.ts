@@ -22,6 +22,12 @@ export function numberOption(option: string, text: string, limit: Limit, unit: s
 }
 
 /** "2,3.5,5" or from:to:step, each value within `limit`. */
-export function numberListOption(option: string, text: string, limit: Limit, unit: string, maxLength: number): number[] {
+export function numberListOption(
+	option: string,
+	text: string,
+	limit: Limit,
+	unit: string,
+	maxLength: number,
+): number[] {
 	return asUsage(() => parseNumberList(option, text, limit, unit, maxLength));
 }

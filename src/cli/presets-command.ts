@@ -20,7 +20,8 @@ const formats = ['text', 'json'] as const;
 type Format = (typeof formats)[number];
 
 function parseFormat(value: string): Format {
-	if (!(formats as readonly string[]).includes(value)) throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
+	if (!(formats as readonly string[]).includes(value))
+		throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
 	return value as Format;
 }
 
@@ -48,9 +49,26 @@ const pad = (s: string, n: number) => s + ' '.repeat(Math.max(0, n - width(s)));
 
 /** The `list` table: one preset a line, templates first. */
 export function presetTable(presets: readonly PresetSummary[]): string {
-	const rows = [['id', 'name', 'region', 'kind'], ...presets.map((p) => [printable(p.id), printable(p.name), printable(p.region), p.isTemplate ? 'template' : 'user preset'])];
+	const rows = [
+		['id', 'name', 'region', 'kind'],
+		...presets.map((p) => [
+			printable(p.id),
+			printable(p.name),
+			printable(p.region),
+			p.isTemplate ? 'template' : 'user preset',
+		]),
+	];
 	const widths = [0, 1, 2].map((c) => Math.max(...rows.map((r) => width(r[c]!))));
-	return rows.map((r) => r.map((cell, c) => (c < 3 ? pad(cell, widths[c]! + 2) : cell)).join('').trimEnd()).join('\n') + '\n';
+	return (
+		rows
+			.map((r) =>
+				r
+					.map((cell, c) => (c < 3 ? pad(cell, widths[c]! + 2) : cell))
+					.join('')
+					.trimEnd(),
+			)
+			.join('\n') + '\n'
+	);
 }
 
 /** Wraps prose to the terminal's usual 80 columns, indented. */
@@ -111,12 +129,17 @@ function templatesNamed(name: string) {
 /** When your preset answers to a name a template also has, say how to reach the template. */
 function shadowNote(found: Preset, query: string): void {
 	if (found.isTemplate || query === found.id) return;
-	for (const t of templatesNamed(query)) say(`a built-in template also answers to "${query}"; show it by its id: evenecho presets show ${t.id}`);
+	for (const t of templatesNamed(query))
+		say(`a built-in template also answers to "${query}"; show it by its id: evenecho presets show ${t.id}`);
 }
 
 /** Adds `presets list|show|save|rename|copy|delete|export|import` to the program. */
 export function registerPresetsCommand(program: Command): void {
-	const presets = program.command('presets').description('built-in region templates and your own presets (list, show, save, rename, copy, delete, export, import)');
+	const presets = program
+		.command('presets')
+		.description(
+			'built-in region templates and your own presets (list, show, save, rename, copy, delete, export, import)',
+		);
 
 	presets
 		.command('list')
@@ -238,7 +261,9 @@ export function registerPresetsCommand(program: Command): void {
 				throw error instanceof UsageError ? new UsageError(`${error.message}; nothing was imported`) : error;
 			});
 			await withStore((store) => {
-				const imported = store.importDocument(value, file === '-' ? 'standard input' : printable(file), {overwrite: opts.force === true});
+				const imported = store.importDocument(value, file === '-' ? 'standard input' : printable(file), {
+					overwrite: opts.force === true,
+				});
 				say(`imported ${countOf(imported.length)}: ${imported.map((p) => `"${p.name}" (${p.id})`).join(', ')}`);
 				for (const p of imported) process.stdout.write(`${p.id}\n`);
 			});
@@ -251,5 +276,6 @@ function countOf(n: number): string {
 
 /** After saving under a template's name: the template is untouched, and this is how to tell them apart. */
 function templateNote(saved: Preset): void {
-	for (const t of templatesNamed(saved.name)) say(`the built-in template ${t.id} stays as it is; your copy is ${saved.id}`);
+	for (const t of templatesNamed(saved.name))
+		say(`the built-in template ${t.id} stays as it is; your copy is ${saved.id}`);
 }

@@ -8,7 +8,14 @@ import {previewPicture} from '../simulate/preview-picture.js';
 import {defaultDynamicRangeDb} from '../simulate/scanner-behaviour.js';
 import {pictureModeFromEnv} from '../ui/picture/picture-cells.js';
 import {illustrationLabel, panelChrome, panelLines, panelLegend, travelLine} from '../ui/picture/picture-panels.js';
-import {choiceOption, dynamicRangeLimit, pixelLimit, seedLimit, wholeNumberOption, writeOutputFile} from './image-options.js';
+import {
+	choiceOption,
+	dynamicRangeLimit,
+	pixelLimit,
+	seedLimit,
+	wholeNumberOption,
+	writeOutputFile,
+} from './image-options.js';
 import {numberOption} from './option-values.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 import {UsageError} from '../errors/usage-error.js';
@@ -33,15 +40,27 @@ const profileIdPattern = /^[a-z0-9][a-z0-9-]{0,63}$/;
 export function registerPreviewCommand(program: Command): void {
 	program
 		.command('preview')
-		.description('a simulated B-mode illustration of a plan: the built-in ramp alone and the plan\'s sliders, in the terminal or as PNG')
+		.description(
+			"a simulated B-mode illustration of a plan: the built-in ramp alone and the plan's sliders, in the terminal or as PNG",
+		)
 		.argument('<plan>', 'plan file (JSON) or - for standard input')
 		.option('--png <file>', 'write an 8-bit grey PNG instead of drawing in the terminal')
 		.option('--panel <which>', 'ramp, plan or both', 'both')
-		.option('--width <px>', `picture width per panel, ${pixelLimit.min} to ${pixelLimit.max} px (terminal: one column per pixel)`)
+		.option(
+			'--width <px>',
+			`picture width per panel, ${pixelLimit.min} to ${pixelLimit.max} px (terminal: one column per pixel)`,
+		)
 		.option('--height <px>', `picture height, ${pixelLimit.min} to ${pixelLimit.max} px (terminal: two pixels per row)`)
 		.option('--seed <n>', 'speckle seed, a whole number; the same seed gives the same bytes', '1')
-		.option('--dynamic-range <db>', `display dynamic range, ${dynamicRangeLimit.min} to ${dynamicRangeLimit.max} dB`, String(defaultDynamicRangeDb))
-		.option('--scanner <id>', 'draw it on this measured scanner profile (evenecho scanner list) instead of the one the plan names')
+		.option(
+			'--dynamic-range <db>',
+			`display dynamic range, ${dynamicRangeLimit.min} to ${dynamicRangeLimit.max} dB`,
+			String(defaultDynamicRangeDb),
+		)
+		.option(
+			'--scanner <id>',
+			'draw it on this measured scanner profile (evenecho scanner list) instead of the one the plan names',
+		)
 		.option('--force', 'replace an existing PNG')
 		.action(async (planPath: string, opts: PreviewOptions) => {
 			const panel = choiceOption('panel', opts.panel, panels);
@@ -50,14 +69,17 @@ export function registerPreviewCommand(program: Command): void {
 			const seed = wholeNumberOption('seed', opts.seed, seedLimit, '');
 			const dynamicRangeDb = numberOption('dynamic-range', opts.dynamicRange, dynamicRangeLimit, 'dB');
 			if (opts.scanner !== undefined && !profileIdPattern.test(opts.scanner)) {
-				throw new UsageError('--scanner: must be a scanner profile id: lower-case letters, digits and hyphens, up to ' +
-					`64 (evenecho scanner list) (got "${opts.scanner}")`);
+				throw new UsageError(
+					'--scanner: must be a scanner profile id: lower-case letters, digits and hyphens, up to ' +
+						`64 (evenecho scanner list) (got "${opts.scanner}")`,
+				);
 			}
 			const read = await readPlanFile(planPath);
 			// The profile the plan names (or --scanner): its measured depth gain replaces the assumed ramp.
 			const doc = opts.scanner === undefined ? read.doc : {...read.doc, scanner: opts.scanner};
 			const measured = await scannerForPlan(doc).catch((error: unknown) => {
-				if (opts.scanner !== undefined && error instanceof UsageError) throw new UsageError(error.message.replace(/^scanner:/, '--scanner:'));
+				if (opts.scanner !== undefined && error instanceof UsageError)
+					throw new UsageError(error.message.replace(/^scanner:/, '--scanner:'));
 				throw error;
 			});
 			const plan = measured ? resolvePlan(doc, measured) : read.plan;
@@ -71,17 +93,22 @@ export function registerPreviewCommand(program: Command): void {
 					{Title: `evenecho preview: ${plan.name}`, Description: illustrationLabel, Software: 'evenecho'},
 				);
 				writeOutputFile('png', resolve(opts.png), bytes, opts.force === true);
-				process.stdout.write(`Wrote ${opts.png} (${pic.width}×${pic.height}, ` +
-					`${panel === 'both' ? 'both panels' : panel}). ${illustrationLabel}\n${travel ? `${travel}\n` : ''}`);
+				process.stdout.write(
+					`Wrote ${opts.png} (${pic.width}×${pic.height}, ` +
+						`${panel === 'both' ? 'both panels' : panel}). ${illustrationLabel}\n${travel ? `${travel}\n` : ''}`,
+				);
 				return;
 			}
 			const kinds: PanelKind[] = panel === 'both' ? ['ramp', 'plan'] : [panel];
 			const mode = process.stdout.isTTY ? pictureModeFromEnv(process.env) : 'plain';
 			const termColumns = process.stdout.columns || 80;
 			const termRows = process.stdout.rows || 24;
-			const columns = width ?? Math.max(8, Math.min(60, Math.floor((termColumns - 2) / kinds.length) - panelChrome - 2));
+			const columns =
+				width ?? Math.max(8, Math.min(60, Math.floor((termColumns - 2) / kinds.length) - panelChrome - 2));
 			const rows = height === undefined ? Math.max(4, Math.min(30, termRows - 6)) : Math.max(4, Math.ceil(height / 2));
 			const lines = panelLines(result, cache, kinds, {pictureColumns: columns, pictureRows: rows}, mode);
-			process.stdout.write(`${lines.join('\n')}\n${panelLegend()}\n${travel ? `${travel}\n` : ''}${illustrationLabel}\n`);
+			process.stdout.write(
+				`${lines.join('\n')}\n${panelLegend()}\n${travel ? `${travel}\n` : ''}${illustrationLabel}\n`,
+			);
 		});
 }

@@ -9,7 +9,9 @@ import {groupAction, refuseRepeatedOptions, unknownCommandError} from './command
  */
 export async function buildProgram(args: readonly string[] = [], full = false): Promise<Command> {
 	const program = new Command('evenecho')
-		.description('Plan ultrasound depth-gain (TGC) starting points from a patient\'s layers, the probe and the scanner\'s sliders.')
+		.description(
+			"Plan ultrasound depth-gain (TGC) starting points from a patient's layers, the probe and the scanner's sliders.",
+		)
 		.version('0.1.0')
 		.exitOverride()
 		.showHelpAfterError('(run evenecho --help for the commands)');

@@ -72,22 +72,37 @@ async function measuredScanner(id: string | undefined, field: string) {
 export function registerRefineCommand(program: Command): void {
 	program
 		.command('refine')
-		.description('measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer\'s own attenuation')
+		.description(
+			"measure a patient image taken with known settings against a plan: band levels, slider corrections, the layer's own attenuation",
+		)
 		.argument('<image>', 'DICOM still or PNG of the patient')
 		.requiredOption('--plan <plan>', 'the plan the image is compared with (JSON, or - for standard input)')
-		.option('--scanner <id>', 'scanner profile (evenecho scanner list) whose grey map, depth response and slider ' +
-			'travel read the image (default: the one the plan names)')
-		.option('--applied <settings>', 'SETTINGS.json: the sliders and master the image was taken with (default: the plan\'s own fit)')
-		.option('--layer <n>', 'layer whose attenuation is measured, 1 = under the skin (default: the deepest in the image)')
+		.option(
+			'--scanner <id>',
+			'scanner profile (evenecho scanner list) whose grey map, depth response and slider ' +
+				'travel read the image (default: the one the plan names)',
+		)
+		.option(
+			'--applied <settings>',
+			"SETTINGS.json: the sliders and master the image was taken with (default: the plan's own fit)",
+		)
+		.option(
+			'--layer <n>',
+			'layer whose attenuation is measured, 1 = under the skin (default: the deepest in the image)',
+		)
 		.option('--frame <k>', 'frame of a multi-frame DICOM, 1-based')
 		.option('--cm-per-pixel <cm>', 'depth scale for PNG (or a DICOM without ultrasound regions): cm per pixel')
 		.option('--top-cm <cm>', 'with --cm-per-pixel: displayed depth of the top edge of the first row, cm')
-		.option('--dynamic-range <dB>', 'without a scanner profile: the display\'s dynamic range assumed, dB', '60')
+		.option('--dynamic-range <dB>', "without a scanner profile: the display's dynamic range assumed, dB", '60')
 		.option('--format <format>', 'text or json', 'text')
-		.option('--write-plan <file>', 'write the plan with the measured attenuation for that layer (asks before replacing)')
+		.option(
+			'--write-plan <file>',
+			'write the plan with the measured attenuation for that layer (asks before replacing)',
+		)
 		.option('--force', 'with --write-plan: replace an existing file without asking')
 		.action(async (imagePath: string, opts: RefineOptions) => {
-			if (!['text', 'json'].includes(opts.format)) throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
+			if (!['text', 'json'].includes(opts.format))
+				throw new UsageError(`--format: must be text or json (got "${opts.format}")`);
 			const dynamicRangeDb = numberOption('dynamic-range', opts.dynamicRange, {min: 10, max: 120}, 'dB');
 			if ((opts.cmPerPixel === undefined) !== (opts.topCm === undefined)) {
 				throw new UsageError('--cm-per-pixel and --top-cm go together: give both or neither');
@@ -99,17 +114,23 @@ export function registerRefineCommand(program: Command): void {
 							topRowCm: numberOption('top-cm', opts.topCm, {min: -10, max: 40}, 'cm'),
 						}
 					: undefined;
-			const frameNumber = opts.frame === undefined ? undefined : numberOption('frame', opts.frame, {min: 1, max: 10000}, '');
-			if (frameNumber !== undefined && !Number.isInteger(frameNumber)) throw new UsageError('--frame: must be a whole number from 1');
+			const frameNumber =
+				opts.frame === undefined ? undefined : numberOption('frame', opts.frame, {min: 1, max: 10000}, '');
+			if (frameNumber !== undefined && !Number.isInteger(frameNumber))
+				throw new UsageError('--frame: must be a whole number from 1');
 
 			const read = await readPlanFile(opts.plan);
 			const {doc} = read;
-			const measured = await measuredScanner(opts.scanner ?? doc.scanner, opts.scanner !== undefined ? '--scanner' : 'scanner');
+			const measured = await measuredScanner(
+				opts.scanner ?? doc.scanner,
+				opts.scanner !== undefined ? '--scanner' : 'scanner',
+			);
 			const plan: EnginePlan = measured ? resolvePlan(doc, measured.scanner) : read.plan;
 			let layerIndex: number | undefined;
 			if (opts.layer !== undefined) {
 				const n = numberOption('layer', opts.layer, {min: 1, max: plan.layers.length}, '');
-				if (!Number.isInteger(n)) throw new UsageError(`--layer: must be a whole number from 1 to ${plan.layers.length}`);
+				if (!Number.isInteger(n))
+					throw new UsageError(`--layer: must be a whole number from 1 to ${plan.layers.length}`);
 				layerIndex = n - 1;
 			}
 			let applied: {slidersDb: number[]; masterGainDb: number} | undefined;
@@ -143,13 +164,18 @@ export function registerRefineCommand(program: Command): void {
 
 			if (opts.writePlan !== undefined) {
 				if (!outcome.attenuation) {
-					throw new UsageError(`--write-plan: nothing measured to write (${outcome.cannotTell}); ${printable(opts.writePlan)} not written`);
+					throw new UsageError(
+						`--write-plan: nothing measured to write (${outcome.cannotTell}); ${printable(opts.writePlan)} not written`,
+					);
 				}
 				const target = opts.writePlan;
 				let replace = false;
 				if (entryAt(target)) {
 					replace = opts.force === true || (await confirmReplace(target));
-					if (!replace) throw new UsageError(`--write-plan: ${printable(target)} exists; not replaced (answer y when asked, or add --force)`);
+					if (!replace)
+						throw new UsageError(
+							`--write-plan: ${printable(target)} exists; not replaced (answer y when asked, or add --force)`,
+						);
 				}
 				const written = planWithMeasuredLayer(doc, outcome.attenuation);
 				try {
@@ -163,7 +189,8 @@ export function registerRefineCommand(program: Command): void {
 			if (opts.format === 'json') stdout.write(JSON.stringify(refineJson(outcome, source), null, 2) + '\n');
 			else {
 				stdout.write(refineText(outcome, source));
-				if (opts.writePlan !== undefined) stdout.write(`  Plan with the measured layer written to ${printable(opts.writePlan)}.\n`);
+				if (opts.writePlan !== undefined)
+					stdout.write(`  Plan with the measured layer written to ${printable(opts.writePlan)}.\n`);
 			}
 		});
 }

@@ -18,14 +18,16 @@ const formats = ['text', 'json'] as const;
 type Format = (typeof formats)[number];
 
 function parseFormat(value: string): Format {
-	if (!(formats as readonly string[]).includes(value)) throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
+	if (!(formats as readonly string[]).includes(value))
+		throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
 	return value as Format;
 }
 
 function parseFrame(value: string | undefined): number | undefined {
 	if (value === undefined) return undefined;
 	const n = Number(value);
-	if (!Number.isInteger(n) || n < 1 || n > 100000) throw new UsageError(`--frame: must be a whole number from 1 to 100000 (got "${value}")`);
+	if (!Number.isInteger(n) || n < 1 || n > 100000)
+		throw new UsageError(`--frame: must be a whole number from 1 to 100000 (got "${value}")`);
 	return n;
 }
 
@@ -34,12 +36,18 @@ function say(message: string): void {
 }
 
 export function registerScannerCommand(program: Command): void {
-	const scanner = program.command('scanner').description('measure your scanner from phantom images and keep it as a profile plans can name ' +
-		'(calibrate, list, show, delete, rename, export, import)');
+	const scanner = program
+		.command('scanner')
+		.description(
+			'measure your scanner from phantom images and keep it as a profile plans can name ' +
+				'(calibrate, list, show, delete, rename, export, import)',
+		);
 
 	scanner
 		.command('calibrate')
-		.description('measure grey map, depth response, slider travel and penetration from a session of phantom images, and store the profile')
+		.description(
+			'measure grey map, depth response, slider travel and penetration from a session of phantom images, and store the profile',
+		)
 		.argument('<session>', 'session file (evenecho-scanner-session/1); image paths are relative to it')
 		.option('--name <name>', 'profile name (default: the session label)')
 		.option('--format <format>', 'text or json', 'text')
@@ -50,7 +58,10 @@ export function registerScannerCommand(program: Command): void {
 			const frame = parseFrame(opts.frame);
 			try {
 				const loaded = loadSession(session, frame === undefined ? {} : {frame});
-				const {name, id} = checkProfileName(opts.name ?? loaded.session.label, opts.name === undefined ? 'label (used as the profile name; give --name)' : '--name');
+				const {name, id} = checkProfileName(
+					opts.name ?? loaded.session.label,
+					opts.name === undefined ? 'label (used as the profile name; give --name)' : '--name',
+				);
 				const calibration = calibrateScanner(loaded.input);
 				const profile = profileFromCalibration(calibration, id, name);
 				const store = openScannerProfileStore();
@@ -73,7 +84,16 @@ export function registerScannerCommand(program: Command): void {
 			const {profiles, problems} = openScannerProfileStore().list();
 			for (const p of problems) say(`note: ${p}`);
 			if (format === 'json') {
-				const rows = profiles.map((p) => ({id: p.id, name: p.name, label: p.label, centerMhz: p.probe.centerMhz, displayDepthCm: p.displayDepthCm, penetrationCm: p.penetrationCm, sliderTravelDb: p.sliderTravelDb, savedAt: p.savedAt ?? null}));
+				const rows = profiles.map((p) => ({
+					id: p.id,
+					name: p.name,
+					label: p.label,
+					centerMhz: p.probe.centerMhz,
+					displayDepthCm: p.displayDepthCm,
+					penetrationCm: p.penetrationCm,
+					sliderTravelDb: p.sliderTravelDb,
+					savedAt: p.savedAt ?? null,
+				}));
 				process.stdout.write(`${JSON.stringify(rows, null, 2)}\n`);
 				return;
 			}
@@ -81,9 +101,28 @@ export function registerScannerCommand(program: Command): void {
 				say('no scanner profiles yet; make one with evenecho scanner calibrate SESSION.json');
 				return;
 			}
-			const rows = [['id', 'name', 'probe', 'depth', 'reach', 'travel'], ...profiles.map((p) => [p.id, p.name, `${p.probe.centerMhz} MHz`, `${p.displayDepthCm} cm`, p.penetrationCm === null ? '—' : `${p.penetrationCm.toFixed(1)} cm`, p.sliderTravelDb === null ? '—' : `${p.sliderTravelDb.toFixed(1)} dB`])];
+			const rows = [
+				['id', 'name', 'probe', 'depth', 'reach', 'travel'],
+				...profiles.map((p) => [
+					p.id,
+					p.name,
+					`${p.probe.centerMhz} MHz`,
+					`${p.displayDepthCm} cm`,
+					p.penetrationCm === null ? '—' : `${p.penetrationCm.toFixed(1)} cm`,
+					p.sliderTravelDb === null ? '—' : `${p.sliderTravelDb.toFixed(1)} dB`,
+				]),
+			];
 			const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => [...r[c]!].length)));
-			process.stdout.write(`${rows.map((r) => r.map((cell, c) => cell.padEnd(widths[c]! + 2)).join('').trimEnd()).join('\n')}\n`);
+			process.stdout.write(
+				`${rows
+					.map((r) =>
+						r
+							.map((cell, c) => cell.padEnd(widths[c]! + 2))
+							.join('')
+							.trimEnd(),
+					)
+					.join('\n')}\n`,
+			);
 		});
 
 	scanner
@@ -133,7 +172,10 @@ export function registerScannerCommand(program: Command): void {
 			try {
 				writeFileAtomic(file, text, {replace: opts.force === true});
 			} catch (error) {
-				if (error instanceof FileRefusedError) throw new UsageError(error.code === 'exists' ? `${file}: already exists; use --force to replace it` : error.message);
+				if (error instanceof FileRefusedError)
+					throw new UsageError(
+						error.code === 'exists' ? `${file}: already exists; use --force to replace it` : error.message,
+					);
 				throw error;
 			}
 			say(`exported to ${file}`);
@@ -153,7 +195,9 @@ export function registerScannerCommand(program: Command): void {
 				throw error;
 			}
 			const imported = openScannerProfileStore().importText(text, file, {replace: opts.force === true});
-			say(`imported ${imported.length} scanner profile${imported.length === 1 ? '' : 's'}: ${imported.map((p) => p.id).join(', ')}`);
+			say(
+				`imported ${imported.length} scanner profile${imported.length === 1 ? '' : 's'}: ${imported.map((p) => p.id).join(', ')}`,
+			);
 			for (const p of imported) process.stdout.write(`${p.id}\n`);
 		});
 }

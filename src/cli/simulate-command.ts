@@ -10,7 +10,14 @@ import {encodePng} from '../image/png-writer.js';
 import type {BatchEntry} from '../files/file-batch.js';
 import {UsageError} from '../errors/usage-error.js';
 import {patientImage, phantomSeries, type DemoSet} from '../simulate/demo-images.js';
-import {choiceOption, outputFolder, removeEmptyFolder, seedLimit, wholeNumberOption, writeOutputBatch} from './image-options.js';
+import {
+	choiceOption,
+	outputFolder,
+	removeEmptyFolder,
+	seedLimit,
+	wholeNumberOption,
+	writeOutputBatch,
+} from './image-options.js';
 import {readPlanFile} from './read-plan-file.js';
 
 const kinds = ['phantom-series', 'patient'] as const;
@@ -32,13 +39,25 @@ function jsonBytes(value: unknown): Uint8Array {
 }
 
 /** Image files of a demo set in the chosen format. */
-export function imageFiles(set: DemoSet, format: (typeof formats)[number], kind: string, seed: number, planName: string): BatchEntry[] {
+export function imageFiles(
+	set: DemoSet,
+	format: (typeof formats)[number],
+	kind: string,
+	seed: number,
+	planName: string,
+): BatchEntry[] {
 	const studyUid = derivedUid('study', kind, planName, seed);
 	const seriesUid = derivedUid('series', kind, planName, seed);
 	return set.images.map((img, k) => {
 		const pixels = {width: img.width, height: img.height, channels: img.channels, data: img.data};
 		if (format === 'png') {
-			return {name: `${img.name}.png`, data: encodePng(pixels, {Description: illustration, Comment: `${img.role}, master gain ${img.masterGainDb} dB`})};
+			return {
+				name: `${img.name}.png`,
+				data: encodePng(pixels, {
+					Description: illustration,
+					Comment: `${img.role}, master gain ${img.masterGainDb} dB`,
+				}),
+			};
 		}
 		const bytes = encodeUltrasoundDicom({
 			image: pixels,
@@ -47,7 +66,8 @@ export function imageFiles(set: DemoSet, format: (typeof formats)[number], kind:
 			seriesUid,
 			instanceUid: derivedUid('image', kind, planName, seed, img.name),
 			instanceNumber: k + 1,
-			seriesDescription: kind === 'patient' ? 'evenecho demo patient (simulated)' : 'evenecho demo phantom series (simulated)',
+			seriesDescription:
+				kind === 'patient' ? 'evenecho demo patient (simulated)' : 'evenecho demo phantom series (simulated)',
 			comments: `${illustration} ${img.role}, master gain ${img.masterGainDb} dB${img.slider ? `, slider ${img.slider} at full travel` : ''}`,
 		});
 		return {name: `${img.name}.dcm`, data: bytes};
@@ -62,7 +82,9 @@ function centerMhzOf(set: DemoSet): number {
 export function registerSimulateCommand(program: Command): void {
 	program
 		.command('simulate')
-		.description('write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image')
+		.description(
+			'write invented demo images with their truth: a phantom series (with a scanner session file) or a patient image',
+		)
 		.argument('<plan>', 'plan file (JSON) or - for standard input')
 		.requiredOption('--out <dir>', 'folder to write into (made if missing; its parent must exist)')
 		.option('--kind <kind>', 'phantom-series or patient', 'phantom-series')
@@ -78,7 +100,8 @@ export function registerSimulateCommand(program: Command): void {
 			const {plan} = await readPlanFile(planPath);
 			const dir = resolve(opts.out);
 			const extension = format === 'dicom' ? 'dcm' : 'png';
-			if (kind !== 'patient' && (opts.cyst || opts.brightLine)) throw new UsageError('--cyst and --bright-line go with --kind patient');
+			if (kind !== 'patient' && (opts.cyst || opts.brightLine))
+				throw new UsageError('--cyst and --bright-line go with --kind patient');
 			const set =
 				kind === 'patient'
 					? patientImage(plan, seed, extension, {cyst: opts.cyst === true, brightLine: opts.brightLine === true})
@@ -94,6 +117,8 @@ export function registerSimulateCommand(program: Command): void {
 				if (created) removeEmptyFolder(dir);
 				throw error;
 			}
-			process.stdout.write(`Wrote ${files.length} files to ${opts.out}: ${files.map((f) => f.name).join(', ')}.\n${illustration}\n`);
+			process.stdout.write(
+				`Wrote ${files.length} files to ${opts.out}: ${files.map((f) => f.name).join(', ')}.\n${illustration}\n`,
+			);
 		});
 }

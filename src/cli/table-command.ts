@@ -72,23 +72,47 @@ Examples:
 export function registerTableCommand(program: Command): void {
 	program
 		.command('table')
-		.description('default compensation tables for protocols: a plan or preset swept over habitus, probe ' +
-			'frequency, beam angle, receive mode and tissue swaps')
+		.description(
+			'default compensation tables for protocols: a plan or preset swept over habitus, probe ' +
+				'frequency, beam angle, receive mode and tissue swaps',
+		)
 		.argument('[plan]', 'plan file (JSON, format evenecho-plan/1) or - for standard input; or use --preset')
-		.option('--preset <id>', 'a template or saved preset instead of a plan file: the id or name "evenecho presets list" shows')
-		.option('--fat <cm,...>', 'thicknesses of the subcutaneous layer, cm, each above 0 and up to 50: a list (1,2,4,6,8) or from:to:step (1:8:0.5)')
+		.option(
+			'--preset <id>',
+			'a template or saved preset instead of a plan file: the id or name "evenecho presets list" shows',
+		)
+		.option(
+			'--fat <cm,...>',
+			'thicknesses of the subcutaneous layer, cm, each above 0 and up to 50: a list (1,2,4,6,8) or from:to:step (1:8:0.5)',
+		)
 		.option('--layer <n>', 'the layer --fat sets, 1 = just under the skin (default: the first layer of tissue "fat")')
-		.option('--freq <MHz,...>', 'probe centre frequencies, MHz, each above 0 and up to 50, as a list or from:to:step (default: the plan\'s)')
-		.option('--angle <deg,...>', 'beam angles from the layer normal, degrees, each from 0 to 80, as a list (0,15,30) or from:to:step (default: the plan\'s)')
+		.option(
+			'--freq <MHz,...>',
+			"probe centre frequencies, MHz, each above 0 and up to 50, as a list or from:to:step (default: the plan's)",
+		)
+		.option(
+			'--angle <deg,...>',
+			"beam angles from the layer normal, degrees, each from 0 to 80, as a list (0,15,30) or from:to:step (default: the plan's)",
+		)
 		.option(
 			'--receive <mode>',
 			'fundamental, tissue-harmonic (or harmonic), scatterer-harmonic (contrast agents) ' +
-				'or both (fundamental and tissue-harmonic; default: the plan\'s)',
+				"or both (fundamental and tissue-harmonic; default: the plan's)",
 		)
-		.option('--swap <n=tissues>', 'give layer n each tissue in turn: library tissue ids or PRESET:M (layer M of a preset), comma-separated; repeat for other layers', collect)
+		.option(
+			'--swap <n=tissues>',
+			'give layer n each tissue in turn: library tissue ids or PRESET:M (layer M of a preset), comma-separated; repeat for other layers',
+			collect,
+		)
 		.option('--delta', 'show sliders and master gain as differences from the standard habitus (the plan as it is)')
-		.option('--ladder <MHz,...>', 'frequencies tried for the highest-reaching column (default: the --freq list, else 1 to 15 MHz in 0.5 MHz steps)')
-		.option('--margin <dB>', 'for the highest-reaching column: dB the target depth must stay below the noise budget, 0 to 100 (default 0)')
+		.option(
+			'--ladder <MHz,...>',
+			'frequencies tried for the highest-reaching column (default: the --freq list, else 1 to 15 MHz in 0.5 MHz steps)',
+		)
+		.option(
+			'--margin <dB>',
+			'for the highest-reaching column: dB the target depth must stay below the noise budget, 0 to 100 (default 0)',
+		)
 		.option('--step <cm>', 'sample spacing in displayed depth, cm (0.01 to 5)', '0.1')
 		.option('--format <format>', 'markdown, csv, json or svg', 'markdown')
 		.option('--timestamp', 'add the generation time (markdown, json, svg)')
@@ -98,8 +122,10 @@ export function registerTableCommand(program: Command): void {
 				throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${opts.format}")`);
 			}
 			const format = opts.format as Format;
-			if (planPath !== undefined && opts.preset !== undefined) throw new UsageError('give either a plan file or --preset, not both');
-			if (planPath === undefined && opts.preset === undefined) throw new UsageError('give a plan file (or - for standard input) or --preset ID (see evenecho presets list)');
+			if (planPath !== undefined && opts.preset !== undefined)
+				throw new UsageError('give either a plan file or --preset, not both');
+			if (planPath === undefined && opts.preset === undefined)
+				throw new UsageError('give a plan file (or - for standard input) or --preset ID (see evenecho presets list)');
 
 			const needsStore = opts.preset !== undefined || (opts.swap ?? []).some((s) => s.includes(':'));
 			const store = needsStore ? await openStore() : undefined;
@@ -121,7 +147,11 @@ export function registerTableCommand(program: Command): void {
 						const entry = store.find(preset);
 						if (!entry) return undefined;
 						const layers = entry.plan.layers;
-						if (m > layers.length) throw new SweepError('swap', `--swap: ${kindOf(entry)} has ${layers.length} layers; M must be from 1 to ${layers.length}`);
+						if (m > layers.length)
+							throw new SweepError(
+								'swap',
+								`--swap: ${kindOf(entry)} has ${layers.length} layers; M must be from 1 to ${layers.length}`,
+							);
 						return {tissue: layers[m - 1]!.tissue, from: `layer ${m} of ${kindOf(entry)}`};
 					}
 				: undefined;
@@ -150,13 +180,22 @@ export function registerTableCommand(program: Command): void {
 				try {
 					const scanner = await scannerForPlan(doc);
 					const swept = scanner ? {...sweep, scanner} : sweep;
-					table = await runSweepInParallel(swept, {keepCurves: format === 'svg', onProgress: (done, total) => bar.update(done, total)});
+					table = await runSweepInParallel(swept, {
+						keepCurves: format === 'svg',
+						onProgress: (done, total) => bar.update(done, total),
+					});
 				} finally {
 					bar.finish();
 				}
 				const fo: TableFormatOptions = {source, ...(opts.timestamp ? {generatedAt: new Date().toISOString()} : {})};
 				chunks =
-					format === 'csv' ? tableCsvChunks(table) : format === 'json' ? tableJsonChunks(table, fo) : format === 'svg' ? [tableSvg(table, fo)] : tableMarkdownChunks(table, fo);
+					format === 'csv'
+						? tableCsvChunks(table)
+						: format === 'json'
+							? tableJsonChunks(table, fo)
+							: format === 'svg'
+								? [tableSvg(table, fo)]
+								: tableMarkdownChunks(table, fo);
 			} catch (error) {
 				if (error instanceof SweepError) throw new UsageError(error.message);
 				throw error;

@@ -11,7 +11,11 @@ export function writeOutput(text: string): Promise<void> {
 		process.stdout.write(text, (error) => {
 			if (!error) return resolve();
 			const code = (error as NodeJS.ErrnoException).code;
-			reject(new OutputError(`cannot write the output${code === 'ENOSPC' ? ' (the device is full)' : code ? ` (${code})` : ''}; nothing was exported`));
+			reject(
+				new OutputError(
+					`cannot write the output${code === 'ENOSPC' ? ' (the device is full)' : code ? ` (${code})` : ''}; nothing was exported`,
+				),
+			);
 		});
 	});
 }

@@ -37,7 +37,11 @@ export function criticalAngleDeg(a: Pick<Tissue, 'speedMps'>, b: Pick<Tissue, 's
 }
 
 /** Intensity transmission through a boundary at incidence θi (fluid–fluid); 0 beyond the critical angle. */
-export function obliqueTransmission(a: Pick<Tissue, 'speedMps' | 'densityKgM3'>, b: Pick<Tissue, 'speedMps' | 'densityKgM3'>, incidenceDeg: number): number {
+export function obliqueTransmission(
+	a: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+	b: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+	incidenceDeg: number,
+): number {
 	const st = (Math.sin(incidenceDeg * rad) * b.speedMps) / a.speedMps;
 	if (st >= 1) return 0;
 	const ci = Math.cos(incidenceDeg * rad);
@@ -49,7 +53,11 @@ export function obliqueTransmission(a: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
 }
 
 /** Round-trip loss of an oblique boundary, dB (Infinity beyond the critical angle). */
-export function obliqueRoundTripLossDb(a: Pick<Tissue, 'speedMps' | 'densityKgM3'>, b: Pick<Tissue, 'speedMps' | 'densityKgM3'>, incidenceDeg: number): number {
+export function obliqueRoundTripLossDb(
+	a: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+	b: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+	incidenceDeg: number,
+): number {
 	const t = obliqueTransmission(a, b, incidenceDeg);
 	return t <= 0 ? Number.POSITIVE_INFINITY : -20 * Math.log10(t);
 }

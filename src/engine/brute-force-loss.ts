@@ -60,9 +60,14 @@ function bruteTissueHarmonic(plan: EnginePlan, displayedCm: readonly number[], p
 	const m = plan.scattererExponent;
 	const half = b * f0; // half-width of the band at 2·f0
 	const npPerDb = Math.log(10) / 20;
-	const strength = plan.layers.map((l) => (1 + (l.tissue.nonlinearityBA ?? 7) / 2) / (l.tissue.densityKgM3 * l.tissue.speedMps ** 3));
+	const strength = plan.layers.map(
+		(l) => (1 + (l.tissue.nonlinearityBA ?? 7) / 2) / (l.tissue.densityKgM3 * l.tissue.speedMps ** 3),
+	);
 	const oneWayNp = (lengths: number[], f: number) =>
-		lengths.reduce((e, len, i) => e + plan.layers[i]!.tissue.alphaDbPerCmMhz * f ** plan.layers[i]!.tissue.exponent * len, 0) * npPerDb;
+		lengths.reduce(
+			(e, len, i) => e + plan.layers[i]!.tissue.alphaDbPerCmMhz * f ** plan.layers[i]!.tissue.exponent * len,
+			0,
+		) * npPerDb;
 	/** ln of the received harmonic power at F for a true depth. */
 	const logPowerAt = (trueCm: number, F: number): number => {
 		const f = F / 2;
@@ -109,7 +114,11 @@ function bruteTissueHarmonic(plan: EnginePlan, displayedCm: readonly number[], p
 }
 
 /** Round-trip attenuation (dB, interfaces excluded) at each displayed depth, by brute force. */
-export function bruteForceAttenuationDb(plan: EnginePlan, displayedCm: readonly number[], options: BruteForceOptions = {}): number[] {
+export function bruteForceAttenuationDb(
+	plan: EnginePlan,
+	displayedCm: readonly number[],
+	options: BruteForceOptions = {},
+): number[] {
 	const points = options.points ?? 20000;
 	if (plan.probe.receive === 'tissue-harmonic') return bruteTissueHarmonic(plan, displayedCm, points);
 	const {centerMhz: f0, bandwidthFraction: b} = plan.probe;

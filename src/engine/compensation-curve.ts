@@ -16,7 +16,9 @@ import {pointsAlongDepth} from './points-along-depth.js';
 import {bandDepths, uncertaintyBand} from './uncertainty-band.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
-export const modelVersion = 'evenecho-model 2 (1-D parallel layers at the plan\'s beam angle, pulse-echo spectrum of the probe\'s steepness, fundamental or harmonic receive)';
+export const modelVersion =
+	"evenecho-model 2 (1-D parallel layers at the plan's beam angle, pulse-echo spectrum of the probe's steepness, " +
+	'fundamental or harmonic receive)';
 
 export interface CurveOptions {
 	/** Spacing of the samples in displayed depth, cm. @default 0.1 */
@@ -89,7 +91,11 @@ export function controlTargetDb(plan: EnginePlan, s: Pick<CurveSample, 'displaye
 export function deliveredCompensationDb(plan: EnginePlan, fit: SliderFit, displayedCm: number): number {
 	const knots = fit.sliders.map((s) => s.depthCm);
 	const values = fit.sliders.map((s) => s.gainDb);
-	return builtInRampDb(plan, displayedCm) + appliedGainDb(knots, plan.sliders.ends, values, fit.masterGainDb, displayedCm) - plan.masterGain.baseDb;
+	return (
+		builtInRampDb(plan, displayedCm) +
+		appliedGainDb(knots, plan.sliders.ends, values, fit.masterGainDb, displayedCm) -
+		plan.masterGain.baseDb
+	);
 }
 
 /**
@@ -137,7 +143,14 @@ function bodyWallNote(plan: EnginePlan): CurveWarning | null {
 	return {
 		code: 'thick-body-wall',
 		severity: 'note',
-		message: `${fat.toFixed(1)} cm of fat under the skin: fat and liver lose about the same per cm, so the slider shape barely changes; what changes is depth (the target sits deeper, so the highest frequency that reaches it falls, and the sliders follow the displayed depth, fat drawn about 7 % thick). Gain cannot fix the clutter and aberration the body wall adds; tissue harmonic receive reduces them (Pinton, Trahey & Dahl 2011, "Sources of image degradation in fundamental and harmonic ultrasound imaging using nonlinear, full-wave simulations", IEEE TUFFC; Dahl & Sheth 2014, "Reverberation clutter from subcutaneous tissue layers: simulation and in vivo demonstrations", Ultrasound Med Biol 40(4):714–726).`,
+		message:
+			`${fat.toFixed(1)} cm of fat under the skin: fat and liver lose about the same per cm, so the slider shape ` +
+			`barely changes; what changes is depth (the target sits deeper, so the highest frequency that reaches it falls, and ` +
+			`the sliders follow the displayed depth, fat drawn about 7 % thick). Gain cannot fix the clutter and aberration the ` +
+			`body wall adds; tissue harmonic receive reduces them (Pinton, Trahey & Dahl 2011, "Sources of image degradation in ` +
+			`fundamental and harmonic ultrasound imaging using nonlinear, full-wave simulations", IEEE TUFFC; Dahl & Sheth ` +
+			`2014, "Reverberation clutter from subcutaneous tissue layers: simulation and in vivo demonstrations", Ultrasound ` +
+			`Med Biol 40(4):714–726).`,
 	};
 }
 
@@ -163,7 +176,10 @@ function refractionNote(plan: EnginePlan, usableDepthCm: number, model: PathMode
 	return {
 		code: 'refraction-shift',
 		severity: 'note',
-		message: `At ${angle}° the beam bends at each boundary (Snell's law) while the scanner draws along a straight line: a target at ${usableDepthCm.toFixed(1)} cm is drawn about ${mm.toFixed(1)} mm sideways of where it is (refraction artefact). Path lengths follow the bent beam.`,
+		message:
+			`At ${angle}° the beam bends at each boundary (Snell's law) while the scanner draws along a straight line: ` +
+			`a target at ${usableDepthCm.toFixed(1)} cm is drawn about ${mm.toFixed(1)} mm sideways of where it is (refraction ` +
+			`artefact). Path lengths follow the bent beam.`,
 		depthCm: usableDepthCm,
 	};
 }
@@ -176,13 +192,17 @@ function barrierWarning(b: Barrier, plan: EnginePlan): CurveWarning {
 		return {
 			code: b.kind,
 			severity: 'warning',
-			message: `At ${plan.probe.angleDeg}° the beam meets ${above} → ${label} at ${depth} cm beyond its critical angle (${b.criticalAngleDeg.toFixed(1)}°): no energy crosses, nothing returns from beyond. Tilt the probe towards the normal; gain cannot help.`,
+			message:
+				`At ${plan.probe.angleDeg}° the beam meets ${above} → ${label} at ${depth} cm beyond its critical angle ` +
+				`(${b.criticalAngleDeg.toFixed(1)}°): no energy crosses, nothing returns from beyond. Tilt the probe towards the ` +
+				`normal; gain cannot help.`,
 			depthCm: b.displayedCm,
 		};
 	}
 	const message =
 		b.kind === 'strong-reflector'
-			? `${label} from ${depth} cm reflects ${(b.value * 100).toFixed(0)} % of the intensity: no useful echoes beyond it. Gain is held flat there; more gain cannot restore what does not return.`
+			? `${label} from ${depth} cm reflects ${(b.value * 100).toFixed(0)} % of the intensity: no useful echoes beyond it. ` +
+				`Gain is held flat there; more gain cannot restore what does not return.`
 			: `${label} from ${depth} cm absorbs ${b.value} dB/cm/MHz one way: no useful echoes beyond it. Gain is held flat there.`;
 	return {code: b.kind, severity: 'warning', message, depthCm: b.displayedCm};
 }
@@ -192,11 +212,17 @@ export function scannerProfileNote(plan: EnginePlan): string {
 	const r = plan.scanner!;
 	const last = r.depthsCm[r.depthsCm.length - 1] ?? 0;
 	const differs: string[] = [];
-	if (Math.abs(r.centerMhz - plan.probe.centerMhz) > 1e-9) differs.push(`probe ${r.centerMhz} MHz there, ${plan.probe.centerMhz} MHz here`);
-	if (Math.abs(r.displayDepthCm - plan.display.depthCm) > 1e-9) differs.push(`display depth ${r.displayDepthCm} cm there, ${plan.display.depthCm} cm here`);
+	if (Math.abs(r.centerMhz - plan.probe.centerMhz) > 1e-9)
+		differs.push(`probe ${r.centerMhz} MHz there, ${plan.probe.centerMhz} MHz here`);
+	if (Math.abs(r.displayDepthCm - plan.display.depthCm) > 1e-9)
+		differs.push(`display depth ${r.displayDepthCm} cm there, ${plan.display.depthCm} cm here`);
 	if (r.sliderCount !== plan.sliders.count) differs.push(`${r.sliderCount} sliders there, ${plan.sliders.count} here`);
-	const base = `Depth gain measured on "${r.label}" (${r.id}) replaces the assumed built-in ramp, held flat beyond ${last.toFixed(1)} cm; a measurement to confirm on the live image.`;
-	return differs.length ? `${base} Settings differ from the measurement (${differs.join('; ')}): re-measure for this probe, preset and depth.` : base;
+	const base =
+		`Depth gain measured on "${r.label}" (${r.id}) replaces the assumed built-in ramp, held flat beyond ` +
+		`${last.toFixed(1)} cm; a measurement to confirm on the live image.`;
+	return differs.length
+		? `${base} Settings differ from the measurement (${differs.join('; ')}): re-measure for this probe, preset and depth.`
+		: base;
 }
 
 /** Computes the whole compensation curve of a plan. Pure: same plan, same result. */
@@ -261,7 +287,10 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		warnings.push({
 			code: 'below-noise-floor',
 			severity: 'warning',
-			message: `Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor (${plan.noiseBudgetDb.toFixed(1)} dB budget): gain there lifts noise, not signal. Try a lower frequency, a shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
+			message:
+				`Beyond ${penetrationDepthCm.toFixed(1)} cm the echo at ${f0} MHz falls below the noise floor ` +
+				`(${plan.noiseBudgetDb.toFixed(1)} dB budget): gain there lifts noise, not signal. Try a lower frequency, a ` +
+				`shallower depth or moving the focus; any output increase is the operator's call under ALARA.`,
 			depthCm: penetrationDepthCm,
 		});
 	}
@@ -269,7 +298,9 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		warnings.push({
 			code: 'slider-range-exceeded',
 			severity: 'warning',
-			message: `Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
+			message:
+				`Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ` +
+				`${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
 			depthCm: fit.residualAtCm,
 		});
 	}
@@ -287,7 +318,10 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 			warnings.push({
 				code: 'speed-mismatch',
 				severity: 'note',
-				message: `${span.layer.tissue.label} (${c} m/s) is drawn ${Math.abs(misdrawn * 100).toFixed(1)} % ${misdrawn > 0 ? 'thicker' : 'thinner'} than it is at the assumed ${plan.display.assumedSpeedMps} m/s; the curve follows displayed depth.`,
+				message:
+					`${span.layer.tissue.label} (${c} m/s) is drawn ${Math.abs(misdrawn * 100).toFixed(1)} % ` +
+					`${misdrawn > 0 ? 'thicker' : 'thinner'} than it is at the assumed ${plan.display.assumedSpeedMps} m/s; the curve ` +
+					`follows displayed depth.`,
 				depthCm: span.shownTopCm,
 			});
 		}

@@ -3,7 +3,6 @@
  * Float64Arrays): factorisations are cheap enough to recompute at every step, which keeps them stable.
  */
 
-
 /** In-place LU with partial pivoting of a row-major n×n matrix. False if (numerically) singular. */
 export function luFactor(a: Float64Array, n: number, piv: Int32Array): boolean {
 	let norm = 0;

@@ -17,7 +17,8 @@
  * the integrand falls monotonically on each side of it, and the window that ends where it has fallen
  * by e^−36 holds all of the mass. The window edges are found by expanding and then bisecting on the
  * fall itself, so they do not depend on the spectrum's shape, and the panels are split at f0 (where
- * |x|^p has no second derivative for p < 2) and at the shoulders of flat-topped spectra. This stays exact deep in tissue, where the spectrum piles up against 0 MHz and a
+ * |x|^p has no second derivative for p < 2) and at the shoulders of flat-topped spectra. This stays
+ * exact deep in tissue, where the spectrum piles up against 0 MHz and a
  * fixed frequency grid (or a quadrature over all real f) goes wrong.
  */
 
@@ -191,7 +192,11 @@ class BandIntegrand {
 		const x = Math.abs(f - this.f0) / this.h;
 		const p = this.p;
 		const shape = p === 2 ? 2 : p === 1 ? 0 : p * (p - 1) * x ** (p - 2);
-		return (-spectrumNp * shape) / (this.h * this.h) - (this.m === 0 ? 0 : this.m / (f * f)) - this.k * pathCurvature(this.terms, f);
+		return (
+			(-spectrumNp * shape) / (this.h * this.h) -
+			(this.m === 0 ? 0 : this.m / (f * f)) -
+			this.k * pathCurvature(this.terms, f)
+		);
 	}
 
 	/** Peak of the (log-concave) integrand on f ≥ 0: bracketed Newton on the slope, bisection where
@@ -253,7 +258,15 @@ function panel(ig: BandIntegrand, a: number, b: number, gPeak: number, sums: Mom
  * Log-concavity makes the fall monotone on each side. Returns 0 on the left when the fall never
  * gets that far above 0 MHz.
  */
-function fallPoint(ig: BandIntegrand, fp: number, gPeak: number, dir: 1 | -1, step: number, dropNp: number, toleranceNp: number): number {
+function fallPoint(
+	ig: BandIntegrand,
+	fp: number,
+	gPeak: number,
+	dir: 1 | -1,
+	step: number,
+	dropNp: number,
+	toleranceNp: number,
+): number {
 	const fall = (f: number) => gPeak - ig.log(f > 0 ? f : Number.MIN_VALUE);
 	let near = fp;
 	let far: number;
@@ -346,8 +359,20 @@ function logIntegral(
 const emptyPath: PathTerms = {exponents: [], coefficients: []};
 
 /** ln ∫ band integrand × e^extra df over f > 0 and its centroid (the tissue harmonic's integral). */
-export function bandLogMass(band: Band, terms: PathTerms, extra?: LogFactor, peakGuess?: number): {logMass: number; centroidMhz: number; peak: number} {
-	const r = logIntegral(new BandIntegrand(band, terms), band.halfWidthMhz, band.centerMhz, band.steepness, peakGuess, extra);
+export function bandLogMass(
+	band: Band,
+	terms: PathTerms,
+	extra?: LogFactor,
+	peakGuess?: number,
+): {logMass: number; centroidMhz: number; peak: number} {
+	const r = logIntegral(
+		new BandIntegrand(band, terms),
+		band.halfWidthMhz,
+		band.centerMhz,
+		band.steepness,
+		peakGuess,
+		extra,
+	);
 	return {logMass: r.logMass, centroidMhz: r.centroid, peak: r.peak};
 }
 
@@ -366,7 +391,9 @@ export class BandLossCalculator {
 
 	constructor(readonly band: Band) {
 		this.reference =
-			band.halfWidthMhz > 0 ? logIntegral(new BandIntegrand(band, emptyPath), band.halfWidthMhz, band.centerMhz, band.steepness) : undefined;
+			band.halfWidthMhz > 0
+				? logIntegral(new BandIntegrand(band, emptyPath), band.halfWidthMhz, band.centerMhz, band.steepness)
+				: undefined;
 	}
 
 	/** Loss and surviving centroid after `terms` (one-way dB coefficients) is crossed `legs` times. */
@@ -375,7 +402,13 @@ export class BandLossCalculator {
 		if (!this.reference) {
 			return {lossDb: band.legs * pathDb(terms, band.centerMhz), centroidMhz: band.centerMhz};
 		}
-		const r = logIntegral(new BandIntegrand(band, terms), band.halfWidthMhz, band.centerMhz, band.steepness, this.lastPeak);
+		const r = logIntegral(
+			new BandIntegrand(band, terms),
+			band.halfWidthMhz,
+			band.centerMhz,
+			band.steepness,
+			this.lastPeak,
+		);
 		this.lastPeak = r.peak > 0 ? r.peak : undefined;
 		return {lossDb: (-10 / ln10) * (r.logMass - this.reference.logMass), centroidMhz: r.centroid};
 	}

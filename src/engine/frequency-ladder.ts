@@ -45,9 +45,15 @@ export function frequencyLadder(
 		.map((f) => {
 			const model = pathModelOf(atFrequency(plan, f));
 			const penetrationDepthCm = model.depthForLoss(plan.noiseBudgetDb, ladderSearchCm);
-			const reachesTarget = model.lossAt(targetDepthCm) <= budget && !(model.barrier && model.barrier.displayedCm < targetDepthCm);
+			const reachesTarget =
+				model.lossAt(targetDepthCm) <= budget && !(model.barrier && model.barrier.displayedCm < targetDepthCm);
 			return {centerMhz: f, penetrationDepthCm, reachesTarget};
 		});
 	const reaching = rungs.filter((r) => r.reachesTarget);
-	return {rungs, highestReachingMhz: reaching.length ? reaching[reaching.length - 1]!.centerMhz : null, targetDepthCm, marginDb};
+	return {
+		rungs,
+		highestReachingMhz: reaching.length ? reaching[reaching.length - 1]!.centerMhz : null,
+		targetDepthCm,
+		marginDb,
+	};
 }

@@ -18,7 +18,11 @@ export interface Constraint {
  * primal row), switching to Bland's rule after a run of degenerate pivots so it cannot cycle.
  * `basis` must be dual feasible (B⁻¹(−e) ≥ 0). Returns null on numerical failure.
  */
-export function solveInequalityLp(n: number, cons: readonly Constraint[], start: readonly number[]): Float64Array | null {
+export function solveInequalityLp(
+	n: number,
+	cons: readonly Constraint[],
+	start: readonly number[],
+): Float64Array | null {
 	const count = cons.length;
 	const basis = [...start];
 	const inBasis = new Uint8Array(count);

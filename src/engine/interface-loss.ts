@@ -12,7 +12,10 @@ import type {Tissue} from './types.js';
 export const barrierReflection = 0.1;
 
 /** Intensity reflection coefficient R between two media. */
-export function reflectionCoefficient(a: Pick<Tissue, 'speedMps' | 'densityKgM3'>, b: Pick<Tissue, 'speedMps' | 'densityKgM3'>): number {
+export function reflectionCoefficient(
+	a: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+	b: Pick<Tissue, 'speedMps' | 'densityKgM3'>,
+): number {
 	const z1 = impedanceMrayl(a);
 	const z2 = impedanceMrayl(b);
 	const r = (z2 - z1) / (z2 + z1);

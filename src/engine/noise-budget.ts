@@ -28,10 +28,21 @@ export function noiseBudgetFromPhantom(
 	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'spectrumSteepness'>,
 	scattererExponent: number,
 ): number {
-	const phantom = {label: 'calibration phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: cal.alphaDbPerCmMhz, exponent: 1};
+	const phantom = {
+		label: 'calibration phantom',
+		speedMps: 1540,
+		densityKgM3: 1050,
+		alphaDbPerCmMhz: cal.alphaDbPerCmMhz,
+		exponent: 1,
+	};
 	const model = new PathModel(
 		[{tissue: phantom, thicknessCm: cal.depthCm}],
-		{bandwidthFraction: probe.bandwidthFraction, spectrumSteepness: probe.spectrumSteepness, centerMhz: cal.centerMhz, receive: cal.receive ?? 'fundamental'},
+		{
+			bandwidthFraction: probe.bandwidthFraction,
+			spectrumSteepness: probe.spectrumSteepness,
+			centerMhz: cal.centerMhz,
+			receive: cal.receive ?? 'fundamental',
+		},
 		scattererExponent,
 		1540,
 	);

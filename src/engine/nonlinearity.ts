@@ -18,7 +18,7 @@ export interface NonlinearityEntry {
 	readonly source: string;
 }
 
-const review = 'review abstract of Dunn\'s measurements, J Acoust Soc Am 2006 (secondary source)';
+const review = "review abstract of Dunn's measurements, J Acoust Soc Am 2006 (secondary source)";
 const fallback = `soft-tissue default ${softTissueNonlinearityBA} (${review}); no value of its own`;
 
 /** B/A per library tissue id. */

@@ -69,9 +69,13 @@ export class PathModel {
 		this.spans = layerSpans(layersAlongBeam(layers, angleDeg), assumedSpeedMps);
 		this.exponents = [...new Set(layers.map((l) => l.tissue.exponent))];
 		this.receive = probe.receive ?? 'fundamental';
-		this.bands = probeBands(probe.centerMhz, probe.bandwidthFraction, scattererExponent, this.receive === 'scatterer-harmonic', probe.spectrumSteepness).map(
-			(b) => new BandLossCalculator(b),
-		);
+		this.bands = probeBands(
+			probe.centerMhz,
+			probe.bandwidthFraction,
+			scattererExponent,
+			this.receive === 'scatterer-harmonic',
+			probe.spectrumSteepness,
+		).map((b) => new BandLossCalculator(b));
 		this.termsAtTop = [];
 		this.interfaceAtTop = [];
 		let terms = this.exponents.map(() => 0);
@@ -93,19 +97,31 @@ export class PathModel {
 				// Past the critical angle: total reflection, nothing crosses; everything beyond is held.
 				if (!barrier) {
 					const critical = criticalAngleDeg(t, below.layer.tissue) ?? 90;
-					barrier = {kind: 'strong-reflector', displayedCm: span.shownBottomCm, layerIndex: i + 1, value: 1, criticalAngleDeg: critical};
+					barrier = {
+						kind: 'strong-reflector',
+						displayedCm: span.shownBottomCm,
+						layerIndex: i + 1,
+						value: 1,
+						criticalAngleDeg: critical,
+					};
 				}
 				return;
 			}
 			const r = reflectionCoefficient(t, below.layer.tissue);
-			iface += angleDeg === 0 ? roundTripTransmissionLossDb(r) : obliqueRoundTripLossDb(t, below.layer.tissue, incidence);
+			iface +=
+				angleDeg === 0 ? roundTripTransmissionLossDb(r) : obliqueRoundTripLossDb(t, below.layer.tissue, incidence);
 			if (!barrier && r >= barrierReflection) {
 				barrier = {kind: 'strong-reflector', displayedCm: span.shownBottomCm, layerIndex: i + 1, value: r};
 			}
 		});
 		this.barrier = barrier;
 		if (this.receive === 'tissue-harmonic') {
-			const calculator = new TissueHarmonicCalculator(probe.centerMhz, (probe.bandwidthFraction * probe.centerMhz) / 2, probe.spectrumSteepness ?? 2, scattererExponent);
+			const calculator = new TissueHarmonicCalculator(
+				probe.centerMhz,
+				(probe.bandwidthFraction * probe.centerMhz) / 2,
+				probe.spectrumSteepness ?? 2,
+				scattererExponent,
+			);
 			const referenceLogPower = calculator.level(this.buildUpPathAt(harmonicReferenceCm)).logPower;
 			this.harmonic = {calculator, referenceLogPower};
 		}

@@ -16,7 +16,11 @@ const pathTolerance: Pair = [1e-4, 1e-4];
 
 /** `model.at` at every depth of `displayedCm` (ascending), the tissue harmonic interpolated along depth
  * within `tolerance`. */
-export function pointsAlongDepth(model: PathModel, displayedCm: readonly number[], tolerance: Pair = pathTolerance): PathPoint[] {
+export function pointsAlongDepth(
+	model: PathModel,
+	displayedCm: readonly number[],
+	tolerance: Pair = pathTolerance,
+): PathPoint[] {
 	if (model.receive !== 'tissue-harmonic') return model.pointsAt(displayedCm);
 	const out: PathPoint[] = new Array(displayedCm.length);
 	let start = 0;

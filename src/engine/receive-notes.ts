@@ -8,7 +8,11 @@ import type {CurveWarning, EnginePlan, ReceiveMode} from './types.js';
 
 /** How a receive mode reads in sentences. */
 export function receiveModeLabel(mode: ReceiveMode | undefined): string {
-	return mode === 'tissue-harmonic' ? 'tissue harmonic' : mode === 'scatterer-harmonic' ? 'scatterer harmonic' : 'fundamental';
+	return mode === 'tissue-harmonic'
+		? 'tissue harmonic'
+		: mode === 'scatterer-harmonic'
+			? 'scatterer harmonic'
+			: 'fundamental';
 }
 
 export function receiveWarnings(plan: EnginePlan): CurveWarning[] {
@@ -21,7 +25,7 @@ export function receiveWarnings(plan: EnginePlan): CurveWarning[] {
 			code: 'harmonic-simplified',
 			severity: 'note',
 			message:
-				'With a Gaussian-like spectrum (steepness below 3) the harmonic band\'s long low-frequency tail ' +
+				"With a Gaussian-like spectrum (steepness below 3) the harmonic band's long low-frequency tail " +
 				'carries deep echoes and flattens the deep loss (optimistic reach): ' +
 				'set probe.spectrumSteepness from the bandwidth (README: which steepness to pick).',
 		});
@@ -31,7 +35,8 @@ export function receiveWarnings(plan: EnginePlan): CurveWarning[] {
 		out.push({
 			code: 'budget-receive-mismatch',
 			severity: 'warning',
-			message: `The noise budget is for ${receiveModeLabel(budgetMode)} receive, but this plan receives ` +
+			message:
+				`The noise budget is for ${receiveModeLabel(budgetMode)} receive, but this plan receives ` +
 				`the ${receiveModeLabel(mode)}: the reach shown is not calibrated for it. Measure the ` +
 				`phantom reach in ${receiveModeLabel(mode)} mode (or state a budget for it).`,
 		});

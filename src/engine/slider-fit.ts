@@ -134,7 +134,11 @@ export function naiveFit(req: FitRequest): SliderFit {
  * @returns residualDb (dB, 0 when nothing is usable) and atCm (displayed depth, cm, of the first
  * sample with that error; 0 when nothing is usable).
  */
-export function fitError(req: FitRequest, sliderDb: readonly number[], masterDb: number): {residualDb: number; atCm: number} {
+export function fitError(
+	req: FitRequest,
+	sliderDb: readonly number[],
+	masterDb: number,
+): {residualDb: number; atCm: number} {
 	const n = Math.max(0, Math.floor(req.bank.count) || 0);
 	const knots = n >= 1 ? safeKnots(req) : [];
 	const s = Array.from({length: knots.length}, (_, k) => finiteOr(sliderDb[k], 0));
@@ -283,7 +287,11 @@ function usableMeanTotal(totals: readonly number[], req: FitRequest, prepared?: 
 }
 
 /** Split totals into master + sliders (rule in fitSliders' TSDoc), clamping what cannot be reached. */
-function splitTotals(totals: readonly number[], req: FitRequest, prepared?: Prepared): {masterDb: number; sliderDb: number[]} {
+function splitTotals(
+	totals: readonly number[],
+	req: FitRequest,
+	prepared?: Prepared,
+): {masterDb: number; sliderDb: number[]} {
 	const {bank, master} = req;
 	let hMax = -Infinity;
 	let hMin = Infinity;
@@ -307,7 +315,12 @@ function splitTotals(totals: readonly number[], req: FitRequest, prepared?: Prep
 	return {masterDb, sliderDb};
 }
 
-function settingFromTotals(req: FitRequest, knots: readonly number[], totals: readonly number[], prepared?: Prepared): SliderFit {
+function settingFromTotals(
+	req: FitRequest,
+	knots: readonly number[],
+	totals: readonly number[],
+	prepared?: Prepared,
+): SliderFit {
 	const {masterDb, sliderDb} = splitTotals(totals, req, prepared);
 	const sliders: SliderSetting[] = knots.map((depthCm, k) => ({depthCm, gainDb: sliderDb[k]!}));
 	const err = prepared ? preparedError(prepared, sliderDb, masterDb) : fitError(req, sliderDb, masterDb);
@@ -315,7 +328,11 @@ function settingFromTotals(req: FitRequest, knots: readonly number[], totals: re
 }
 
 /** {@link fitError} from weights already worked out (the same sums: the weights left out are 0). */
-function preparedError({data, rows}: Prepared, sliderDb: readonly number[], masterDb: number): {residualDb: number; atCm: number} {
+function preparedError(
+	{data, rows}: Prepared,
+	sliderDb: readonly number[],
+	masterDb: number,
+): {residualDb: number; atCm: number} {
 	let residualDb = 0;
 	let atCm = 0;
 	for (let i = 0; i < rows.length; i++) {
@@ -347,7 +364,6 @@ function masterOnlyFit(req: FitRequest): SliderFit {
 // The two optimisation stages
 // ---------------------------------------------------------------------------------------------
 
-
 function worstResidual(totals: ArrayLike<number>, rows: readonly SparseWeights[], targets: readonly number[]): number {
 	let worst = 0;
 	for (let i = 0; i < rows.length; i++) {
@@ -360,7 +376,6 @@ function worstResidual(totals: ArrayLike<number>, rows: readonly SparseWeights[]
 function addAt(a: Float64Array, i: number, v: number): void {
 	a[i] = a[i]! + v;
 }
-
 
 /** The QP result is used only if it is realisable and keeps the minimax error (else: LP vertex). */
 function acceptable(

@@ -103,7 +103,10 @@ export function smoothAlong(
 		// One exact value between the two central nodes (never a node of this or the doubled degree).
 		const t = Math.cos((Math.PI * (Math.floor(n / 2) + 0.25)) / n);
 		const check = exact(mid + half * t);
-		return Math.abs(clenshaw(p.first, t) - check[0]) <= tolerance[0] / 2 && Math.abs(clenshaw(p.second, t) - check[1]) <= tolerance[1] / 2;
+		return (
+			Math.abs(clenshaw(p.first, t) - check[0]) <= tolerance[0] / 2 &&
+			Math.abs(clenshaw(p.second, t) - check[1]) <= tolerance[1] / 2
+		);
 	};
 	let p: Interpolant | undefined;
 	let ok = false;

@@ -94,13 +94,21 @@ export function logBuildUp(path: BuildUpPath, f: number): number {
 }
 
 /** The envelope band and path terms in the harmonic's frequency F = 2f. */
-export function harmonicEnvelope(centerMhz: number, halfWidthMhz: number, steepness: number, weightExponent: number): Band {
+export function harmonicEnvelope(
+	centerMhz: number,
+	halfWidthMhz: number,
+	steepness: number,
+	weightExponent: number,
+): Band {
 	return {centerMhz: 2 * centerMhz, halfWidthMhz: 2 * halfWidthMhz, steepness, weightExponent, legs: 1};
 }
 
 /** One-way E(f) at f = F/2 twice plus E(F): the envelope's path, as coefficients of F^n. */
 export function envelopeTerms(terms: PathTerms): PathTerms {
-	return {exponents: terms.exponents, coefficients: terms.coefficients.map((c, j) => c * (1 + 2 ** (1 - terms.exponents[j]!)))};
+	return {
+		exponents: terms.exponents,
+		coefficients: terms.coefficients.map((c, j) => c * (1 + 2 ** (1 - terms.exponents[j]!))),
+	};
 }
 
 export interface HarmonicLevel {

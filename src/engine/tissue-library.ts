@@ -52,7 +52,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 0.15,
 		exponent: 1.2,
-		source: 'c, ρ: Hasgall 2018 via Park 2023 Table 7; α0: Diagnostics 2023 Table 4; n: Duck 1990 / Szabo 2004 (from memory)',
+		source:
+			'c, ρ: Hasgall 2018 via Park 2023 Table 7; α0: Diagnostics 2023 Table 4; n: Duck 1990 / Szabo 2004 (from memory)',
 		spread: {speedMps: [1559, 1590], densityKgM3: [1025, 1060], alphaDbPerCmMhz: [0.14, 0.21], exponent: [1.1, 1.3]},
 	},
 	urine: {
@@ -61,7 +62,8 @@ const library = {
 		densityKgM3: 1015,
 		alphaDbPerCmMhz: 0.0014,
 		exponent: 2,
-		source: 'c: 0.9 % saline proxy, Duck 1990 Table 4.9 (from memory for urine itself); ρ: clinical ' +
+		source:
+			'c: 0.9 % saline proxy, Duck 1990 Table 4.9 (from memory for urine itself); ρ: clinical ' +
 			'specific gravity (from memory); α: as water at 37 °C (from memory)',
 		spread: {speedMps: [1520, 1550], densityKgM3: [1005, 1030], alphaDbPerCmMhz: [0.001, 0.006], exponent: [1, 2]},
 	},
@@ -80,7 +82,8 @@ const library = {
 		densityKgM3: 1010,
 		alphaDbPerCmMhz: 0.0022,
 		exponent: 2,
-		source: 'c: Gooding (follicular fluid, 1550 ± 3 m/s at 37.3 °C); ρ: from memory; α: water-like, Breast USCT 2016 Table I',
+		source:
+			'c: Gooding (follicular fluid, 1550 ± 3 m/s at 37.3 °C); ρ: from memory; α: water-like, Breast USCT 2016 Table I',
 		spread: {speedMps: [1520, 1550], densityKgM3: [1005, 1030], alphaDbPerCmMhz: [0.001, 0.006], exponent: [1, 2]},
 	},
 	fat: {
@@ -89,7 +92,8 @@ const library = {
 		densityKgM3: 911,
 		alphaDbPerCmMhz: 0.6,
 		exponent: 1,
-		source: 'c: in-vivo breast fat via Park 2023 Table 7; ρ: Hasgall 2018; α0: Breast USCT 2016 ' +
+		source:
+			'c: in-vivo breast fat via Park 2023 Table 7; ρ: Hasgall 2018; α0: Breast USCT 2016 ' +
 			'Table I (0.60), Diagnostics 2023 Table 4 (0.63); n: Szabo 2004 (from memory)',
 		spread: {speedMps: [1412, 1488], densityKgM3: [812, 961], alphaDbPerCmMhz: [0.38, 0.8], exponent: [1, 1.3]},
 	},
@@ -99,7 +103,8 @@ const library = {
 		densityKgM3: 1090,
 		alphaDbPerCmMhz: 0.4,
 		exponent: 1,
-		source: 'c: within Cardoso & Cowin 2012 Table 3 (1595–1635); ρ, n: from memory; α0: Aubry 2022 benchmark (secondary)',
+		source:
+			'c: within Cardoso & Cowin 2012 Table 3 (1595–1635); ρ, n: from memory; α0: Aubry 2022 benchmark (secondary)',
 		spread: {speedMps: [1530, 1730], densityKgM3: [1090, 1131], alphaDbPerCmMhz: [0.35, 1.84]},
 	},
 	'soft-tissue': {
@@ -108,7 +113,8 @@ const library = {
 		densityKgM3: 1060,
 		alphaDbPerCmMhz: 0.5,
 		exponent: 1,
-		source: 'c: scanner convention (common practice, no source); ρ: ICRU 44 (from memory); α0: IEC ' +
+		source:
+			'c: scanner convention (common practice, no source); ρ: ICRU 44 (from memory); α0: IEC ' +
 			'61391-2 phantom/soft-tissue average 0.5 dB/cm/MHz (secondary)',
 		spread: {speedMps: [1500, 1600], densityKgM3: [1040, 1070], alphaDbPerCmMhz: [0.3, 1], exponent: [1, 1.2]},
 	},
@@ -118,7 +124,8 @@ const library = {
 		densityKgM3: 1060,
 		alphaDbPerCmMhz: 0.5,
 		exponent: 1.1,
-		source: 'c: Szabo 2004 / Duck 1990 (from memory); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: from memory',
+		source:
+			'c: Szabo 2004 / Duck 1990 (from memory); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: from memory',
 		spread: {speedMps: [1540, 1635], densityKgM3: [1060, 1084], alphaDbPerCmMhz: [0.43, 0.7], exponent: [1, 1.2]},
 	},
 	'steatotic-liver': {
@@ -129,10 +136,10 @@ const library = {
 		exponent: 1.1,
 		source:
 			'α0 range: Lin, Ophir & Potter 1988 (Ultrasound Med Biol 14(8):729, attenuation rises ' +
-				'with histological fat; values from memory) and later scanner attenuation studies with ' +
-				'cut-offs of about 0.6–0.7 dB/cm/MHz (from memory, unverified); c: lower than normal ' +
-				'liver, Imbault et al. 2017 (Phys Med Biol 62:3582; values from memory); ρ, n: from ' +
-				'memory',
+			'with histological fat; values from memory) and later scanner attenuation studies with ' +
+			'cut-offs of about 0.6–0.7 dB/cm/MHz (from memory, unverified); c: lower than normal ' +
+			'liver, Imbault et al. 2017 (Phys Med Biol 62:3582; values from memory); ρ, n: from ' +
+			'memory',
 		spread: {speedMps: [1490, 1570], densityKgM3: [1020, 1060], alphaDbPerCmMhz: [0.62, 1], exponent: [1, 1.2]},
 	},
 	kidney: {
@@ -141,7 +148,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 1,
 		exponent: 1,
-		source: 'c: from memory (Fernandes 2025: 1557 ± 17); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: from memory',
+		source:
+			'c: from memory (Fernandes 2025: 1557 ± 17); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: from memory',
 		spread: {speedMps: [1530, 1590], densityKgM3: [1050, 1057], alphaDbPerCmMhz: [0.79, 1]},
 	},
 	spleen: {
@@ -150,7 +158,8 @@ const library = {
 		densityKgM3: 1054,
 		alphaDbPerCmMhz: 0.4,
 		exponent: 1.3,
-		source: 'c: Duck 1990 / Szabo 2004 (from memory); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: Szabo 2004 (from memory)',
+		source:
+			'c: Duck 1990 / Szabo 2004 (from memory); ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table 4; n: Szabo 2004 (from memory)',
 		spread: {speedMps: [1537, 1597], alphaDbPerCmMhz: [0.4, 0.6], exponent: [1, 1.3]},
 	},
 	muscle: {
@@ -159,7 +168,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 0.96,
 		exponent: 1,
-		source: 'c: Sensors 2023 Table A2; ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table ' +
+		source:
+			'c: Sensors 2023 Table A2; ρ: Cardoso & Cowin 2012 Table 3; α0: Diagnostics 2023 Table ' +
 			'4; n ≈ 1: bovine muscle study (Shore et al., from memory)',
 		spread: {speedMps: [1517, 1600], densityKgM3: [1050, 1090], alphaDbPerCmMhz: [0.55, 0.96]},
 	},
@@ -178,7 +188,8 @@ const library = {
 		densityKgM3: 1041,
 		alphaDbPerCmMhz: 0.75,
 		exponent: 1.5,
-		source: 'c: in-vivo tomography via Park 2023 Table 7; ρ, α0: Hasgall 2018 (also Breast USCT 2016 ' +
+		source:
+			'c: in-vivo tomography via Park 2023 Table 7; ρ, α0: Hasgall 2018 (also Breast USCT 2016 ' +
 			'Table I); n: Szabo 2004 (from memory; 1.12–1.36 in Li 2022)',
 		spread: {speedMps: [1490, 1567], densityKgM3: [990, 1092], alphaDbPerCmMhz: [0.67, 0.83], exponent: [1.1, 1.5]},
 	},
@@ -215,7 +226,8 @@ const library = {
 		densityKgM3: 1900,
 		alphaDbPerCmMhz: 13.3,
 		exponent: 1,
-		source: 'c, ρ: within Cardoso & Cowin 2012 Table 3; α0: Pinton et al. 2012 skull bulk value ' +
+		source:
+			'c, ρ: within Cardoso & Cowin 2012 Table 3; α0: Pinton et al. 2012 skull bulk value ' +
 			'(secondary; 15 in Diagnostics 2023 Table 4); n: from memory',
 		spread: {speedMps: [2800, 4000], densityKgM3: [1800, 2200], alphaDbPerCmMhz: [1, 20]},
 	},
@@ -243,7 +255,8 @@ const library = {
 		densityKgM3: 1.204,
 		alphaDbPerCmMhz: 1.6,
 		exponent: 2,
-		source: 'c, ρ: ideal gas (computed; γ and molar mass from memory); α0: ISO 9613-1 classical term (formula from memory)',
+		source:
+			'c, ρ: ideal gas (computed; γ and molar mass from memory); α0: ISO 9613-1 classical term (formula from memory)',
 		spread: {speedMps: [331, 349], densityKgM3: [1.16, 1.29], alphaDbPerCmMhz: [1.6, 12]},
 	},
 	phantom: {
@@ -252,7 +265,8 @@ const library = {
 		densityKgM3: 1050,
 		alphaDbPerCmMhz: 0.5,
 		exponent: 1,
-		source: 'IEC 61391 / IEC 61685 phantom targets 1540 m/s, 0.5 dB/cm/MHz (from memory; measured ' +
+		source:
+			'IEC 61391 / IEC 61685 phantom targets 1540 m/s, 0.5 dB/cm/MHz (from memory; measured ' +
 			'agar TMM: Sun 2012, 1547 m/s, linear in f: Browne 2003); ρ: from memory',
 		spread: {speedMps: [1525, 1555], alphaDbPerCmMhz: [0.45, 0.55]},
 	},

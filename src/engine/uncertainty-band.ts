@@ -28,7 +28,10 @@ import type {EnginePlan, Layer, Range, Tissue} from './types.js';
 
 /** What the band holds and what it leaves out: stated, from here, in every output that shows it. */
 export const bandScopeNote =
-	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's centre frequency at each depth, both ends for tissue harmonic), of speed (depth mapping and boundaries) and of density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.";
+	"Band: each tissue's published spread of attenuation (α0 at least ±20 %; the exponent's end chosen from the echo's " +
+	'centre frequency at each depth, both ends for tissue harmonic), of speed (depth mapping and boundaries) and of ' +
+	'density (boundaries); not included: errors in layer thickness, beam angle, probe frequency, bandwidth or spectrum ' +
+	'shape, B/A, the noise budget, focusing and diffraction, or the scanner itself.';
 
 export type BandEnd = 'low' | 'high';
 
@@ -57,7 +60,9 @@ export function spreadTissue(t: Tissue, corner: SpreadCorner): Tissue {
 	return {
 		...t,
 		alphaDbPerCmMhz:
-			corner.alpha === 'low' ? Math.min(aLo, t.alphaDbPerCmMhz * (1 - minimumAttenuationSpread)) : Math.max(aHi, t.alphaDbPerCmMhz * (1 + minimumAttenuationSpread)),
+			corner.alpha === 'low'
+				? Math.min(aLo, t.alphaDbPerCmMhz * (1 - minimumAttenuationSpread))
+				: Math.max(aHi, t.alphaDbPerCmMhz * (1 + minimumAttenuationSpread)),
 		exponent: corner.exponent === 'low' ? Math.min(nLo, t.exponent) : Math.max(nHi, t.exponent),
 		speedMps: corner.speed === 'low' ? Math.min(cLo, t.speedMps) : Math.max(cHi, t.speedMps),
 	};
@@ -91,7 +96,9 @@ export function boundaryLossRanges(layers: readonly Layer[], angleDeg: number): 
 		const b = layers[i + 1]!.tissue;
 		const incidence = angles[i] ?? 0;
 		const lossOf = (x: Pick<Tissue, 'speedMps' | 'densityKgM3'>, y: Pick<Tissue, 'speedMps' | 'densityKgM3'>) =>
-			angleDeg === 0 ? roundTripTransmissionLossDb(reflectionCoefficient(x, y)) : obliqueRoundTripLossDb(x, y, incidence);
+			angleDeg === 0
+				? roundTripTransmissionLossDb(reflectionCoefficient(x, y))
+				: obliqueRoundTripLossDb(x, y, incidence);
 		const losses = corners(a)
 			.flatMap((x) => corners(b).map((y) => lossOf(x, y)))
 			.filter(Number.isFinite);
@@ -171,7 +178,11 @@ export interface UncertaintyBand {
  * The band of a plan over its display. `centroidAt` gives the nominal echo's centre frequency at a
  * displayed depth; `grid` the depths the band is worked out at (interpolated linearly between).
  */
-export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centroidAt: (displayedCm: number) => number): UncertaintyBand {
+export function uncertaintyBand(
+	plan: EnginePlan,
+	grid: readonly number[],
+	centroidAt: (displayedCm: number) => number,
+): UncertaintyBand {
 	const angle = plan.probe.angleDeg ?? 0;
 	const boundaries = boundaryLossRanges(plan.layers, angle);
 	const crossed = (end: BandEnd): number[] => {
@@ -202,7 +213,8 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 	// The boundaries of the spread layers, so steps in the boundary loss are not smeared.
 	const last = grid[grid.length - 1] ?? 0;
 	for (const speed of ['low', 'high'] as const) {
-		for (const s of modelOf({alpha: speed, exponent: speed, speed}).spans) if (s.shownBottomCm < last) xs.add(s.shownBottomCm);
+		for (const s of modelOf({alpha: speed, exponent: speed, speed}).spans)
+			if (s.shownBottomCm < last) xs.add(s.shownBottomCm);
 	}
 	const depths = [...xs].sort((a, b) => a - b);
 	// Which corners each end is taken over at each depth; each corner's model is then worked out once
@@ -224,7 +236,11 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 	});
 	const pointsOf = new Map<PathModel, Map<number, PathPoint>>();
 	for (const [m, w] of wanted) {
-		const points = pointsAlongDepth(m, w.at.map((k) => depths[k]!), [cornerTolerance, cornerTolerance]);
+		const points = pointsAlongDepth(
+			m,
+			w.at.map((k) => depths[k]!),
+			[cornerTolerance, cornerTolerance],
+		);
 		pointsOf.set(m, new Map(w.at.map((k, i) => [k, points[i]!])));
 	}
 	const lossOf = (end: BandEnd, m: PathModel, k: number): number => {
@@ -248,4 +264,3 @@ export function uncertaintyBand(plan: EnginePlan, grid: readonly number[], centr
 		},
 	};
 }
-

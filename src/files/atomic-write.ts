@@ -12,7 +12,19 @@
  *   and left alone. A replaced file keeps its permission bits.
  */
 import {randomBytes} from 'node:crypto';
-import {closeSync, constants, fchmodSync, fsyncSync, linkSync, lstatSync, openSync, renameSync, unlinkSync, writeSync, type Stats} from 'node:fs';
+import {
+	closeSync,
+	constants,
+	fchmodSync,
+	fsyncSync,
+	linkSync,
+	lstatSync,
+	openSync,
+	renameSync,
+	unlinkSync,
+	writeSync,
+	type Stats,
+} from 'node:fs';
 import {basename, dirname, join} from 'node:path';
 import {FileRefusedError, errnoOf} from './file-errors.js';
 import {describeKind} from './file-kind.js';
@@ -60,12 +72,22 @@ export function entryAt(path: string): Stats | undefined {
 
 export function refuseNonRegular(target: string, stat: Stats): never {
 	const code = stat.isSymbolicLink() ? 'symbolic-link' : 'not-regular';
-	throw new FileRefusedError(code, `${printable(target)}: is ${describeKind(stat)}, not a regular file; refusing to replace it (nothing was written)`);
+	throw new FileRefusedError(
+		code,
+		`${printable(target)}: is ${describeKind(stat)}, not a regular file; refusing to replace it (nothing was written)`,
+	);
 }
 
 function unwritable(target: string, error: unknown): FileRefusedError {
 	const errno = errnoOf(error);
-	const why = errno === 'ENOSPC' ? 'the disk is full' : errno === 'EACCES' || errno === 'EPERM' ? 'permission denied' : errno === 'EROFS' ? 'read-only file system' : (errno ?? (error as Error).message);
+	const why =
+		errno === 'ENOSPC'
+			? 'the disk is full'
+			: errno === 'EACCES' || errno === 'EPERM'
+				? 'permission denied'
+				: errno === 'EROFS'
+					? 'read-only file system'
+					: (errno ?? (error as Error).message);
 	return new FileRefusedError('unwritable', `cannot write ${printable(target)} (${why}); nothing was written`, errno);
 }
 
@@ -73,7 +95,11 @@ function unwritable(target: string, error: unknown): FileRefusedError {
  * Writes `data` to a new temporary file beside `target` and flushes it. The temporary file takes
  * the permission bits of the regular file it will replace (if any).
  */
-export function stageFile(target: string, data: string | Uint8Array, options: {tag?: string; temp?: string} = {}): StagedFile {
+export function stageFile(
+	target: string,
+	data: string | Uint8Array,
+	options: {tag?: string; temp?: string} = {},
+): StagedFile {
 	const existing = entryAt(target);
 	if (existing && !existing.isFile()) refuseNonRegular(target, existing);
 	const temp = options.temp ?? tempPathFor(target, options.tag);

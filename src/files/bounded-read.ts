@@ -7,7 +7,17 @@
  * be a pipe or a device; it is read asynchronously, so Ctrl+C and SIGTERM keep working while it waits.
  */
 import {createHash} from 'node:crypto';
-import {closeSync, constants, createReadStream, fstatSync, lstatSync, openSync, readSync, statSync, type Stats} from 'node:fs';
+import {
+	closeSync,
+	constants,
+	createReadStream,
+	fstatSync,
+	lstatSync,
+	openSync,
+	readSync,
+	statSync,
+	type Stats,
+} from 'node:fs';
 import {FileRefusedError, errnoOf} from './file-errors.js';
 import {describeKind} from './file-kind.js';
 import {printable} from './printable.js';
@@ -56,19 +66,34 @@ export function identityOf(stat: Stats, bytes: Uint8Array): FileIdentity {
 
 function tooLarge(path: string, what: string, maxBytes: number, size?: number): FileRefusedError {
 	const sizeText = size === undefined ? 'larger than' : `${size.toLocaleString('en-US')} bytes; over`;
-	return new FileRefusedError('too-large', `${inputName(path)}: the ${what} is ${sizeText} the limit of ${maxBytes.toLocaleString('en-US')} bytes`);
+	return new FileRefusedError(
+		'too-large',
+		`${inputName(path)}: the ${what} is ${sizeText} the limit of ${maxBytes.toLocaleString('en-US')} bytes`,
+	);
 }
 
 function notRegular(path: string, what: string, stat: Stats): FileRefusedError {
 	const code = stat.isSymbolicLink() ? 'symbolic-link' : 'not-regular';
-	return new FileRefusedError(code, `${inputName(path)}: is ${describeKind(stat)}, not a regular file; give the ${what} as an ordinary file (or - for standard input)`);
+	return new FileRefusedError(
+		code,
+		`${inputName(path)}: is ${describeKind(stat)}, not a regular file; give the ${what} as an ordinary file (or - for standard input)`,
+	);
 }
 
 function cannotRead(path: string, what: string, error: unknown): FileRefusedError {
 	const errno = errnoOf(error);
 	if (errno === 'ENOENT') return new FileRefusedError('not-found', `${inputName(path)}: no such file`, errno);
-	if (errno === 'ELOOP') return new FileRefusedError('symbolic-link', `${inputName(path)}: is a symbolic link, which is not followed here`, errno);
-	return new FileRefusedError('unreadable', `${inputName(path)}: cannot read the ${what}${errno ? ` (${errno})` : ''}`, errno);
+	if (errno === 'ELOOP')
+		return new FileRefusedError(
+			'symbolic-link',
+			`${inputName(path)}: is a symbolic link, which is not followed here`,
+			errno,
+		);
+	return new FileRefusedError(
+		'unreadable',
+		`${inputName(path)}: cannot read the ${what}${errno ? ` (${errno})` : ''}`,
+		errno,
+	);
 }
 
 /**

@@ -11,7 +11,16 @@ import {lstatSync, readdirSync, renameSync} from 'node:fs';
 import {hostname} from 'node:os';
 import {basename, join} from 'node:path';
 import {maxPlanBytes, readRegularFile} from './bounded-read.js';
-import {commitStaged, entryAt, refuseNonRegular, removeQuietly, stageFile, syncFolder, tempPathFor, writeFileAtomic} from './atomic-write.js';
+import {
+	commitStaged,
+	entryAt,
+	refuseNonRegular,
+	removeQuietly,
+	stageFile,
+	syncFolder,
+	tempPathFor,
+	writeFileAtomic,
+} from './atomic-write.js';
 import {FileRefusedError, errnoOf} from './file-errors.js';
 import {heldTag, putBack} from './guarded-change.js';
 import {printable} from './printable.js';
@@ -74,7 +83,11 @@ function finish(dir: string, journal: Journal): void {
  * without it, a name taken at commit time refuses the whole batch.
  * @throws FileRefusedError (`exists`, `not-regular`, `unwritable`, …); the folder is then as before.
  */
-export function commitBatch(dir: string, entries: readonly BatchEntry[], options: {replace: boolean; pause?: BatchPause}): void {
+export function commitBatch(
+	dir: string,
+	entries: readonly BatchEntry[],
+	options: {replace: boolean; pause?: BatchPause},
+): void {
 	const journalPath = join(dir, `.batch.${randomBytes(12).toString('hex')}.journal`);
 	const items: JournalItem[] = entries.map((e) => {
 		const target = join(dir, e.name);
@@ -89,7 +102,8 @@ export function commitBatch(dir: string, entries: readonly BatchEntry[], options
 			const existing = entryAt(target);
 			if (existing) {
 				if (!existing.isFile()) refuseNonRegular(target, existing);
-				if (!options.replace) throw new FileRefusedError('exists', `${printable(target)} already exists; nothing was written`, 'EEXIST');
+				if (!options.replace)
+					throw new FileRefusedError('exists', `${printable(target)} already exists; nothing was written`, 'EEXIST');
 				renameSync(target, join(dir, item.held));
 			}
 			// Exclusive, and the temporary name stays until the end: the journal's proof of what is ours.
@@ -100,7 +114,11 @@ export function commitBatch(dir: string, entries: readonly BatchEntry[], options
 		rollBack(dir, journal);
 		removeQuietly(journalPath);
 		if (error instanceof FileRefusedError) throw error;
-		throw new FileRefusedError('unwritable', `cannot write to ${printable(dir)} (${errnoOf(error) ?? (error as Error).message}); nothing was written`, errnoOf(error));
+		throw new FileRefusedError(
+			'unwritable',
+			`cannot write to ${printable(dir)} (${errnoOf(error) ?? (error as Error).message}); nothing was written`,
+			errnoOf(error),
+		);
 	}
 	// The commit point: from here a crash is finished forwards, not rolled back.
 	writeJournal(journalPath, {...journal, state: 'done'}, false);
@@ -123,8 +141,10 @@ function readJournal(path: string): Journal | undefined {
 		const text = decodeText(readRegularFile(path, {maxBytes: maxPlanBytes, followLinks: false}).bytes);
 		if (!text.ok) return undefined;
 		const value = JSON.parse(text.text) as Journal;
-		const isName = (n: unknown) => typeof n === 'string' && n.length > 0 && !n.includes('/') && !n.includes('\\') && n !== '.' && n !== '..';
-		if (!Array.isArray(value.items) || !value.items.every((i) => isName(i.target) && isName(i.temp) && isName(i.held))) return undefined;
+		const isName = (n: unknown) =>
+			typeof n === 'string' && n.length > 0 && !n.includes('/') && !n.includes('\\') && n !== '.' && n !== '..';
+		if (!Array.isArray(value.items) || !value.items.every((i) => isName(i.target) && isName(i.temp) && isName(i.held)))
+			return undefined;
 		return value;
 	} catch {
 		return undefined;
@@ -161,9 +181,11 @@ export function recoverBatches(dir: string, now = Date.now()): string[] {
 			finish(dir, journal);
 		} else {
 			rollBack(dir, journal);
-			notices.push(`an earlier import of ${journal.items.length} file${journal.items.length === 1 ? '' : 's'} ` +
-				'was interrupted; it was rolled back (nothing from it was kept, nothing it would have ' +
-				'replaced was lost): run it again');
+			notices.push(
+				`an earlier import of ${journal.items.length} file${journal.items.length === 1 ? '' : 's'} ` +
+					'was interrupted; it was rolled back (nothing from it was kept, nothing it would have ' +
+					'replaced was lost): run it again',
+			);
 		}
 		removeQuietly(path);
 	}

@@ -42,7 +42,11 @@ function take(path: string): string | undefined {
 		return held;
 	} catch (error) {
 		if (errnoOf(error) === 'ENOENT') return undefined;
-		throw new FileRefusedError('unwritable', `cannot change ${printable(path)} (${errnoOf(error) ?? 'error'}); nothing was changed`, errnoOf(error));
+		throw new FileRefusedError(
+			'unwritable',
+			`cannot change ${printable(path)} (${errnoOf(error) ?? 'error'}); nothing was changed`,
+			errnoOf(error),
+		);
 	}
 }
 
@@ -80,7 +84,12 @@ export function removeIfUnchanged(path: string, expected: FileIdentity, pause?: 
  * old one's permission bits.
  * @returns `done`, `changed` (left as it is) or `gone` (nothing written: it was deleted meanwhile).
  */
-export function replaceIfUnchanged(path: string, data: string | Uint8Array, expected: FileIdentity, pause?: PausePoint): GuardedOutcome {
+export function replaceIfUnchanged(
+	path: string,
+	data: string | Uint8Array,
+	expected: FileIdentity,
+	pause?: PausePoint,
+): GuardedOutcome {
 	const staged = stageFile(path, data);
 	pause?.('before-take');
 	let held: string | undefined;

@@ -21,7 +21,11 @@ export function parseJsonBytes(path: string, bytes: Uint8Array, identity?: FileI
 	const decoded = decodeText(bytes);
 	if (!decoded.ok) throw new FileRefusedError('encoding', `${inputName(path)}: ${decoded.problem}`);
 	const parsed = parseStrictJson(decoded.text);
-	if (!parsed.ok) throw new FileRefusedError(parsed.kind === 'syntax' ? 'not-json' : 'json-refused', `${inputName(path)}: ${parsed.problem}`);
+	if (!parsed.ok)
+		throw new FileRefusedError(
+			parsed.kind === 'syntax' ? 'not-json' : 'json-refused',
+			`${inputName(path)}: ${parsed.problem}`,
+		);
 	return {value: parsed.value, text: decoded.text, ...(identity ? {identity} : {})};
 }
 
@@ -36,4 +40,3 @@ export function readJsonFile(path: string, limits: ReadLimits): JsonDocument {
 	const read = readRegularFile(path, limits);
 	return parseJsonBytes(path, read.bytes, read.identity);
 }
-

@@ -19,7 +19,11 @@ export function checkOwnedFolder(path: string, options: {create: boolean}): bool
 			mkdirSync(path, {recursive: true, mode: 0o700});
 		} catch (error) {
 			if (errnoOf(error) !== 'EEXIST') {
-				throw new FileRefusedError('unwritable', `cannot create the folder ${printable(path)} (${errnoOf(error) ?? 'error'})`, errnoOf(error));
+				throw new FileRefusedError(
+					'unwritable',
+					`cannot create the folder ${printable(path)} (${errnoOf(error) ?? 'error'})`,
+					errnoOf(error),
+				);
 			}
 		}
 	}
@@ -28,7 +32,11 @@ export function checkOwnedFolder(path: string, options: {create: boolean}): bool
 		stat = lstatSync(path);
 	} catch (error) {
 		if (errnoOf(error) === 'ENOENT') return false;
-		throw new FileRefusedError('unreadable', `cannot use the folder ${printable(path)} (${errnoOf(error) ?? 'error'})`, errnoOf(error));
+		throw new FileRefusedError(
+			'unreadable',
+			`cannot use the folder ${printable(path)} (${errnoOf(error) ?? 'error'})`,
+			errnoOf(error),
+		);
 	}
 	if (!stat.isDirectory()) {
 		throw new FileRefusedError(
@@ -40,7 +48,10 @@ export function checkOwnedFolder(path: string, options: {create: boolean}): bool
 	}
 	const uid = process.getuid?.();
 	if (uid !== undefined && stat.uid !== uid) {
-		throw new FileRefusedError('not-owned', `${printable(path)} belongs to another user (uid ${stat.uid}); evenecho keeps its store only in folders of your own`);
+		throw new FileRefusedError(
+			'not-owned',
+			`${printable(path)} belongs to another user (uid ${stat.uid}); evenecho keeps its store only in folders of your own`,
+		);
 	}
 	return true;
 }

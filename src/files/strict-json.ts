@@ -69,7 +69,8 @@ function scanKeys(text: string): string | undefined {
 			const top = stack.at(-1);
 			if (top?.isObject && top.expectKey) {
 				const key = JSON.parse(text.slice(i, end + 1)) as string;
-				if (top.keys.has(key)) return `${pathText(top.path)}: the key "${printable(key, 60)}" appears more than once; keep one`;
+				if (top.keys.has(key))
+					return `${pathText(top.path)}: the key "${printable(key, 60)}" appears more than once; keep one`;
 				top.keys.add(key);
 				top.key = key;
 				top.expectKey = false;
@@ -87,11 +88,14 @@ function checkValues(root: unknown): string | undefined {
 		const {value, path} = stack.pop()!;
 		if (typeof value === 'string') {
 			const found = findUnsafeCharacter(value, {multiline: true});
-			if (found) return `${pathText(path)}: contains a control or invisible formatting character (${found}), which text here may not hold`;
+			if (found)
+				return `${pathText(path)}: contains a control or invisible formatting character (${found}), which text here may not hold`;
 			continue;
 		}
 		if (value === null || typeof value !== 'object') continue;
-		const entries: Array<[string, unknown]> = Array.isArray(value) ? value.map((v, i) => [String(i), v]) : Object.entries(value);
+		const entries: Array<[string, unknown]> = Array.isArray(value)
+			? value.map((v, i) => [String(i), v])
+			: Object.entries(value);
 		for (const [key, child] of entries) {
 			if (!Array.isArray(value)) {
 				if (forbiddenKeys.has(key)) return `${pathText([...path, key])}: the key "${key}" is not allowed`;

@@ -14,7 +14,9 @@ export function readImageBytes(path: string, label = path, maxBytes: number = im
 	} catch (error) {
 		if (error instanceof FileRefusedError) {
 			// The file layer names the path itself; keep the message, name the image as the session does.
-			const problem = error.message.includes(': ') ? error.message.slice(error.message.indexOf(': ') + 2) : error.message;
+			const problem = error.message.includes(': ')
+				? error.message.slice(error.message.indexOf(': ') + 2)
+				: error.message;
 			throw new ImageRefusal(label, problem);
 		}
 		throw error;

@@ -65,8 +65,14 @@ function parse(bytes: Uint8Array, label: string): DataSet {
 	try {
 		return dicomParser.parseDicom(bytes);
 	} catch (error) {
-		const text = typeof error === 'string' ? error : ((error as {exception?: string})?.exception ?? (error as Error)?.message ?? 'unreadable');
-		throw new ImageRefusal(label, `is not a readable DICOM Part 10 file, or is truncated (${String(text).slice(0, 160)})`);
+		const text =
+			typeof error === 'string'
+				? error
+				: ((error as {exception?: string})?.exception ?? (error as Error)?.message ?? 'unreadable');
+		throw new ImageRefusal(
+			label,
+			`is not a readable DICOM Part 10 file, or is truncated (${String(text).slice(0, 160)})`,
+		);
 	}
 }
 
@@ -84,13 +90,19 @@ export function readDicomImage(bytes: Uint8Array, label: string, options: DicomR
 	if (!isJpeg && !nativeSyntaxes[syntax]) {
 		const known = knownOthers[syntax];
 		const what = known ? `${syntax} (${known})` : syntax || '(empty)';
-		const hint = known?.includes('video') ? 'video has no decoder here: export a still image' : 'export as uncompressed or JPEG baseline (1.2.840.10008.1.2.4.50)';
+		const hint = known?.includes('video')
+			? 'video has no decoder here: export a still image'
+			: 'export as uncompressed or JPEG baseline (1.2.840.10008.1.2.4.50)';
 		throw new ImageRefusal(at(field.syntax), `is ${what}, which evenecho cannot decode; ${hint}`);
 	}
 	const rows = requireUint16(ds, 'x00280010', at(field.rows));
 	const columns = requireUint16(ds, 'x00280011', at(field.columns));
-	for (const [n, name] of [[rows, field.rows], [columns, field.columns]] as const) {
-		if (n < 1 || n > imageLimits.maxSidePx) throw new ImageRefusal(at(name), `is ${n}; images up to ${imageLimits.maxSidePx} pixels a side are read`);
+	for (const [n, name] of [
+		[rows, field.rows],
+		[columns, field.columns],
+	] as const) {
+		if (n < 1 || n > imageLimits.maxSidePx)
+			throw new ImageRefusal(at(name), `is ${n}; images up to ${imageLimits.maxSidePx} pixels a side are read`);
 	}
 	const samples = ds.uint16('x00280002') ?? 1;
 	const photometric = (ds.string('x00280004') ?? '').trim().toUpperCase();
@@ -100,11 +112,17 @@ export function readDicomImage(bytes: Uint8Array, label: string, options: DicomR
 	let frameIndex = 0;
 	if (options.frame !== undefined) {
 		if (!Number.isInteger(options.frame) || options.frame < 1 || options.frame > frames) {
-			throw new ImageRefusal(at(field.frames), `is ${frames}; the frame chosen (${options.frame}) must be a whole number from 1 to ${frames}`);
+			throw new ImageRefusal(
+				at(field.frames),
+				`is ${frames}; the frame chosen (${options.frame}) must be a whole number from 1 to ${frames}`,
+			);
 		}
 		frameIndex = options.frame - 1;
 	} else if (frames > 1) {
-		throw new ImageRefusal(at(field.frames), `is ${frames}; choose one frame (from 1 to ${frames}) with --frame or "frame" in the session`);
+		throw new ImageRefusal(
+			at(field.frames),
+			`is ${frames}; choose one frame (from 1 to ${frames}) with --frame or "frame" in the session`,
+		);
 	}
 	const pixelElement = ds.elements['x7fe00010'];
 	if (!pixelElement) throw new ImageRefusal(at(field.pixelData), 'is missing');
@@ -113,8 +131,24 @@ export function readDicomImage(bytes: Uint8Array, label: string, options: DicomR
 	if (isJpeg) {
 		plane = decodeJpegFrame(ds, pixelElement, frameIndex, photometric, columns, rows, at);
 	} else {
-		if (bitsAllocated !== 8 && bitsAllocated !== 16) throw new ImageRefusal(at(field.bitsAllocated), `is ${bitsAllocated}; 8 or 16 are read`);
-		plane = decodeNative(ds, bytes, pixelElement, {rows, columns, samples, photometric, bitsAllocated, bitsStored, frameIndex, bigEndian: syntax === '1.2.840.10008.1.2.2'}, at);
+		if (bitsAllocated !== 8 && bitsAllocated !== 16)
+			throw new ImageRefusal(at(field.bitsAllocated), `is ${bitsAllocated}; 8 or 16 are read`);
+		plane = decodeNative(
+			ds,
+			bytes,
+			pixelElement,
+			{
+				rows,
+				columns,
+				samples,
+				photometric,
+				bitsAllocated,
+				bitsStored,
+				frameIndex,
+				bigEndian: syntax === '1.2.840.10008.1.2.2',
+			},
+			at,
+		);
 	}
 
 	const notes: string[] = [];
@@ -123,13 +157,26 @@ export function readDicomImage(bytes: Uint8Array, label: string, options: DicomR
 	if (hasRegionSequence(ds)) {
 		const r = tissueRegion(ds, columns, rows);
 		if (r.othersIgnored) notes.push(`${r.othersIgnored + 1} tissue regions; the largest is measured`);
-		return {width: columns, height: rows, grey: plane.grey, mask: plane.mask, region: r.rect, rows: {originCm: r.originCm, cmPerRow: r.cmPerRow}, cmPerColumn: r.cmPerColumn, depthScaleFrom: 'ultrasound-region', notes};
+		return {
+			width: columns,
+			height: rows,
+			grey: plane.grey,
+			mask: plane.mask,
+			region: r.rect,
+			rows: {originCm: r.originCm, cmPerRow: r.cmPerRow},
+			cmPerColumn: r.cmPerColumn,
+			depthScaleFrom: 'ultrasound-region',
+			notes,
+		};
 	}
 	if (!options.pixelScale) {
-		throw new ImageRefusal(at('(0018,6011) Sequence of Ultrasound Regions'), 'is missing and the session gives no pixelScale; give a calibrated still or pixelScale (cmPerPixel, topRowCm)');
+		throw new ImageRefusal(
+			at('(0018,6011) Sequence of Ultrasound Regions'),
+			'is missing and the session gives no pixelScale; give a calibrated still or pixelScale (cmPerPixel, topRowCm)',
+		);
 	}
 	const s = options.pixelScale;
-	notes.push('no ultrasound region: the whole image is measured with the session\'s pixelScale');
+	notes.push("no ultrasound region: the whole image is measured with the session's pixelScale");
 	return {
 		width: columns,
 		height: rows,
@@ -154,20 +201,34 @@ interface NativeLayout {
 	readonly bigEndian: boolean;
 }
 
-function decodeNative(ds: DataSet, bytes: Uint8Array, el: Element, l: NativeLayout, at: (n: string) => string): GreyPlane {
+function decodeNative(
+	ds: DataSet,
+	bytes: Uint8Array,
+	el: Element,
+	l: NativeLayout,
+	at: (n: string) => string,
+): GreyPlane {
 	const n = l.rows * l.columns;
 	const bytesPerSample = l.bitsAllocated / 8;
 	const ybr422 = l.photometric === 'YBR_FULL_422';
 	const frameBytes = ybr422 ? n * 2 * bytesPerSample : n * l.samples * bytesPerSample;
-	if (el.encapsulatedPixelData) throw new ImageRefusal(at(field.pixelData), 'is encapsulated but the transfer syntax says native');
+	if (el.encapsulatedPixelData)
+		throw new ImageRefusal(at(field.pixelData), 'is encapsulated but the transfer syntax says native');
 	const start = el.dataOffset + l.frameIndex * frameBytes;
 	const available = Math.min(el.length, bytes.length - el.dataOffset) - l.frameIndex * frameBytes;
 	if (!(el.length > 0) || available < frameBytes) {
-		throw new ImageRefusal(at(field.pixelData), `holds ${Math.max(0, available)} bytes for this frame but ${l.columns} × ${l.rows} pixels need ${frameBytes}; the file is truncated`);
+		throw new ImageRefusal(
+			at(field.pixelData),
+			`holds ${Math.max(0, available)} bytes for this frame but ${l.columns} × ${l.rows} pixels need ${frameBytes}; the file is truncated`,
+		);
 	}
 	const raw = bytes.subarray(start, start + frameBytes);
 	const sample = (i: number): number =>
-		bytesPerSample === 1 ? raw[i]! : l.bigEndian ? (raw[2 * i]! << 8) | raw[2 * i + 1]! : raw[2 * i]! | (raw[2 * i + 1]! << 8);
+		bytesPerSample === 1
+			? raw[i]!
+			: l.bigEndian
+				? (raw[2 * i]! << 8) | raw[2 * i + 1]!
+				: raw[2 * i]! | (raw[2 * i + 1]! << 8);
 	const maxValue = 2 ** Math.min(l.bitsStored, l.bitsAllocated) - 1;
 	const to255 = 255 / maxValue;
 	const needSamples = (k: number) => {
@@ -186,17 +247,21 @@ function decodeNative(ds: DataSet, bytes: Uint8Array, el: Element, l: NativeLayo
 			const planar = ds.uint16('x00280006') ?? 0;
 			if (planar !== 0 && planar !== 1) throw new ImageRefusal(at(field.planar), `is ${planar}; 0 or 1`);
 			const idx = planar === 0 ? (i: number, c: number) => 3 * i + c : (i: number, c: number) => c * n + i;
-			if (l.photometric === 'RGB' && planar === 0 && bytesPerSample === 1) return greyFromInterleavedRgb(l.columns, l.rows, raw);
+			if (l.photometric === 'RGB' && planar === 0 && bytesPerSample === 1)
+				return greyFromInterleavedRgb(l.columns, l.rows, raw);
 			if (l.photometric === 'RGB') {
 				return greyFromRgb(l.columns, l.rows, (i, out) => {
 					for (let c = 0; c < 3; c++) out[c] = sample(idx(i, c)) * to255;
 				});
 			}
-			return greyFromRgb(l.columns, l.rows, (i, out) => ybrToRgb(sample(idx(i, 0)) * to255, sample(idx(i, 1)) * to255, sample(idx(i, 2)) * to255, out));
+			return greyFromRgb(l.columns, l.rows, (i, out) =>
+				ybrToRgb(sample(idx(i, 0)) * to255, sample(idx(i, 1)) * to255, sample(idx(i, 2)) * to255, out),
+			);
 		}
 		case 'YBR_FULL_422': {
 			needSamples(3);
-			if (l.columns % 2) throw new ImageRefusal(at(field.columns), `is ${l.columns}; YBR_FULL_422 needs an even number of columns`);
+			if (l.columns % 2)
+				throw new ImageRefusal(at(field.columns), `is ${l.columns}; YBR_FULL_422 needs an even number of columns`);
 			// Pairs of pixels share chroma: Y1 Y2 Cb Cr (PS3.3 C.7.6.3.1.2).
 			return greyFromRgb(l.columns, l.rows, (i, out) => {
 				const pair = i >> 1;
@@ -215,12 +280,18 @@ function decodeNative(ds: DataSet, bytes: Uint8Array, el: Element, l: NativeLayo
 			});
 		}
 		default:
-			throw new ImageRefusal(at(field.photometric), `is "${l.photometric}"; MONOCHROME1, MONOCHROME2, RGB, YBR_FULL, YBR_FULL_422 and PALETTE COLOR are read`);
+			throw new ImageRefusal(
+				at(field.photometric),
+				`is "${l.photometric}"; MONOCHROME1, MONOCHROME2, RGB, YBR_FULL, YBR_FULL_422 and PALETTE COLOR are read`,
+			);
 	}
 }
 
 /** The three palette tables on 0–255 (16-bit entries shifted right by 8). */
-function paletteTables(ds: DataSet, at: (n: string) => string): {entries: number; first: number; red: Float32Array; green: Float32Array; blue: Float32Array} {
+function paletteTables(
+	ds: DataSet,
+	at: (n: string) => string,
+): {entries: number; first: number; red: Float32Array; green: Float32Array; blue: Float32Array} {
 	const channel = (descriptorTag: string, dataTag: string, name: string) => {
 		const el = ds.elements[descriptorTag];
 		if (!el || el.length < 6) throw new ImageRefusal(at(name), 'is missing');
@@ -231,7 +302,8 @@ function paletteTables(ds: DataSet, at: (n: string) => string): {entries: number
 		if (!data) throw new ImageRefusal(at(name.replace('Descriptor', 'Data')), 'is missing');
 		const table = new Float32Array(entries);
 		const wide = bits > 8;
-		if (data.length < entries * (wide ? 2 : 1)) throw new ImageRefusal(at(name.replace('Descriptor', 'Data')), `is shorter than its ${entries} entries`);
+		if (data.length < entries * (wide ? 2 : 1))
+			throw new ImageRefusal(at(name.replace('Descriptor', 'Data')), `is shorter than its ${entries} entries`);
 		for (let k = 0; k < entries; k++) {
 			table[k] = wide ? (ds.uint16(dataTag, k) ?? 0) >> 8 : ds.byteArray[data.dataOffset + k]!;
 		}
@@ -240,7 +312,13 @@ function paletteTables(ds: DataSet, at: (n: string) => string): {entries: number
 	const r = channel('x00281101', 'x00281201', field.palette);
 	const g = channel('x00281102', 'x00281202', '(0028,1102) Green Palette Color Lookup Table Descriptor');
 	const b = channel('x00281103', 'x00281203', '(0028,1103) Blue Palette Color Lookup Table Descriptor');
-	return {entries: Math.min(r.entries, g.entries, b.entries), first: r.first, red: r.table, green: g.table, blue: b.table};
+	return {
+		entries: Math.min(r.entries, g.entries, b.entries),
+		first: r.first,
+		red: r.table,
+		green: g.table,
+		blue: b.table,
+	};
 }
 
 /** Start-of-frame dimensions of a JPEG stream, read before decoding so a size claim over the cap is refused. */
@@ -262,7 +340,15 @@ function jpegFrameSize(data: Uint8Array): {width: number; height: number} | unde
 	return undefined;
 }
 
-function decodeJpegFrame(ds: DataSet, el: Element, frameIndex: number, photometric: string, columns: number, rows: number, at: (n: string) => string): GreyPlane {
+function decodeJpegFrame(
+	ds: DataSet,
+	el: Element,
+	frameIndex: number,
+	photometric: string,
+	columns: number,
+	rows: number,
+	at: (n: string) => string,
+): GreyPlane {
 	let data: Uint8Array;
 	try {
 		const fragments = el.fragments ?? [];
@@ -278,15 +364,27 @@ function decodeJpegFrame(ds: DataSet, el: Element, frameIndex: number, photometr
 	const size = jpegFrameSize(data);
 	if (!size) throw new ImageRefusal(at(field.pixelData), 'is not a JPEG baseline stream (no frame header)');
 	if (size.width > imageLimits.maxSidePx || size.height > imageLimits.maxSidePx) {
-		throw new ImageRefusal(at(field.pixelData), `claims ${size.width} × ${size.height} pixels; images up to ${imageLimits.maxSidePx} pixels a side are read`);
+		throw new ImageRefusal(
+			at(field.pixelData),
+			`claims ${size.width} × ${size.height} pixels; images up to ${imageLimits.maxSidePx} pixels a side are read`,
+		);
 	}
 	if (size.width !== columns || size.height !== rows) {
-		throw new ImageRefusal(at(field.pixelData), `JPEG frame is ${size.width} × ${size.height} but Columns × Rows say ${columns} × ${rows}`);
+		throw new ImageRefusal(
+			at(field.pixelData),
+			`JPEG frame is ${size.width} × ${size.height} but Columns × Rows say ${columns} × ${rows}`,
+		);
 	}
 	let decoded: {width: number; height: number; data: Uint8Array};
 	try {
 		// PI = RGB means the JPEG holds RGB, so no YCbCr → RGB transform (jpeg-js would apply one).
-		decoded = jpeg.decode(data, {useTArray: true, formatAsRGBA: false, ...(photometric === 'RGB' ? {colorTransform: false} : {}), maxResolutionInMP: 70, maxMemoryUsageInMB: 512});
+		decoded = jpeg.decode(data, {
+			useTArray: true,
+			formatAsRGBA: false,
+			...(photometric === 'RGB' ? {colorTransform: false} : {}),
+			maxResolutionInMP: 70,
+			maxMemoryUsageInMB: 512,
+		});
 	} catch (error) {
 		throw new ImageRefusal(at(field.pixelData), `JPEG frame cannot be decoded (${messageOf(error)})`);
 	}

@@ -55,7 +55,8 @@ function fieldName(key: TagKey): string {
 
 function required(key: TagKey, read: (tag: string) => number | undefined): number {
 	const value = read(tags[key][0]);
-	if (value === undefined || !Number.isFinite(value)) throw new ImageRefusal(fieldName(key), 'is missing from the tissue region');
+	if (value === undefined || !Number.isFinite(value))
+		throw new ImageRefusal(fieldName(key), 'is missing from the tissue region');
 	return value;
 }
 
@@ -74,26 +75,41 @@ export function tissueRegion(dataSet: DataSet, columns: number, rows: number): T
 	const candidates = items
 		.map((item) => item.dataSet)
 		.filter((d): d is DataSet => d !== undefined)
-		.filter((d) => d.uint16(tags.spatialFormat[0]) === spatialFormat2d && d.uint16(tags.dataType[0]) === dataTypeTissue);
+		.filter(
+			(d) => d.uint16(tags.spatialFormat[0]) === spatialFormat2d && d.uint16(tags.dataType[0]) === dataTypeTissue,
+		);
 	if (!candidates.length) {
 		throw new ImageRefusal(
 			regionSequenceField,
-			items.length ? 'has no 2-D tissue region (Region Spatial Format 1 with Region Data Type 1)' : 'is missing; give a calibrated still or pixelScale in the session',
+			items.length
+				? 'has no 2-D tissue region (Region Spatial Format 1 with Region Data Type 1)'
+				: 'is missing; give a calibrated still or pixelScale in the session',
 		);
 	}
 	const measured = candidates.map((d) => {
 		const u32 = (t: string) => d.uint32(t);
-		const rect = {x0: required('minX0', u32), y0: required('minY0', u32), x1: required('maxX1', u32), y1: required('maxY1', u32)};
+		const rect = {
+			x0: required('minX0', u32),
+			y0: required('minY0', u32),
+			x1: required('maxX1', u32),
+			y1: required('maxY1', u32),
+		};
 		return {d, rect, area: Math.max(0, rect.x1 - rect.x0 + 1) * Math.max(0, rect.y1 - rect.y0 + 1)};
 	});
 	measured.sort((a, b) => b.area - a.area);
 	const {d, rect} = measured[0]!;
 	const within = `the pixel matrix is ${columns} × ${rows} (Columns × Rows)`;
 	if (rect.x1 < rect.x0 || rect.x1 >= columns) {
-		throw new ImageRefusal(fieldName('maxX1'), `is ${rect.x1} with Min X0 ${rect.x0}; the region must lie inside the image, and ${within}`);
+		throw new ImageRefusal(
+			fieldName('maxX1'),
+			`is ${rect.x1} with Min X0 ${rect.x0}; the region must lie inside the image, and ${within}`,
+		);
 	}
 	if (rect.y1 < rect.y0 || rect.y1 >= rows) {
-		throw new ImageRefusal(fieldName('maxY1'), `is ${rect.y1} with Min Y0 ${rect.y0}; the region must lie inside the image, and ${within}`);
+		throw new ImageRefusal(
+			fieldName('maxY1'),
+			`is ${rect.y1} with Min Y0 ${rect.y0}; the region must lie inside the image, and ${within}`,
+		);
 	}
 	const unitsY = required('unitsY', (t) => d.uint16(t));
 	if (unitsY !== unitsCm) throw new ImageRefusal(fieldName('unitsY'), `is ${unitsY}; depth needs 3 (cm)`);
@@ -104,7 +120,10 @@ export function tissueRegion(dataSet: DataSet, columns: number, rows: number): T
 	const deltaX = required('deltaX', (t) => d.double(t));
 	if (!(deltaX > 0)) throw new ImageRefusal(fieldName('deltaX'), `is ${deltaX}; must be above 0 cm per pixel`);
 	if (Math.abs(Math.abs(deltaX) / deltaY - 1) > squarePixelTolerance) {
-		throw new ImageRefusal(fieldName('deltaX'), `is ${deltaX} cm against Physical Delta Y ${deltaY} cm; pixels must be square within 5 %`);
+		throw new ImageRefusal(
+			fieldName('deltaX'),
+			`is ${deltaX} cm against Physical Delta Y ${deltaY} cm; pixels must be square within 5 %`,
+		);
 	}
 	const refY0 = required('refY0', (t) => d.int32(t));
 	// Absent reference values mean the origin sits at the reference pixel (value 0).

@@ -19,7 +19,12 @@ export interface GreyPlane {
 }
 
 /** Grey from one sample per pixel, scaled to 0–255 from `maxValue`; nothing masked. */
-export function greyFromMonochrome(samples: ArrayLike<number>, count: number, maxValue: number, invert: boolean): GreyPlane {
+export function greyFromMonochrome(
+	samples: ArrayLike<number>,
+	count: number,
+	maxValue: number,
+	invert: boolean,
+): GreyPlane {
 	const grey = new Float32Array(count);
 	const scale = 255 / maxValue;
 	// 8-bit MONOCHROME2, the usual export: a native copy, no per-pixel work.

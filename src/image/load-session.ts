@@ -29,7 +29,9 @@ export interface LoadOptions {
 export function readSessionDocument(path: string): ScannerSession {
 	let text: string;
 	try {
-		text = readRegularFile(path, {maxBytes: maxPlanBytes, what: 'session file'}).bytes.toString('utf8').replace(/^\uFEFF/, '');
+		text = readRegularFile(path, {maxBytes: maxPlanBytes, what: 'session file'})
+			.bytes.toString('utf8')
+			.replace(/^\uFEFF/, '');
 	} catch (error) {
 		if (error instanceof FileRefusedError) throw new CalibrationRefusal('session', error.message);
 		throw error;
@@ -48,15 +50,38 @@ export function loadSessionImages(session: ScannerSession, baseDir: string, opti
 		const path = isAbsolute(entry.image) ? entry.image : resolve(baseDir, entry.image);
 		const frame = entry.frame ?? options.frame;
 		try {
-			return readImageFile(path, {label: entry.image, ...(frame !== undefined ? {frame} : {}), ...(session.pixelScale ? {pixelScale: session.pixelScale} : {})});
+			return readImageFile(path, {
+				label: entry.image,
+				...(frame !== undefined ? {frame} : {}),
+				...(session.pixelScale ? {pixelScale: session.pixelScale} : {}),
+			});
 		} catch (error) {
 			if (error instanceof ImageRefusal) throw new CalibrationRefusal(`${field}.image`, error.message);
 			throw error;
 		}
 	};
-	const gainSteps: CalibrationImage[] = session.gainSteps.map((g, i) => ({name: g.image, field: `gainSteps.${i}`, image: read(`gainSteps.${i}`, g), masterGainDb: g.masterGainDb}));
-	const probeInAir = session.probeInAir ? {name: session.probeInAir.image, field: 'probeInAir', image: read('probeInAir', session.probeInAir), masterGainDb: session.probeInAir.masterGainDb} : undefined;
-	const sliderSteps = (session.sliderSteps ?? []).map((s, i) => ({name: s.image, field: `sliderSteps.${i}`, image: read(`sliderSteps.${i}`, s), masterGainDb: s.masterGainDb, slider: s.slider, position: s.position}));
+	const gainSteps: CalibrationImage[] = session.gainSteps.map((g, i) => ({
+		name: g.image,
+		field: `gainSteps.${i}`,
+		image: read(`gainSteps.${i}`, g),
+		masterGainDb: g.masterGainDb,
+	}));
+	const probeInAir = session.probeInAir
+		? {
+				name: session.probeInAir.image,
+				field: 'probeInAir',
+				image: read('probeInAir', session.probeInAir),
+				masterGainDb: session.probeInAir.masterGainDb,
+			}
+		: undefined;
+	const sliderSteps = (session.sliderSteps ?? []).map((s, i) => ({
+		name: s.image,
+		field: `sliderSteps.${i}`,
+		image: read(`sliderSteps.${i}`, s),
+		masterGainDb: s.masterGainDb,
+		slider: s.slider,
+		position: s.position,
+	}));
 	const decodeMs = performance.now() - started;
 	return {
 		session,

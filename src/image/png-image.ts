@@ -31,14 +31,21 @@ function headerSize(bytes: Uint8Array, label: string): {width: number; height: n
 export function readPngImage(bytes: Uint8Array, label: string, pixelScale: PixelScale | undefined): PhantomImage {
 	const {width, height} = headerSize(bytes, label);
 	if (width < 1 || height < 1 || width > imageLimits.maxSidePx || height > imageLimits.maxSidePx) {
-		throw new ImageRefusal(`${label}: PNG header (IHDR) width × height`, `claims ${width} × ${height} pixels; images from 1 to ${imageLimits.maxSidePx} pixels a side are read`);
+		throw new ImageRefusal(
+			`${label}: PNG header (IHDR) width × height`,
+			`claims ${width} × ${height} pixels; images from 1 to ${imageLimits.maxSidePx} pixels a side are read`,
+		);
 	}
-	if (!pixelScale) throw new ImageRefusal('pixelScale', `is needed for the PNG image ${label} (cmPerPixel and topRowCm)`);
+	if (!pixelScale)
+		throw new ImageRefusal('pixelScale', `is needed for the PNG image ${label} (cmPerPixel and topRowCm)`);
 	let png: ReturnType<typeof decode>;
 	try {
 		png = decode(bytes);
 	} catch (error) {
-		throw new ImageRefusal(label, `is not a readable PNG (${String((error as Error)?.message ?? error).slice(0, 160)})`);
+		throw new ImageRefusal(
+			label,
+			`is not a readable PNG (${String((error as Error)?.message ?? error).slice(0, 160)})`,
+		);
 	}
 	const plane = pngPlane(png, label);
 	const notes = plane.colouredPixels ? [`${plane.colouredPixels} coloured pixels masked`] : [];

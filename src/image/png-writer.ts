@@ -17,5 +17,12 @@ function latin1(text: string): string {
 /** PNG bytes; `text` becomes tEXt chunks (keywords as PNG defines, e.g. Description). */
 export function encodePng(image: PixelImage, text: Record<string, string> = {}): Uint8Array {
 	const chunks = Object.fromEntries(Object.entries(text).map(([k, v]) => [k, latin1(v)]));
-	return encode({width: image.width, height: image.height, data: image.data, depth: 8, channels: image.channels, text: chunks});
+	return encode({
+		width: image.width,
+		height: image.height,
+		data: image.data,
+		depth: 8,
+		channels: image.channels,
+		text: chunks,
+	});
 }

@@ -18,7 +18,9 @@ export interface ReadImageOptions {
 }
 
 function isDicomPart10(bytes: Uint8Array): boolean {
-	return bytes.length >= 132 && bytes[128] === 0x44 && bytes[129] === 0x49 && bytes[130] === 0x43 && bytes[131] === 0x4d;
+	return (
+		bytes.length >= 132 && bytes[128] === 0x44 && bytes[129] === 0x49 && bytes[130] === 0x43 && bytes[131] === 0x4d
+	);
 }
 
 export function decodeImage(bytes: Uint8Array, options: ReadImageOptions = {}): PhantomImage {

@@ -30,7 +30,8 @@ export function parseAppliedSettings(input: unknown, plan: EnginePlan): ParseRes
 		errors.push(`sliders: has ${r.data.sliders.length} values; the plan's slider bank has ${count} (sliders.count)`);
 	}
 	r.data.sliders.forEach((v, k) => {
-		if (v < minDb || v > maxDb) errors.push(`sliders.${k}: ${v} dB is outside the plan's slider range ${minDb} to ${maxDb} dB`);
+		if (v < minDb || v > maxDb)
+			errors.push(`sliders.${k}: ${v} dB is outside the plan's slider range ${minDb} to ${maxDb} dB`);
 	});
 	const {minDb: mLo, maxDb: mHi} = plan.masterGain;
 	if (r.data.masterGainDb < mLo || r.data.masterGainDb > mHi) {

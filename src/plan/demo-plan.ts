@@ -11,7 +11,10 @@ export const demoPlanJson = {
 	region: 'upper-abdomen',
 	note: 'Invented demo patient "Bed 7, Ward Heron": 5 cm subcutaneous fat over the right lobe.',
 	layers: [
-		{tissue: {label: 'stand-off pad', speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.3, exponent: 1}, thicknessCm: 1},
+		{
+			tissue: {label: 'stand-off pad', speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.3, exponent: 1},
+			thicknessCm: 1,
+		},
 		{tissue: 'fat', thicknessCm: 5},
 		{tissue: 'muscle', thicknessCm: 1.2},
 		{tissue: 'liver', thicknessCm: 20},

@@ -17,6 +17,14 @@ const round = (x: number) => Math.round(x * 1000) / 1000;
 
 export function planWithMeasuredLayer(doc: PlanDocument, a: MeasuredAttenuation): PlanDocument {
 	const alpha = round(a.alphaDbPerCmMhz);
-	const measuredAlpha = {alphaDbPerCmMhz: alpha, lowDbPerCmMhz: Math.min(alpha, round(a.low)), highDbPerCmMhz: Math.max(alpha, round(a.high))};
-	return {...doc, format: planFormat, layers: doc.layers.map((l, i) => (i === a.layerIndex ? {...l, measuredAlpha} : l))};
+	const measuredAlpha = {
+		alphaDbPerCmMhz: alpha,
+		lowDbPerCmMhz: Math.min(alpha, round(a.low)),
+		highDbPerCmMhz: Math.max(alpha, round(a.high)),
+	};
+	return {
+		...doc,
+		format: planFormat,
+		layers: doc.layers.map((l, i) => (i === a.layerIndex ? {...l, measuredAlpha} : l)),
+	};
 }

@@ -18,7 +18,8 @@ export function clonePlan(doc: PlanDocument): PlanDocument {
 /** Where a missing fat layer goes: below any skin or custom pad layers at the top. */
 function fatInsertIndex(doc: PlanDocument): number {
 	let i = 0;
-	while (i < doc.layers.length - 1 && (doc.layers[i]!.tissue === 'skin' || typeof doc.layers[i]!.tissue !== 'string')) i++;
+	while (i < doc.layers.length - 1 && (doc.layers[i]!.tissue === 'skin' || typeof doc.layers[i]!.tissue !== 'string'))
+		i++;
 	return i;
 }
 
@@ -34,7 +35,11 @@ export function setFatThickness(doc: PlanDocument, cm: number): PlanDocument {
 /** A new layer of generic soft tissue, 1 cm, just below `index`. */
 export function addLayer(doc: PlanDocument, index: number): PlanDocument {
 	const next = clonePlan(doc);
-	next.layers.splice(Math.min(index + 1, next.layers.length), 0, {tissue: 'soft-tissue', thicknessCm: 1, thicknessAs: 'displayed'});
+	next.layers.splice(Math.min(index + 1, next.layers.length), 0, {
+		tissue: 'soft-tissue',
+		thicknessCm: 1,
+		thicknessAs: 'displayed',
+	});
 	return next;
 }
 

@@ -41,7 +41,8 @@ export function migrateHarmonicFlag(input: unknown): unknown {
 	if (harmonic) {
 		const cal = input['phantomCalibration'];
 		if (isRecord(cal) && !('receive' in cal)) out['phantomCalibration'] = {...cal, receive: 'tissue-harmonic'};
-		if (input['noiseBudgetDb'] !== undefined && !('noiseBudgetReceive' in input)) out['noiseBudgetReceive'] = 'tissue-harmonic';
+		if (input['noiseBudgetDb'] !== undefined && !('noiseBudgetReceive' in input))
+			out['noiseBudgetReceive'] = 'tissue-harmonic';
 	}
 	return out;
 }

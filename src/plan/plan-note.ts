@@ -48,7 +48,10 @@ export function valuesChanged(doc: PlanDocument, start: PlanDocument): boolean {
  * The plan as it should be written: unchanged when its values are the starting plan's (or it has no
  * note), else with the note marked as the starting plan's, before the changes, and the values now.
  */
-export function planWithNote(doc: PlanDocument, start: {readonly name: string; readonly doc: PlanDocument}): PlanDocument {
+export function planWithNote(
+	doc: PlanDocument,
+	start: {readonly name: string; readonly doc: PlanDocument},
+): PlanDocument {
 	if (!doc.note || !valuesChanged(doc, start.doc)) return doc;
 	// A note marked before (a saved preset changed again) keeps the name it was first written for.
 	const first = new RegExp(`^\\${noteMarkStart} "([^"\\]]*)"`).exec(doc.note)?.[1] ?? start.name;

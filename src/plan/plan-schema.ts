@@ -77,7 +77,12 @@ function ranged(l: Limit, unit = '', integer = false) {
 }
 
 const customTissueSchema = z.strictObject({
-	label: safeText(z.string({error: 'must be text of 1 to 60 characters'}).min(1, {error: 'must be text of 1 to 60 characters'}).max(60, {error: 'must be text of 1 to 60 characters'})),
+	label: safeText(
+		z
+			.string({error: 'must be text of 1 to 60 characters'})
+			.min(1, {error: 'must be text of 1 to 60 characters'})
+			.max(60, {error: 'must be text of 1 to 60 characters'}),
+	),
 	speedMps: ranged(limits.speedMps, 'm/s'),
 	densityKgM3: ranged(limits.densityKgM3, 'kg/m³'),
 	alphaDbPerCmMhz: ranged(limits.alphaDbPerCmMhz, 'dB/cm/MHz^n'),
@@ -91,9 +96,11 @@ const customTissueSchema = z.strictObject({
 export const receiveModes = ['fundamental', 'tissue-harmonic', 'scatterer-harmonic'] as const;
 const receiveSchema = z.enum(receiveModes, {error: 'must be "fundamental", "tissue-harmonic" or "scatterer-harmonic"'});
 
-const tissueIdSchema = z.string({error: 'must be a library tissue id or a custom tissue object'}).refine((id) => libraryTissue(id) !== undefined, {
-	error: (issue) => `unknown tissue id "${printable(String(issue.input), 60)}"; known ids: ${tissueIds.join(', ')}`,
-});
+const tissueIdSchema = z
+	.string({error: 'must be a library tissue id or a custom tissue object'})
+	.refine((id) => libraryTissue(id) !== undefined, {
+		error: (issue) => `unknown tissue id "${printable(String(issue.input), 60)}"; known ids: ${tissueIds.join(', ')}`,
+	});
 
 /**
  * An attenuation coefficient measured for this patient (an attenuation measurement on the scanner,
@@ -116,7 +123,9 @@ export const thicknessModes = ['true', 'displayed'] as const;
 export type ThicknessMode = (typeof thicknessModes)[number];
 
 export const layerSchema = z.strictObject({
-	tissue: z.union([tissueIdSchema, customTissueSchema], {error: 'must be a library tissue id or a custom tissue object'}),
+	tissue: z.union([tissueIdSchema, customTissueSchema], {
+		error: 'must be a library tissue id or a custom tissue object',
+	}),
 	thicknessCm: ranged(limits.thicknessCm, 'cm'),
 	thicknessAs: z.enum(thicknessModes, {error: 'must be "true" or "displayed"'}).default('true'),
 	measuredAlpha: measuredAlphaSchema.optional(),
@@ -127,7 +136,9 @@ const sliderSchema = z
 		count: ranged(limits.sliderCount, '', true).default(8),
 		minDb: ranged(limits.sliderDb, 'dB').default(-15),
 		maxDb: ranged(limits.sliderDb, 'dB').default(15),
-		knots: z.enum(['band-centres', 'band-edges'], {error: 'must be "band-centres" or "band-edges"'}).default('band-centres'),
+		knots: z
+			.enum(['band-centres', 'band-edges'], {error: 'must be "band-centres" or "band-edges"'})
+			.default('band-centres'),
 		ends: z.enum(['flat', 'extrapolate'], {error: 'must be "flat" or "extrapolate"'}).default('flat'),
 		rampDbPerCmMhz: ranged(limits.rampDbPerCmMhz, 'dB/cm/MHz').default(defaultRampDbPerCmMhz),
 	})
@@ -156,65 +167,96 @@ const phantomSchema = z.strictObject({
 
 const referenceSchema = z.strictObject({
 	masterGainDb: ranged(limits.masterDb, 'dB'),
-	slidersDb: z.array(ranged(limits.sliderDb, 'dB'), {error: 'must be a list of slider values in dB'}).min(1).max(limits.sliderCount.max),
+	slidersDb: z
+		.array(ranged(limits.sliderDb, 'dB'), {error: 'must be a list of slider values in dB'})
+		.min(1)
+		.max(limits.sliderCount.max),
 });
 
 /** Default noise budget: a 3–3.5 MHz probe reaching ~16–20 cm in a 0.5 dB/cm/MHz phantom (from memory). */
 export const defaultNoiseBudgetDb = 65;
 
 export const planSchema = z
-	.strictObject({
-		format: z.literal(planFormat, {error: `must be "${planFormat}" (or "evenecho-plan/1", read and migrated)`}).default(planFormat),
-		name: safeText(z.string({error: 'must be text of 1 to 80 characters'}).min(1, {error: 'must be text of 1 to 80 characters'}).max(80, {error: 'must be text of 1 to 80 characters'})).default('Untitled plan'),
-		region: safeText(z.string({error: 'must be text of 1 to 40 characters'}).min(1, {error: 'must be text of 1 to 40 characters'}).max(40, {error: 'must be text of 1 to 40 characters'})).default('custom'),
-		note: safeText(z.string().max(2000, {error: 'must be at most 2000 characters'}), {multiline: true}).optional(),
-		layers: z
-			.array(layerSchema, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
-			.min(limits.layers.min, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
-			.max(limits.layers.max, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`}),
-		probe: z.strictObject({
-			centerMhz: ranged(limits.centerMhz, 'MHz'),
-			bandwidthFraction: ranged(limits.bandwidthFraction).default(0.6),
-			/** Skirt steepness of the pulse-echo spectrum; absent = 2, the Gaussian (see README). */
-			spectrumSteepness: ranged(limits.spectrumSteepness).optional(),
-			/** Absent = fundamental. Older plans' `harmonic` flag is migrated (plan-migration.ts). */
-			receive: receiveSchema.optional(),
-			/** Beam angle from the layer normal in the first layer, degrees; absent = 0. */
-			angleDeg: ranged(limits.angleDeg, '°').optional(),
-		}, {error: 'must be an object with centerMhz'}),
-		scattererExponent: ranged(limits.scattererExponent).default(0),
-		display: z
-			.strictObject({
-				depthCm: ranged(limits.depthCm, 'cm').default(16),
-				assumedSpeedMps: ranged(limits.assumedSpeedMps, 'm/s').default(1540),
-			})
-			.default({depthCm: 16, assumedSpeedMps: 1540}),
-		sliders: sliderSchema.default({count: 8, minDb: -15, maxDb: 15, knots: 'band-centres', ends: 'flat', rampDbPerCmMhz: defaultRampDbPerCmMhz}),
-		masterGain: masterSchema.default({minDb: 0, maxDb: 60}),
-		noiseBudgetDb: ranged(limits.noiseBudgetDb, 'dB').optional(),
-		/** Receive mode `noiseBudgetDb` was stated for; absent = fundamental. */
-		noiseBudgetReceive: receiveSchema.optional(),
-		phantomCalibration: phantomSchema.optional(),
-		/** Depth the exam must reach (the frequency ladder's target); defaults to the display depth. */
-		targetDepthCm: ranged(limits.depthCm, 'cm').optional(),
-		/**
-		 * Instead of `targetDepthCm`: the target as displayed cm below the displayed top of a layer
-		 * (1 = the first layer), so it follows the organ when the layers above it change.
-		 */
-		targetBelowLayer: z
-			.strictObject({
-				layer: ranged(limits.layers, '', true),
-				depthCm: ranged({min: 0, max: limits.depthCm.max}, 'cm'),
-			})
-			.optional(),
-		/** The department's usual settings for this region, against which this plan is shown as deltas. */
-		reference: referenceSchema.optional(),
-		/** A scanner profile's id (`evenecho scanner list`): its measured depth response, noise budget and slider travel are used. */
-		scanner: z
-			.string({error: 'must be a scanner profile id (evenecho scanner list)'})
-			.regex(/^[a-z0-9][a-z0-9-]{0,63}$/, {error: 'must be a scanner profile id: lower-case letters, digits and hyphens, up to 64 (evenecho scanner list)'})
-			.optional(),
-	}, {error: 'must be a JSON object'})
+	.strictObject(
+		{
+			format: z
+				.literal(planFormat, {error: `must be "${planFormat}" (or "evenecho-plan/1", read and migrated)`})
+				.default(planFormat),
+			name: safeText(
+				z
+					.string({error: 'must be text of 1 to 80 characters'})
+					.min(1, {error: 'must be text of 1 to 80 characters'})
+					.max(80, {error: 'must be text of 1 to 80 characters'}),
+			).default('Untitled plan'),
+			region: safeText(
+				z
+					.string({error: 'must be text of 1 to 40 characters'})
+					.min(1, {error: 'must be text of 1 to 40 characters'})
+					.max(40, {error: 'must be text of 1 to 40 characters'}),
+			).default('custom'),
+			note: safeText(z.string().max(2000, {error: 'must be at most 2000 characters'}), {multiline: true}).optional(),
+			layers: z
+				.array(layerSchema, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
+				.min(limits.layers.min, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`})
+				.max(limits.layers.max, {error: `must be a list of ${limits.layers.min} to ${limits.layers.max} layers`}),
+			probe: z.strictObject(
+				{
+					centerMhz: ranged(limits.centerMhz, 'MHz'),
+					bandwidthFraction: ranged(limits.bandwidthFraction).default(0.6),
+					/** Skirt steepness of the pulse-echo spectrum; absent = 2, the Gaussian (see README). */
+					spectrumSteepness: ranged(limits.spectrumSteepness).optional(),
+					/** Absent = fundamental. Older plans' `harmonic` flag is migrated (plan-migration.ts). */
+					receive: receiveSchema.optional(),
+					/** Beam angle from the layer normal in the first layer, degrees; absent = 0. */
+					angleDeg: ranged(limits.angleDeg, '°').optional(),
+				},
+				{error: 'must be an object with centerMhz'},
+			),
+			scattererExponent: ranged(limits.scattererExponent).default(0),
+			display: z
+				.strictObject({
+					depthCm: ranged(limits.depthCm, 'cm').default(16),
+					assumedSpeedMps: ranged(limits.assumedSpeedMps, 'm/s').default(1540),
+				})
+				.default({depthCm: 16, assumedSpeedMps: 1540}),
+			sliders: sliderSchema.default({
+				count: 8,
+				minDb: -15,
+				maxDb: 15,
+				knots: 'band-centres',
+				ends: 'flat',
+				rampDbPerCmMhz: defaultRampDbPerCmMhz,
+			}),
+			masterGain: masterSchema.default({minDb: 0, maxDb: 60}),
+			noiseBudgetDb: ranged(limits.noiseBudgetDb, 'dB').optional(),
+			/** Receive mode `noiseBudgetDb` was stated for; absent = fundamental. */
+			noiseBudgetReceive: receiveSchema.optional(),
+			phantomCalibration: phantomSchema.optional(),
+			/** Depth the exam must reach (the frequency ladder's target); defaults to the display depth. */
+			targetDepthCm: ranged(limits.depthCm, 'cm').optional(),
+			/**
+			 * Instead of `targetDepthCm`: the target as displayed cm below the displayed top of a layer
+			 * (1 = the first layer), so it follows the organ when the layers above it change.
+			 */
+			targetBelowLayer: z
+				.strictObject({
+					layer: ranged(limits.layers, '', true),
+					depthCm: ranged({min: 0, max: limits.depthCm.max}, 'cm'),
+				})
+				.optional(),
+			/** The department's usual settings for this region, against which this plan is shown as deltas. */
+			reference: referenceSchema.optional(),
+			/** A scanner profile's id (`evenecho scanner list`): its measured depth response, noise budget and slider travel are used. */
+			scanner: z
+				.string({error: 'must be a scanner profile id (evenecho scanner list)'})
+				.regex(/^[a-z0-9][a-z0-9-]{0,63}$/, {
+					error:
+						'must be a scanner profile id: lower-case letters, digits and hyphens, up to 64 (evenecho scanner list)',
+				})
+				.optional(),
+		},
+		{error: 'must be a JSON object'},
+	)
 	.refine((p) => !(p.noiseBudgetDb !== undefined && p.phantomCalibration !== undefined), {
 		error: 'give either noiseBudgetDb or phantomCalibration, not both',
 		path: ['phantomCalibration'],
@@ -232,7 +274,7 @@ export const planSchema = z
 		path: ['targetBelowLayer'],
 	})
 	.refine((p) => p.targetBelowLayer === undefined || p.targetBelowLayer.layer <= p.layers.length, {
-		error: 'must name one of the plan\'s layers (1 = just under the skin)',
+		error: "must name one of the plan's layers (1 = just under the skin)",
 		path: ['targetBelowLayer', 'layer'],
 	});
 
@@ -271,6 +313,8 @@ export function resolveTissue(t: LayerDocument['tissue']): Tissue {
 	return {
 		...t,
 		source: t.source ?? 'custom values entered by the user',
-		...(t.nonlinearityBA === undefined ? {nonlinearitySource: `soft-tissue default ${softTissueNonlinearityBA} (not given)`} : {}),
+		...(t.nonlinearityBA === undefined
+			? {nonlinearitySource: `soft-tissue default ${softTissueNonlinearityBA} (not given)`}
+			: {}),
 	};
 }

@@ -30,11 +30,13 @@ export function resolveLayer(l: LayerDocument, assumedSpeedMps: number): Layer {
 				...base,
 				alphaDbPerCmMhz: m.alphaDbPerCmMhz,
 				spread: {...base.spread, alphaDbPerCmMhz: [m.lowDbPerCmMhz, m.highDbPerCmMhz]},
-				source: `α0 ${m.alphaDbPerCmMhz} (${m.lowDbPerCmMhz}–${m.highDbPerCmMhz}) dB/cm/MHz^n ` +
+				source:
+					`α0 ${m.alphaDbPerCmMhz} (${m.lowDbPerCmMhz}–${m.highDbPerCmMhz}) dB/cm/MHz^n ` +
 					`${measuredAlphaSource}; other values: ${base.source ?? 'custom'}`,
 			}
 		: base;
-	const thicknessCm = l.thicknessAs === 'displayed' ? (l.thicknessCm * tissue.speedMps) / assumedSpeedMps : l.thicknessCm;
+	const thicknessCm =
+		l.thicknessAs === 'displayed' ? (l.thicknessCm * tissue.speedMps) / assumedSpeedMps : l.thicknessCm;
 	return {tissue, thicknessCm};
 }
 
@@ -59,9 +61,12 @@ export function resolvePlan(doc: PlanDocument, scanner?: PlanScanner): EnginePla
 		angleDeg: doc.probe.angleDeg ?? 0,
 	};
 	const measuredBudget = scanner?.noiseBudgetDb ?? undefined;
-	const noiseBudgetDb = measuredBudget !== undefined ? measuredBudget : doc.phantomCalibration
-		? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
-		: (doc.noiseBudgetDb ?? defaultNoiseBudgetDb);
+	const noiseBudgetDb =
+		measuredBudget !== undefined
+			? measuredBudget
+			: doc.phantomCalibration
+				? noiseBudgetFromPhantom(doc.phantomCalibration, probe, doc.scattererExponent)
+				: (doc.noiseBudgetDb ?? defaultNoiseBudgetDb);
 	// The default budget is a fundamental figure; a stated one is for the mode it says (fundamental if it does not).
 	const noiseBudgetReceive = doc.phantomCalibration
 		? (doc.phantomCalibration.receive ?? 'fundamental')
@@ -75,7 +80,13 @@ export function resolvePlan(doc: PlanDocument, scanner?: PlanScanner): EnginePla
 		probe,
 		scattererExponent: doc.scattererExponent,
 		display: doc.display,
-		sliders: scanner?.response.sliderTravelDb ? {...doc.sliders, minDb: -Math.abs(scanner.response.sliderTravelDb), maxDb: Math.abs(scanner.response.sliderTravelDb)} : doc.sliders,
+		sliders: scanner?.response.sliderTravelDb
+			? {
+					...doc.sliders,
+					minDb: -Math.abs(scanner.response.sliderTravelDb),
+					maxDb: Math.abs(scanner.response.sliderTravelDb),
+				}
+			: doc.sliders,
 		masterGain: {
 			minDb: doc.masterGain.minDb,
 			maxDb: doc.masterGain.maxDb,

@@ -7,7 +7,7 @@
 /** One line for tables and headers. */
 export const cautionLine =
 	'Starting point only, not a diagnosis: confirm on the live image. Receive gain before ' +
-		'transmit output (ALARA); local protocols and licensed practice decide.';
+	'transmit output (ALARA); local protocols and licensed practice decide.';
 
 /** The full set, for summaries and help. */
 export const cautions: readonly string[] = [

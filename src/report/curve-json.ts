@@ -48,13 +48,20 @@ export function curveJson(r: CurveResult) {
 			// With a measured scanner: the position as a fraction of full travel (−1…1, 0 = centred).
 			...(r.plan.scanner?.sliderTravelDb ? {travelFraction: round(s.gainDb / r.plan.scanner.sliderTravelDb, 3)} : {}),
 		})),
-		...(r.plan.scanner ? {scanner: {id: r.plan.scanner.id, label: r.plan.scanner.label, sliderTravelDb: r.plan.scanner.sliderTravelDb}} : {}),
+		...(r.plan.scanner
+			? {scanner: {id: r.plan.scanner.id, label: r.plan.scanner.label, sliderTravelDb: r.plan.scanner.sliderTravelDb}}
+			: {}),
 		masterGainDb: round(r.fit.masterGainDb, 2),
 		residualDb: round(r.fit.residualDb),
 		penetrationDepthCm: r.penetrationDepthCm === null ? null : round(r.penetrationDepthCm),
 		blockedDepthCm: r.blockedDepthCm === null ? null : round(r.blockedDepthCm),
 		noiseBudgetDb: round(r.plan.noiseBudgetDb),
-		warnings: r.warnings.map((w) => ({code: w.code, severity: w.severity, message: w.message, depthCm: w.depthCm === undefined ? null : round(w.depthCm)})),
+		warnings: r.warnings.map((w) => ({
+			code: w.code,
+			severity: w.severity,
+			message: w.message,
+			depthCm: w.depthCm === undefined ? null : round(w.depthCm),
+		})),
 		caution: cautionLine,
 	};
 }
@@ -80,6 +87,9 @@ const csvColumns = [
  * before it keep their names and places.
  */
 export function curveCsv(r: CurveResult): string {
-	const rows = curveJson(r).samples.map((s, i) => [...csvColumns.map((c) => String(s[c])), i === 0 ? bandScopeNote : '']);
+	const rows = curveJson(r).samples.map((s, i) => [
+		...csvColumns.map((c) => String(s[c])),
+		i === 0 ? bandScopeNote : '',
+	]);
 	return stringify([[...csvColumns, 'bandNote'], ...rows], {record_delimiter: '\r\n'});
 }

@@ -21,10 +21,13 @@ export function signedDb(x: number): string {
 export function curveSummary(r: CurveResult): string {
 	const p = r.plan;
 	const out: string[] = [];
-	const bw = p.probe.bandwidthFraction > 0 ? `${Math.round(p.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
+	const bw =
+		p.probe.bandwidthFraction > 0 ? `${Math.round(p.probe.bandwidthFraction * 100)} % bandwidth` : 'narrowband';
 	out.push(`evenecho  ${p.name}  [${p.region}]`);
 	const receive =
-		(p.probe.receive ?? 'fundamental') !== 'fundamental' ? ` (${p.probe.receive} receive at ${2 * p.probe.centerMhz} MHz)` : '';
+		(p.probe.receive ?? 'fundamental') !== 'fundamental'
+			? ` (${p.probe.receive} receive at ${2 * p.probe.centerMhz} MHz)`
+			: '';
 	const steepness = (p.probe.spectrumSteepness ?? 2) !== 2 ? `, spectrum steepness ${p.probe.spectrumSteepness}` : '';
 	out.push(
 		`probe ${p.probe.centerMhz} MHz${receive}, ${bw}${steepness}, scatterer f^${p.scattererExponent}; ` +
@@ -44,12 +47,14 @@ export function curveSummary(r: CurveResult): string {
 	});
 	out.push('');
 	const bank = p.sliders;
-	out.push(`Depth-gain starting point (${bank.count} sliders ${bank.minDb}..${bank.maxDb} dB at ${bank.knots}, ${bank.ends} ends)`);
+	out.push(
+		`Depth-gain starting point (${bank.count} sliders ${bank.minDb}..${bank.maxDb} dB at ${bank.knots}, ${bank.ends} ends)`,
+	);
 	const travel = p.scanner?.sliderTravelDb ?? null;
 	out.push(
 		p.scanner
 			? `  sliders are offsets from the scanner's own depth gain, measured on "${p.scanner.label}" ` +
-				`(${p.scanner.id})${travel ? `; full travel = ${f1(travel)} dB` : ''}`
+					`(${p.scanner.id})${travel ? `; full travel = ${f1(travel)} dB` : ''}`
 			: bank.rampDbPerCmMhz > 0
 				? `  sliders are offsets from the scanner's own ramp, taken as ${bank.rampDbPerCmMhz} dB/cm/MHz (0 = centre detent)`
 				: '  sliders are absolute (no built-in ramp assumed)',
@@ -58,11 +63,15 @@ export function curveSummary(r: CurveResult): string {
 	r.fit.sliders.forEach((s, i) => {
 		const delivered = deliveredCompensationDb(p, r.fit, s.depthCm);
 		const fraction = travel ? `  ${lpad(travelFractionText(s.gainDb / travel), 9)}` : '';
-		out.push(`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}${fraction}`);
+		out.push(
+			`  ${lpad(String(i + 1), 6)}  ${lpad(f1(s.depthCm), 8)}  ${lpad(signedDb(s.gainDb), 9)}  ${lpad(f1(delivered), 13)}${fraction}`,
+		);
 	});
-	out.push(`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); ` +
-		`fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst ` +
-		`at ${f1(r.fit.residualAtCm)} cm)`);
+	out.push(
+		`  master gain ${f1(r.fit.masterGainDb)} dB (skin level ${f1(p.masterGain.baseDb)} dB); ` +
+			`fit within ${r.fit.residualDb.toFixed(2)} dB down to ${f1(r.usableDepthCm)} cm (worst ` +
+			`at ${f1(r.fit.residualAtCm)} cm)`,
+	);
 	out.push(
 		r.penetrationDepthCm === null
 			? `  above the noise floor (${f1(p.noiseBudgetDb)} dB budget) over the whole ${p.display.depthCm} cm display`

@@ -55,7 +55,11 @@ export function refineJson(r: RefineResult, source: RefineSource) {
 		})),
 		masterGainDb: r2(r.masterGainDb),
 		masterCorrectionDb: r2(r.masterCorrectionDb),
-		appliedSettings: {sliders: r.applied.slidersDb.map(r2), masterGainDb: r2(r.applied.masterGainDb), from: r.appliedIsPlanFit ? 'plan' : 'stated'},
+		appliedSettings: {
+			sliders: r.applied.slidersDb.map(r2),
+			masterGainDb: r2(r.applied.masterGainDb),
+			from: r.appliedIsPlanFit ? 'plan' : 'stated',
+		},
 		attenuation: a
 			? {
 					layer: a.layerIndex + 1,
@@ -80,23 +84,34 @@ export function refineJson(r: RefineResult, source: RefineSource) {
 export function refineText(r: RefineResult, source: RefineSource): string {
 	const out: string[] = [];
 	out.push(`Refinement of ${source.plan} from ${source.image}${source.frame ? `, frame ${source.frame}` : ''}`);
-	out.push(`  ${r.levelMap.calibrated ? 'Calibrated' : 'UNCALIBRATED'}: ${r.levelMap.label}; depth from ${source.depthScale}.`);
-	out.push(`  Settings: ${r.appliedIsPlanFit ? 'the plan\'s own fit (none stated)' : 'as stated'}; speckle cell ≈ ${r.cellAreaPx.toFixed(1)} px.`);
+	out.push(
+		`  ${r.levelMap.calibrated ? 'Calibrated' : 'UNCALIBRATED'}: ${r.levelMap.label}; depth from ${source.depthScale}.`,
+	);
+	out.push(
+		`  Settings: ${r.appliedIsPlanFit ? "the plan's own fit (none stated)" : 'as stated'}; speckle cell ≈ ${r.cellAreaPx.toFixed(1)} px.`,
+	);
 	out.push('');
 	out.push('  depth cm   level dB  expected  residual   cells    ±95%  echo/noise  after   band');
 	for (const b of r.bands) {
 		const f = (x: number, w: number, d = 1) => (Number.isFinite(x) ? x.toFixed(d) : '–').padStart(w);
 		const verdict = b.usable ? (b.fitted ? 'usable, fitted' : 'usable') : b.verdict.replace(/-/g, ' ');
 		out.push(
-			`  ${f(b.depthCm, 8)}  ${f(b.levelDb, 9)}  ${f(b.expectedDb, 8)}  ${Number.isFinite(b.residualDb) ? signedDb(b.residualDb - r.offsetDb).padStart(8) : '–'.padStart(8)}  ${String(Math.round(b.cells)).padStart(6)}  ${f(b.halfWidthDb, 6, 2)}  ${f(b.echoToNoiseDb, 10, 0)}  ${f(b.correctedDb, 6)}   ${verdict}`,
+			`  ${f(b.depthCm, 8)}  ${f(b.levelDb, 9)}  ${f(b.expectedDb, 8)} ` +
+				` ${Number.isFinite(b.residualDb) ? signedDb(b.residualDb - r.offsetDb).padStart(8) : '–'.padStart(8)} ` +
+				` ${String(Math.round(b.cells)).padStart(6)}  ${f(b.halfWidthDb, 6, 2)}  ${f(b.echoToNoiseDb, 10, 0)} ` +
+				` ${f(b.correctedDb, 6)}   ${verdict}`,
 		);
 	}
-	out.push(`  (residual: measured − expected, less the image's offset of ${r.offsetDb.toFixed(1)} dB; "after": tissue level once the corrections are set)`);
+	out.push(
+		`  (residual: measured − expected, less the image's offset of ${r.offsetDb.toFixed(1)} dB; "after": tissue level ` +
+			`once the corrections are set)`,
+	);
 	out.push('');
 	const a = r.attenuation;
 	if (a) {
 		out.push(
-			`  Attenuation, layer ${a.layerIndex + 1} (${a.label}): α0 ${a.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz, 95 % interval ${a.low.toFixed(2)}–${a.high.toFixed(2)} (plan ${a.planAlphaDbPerCmMhz}; ${a.bandsUsed} bands)`,
+			`  Attenuation, layer ${a.layerIndex + 1} (${a.label}): α0 ${a.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz, 95 % interval ` +
+				`${a.low.toFixed(2)}–${a.high.toFixed(2)} (plan ${a.planAlphaDbPerCmMhz}; ${a.bandsUsed} bands)`,
 		);
 	} else {
 		out.push(`  Attenuation: not measured — ${r.cannotTell}`);
@@ -104,10 +119,18 @@ export function refineText(r: RefineResult, source: RefineSource): string {
 	out.push('');
 	out.push('  slider  depth cm   set to dB   change dB');
 	r.sliders.forEach((s, k) => {
-		const travel = s.correctionTravel === null ? '' : `  (${s.correctionTravel >= 0 ? '+' : '−'}${Math.abs(s.correctionTravel).toFixed(2)} of travel)`;
-		out.push(`  ${String(k + 1).padStart(6)}  ${s.depthCm.toFixed(1).padStart(8)}  ${s.gainDb.toFixed(1).padStart(10)}  ${signedDb(s.correctionDb).padStart(10)}${travel}`);
+		const travel =
+			s.correctionTravel === null
+				? ''
+				: `  (${s.correctionTravel >= 0 ? '+' : '−'}${Math.abs(s.correctionTravel).toFixed(2)} of travel)`;
+		out.push(
+			`  ${String(k + 1).padStart(6)}  ${s.depthCm.toFixed(1).padStart(8)}  ${s.gainDb.toFixed(1).padStart(10)} ` +
+				` ${signedDb(s.correctionDb).padStart(10)}${travel}`,
+		);
 	});
-	out.push(`  master  ${''.padStart(8)}  ${r.masterGainDb.toFixed(1).padStart(10)}  ${signedDb(r.masterCorrectionDb).padStart(10)}`);
+	out.push(
+		`  master  ${''.padStart(8)}  ${r.masterGainDb.toFixed(1).padStart(10)}  ${signedDb(r.masterCorrectionDb).padStart(10)}`,
+	);
 	out.push('');
 	for (const w of r.warnings) out.push(`  ! ${w.message}`);
 	for (const c of refineCautions) out.push(`  ${c}`);

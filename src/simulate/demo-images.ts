@@ -55,7 +55,10 @@ export const phantomGainStepsDb = [18, 24, 30, 36, 42] as const;
 const round = (v: number, digits = 4) => Number(v.toFixed(digits));
 
 function caption(scanner: ScannerBehaviour, plan: EnginePlan, masterGainDb: number, what: string): string {
-	return `${what}  G ${masterGainDb} DB  ${plan.probe.centerMhz} MHZ  ${plan.display.depthCm} CM  ${scanner.kind === 'realistic' ? 'SIM' : ''}`;
+	return (
+		`${what}  G ${masterGainDb} DB  ${plan.probe.centerMhz} MHZ  ${plan.display.depthCm} CM ` +
+		` ${scanner.kind === 'realistic' ? 'SIM' : ''}`
+	);
 }
 
 /** The phantom series for a plan's probe, display depth and slider count. */
@@ -122,10 +125,14 @@ export function phantomSeries(
 		phantom: {alphaDbPerCmMhz: 0.5, exponent: 1, speedMps: 1540},
 		region: {columns: [0.3, 0.7]},
 		sliders: {count: plan.sliders.count},
-		gainSteps: images.filter((i) => i.role === 'gain-step').map((i) => ({image: file(i.name), masterGainDb: i.masterGainDb})),
+		gainSteps: images
+			.filter((i) => i.role === 'gain-step')
+			.map((i) => ({image: file(i.name), masterGainDb: i.masterGainDb})),
 		probeInAir: {image: file('air'), masterGainDb: reference},
 		sliderSteps: [{image: file(`s${sliderNumber}-max`), slider: sliderNumber, position: 1, masterGainDb: reference}],
-		...(extension === 'png' ? {pixelScale: {cmPerPixel: round(cmPerPixel, 8), topRowCm: round(rowsToDepth!.topRowCm, 8)}} : {}),
+		...(extension === 'png'
+			? {pixelScale: {cmPerPixel: round(cmPerPixel, 8), topRowCm: round(rowsToDepth!.topRowCm, 8)}}
+			: {}),
 	};
 	const truth = {
 		format: 'evenecho-simulation-truth/1',
@@ -141,7 +148,13 @@ export function phantomSeries(
 		noiseFloorMasterGainDb: reference,
 		penetrationCm: nullableRound(phantomPenetrationCm(plan, scanner)),
 		phantomLoss: depthSteps(plan).map((d) => ({depthCm: d, lossDb: round(phantomModel.lossAt(d), 3)})),
-		images: images.map((i) => ({file: file(i.name), role: i.role, masterGainDb: i.masterGainDb, photometric: i.channels === 3 ? 'RGB' : 'MONOCHROME2', ...(i.slider ? {slider: i.slider, position: i.position, sliderDb: scanner.sliderTravelDb} : {})})),
+		images: images.map((i) => ({
+			file: file(i.name),
+			role: i.role,
+			masterGainDb: i.masterGainDb,
+			photometric: i.channels === 3 ? 'RGB' : 'MONOCHROME2',
+			...(i.slider ? {slider: i.slider, position: i.position, sliderDb: scanner.sliderTravelDb} : {}),
+		})),
 		region: region!,
 		cmPerPixel: round(cmPerPixel, 8),
 		rowsToDepth: {topRowCm: round(rowsToDepth!.topRowCm, 8), cmPerRow: round(rowsToDepth!.cmPerRow, 8)},
@@ -180,14 +193,19 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string, 
 	const size = options.size ?? demoPictureSize;
 	const width = size.width - frameMargins.left - frameMargins.right;
 	const height = size.height - frameMargins.top - frameMargins.bottom;
-	const structures = demoStructures(plan.display.depthCm, {cyst: options.cyst ?? false, brightLine: options.brightLine ?? false});
+	const structures = demoStructures(plan.display.depthCm, {
+		cyst: options.cyst ?? false,
+		brightLine: options.brightLine ?? false,
+	});
 	const layerIndex = plan.layers.length - 1;
 	const deepest = plan.layers[layerIndex]!;
 	const plannedAlpha = deepest.tissue.alphaDbPerCmMhz;
 	const trueAlpha = plannedAlpha > 0 ? round(plannedAlpha * (options.alphaFactor ?? patientAlphaFactor), 4) : 0.3;
 	const truePlan: EnginePlan = {
 		...plan,
-		layers: plan.layers.map((l, i) => (i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: trueAlpha}} : l)),
+		layers: plan.layers.map((l, i) =>
+			i === layerIndex ? {...l, tissue: {...l.tissue, alphaDbPerCmMhz: trueAlpha}} : l,
+		),
 	};
 	const scanner = realisticScanner(plan);
 	const fit = computeCurve(plan, {band: false}).fit;
@@ -203,13 +221,26 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string, 
 		structures,
 		caption: caption(scanner, plan, Math.round(applied.masterGainDb), 'PATIENT'),
 	});
-	const image: DemoImage = {name: 'patient', role: 'patient', width: f.width, height: f.height, channels: 3, data: greyToRgb(f.grey, f.overlay), masterGainDb: applied.masterGainDb};
+	const image: DemoImage = {
+		name: 'patient',
+		role: 'patient',
+		width: f.width,
+		height: f.height,
+		channels: 3,
+		data: greyToRgb(f.grey, f.overlay),
+		masterGainDb: applied.masterGainDb,
+	};
 	const cmPerPixel = plan.display.depthCm / height;
 	const bands: {depthCm: number; meanLevelDb: number; noiseLevelDb: number; lossDb: number | null}[] = [];
 	const rowsPerBand = Math.max(1, Math.round(0.5 / cmPerPixel));
 	for (let r = Math.floor(rowsPerBand / 2); r < f.truth.depthCm.length; r += rowsPerBand) {
 		const loss = f.truth.lossDb[r]!;
-		bands.push({depthCm: round(f.truth.depthCm[r]!, 3), meanLevelDb: round(f.truth.meanLevelDb[r]!, 3), noiseLevelDb: round(f.truth.noiseLevelDb[r]!, 3), lossDb: loss === null ? null : round(loss, 3)});
+		bands.push({
+			depthCm: round(f.truth.depthCm[r]!, 3),
+			meanLevelDb: round(f.truth.meanLevelDb[r]!, 3),
+			noiseLevelDb: round(f.truth.noiseLevelDb[r]!, 3),
+			lossDb: loss === null ? null : round(loss, 3),
+		});
 	}
 	const truth = {
 		format: 'evenecho-simulation-truth/1',
@@ -229,7 +260,7 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string, 
 		bands,
 		blockedDepthCm: f.truth.blockedDepthCm,
 		structures: {
-			note: 'x as fractions of the tissue region\'s width, depths in displayed cm; left out of the band levels above',
+			note: "x as fractions of the tissue region's width, depths in displayed cm; left out of the band levels above",
 			cyst: structures.cyst ?? null,
 			brightLine: structures.brightLine ?? null,
 		},
@@ -239,5 +270,13 @@ export function patientImage(plan: EnginePlan, seed: number, extension: string, 
 		overlay: colourOverlayNote,
 		constants: realisticConstants,
 	};
-	return {images: [image], region: f.region, cmPerPixel, rowsToDepth: f.rowsToDepth, session: null, appliedSettings: applied, truth};
+	return {
+		images: [image],
+		region: f.region,
+		cmPerPixel,
+		rowsToDepth: f.rowsToDepth,
+		session: null,
+		appliedSettings: applied,
+		truth,
+	};
 }

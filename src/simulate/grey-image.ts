@@ -59,7 +59,8 @@ export function smoothGrey(grey: Float32Array, width: number, height: number, fw
 		const row = y * width;
 		for (let x = 0; x < width; x++) {
 			let s = 0;
-			for (let k = -radius; k <= radius; k++) s += taps[k + radius]! * grey[row + Math.min(width - 1, Math.max(0, x + k))]!;
+			for (let k = -radius; k <= radius; k++)
+				s += taps[k + radius]! * grey[row + Math.min(width - 1, Math.max(0, x + k))]!;
 			across[row + x] = s;
 		}
 	}

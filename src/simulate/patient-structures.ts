@@ -34,7 +34,9 @@ export interface PatientStructures {
 export function demoStructures(depthCm: number, options: {cyst: boolean; brightLine: boolean}): PatientStructures {
 	return {
 		...(options.cyst ? {cyst: {centreX: 0.5, centreCm: 0.3 * depthCm, radiusCm: 0.04 * depthCm}} : {}),
-		...(options.brightLine ? {brightLine: {fromX: 0.42, toX: 0.56, depthCm: 0.2 * depthCm, thicknessCm: 0.1, aboveTissueDb: 18}} : {}),
+		...(options.brightLine
+			? {brightLine: {fromX: 0.42, toX: 0.56, depthCm: 0.2 * depthCm, thicknessCm: 0.1, aboveTissueDb: 18}}
+			: {}),
 	};
 }
 

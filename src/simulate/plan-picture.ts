@@ -26,7 +26,15 @@ export interface PlanPictures {
 
 /** What the echo map depends on (not the gains). */
 function physicsKey(plan: EnginePlan, width: number, height: number): string {
-	return JSON.stringify([plan.layers, plan.probe, plan.scattererExponent, plan.display, plan.noiseBudgetDb, width, height]);
+	return JSON.stringify([
+		plan.layers,
+		plan.probe,
+		plan.scattererExponent,
+		plan.display,
+		plan.noiseBudgetDb,
+		width,
+		height,
+	]);
 }
 
 export interface PictureCache {
@@ -40,7 +48,13 @@ export function createPictureCache(seed = 1): PictureCache {
 	return {
 		pictures(result, width, height, dynamicRangeDb = defaultDynamicRangeDb) {
 			const plan = result.plan;
-			const fieldKey = JSON.stringify([width, height, plan.probe.centerMhz, plan.probe.bandwidthFraction, plan.display.depthCm]);
+			const fieldKey = JSON.stringify([
+				width,
+				height,
+				plan.probe.centerMhz,
+				plan.probe.bandwidthFraction,
+				plan.display.depthCm,
+			]);
 			if (!fields || fields.key !== fieldKey) fields = {key: fieldKey, value: speckleFor(plan, width, height, seed)};
 			const scanner = plainScanner(plan, dynamicRangeDb);
 			const key = physicsKey(plan, width, height);

@@ -22,7 +22,14 @@ const textGrey = 230;
 
 export const panelCaptions: Record<PanelKind, string> = {ramp: 'BUILT-IN RAMP ONLY', plan: 'THIS PLAN'};
 
-export function previewPicture(result: CurveResult, cache: PictureCache, panel: PanelKind | 'both', width: number, height: number, dynamicRangeDb: number): GreyPicture {
+export function previewPicture(
+	result: CurveResult,
+	cache: PictureCache,
+	panel: PanelKind | 'both',
+	width: number,
+	height: number,
+	dynamicRangeDb: number,
+): GreyPicture {
 	const pics = cache.pictures(result, width, height, dynamicRangeDb);
 	if (panel !== 'both') return {width, height, grey: panel === 'ramp' ? pics.ramp : pics.plan, topStripPx: 0};
 	const W = 2 * width + gapPx;

@@ -82,7 +82,12 @@ export function phantomPlan(plan: EnginePlan): EnginePlan {
 	return {
 		...plan,
 		name: 'uniform reference phantom',
-		layers: [{tissue: {label: 'reference phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: 0.5, exponent: 1}, thicknessCm: 100}],
+		layers: [
+			{
+				tissue: {label: 'reference phantom', speedMps: 1540, densityKgM3: 1050, alphaDbPerCmMhz: 0.5, exponent: 1},
+				thicknessCm: 100,
+			},
+		],
 		scattererExponent: 0,
 		display: {...plan.display, assumedSpeedMps: 1540},
 	};

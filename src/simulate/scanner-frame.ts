@@ -31,7 +31,13 @@ const topMarginPx = frameMargins.top;
 const bottomMarginPx = frameMargins.bottom;
 
 /** Puts the region into a bordered picture with a depth scale (cm) and a text line. */
-export function frameImage(region: Uint8Array, width: number, height: number, depthCm: number, caption: string): FramedImage {
+export function frameImage(
+	region: Uint8Array,
+	width: number,
+	height: number,
+	depthCm: number,
+	caption: string,
+): FramedImage {
 	const {left, right} = frameMargins;
 	const W = left + width + right;
 	const H = topMarginPx + height + bottomMarginPx;
@@ -57,9 +63,16 @@ export function frameImage(region: Uint8Array, width: number, height: number, de
 	for (let cm = 0; cm <= depthCm + 1e-9; cm++) {
 		const y = topMarginPx + Math.round(cm * pxPerCm);
 		for (let x = 2; x <= (cm % labelEvery === 0 ? 6 : 4); x++) plot(left + width + x, y);
-		if (cm % labelEvery === 0 && cm > 0) drawText(String(cm), left + width + 9, y - Math.floor(glyphHeight / 2), (x, yy) => plot(x, yy));
+		if (cm % labelEvery === 0 && cm > 0)
+			drawText(String(cm), left + width + 9, y - Math.floor(glyphHeight / 2), (x, yy) => plot(x, yy));
 	}
 	drawText(caption, left, Math.floor((topMarginPx - glyphHeight) / 2), (x, y) => plot(x, y));
 	drawText('CM', left + width + 9, H - bottomMarginPx + 4, (x, y) => plot(x, y));
-	return {grey, width: W, height: H, region: {x0: left, y0: topMarginPx, x1: left + width - 1, y1: topMarginPx + height - 1}, overlay};
+	return {
+		grey,
+		width: W,
+		height: H,
+		region: {x0: left, y0: topMarginPx, x1: left + width - 1, y1: topMarginPx + height - 1},
+		overlay,
+	};
 }

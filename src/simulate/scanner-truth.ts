@@ -16,7 +16,12 @@ import {phantomPlan, type ScannerBehaviour} from './scanner-behaviour.js';
 export interface ScannerTruth {
 	readonly levelScale: string;
 	readonly referenceMasterDb: number;
-	readonly pixelMap: {readonly topDb: number; readonly dynamicRangeDb: number; readonly curveExponent: number; readonly formula: string};
+	readonly pixelMap: {
+		readonly topDb: number;
+		readonly dynamicRangeDb: number;
+		readonly curveExponent: number;
+		readonly formula: string;
+	};
 	readonly greyMap: readonly {grey: number; levelDb: number}[];
 	readonly depthResponse: readonly {depthCm: number; gainDb: number}[];
 	readonly sliderTravelDb: number;
@@ -60,17 +65,24 @@ export function scannerTruth(plan: EnginePlan, scanner: ScannerBehaviour): Scann
 	const greyMap = greyMapOf(scanner).map((p) => ({...p}));
 	const depthResponse: {depthCm: number; gainDb: number}[] = [];
 	const stepCm = 0.25;
-	for (let d = 0; d <= plan.display.depthCm + 1e-9; d += stepCm) depthResponse.push({depthCm: round(d, 2), gainDb: round(scanner.depthResponseDb(d))});
+	for (let d = 0; d <= plan.display.depthCm + 1e-9; d += stepCm)
+		depthResponse.push({depthCm: round(d, 2), gainDb: round(scanner.depthResponseDb(d))});
 	const m = scanner.display;
 	return {
-		levelScale: '0 dB = reference echo under the skin at the reference master gain, sliders centred; ' +
+		levelScale:
+			'0 dB = reference echo under the skin at the reference master gain, sliders centred; ' +
 			'level = master − referenceMaster + depth response + sliders − loss',
 		referenceMasterDb: scanner.referenceMasterDb,
-		pixelMap: {topDb: m.topDb, dynamicRangeDb: m.dynamicRangeDb, curveExponent: m.curveExponent, formula: 'grey = 255·u^curveExponent, u = (20·log10 A − (topDb − dynamicRangeDb))/dynamicRangeDb clipped to 0–1'},
+		pixelMap: {
+			topDb: m.topDb,
+			dynamicRangeDb: m.dynamicRangeDb,
+			curveExponent: m.curveExponent,
+			formula: 'grey = 255·u^curveExponent, u = (20·log10 A − (topDb − dynamicRangeDb))/dynamicRangeDb clipped to 0–1',
+		},
 		greyMap,
 		depthResponse,
 		sliderTravelDb: scanner.sliderTravelDb,
-		sliderInfluence: 'hat: full at the slider\'s knot, falling linearly to 0 at the neighbouring knots (band centres)',
+		sliderInfluence: "hat: full at the slider's knot, falling linearly to 0 at the neighbouring knots (band centres)",
 		noiseBudgetDb: round(scanner.noiseBudgetDb),
 		smoothingFwhmPx: scanner.smoothingPx,
 	};

@@ -68,7 +68,13 @@ export interface SimulatedFrame {
 export function speckleFor(plan: EnginePlan, width: number, height: number, seed: number): SpeckleFields {
 	const cell = speckleCellOf(plan.probe);
 	const cmPerPx = plan.display.depthCm / height;
-	return makeSpeckle({width, height, axialCellPx: cell.axialCm / cmPerPx, lateralCellPx: cell.lateralCm / cmPerPx, seed});
+	return makeSpeckle({
+		width,
+		height,
+		axialCellPx: cell.axialCm / cmPerPx,
+		lateralCellPx: cell.lateralCm / cmPerPx,
+		seed,
+	});
 }
 
 export function simulateFrame(req: FrameRequest): SimulatedFrame {
@@ -94,7 +100,15 @@ export function simulateFrame(req: FrameRequest): SimulatedFrame {
 		blockedDepthCm: rows.blockedDepthCm,
 	};
 	if (!scanner.framed) {
-		return {grey: region, width, height, rowsToDepth: regionRows, region: {x0: 0, y0: 0, x1: width - 1, y1: height - 1}, overlay: null, truth};
+		return {
+			grey: region,
+			width,
+			height,
+			rowsToDepth: regionRows,
+			region: {x0: 0, y0: 0, x1: width - 1, y1: height - 1},
+			overlay: null,
+			truth,
+		};
 	}
 	const framed = frameImage(region, width, height, plan.display.depthCm, req.caption ?? 'EVENECHO SIMULATED');
 	return {

@@ -75,7 +75,12 @@ export function blurTaps(fwhmPx: number): Float32Array {
 
 /** White complex field on a padded grid, blurred separably; the padding keeps the edges as grainy
  * as the middle. */
-function blurredField(next: () => number, req: SpeckleRequest, rowTaps: Float32Array, colTaps: Float32Array): ComplexField {
+function blurredField(
+	next: () => number,
+	req: SpeckleRequest,
+	rowTaps: Float32Array,
+	colTaps: Float32Array,
+): ComplexField {
 	const ra = (rowTaps.length - 1) / 2;
 	const rl = (colTaps.length - 1) / 2;
 	const pw = req.width + 2 * rl;

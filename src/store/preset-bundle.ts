@@ -43,13 +43,20 @@ export type ImportDecode = {ok: true; kind: 'plan' | 'bundle'; items: NamedPlan[
 
 /** The text of a bundle holding these presets (each plan carries its preset's name). */
 export function encodeBundle(items: readonly NamedPlan[], exportedAt: Date = new Date()): string {
-	const bundle = {format: bundleFormat, exportedAt: exportedAt.toISOString(), presets: items.map((p) => ({...p.plan, name: p.name}))};
+	const bundle = {
+		format: bundleFormat,
+		exportedAt: exportedAt.toISOString(),
+		presets: items.map((p) => ({...p.plan, name: p.name})),
+	};
 	return JSON.stringify(bundle, null, 2) + '\n';
 }
 
 function checkEntry(value: unknown, prefix: string, problems: string[]): NamedPlan | undefined {
 	const where = prefix ? `${prefix}.` : '';
-	const raw = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>) : undefined;
+	const raw =
+		value !== null && typeof value === 'object' && !Array.isArray(value)
+			? (value as Record<string, unknown>)
+			: undefined;
 	if (!raw) {
 		problems.push(`${prefix || '(file)'}: must be a plan object`);
 		return undefined;
@@ -66,17 +73,26 @@ function checkEntry(value: unknown, prefix: string, problems: string[]): NamedPl
 		}
 	}
 	const plan = parsePlanDocument(raw);
-	if (!plan.ok) problems.push(...plan.errors.map((e) => (e.startsWith('(plan)') ? `${prefix || '(plan)'}${e.slice('(plan)'.length)}` : `${where}${e}`)));
+	if (!plan.ok)
+		problems.push(
+			...plan.errors.map((e) =>
+				e.startsWith('(plan)') ? `${prefix || '(plan)'}${e.slice('(plan)'.length)}` : `${where}${e}`,
+			),
+		);
 	return name !== undefined && plan.ok ? {name, plan: {...plan.value, name}} : undefined;
 }
 
 /** Checks a parsed import file; on any problem nothing is returned but the list of problems. */
 export function decodeImport(value: unknown): ImportDecode {
 	const problems: string[] = [];
-	const format = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>)['format'] : undefined;
+	const format =
+		value !== null && typeof value === 'object' && !Array.isArray(value)
+			? (value as Record<string, unknown>)['format']
+			: undefined;
 	if (format === bundleFormat) {
 		const bundle = bundleSchema.safeParse(value);
-		if (!bundle.success) return {ok: false, problems: formatIssues(bundle.error).map((p) => p.replace(/^\(plan\)/, '(file)'))};
+		if (!bundle.success)
+			return {ok: false, problems: formatIssues(bundle.error).map((p) => p.replace(/^\(plan\)/, '(file)'))};
 		const items: NamedPlan[] = [];
 		const seen = new Map<string, number>();
 		bundle.data.presets.forEach((entry, i) => {
@@ -84,14 +100,20 @@ export function decodeImport(value: unknown): ImportDecode {
 			if (!item) return;
 			const slug = presetSlug(item.name);
 			const first = seen.get(slug);
-			if (first !== undefined) problems.push(`presets.${i}.name: "${item.name}" is the same preset name as presets.${first}`);
+			if (first !== undefined)
+				problems.push(`presets.${i}.name: "${item.name}" is the same preset name as presets.${first}`);
 			else seen.set(slug, i);
 			items.push(item);
 		});
 		return problems.length ? {ok: false, problems} : {ok: true, kind: 'bundle', items};
 	}
 	if (format !== undefined && format !== planFormat && format !== planFormatV1) {
-		return {ok: false, problems: [`format: must be "${bundleFormat}" (a preset bundle) or "${planFormat}" (one plan; "${planFormatV1}" is read too)`]};
+		return {
+			ok: false,
+			problems: [
+				`format: must be "${bundleFormat}" (a preset bundle) or "${planFormat}" (one plan; "${planFormatV1}" is read too)`,
+			],
+		};
 	}
 	const item = checkEntry(value, '', problems);
 	return item && !problems.length ? {ok: true, kind: 'plan', items: [item]} : {ok: false, problems};

@@ -55,7 +55,13 @@ export type DecodedRecord =
 	| {status: 'invalid'; name?: string; problems: string[]};
 
 /** Turns a v1 record into the raw v2 shape (not yet validated). Pure, so it is easy to test. */
-export function migrateV1(v1: RecordV1): {record: string; version: number; name: string; savedAt?: string; plan: Record<string, unknown>} {
+export function migrateV1(v1: RecordV1): {
+	record: string;
+	version: number;
+	name: string;
+	savedAt?: string;
+	plan: Record<string, unknown>;
+} {
 	const plan: Record<string, unknown> = {
 		format: planFormat,
 		name: v1.name,
@@ -71,11 +77,19 @@ export function migrateV1(v1: RecordV1): {record: string; version: number; name:
 	if (v1.depthCm !== undefined) plan['display'] = {depthCm: v1.depthCm};
 	if (v1.sliders !== undefined) plan['sliders'] = {count: v1.sliders};
 	if (v1.noiseDb !== undefined) plan['noiseBudgetDb'] = v1.noiseDb;
-	return {record: recordMarker, version: currentRecordVersion, name: v1.name, ...(v1.saved !== undefined ? {savedAt: v1.saved} : {}), plan};
+	return {
+		record: recordMarker,
+		version: currentRecordVersion,
+		name: v1.name,
+		...(v1.saved !== undefined ? {savedAt: v1.saved} : {}),
+		plan,
+	};
 }
 
 function versionOf(value: unknown): unknown {
-	return value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>)['version'] : undefined;
+	return value !== null && typeof value === 'object' && !Array.isArray(value)
+		? (value as Record<string, unknown>)['version']
+		: undefined;
 }
 
 function nameOf(value: unknown): string | undefined {
@@ -87,9 +101,15 @@ function nameOf(value: unknown): string | undefined {
 export function decodeRecord(value: unknown): DecodedRecord {
 	const version = versionOf(value);
 	const name = nameOf(value);
-	const withName = (problems: string[]): DecodedRecord => ({status: 'invalid', ...(name !== undefined ? {name} : {}), problems});
+	const withName = (problems: string[]): DecodedRecord => ({
+		status: 'invalid',
+		...(name !== undefined ? {name} : {}),
+		problems,
+	});
 	if (typeof version === 'number' && Number.isInteger(version) && version > currentRecordVersion) {
-		return withName([`written by a newer evenecho (record version ${version}; this one reads up to ${currentRecordVersion}); left unchanged`]);
+		return withName([
+			`written by a newer evenecho (record version ${version}; this one reads up to ${currentRecordVersion}); left unchanged`,
+		]);
 	}
 	let migratedFrom: number | undefined;
 	let raw: unknown = value;
@@ -121,6 +141,12 @@ export function decodeRecord(value: unknown): DecodedRecord {
 
 /** The text of a current-version record; the plan takes the preset's name. */
 export function encodeRecord(name: string, plan: PlanDocument, savedAt: Date = new Date()): string {
-	const record = {record: recordMarker, version: currentRecordVersion, name, savedAt: savedAt.toISOString(), plan: {...plan, name}};
+	const record = {
+		record: recordMarker,
+		version: currentRecordVersion,
+		name,
+		savedAt: savedAt.toISOString(),
+		plan: {...plan, name},
+	};
 	return JSON.stringify(record, null, 2) + '\n';
 }

@@ -20,10 +20,24 @@ import {sweepTemps} from '../files/temp-sweep.js';
 import {parsePlanDocument, type PlanDocument} from '../plan/plan-schema.js';
 import {decodeImport, encodeBundle, type NamedPlan} from './preset-bundle.js';
 import {currentRecordVersion, decodeRecord, encodeRecord, type DecodedRecord} from './preset-record.js';
-import {keepDamaged, RecordFolder, writeExportFile, type RecordEntry, type RecordKind, type StorePause} from './record-folder.js';
+import {
+	keepDamaged,
+	RecordFolder,
+	writeExportFile,
+	type RecordEntry,
+	type RecordKind,
+	type StorePause,
+} from './record-folder.js';
 import {checkPresetName, presetSlug, userIdPrefix} from './safe-name.js';
 import {readSettings, settingsPath, storeHomeOf, writeSettings} from './settings-file.js';
-import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNotFoundError, PresetStoreError, TemplateReadOnlyError} from './store-errors.js';
+import {
+	PresetExistsError,
+	PresetImportError,
+	PresetInvalidError,
+	PresetNotFoundError,
+	PresetStoreError,
+	TemplateReadOnlyError,
+} from './store-errors.js';
 import {loadTemplates, type Template} from './templates.js';
 
 export type {StorePause};
@@ -114,11 +128,20 @@ export class PresetStore {
 	constructor(home: string | undefined, pause: StorePause = {}) {
 		this.#settingsFile = settingsPath(home);
 		this.home = storeHomeOf(this.#settingsFile);
-		this.#records = new RecordFolder({home: this.home, name: 'presets', kind: presetKind, createHome: true, notices: this.notices, pause});
+		this.#records = new RecordFolder({
+			home: this.home,
+			name: 'presets',
+			kind: presetKind,
+			createHome: true,
+			notices: this.notices,
+			pause,
+		});
 		this.presetsDir = this.#records.folder;
 		const unusable = this.#records.unusable;
 		if (unusable) {
-			this.notices.push(`${unusable}; only the templates are available, and saving is not possible until that is fixed`);
+			this.notices.push(
+				`${unusable}; only the templates are available, and saving is not possible until that is fixed`,
+			);
 			return;
 		}
 		// A crash while the settings file was written leaves a stray temporary file beside it.
@@ -137,18 +160,27 @@ export class PresetStore {
 		let settings: Record<string, unknown> = read.kind === 'ok' ? read.settings : {};
 		if (read.kind === 'damaged') {
 			const backup = read.identity ? keepDamaged(file, read.identity) : undefined;
-			if (backup) this.notices.push(`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ` +
-				`${printable(backup)} and started a fresh one; your presets are not affected`);
+			if (backup)
+				this.notices.push(
+					`the store's settings file ${printable(file)} was damaged (${read.problem}); kept it as ` +
+						`${printable(backup)} and started a fresh one; your presets are not affected`,
+				);
 			settings = {};
 		}
 		const written = typeof settings['recordVersion'] === 'number' ? settings['recordVersion'] : undefined;
 		if (written !== undefined && written > currentRecordVersion) {
-			this.notices.push(`this preset store was last written by a newer evenecho (record version ${written}); ` +
-				'presets it wrote may not load here and are left unchanged');
+			this.notices.push(
+				`this preset store was last written by a newer evenecho (record version ${written}); ` +
+					'presets it wrote may not load here and are left unchanged',
+			);
 		}
 		if (settings['layout'] !== storeLayout || written === undefined || written < currentRecordVersion) {
 			try {
-				writeSettings(file, {...settings, layout: storeLayout, recordVersion: Math.max(written ?? 0, currentRecordVersion)});
+				writeSettings(file, {
+					...settings,
+					layout: storeLayout,
+					recordVersion: Math.max(written ?? 0, currentRecordVersion),
+				});
 			} catch {
 				// A read-only store (e.g. a shared drive) still lists; writes report their own error.
 			}
@@ -166,9 +198,11 @@ export class PresetStore {
 		const problems = [...templates.problems, ...scan.problems];
 		for (const e of scan.entries) {
 			if (e.record.status === 'invalid') {
-				problems.push(`user preset ${e.id} (${e.file}) no longer validates and is kept as it is: ` +
-					`${e.record.problems.join('; ')}. ` +
-					`Fix the file or delete it with "evenecho presets delete ${e.id}".`);
+				problems.push(
+					`user preset ${e.id} (${e.file}) no longer validates and is kept as it is: ` +
+						`${e.record.problems.join('; ')}. ` +
+						`Fix the file or delete it with "evenecho presets delete ${e.id}".`,
+				);
 			}
 		}
 		return {presets: [...templates.templates.map(templateSummary), ...users.map(summaryOf)], problems};
@@ -242,8 +276,10 @@ export class PresetStore {
 		} else {
 			this.#writeRecord(newSlug, text, options.overwrite === true);
 			if (this.#records.remove(entry) === 'changed') {
-				this.notices.push(`${entry.id} was saved again by another process while it was being renamed; that newer ` +
-					'version is kept under its old name, beside the renamed copy');
+				this.notices.push(
+					`${entry.id} was saved again by another process while it was being renamed; that newer ` +
+						'version is kept under its old name, beside the renamed copy',
+				);
 			}
 		}
 		return this.#written(newSlug, newName, source.plan, savedAt);
@@ -271,7 +307,12 @@ export class PresetStore {
 			);
 		}
 		const name = entry.record.name ?? entry.stem;
-		return {id: entry.id, name, region: entry.record.status === 'ok' ? entry.record.plan.region : '', isTemplate: false};
+		return {
+			id: entry.id,
+			name,
+			region: entry.record.status === 'ok' ? entry.record.plan.region : '',
+			isTemplate: false,
+		};
 	}
 
 	/**
@@ -283,7 +324,8 @@ export class PresetStore {
 		if (idsOrNames.length === 0) {
 			const scan = this.#scan();
 			chosen = scan.entries.filter((e) => e.record.status === 'ok').map((e) => this.#userPreset(e));
-			if (chosen.length === 0) throw new PresetStoreError('there are no user presets to export; name the templates or presets to export');
+			if (chosen.length === 0)
+				throw new PresetStoreError('there are no user presets to export; name the templates or presets to export');
 		} else {
 			const byId = new Map<string, Preset>();
 			for (const q of idsOrNames) {
@@ -300,7 +342,11 @@ export class PresetStore {
 	 * Writes an export bundle to a file (atomically).
 	 * @throws PresetStoreError when the file exists and `overwrite` is not set, or cannot be written.
 	 */
-	exportTo(path: string, idsOrNames: readonly string[] = [], options: WriteOptions = {}): {file: string; presets: PresetSummary[]} {
+	exportTo(
+		path: string,
+		idsOrNames: readonly string[] = [],
+		options: WriteOptions = {},
+	): {file: string; presets: PresetSummary[]} {
 		const bundle = this.exportBundle(idsOrNames);
 		const file = resolve(path);
 		writeExportFile(file, bundle.text, {replace: options.overwrite === true}, presetKind.fail);
@@ -331,10 +377,15 @@ export class PresetStore {
 	 */
 	importDocument(value: unknown, where: string, options: WriteOptions = {}): Preset[] {
 		const decoded = decodeImport(value);
-		if (!decoded.ok) throw new PresetImportError(`${where}: not a valid preset file; nothing was imported`, decoded.problems);
+		if (!decoded.ok)
+			throw new PresetImportError(`${where}: not a valid preset file; nothing was imported`, decoded.problems);
 		const overwrite = options.overwrite === true;
 		const savedAt = new Date();
-		const targets = decoded.items.map((item) => ({item, stem: presetSlug(item.name), text: encodeRecord(item.name, item.plan, savedAt)}));
+		const targets = decoded.items.map((item) => ({
+			item,
+			stem: presetSlug(item.name),
+			text: encodeRecord(item.name, item.plan, savedAt),
+		}));
 		const outcome = this.#records.writeAll(targets, {replace: overwrite, where});
 		if (outcome !== 'done') {
 			const taken = outcome.taken.map((i) => targets[i]!);
@@ -344,7 +395,10 @@ export class PresetStore {
 					? 'a user preset with this name already exists'
 					: `${taken.length} user presets with these names already exist`;
 			if (outcome.raced) {
-				throw this.#existsError(first?.stem ?? targets[0]!.stem, `${where}: ${first ? `"${first.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`);
+				throw this.#existsError(
+					first?.stem ?? targets[0]!.stem,
+					`${where}: ${first ? `"${first.item.name}"` : 'a preset'} was saved by another process meanwhile; nothing was imported`,
+				);
 			}
 			throw new PresetExistsError(
 				userIdPrefix + first!.stem,
@@ -377,12 +431,16 @@ export class PresetStore {
 	#existsError(slug: string, message?: string): PresetExistsError {
 		const id = userIdPrefix + slug;
 		const entry = this.#records.read(slug);
-		if (entry && entry.record.status === 'ok') return message ? new PresetExistsError(id, entry.record.name, message) : new PresetExistsError(id, entry.record.name);
+		if (entry && entry.record.status === 'ok')
+			return message
+				? new PresetExistsError(id, entry.record.name, message)
+				: new PresetExistsError(id, entry.record.name);
 		return new PresetExistsError(
 			id,
 			entry?.record.name ?? slug,
-			message ?? `the user preset file for ${id} (${this.#records.fileOf(slug)}) already exists but does ` +
-				'not validate; use --force to replace it, or delete it first',
+			message ??
+				`the user preset file for ${id} (${this.#records.fileOf(slug)}) already exists but does ` +
+					'not validate; use --force to replace it, or delete it first',
 		);
 	}
 
@@ -395,7 +453,9 @@ export class PresetStore {
 		if (userById) return {kind: 'user', entry: userById, entries};
 		const slug = presetSlug(query.normalize('NFC').trim());
 		if (!slug) return undefined;
-		const userBySlug = entries.find((e) => e.stem === slug) ?? entries.find((e) => e.record.name !== undefined && presetSlug(e.record.name) === slug);
+		const userBySlug =
+			entries.find((e) => e.stem === slug) ??
+			entries.find((e) => e.record.name !== undefined && presetSlug(e.record.name) === slug);
 		if (userBySlug) return {kind: 'user', entry: userBySlug, entries};
 		const templateByName = templates.find((t) => presetSlug(t.plan.name) === slug);
 		return templateByName ? {kind: 'template', template: templateByName} : undefined;
@@ -412,7 +472,9 @@ export class PresetStore {
 	#userPreset(entry: UserEntry, all?: readonly UserEntry[]): Preset {
 		const record = entry.record;
 		if (record.status !== 'ok') throw new PresetInvalidError(entry.id, entry.file, record.problems); // callers filter first
-		const twins = (all ?? []).filter((e) => e !== entry && e.record.name !== undefined && presetSlug(e.record.name) === presetSlug(record.name));
+		const twins = (all ?? []).filter(
+			(e) => e !== entry && e.record.name !== undefined && presetSlug(e.record.name) === presetSlug(record.name),
+		);
 		return {
 			id: entry.id,
 			name: record.name,
@@ -442,7 +504,8 @@ function templatePreset(t: Template): Preset {
 /** Validates a plan handed to `save` (the console may pass one it built itself). */
 function checkPlan(plan: PlanDocument, name: string): PlanDocument {
 	const parsed = parsePlanDocument({...plan, name});
-	if (!parsed.ok) throw new PresetImportError(`the plan for "${name}" does not validate; nothing was saved`, parsed.errors);
+	if (!parsed.ok)
+		throw new PresetImportError(`the plan for "${name}" does not validate; nothing was saved`, parsed.errors);
 	return parsed.value;
 }
 

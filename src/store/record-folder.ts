@@ -27,7 +27,13 @@ import {entryAt, isTempName, writeFileAtomic} from '../files/atomic-write.js';
 import {maxPlanBytes, readRegularFile, type FileIdentity} from '../files/bounded-read.js';
 import {commitBatch, recoverBatches, type BatchPause} from '../files/file-batch.js';
 import {FileRefusedError, errnoOf} from '../files/file-errors.js';
-import {moveAsideIfUnchanged, removeIfUnchanged, replaceIfUnchanged, type GuardedOutcome, type PausePoint} from '../files/guarded-change.js';
+import {
+	moveAsideIfUnchanged,
+	removeIfUnchanged,
+	replaceIfUnchanged,
+	type GuardedOutcome,
+	type PausePoint,
+} from '../files/guarded-change.js';
 import {parseJsonBytes} from '../files/json-input.js';
 import {checkOwnedFolder} from '../files/owned-folder.js';
 import {printable} from '../files/printable.js';
@@ -127,7 +133,8 @@ export class RecordFolder<D> {
 		this.unusable = unusable;
 		if (unusable) return;
 		this.#notices.push(...recoverBatches(this.folder));
-		for (const name of sweepTemps(this.folder)) this.#notices.push(`${printable(name)} was put back after an interrupted change`);
+		for (const name of sweepTemps(this.folder))
+			this.#notices.push(`${printable(name)} was put back after an interrupted change`);
 	}
 
 	fileOf(stem: string): string {
@@ -154,7 +161,10 @@ export class RecordFolder<D> {
 			if (!checkOwnedFolder(this.folder, {create: false})) return {entries: [], problems};
 			names = readdirSync(this.folder).sort();
 		} catch (error) {
-			const why = error instanceof FileRefusedError ? error.message : `cannot read ${printable(this.folder)} (${errnoOf(error) ?? 'error'})`;
+			const why =
+				error instanceof FileRefusedError
+					? error.message
+					: `cannot read ${printable(this.folder)} (${errnoOf(error) ?? 'error'})`;
 			problems.push(`${why}; no ${this.#kind.plural} of yours are shown`);
 			return {entries: [], problems};
 		}
@@ -165,8 +175,10 @@ export class RecordFolder<D> {
 			if (isTempName(fileName) || fileName.startsWith('.') || !fileName.endsWith('.json')) continue;
 			const stem = fileName.slice(0, -'.json'.length);
 			if (slug(stem) !== stem) {
-				problems.push(`${printable(join(this.folder, fileName))}: not a ${this.#kind.noun} file name ` +
-					'(lower-case letters, digits and hyphens); left as it is');
+				problems.push(
+					`${printable(join(this.folder, fileName))}: not a ${this.#kind.noun} file name ` +
+						'(lower-case letters, digits and hyphens); left as it is',
+				);
 				continue;
 			}
 			const entry = this.read(stem, problems);
@@ -197,8 +209,11 @@ export class RecordFolder<D> {
 			const problem = error.message.slice(error.message.indexOf(': ') + 2);
 			if (error.code === 'not-json' || error.code === 'encoding') {
 				const backup = keepDamaged(file, identity);
-				if (backup) this.#notices.push(`${kind.noun} file ${printable(file)} was damaged (${problem}); kept it as ` +
-					`${printable(backup)}; the other ${kind.plural} are not affected`);
+				if (backup)
+					this.#notices.push(
+						`${kind.noun} file ${printable(file)} was damaged (${problem}); kept it as ` +
+							`${printable(backup)}; the other ${kind.plural} are not affected`,
+					);
 				return undefined;
 			}
 			record = kind.refused(problem);
@@ -240,7 +255,10 @@ export class RecordFolder<D> {
 	 * @returns 'done', or the indexes of `records` whose names were taken (nothing was written), with
 	 * `raced` set when another process took one after the check.
 	 */
-	writeAll(records: readonly {readonly stem: string; readonly text: string}[], options: {replace: boolean; where: string}): 'done' | {taken: number[]; raced: boolean} {
+	writeAll(
+		records: readonly {readonly stem: string; readonly text: string}[],
+		options: {replace: boolean; where: string},
+	): 'done' | {taken: number[]; raced: boolean} {
 		this.requireUsable('nothing was imported');
 		const takenNow = () => records.flatMap((r, i) => (this.taken(r.stem) ? [i] : []));
 		if (!options.replace) {
@@ -290,7 +308,12 @@ export class RecordFolder<D> {
  * Writes an export file atomically where the user asked, never replacing a file unless `replace`.
  * @throws the store's error when the file exists or cannot be written.
  */
-export function writeExportFile(file: string, text: string, options: {replace: boolean}, fail: (message: string) => Error): void {
+export function writeExportFile(
+	file: string,
+	text: string,
+	options: {replace: boolean},
+	fail: (message: string) => Error,
+): void {
 	try {
 		writeFileAtomic(file, text, {replace: options.replace});
 	} catch (error) {

@@ -22,7 +22,13 @@ export const userIdPrefix = 'user:';
 const punctuation = "-_.,()+'&–";
 const namePattern = new RegExp(`^[\\p{L}\\p{N}][\\p{L}\\p{M}\\p{N} ${escapeForClass(punctuation)}]*$`, 'u');
 /** Device names Windows refuses as file names (teams keep stores on shared drives). */
-const reservedSlugs = new Set(['con', 'prn', 'aux', 'nul', ...[1, 2, 3, 4, 5, 6, 7, 8, 9].flatMap((n) => [`com${n}`, `lpt${n}`])]);
+const reservedSlugs = new Set([
+	'con',
+	'prn',
+	'aux',
+	'nul',
+	...[1, 2, 3, 4, 5, 6, 7, 8, 9].flatMap((n) => [`com${n}`, `lpt${n}`]),
+]);
 /** Well under the usual 255-byte file-name limit, leaving room for ".json" and backup suffixes. */
 const maxSlugBytes = 180;
 
@@ -31,7 +37,8 @@ function escapeForClass(chars: string): string {
 }
 
 /** Human-readable statement of the rule, for messages and help. */
-export const presetNameRule = `${presetNameLimits.minLength} to ${presetNameLimits.maxLength} characters: letters, ` +
+export const presetNameRule =
+	`${presetNameLimits.minLength} to ${presetNameLimits.maxLength} characters: letters, ` +
 	`digits, spaces and ${[...punctuation].join(' ')}, starting with a letter or digit`;
 
 /** The file-name form of a name (the project's one slug rule, src/files/slug.ts). */
@@ -48,16 +55,27 @@ export function checkPresetName(input: unknown, field = 'name'): string {
 	const name = input.normalize('NFC').trim();
 	const length = [...name].length;
 	if (length < presetNameLimits.minLength || length > presetNameLimits.maxLength) {
-		throw new PresetNameError(`${field}: "${printable(name)}" has ${length} characters; a preset name has ${presetNameRule}`);
+		throw new PresetNameError(
+			`${field}: "${printable(name)}" has ${length} characters; a preset name has ${presetNameRule}`,
+		);
 	}
 	if (!namePattern.test(name)) {
-		throw new PresetNameError(`${field}: "${printable(name)}" contains characters a preset name cannot have; allowed: ${presetNameRule}`);
+		throw new PresetNameError(
+			`${field}: "${printable(name)}" contains characters a preset name cannot have; allowed: ${presetNameRule}`,
+		);
 	}
 	const slug = presetSlug(name);
 	// Some compatibility characters decompose to marks only, which leaves nothing to name a file.
-	if (!slug) throw new PresetNameError(`${field}: "${printable(name)}" has no letters or digits that can name a file; use ordinary letters or digits`);
-	if (reservedSlugs.has(slug)) throw new PresetNameError(`${field}: "${printable(name)}" is reserved as a file name on Windows; choose another name`);
-	if (Buffer.byteLength(slug, 'utf8') > maxSlugBytes) throw new PresetNameError(`${field}: "${printable(name)}" is too long once written as a file name; shorten it`);
+	if (!slug)
+		throw new PresetNameError(
+			`${field}: "${printable(name)}" has no letters or digits that can name a file; use ordinary letters or digits`,
+		);
+	if (reservedSlugs.has(slug))
+		throw new PresetNameError(
+			`${field}: "${printable(name)}" is reserved as a file name on Windows; choose another name`,
+		);
+	if (Buffer.byteLength(slug, 'utf8') > maxSlugBytes)
+		throw new PresetNameError(`${field}: "${printable(name)}" is too long once written as a file name; shorten it`);
 	return name;
 }
 

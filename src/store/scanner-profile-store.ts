@@ -35,8 +35,10 @@ export function checkProfileName(input: string, field = '--name'): {name: string
 	const name = input.normalize('NFC').trim();
 	const length = [...name].length;
 	if (length < 1 || length > 60 || !namePattern.test(name)) {
-		throw new ScannerStoreError(`${field}: "${printable(name)}" is not a profile name: 1 to 60 characters, letters, ` +
-			`digits, spaces and - _ . , ( ) + ' &, starting with a letter or digit`);
+		throw new ScannerStoreError(
+			`${field}: "${printable(name)}" is not a profile name: 1 to 60 characters, letters, ` +
+				`digits, spaces and - _ . , ( ) + ' &, starting with a letter or digit`,
+		);
 	}
 	const id = slug(name, {maxChars: 64});
 	if (!id) throw new ScannerStoreError(`${field}: "${printable(name)}" has no letters or digits that can name a file`);
@@ -44,7 +46,9 @@ export function checkProfileName(input: string, field = '--name'): {name: string
 }
 
 /** What reading one stored profile gave; an invalid one is reported and left as it is. */
-type ProfileRead = {readonly status: 'ok'; readonly profile: ScannerProfile} | {readonly status: 'invalid'; readonly problem: string};
+type ProfileRead =
+	| {readonly status: 'ok'; readonly profile: ScannerProfile}
+	| {readonly status: 'invalid'; readonly problem: string};
 
 const profileKind: RecordKind<ProfileRead> = {
 	store: 'the scanner-profile store',
@@ -53,7 +57,9 @@ const profileKind: RecordKind<ProfileRead> = {
 	label: (stem) => `scanner profile ${stem}`,
 	decode(value) {
 		const parsed = parseProfile(value);
-		return parsed.ok ? {status: 'ok', profile: parsed.value} : {status: 'invalid', problem: parsed.errors[0] ?? 'does not validate'};
+		return parsed.ok
+			? {status: 'ok', profile: parsed.value}
+			: {status: 'invalid', problem: parsed.errors[0] ?? 'does not validate'};
 	},
 	refused: (problem) => ({status: 'invalid', problem}),
 	fail: (message) => new ScannerStoreError(message),
@@ -93,7 +99,8 @@ export class ScannerProfileStore {
 	) {
 		this.#records = new RecordFolder({home, name: 'scanner-profiles', kind: profileKind, notices: this.notices, pause});
 		this.folder = this.#records.folder;
-		if (this.#records.unusable) this.notices.push(`${this.#records.unusable}; scanner profiles cannot be read or saved until that is fixed`);
+		if (this.#records.unusable)
+			this.notices.push(`${this.#records.unusable}; scanner profiles cannot be read or saved until that is fixed`);
 	}
 
 	/** Every valid profile by id; the problems include the store's notices, each reported once. */
@@ -114,7 +121,11 @@ export class ScannerProfileStore {
 		const problems: string[] = [];
 		const entry = this.#records.read(id, problems);
 		if (problems.length) throw new ScannerStoreError(problems[0]!);
-		if (!entry) throw new ScannerStoreError(`no scanner profile "${printable(idOrName)}" (evenecho scanner list shows them)`, this.notices.splice(0));
+		if (!entry)
+			throw new ScannerStoreError(
+				`no scanner profile "${printable(idOrName)}" (evenecho scanner list shows them)`,
+				this.notices.splice(0),
+			);
 		if (entry.record.status !== 'ok') throw new ScannerStoreError(invalidText(entry, entry.record.problem));
 		return {entry, profile: entry.record.profile};
 	}
@@ -126,7 +137,9 @@ export class ScannerProfileStore {
 	/** Stores a profile under its id; refuses to replace one unless `replace`. */
 	save(profile: ScannerProfile, options: {replace: boolean}): void {
 		if (this.#records.write(profile.id, profileText(profile), options) === 'exists') {
-			throw new ScannerStoreError(`a scanner profile "${profile.id}" already exists; use --force to replace it, or --name to choose another name`);
+			throw new ScannerStoreError(
+				`a scanner profile "${profile.id}" already exists; use --force to replace it, or --name to choose another name`,
+			);
 		}
 	}
 
@@ -134,7 +147,9 @@ export class ScannerProfileStore {
 	delete(idOrName: string): ScannerProfile {
 		const found = this.#find(idOrName);
 		if (this.#records.remove(found.entry) === 'changed') {
-			throw new ScannerStoreError(`the profile "${found.profile.id}" changed while being deleted (another save?); nothing was deleted`);
+			throw new ScannerStoreError(
+				`the profile "${found.profile.id}" changed while being deleted (another save?); nothing was deleted`,
+			);
 		}
 		return found.profile;
 	}
@@ -150,13 +165,18 @@ export class ScannerProfileStore {
 		if (id === found.profile.id) {
 			// Same file (the name changes only in case or punctuation): replace it if unchanged.
 			const outcome = this.#records.replace(found.entry, profileText(renamed));
-			if (outcome !== 'done') throw new ScannerStoreError(`the profile "${id}" was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; nothing was renamed`);
+			if (outcome !== 'done')
+				throw new ScannerStoreError(
+					`the profile "${id}" was ${outcome === 'gone' ? 'deleted' : 'changed'} by another process after it was read; nothing was renamed`,
+				);
 			return renamed;
 		}
 		this.save(renamed, options);
 		if (this.#records.remove(found.entry) === 'changed') {
-			this.notices.push(`"${found.profile.id}" was saved again by another process while it was being renamed; ` +
-				'that newer version is kept beside the renamed copy');
+			this.notices.push(
+				`"${found.profile.id}" was saved again by another process while it was being renamed; ` +
+					'that newer version is kept beside the renamed copy',
+			);
 		}
 		return renamed;
 	}
@@ -180,23 +200,29 @@ export class ScannerProfileStore {
 		let items: unknown[];
 		if (value && typeof value === 'object' && value.format === profileBundleFormat) {
 			if (!Array.isArray(value.profiles) || value.profiles.length > maxBundleProfiles) {
-				throw new ScannerStoreError(`${where}: profiles must be a list of at most ${maxBundleProfiles}; nothing was imported`);
+				throw new ScannerStoreError(
+					`${where}: profiles must be a list of at most ${maxBundleProfiles}; nothing was imported`,
+				);
 			}
 			items = value.profiles;
 		} else if (value && typeof value === 'object' && value.format === profileFormat) {
 			items = [value];
 		} else {
-			throw new ScannerStoreError(`${where}: format must be "${profileFormat}" or "${profileBundleFormat}"; nothing was imported`);
+			throw new ScannerStoreError(
+				`${where}: format must be "${profileFormat}" or "${profileBundleFormat}"; nothing was imported`,
+			);
 		}
 		const problems: string[] = [];
 		const profiles: ScannerProfile[] = [];
 		items.forEach((item, i) => {
 			const parsed = parseProfile(item);
 			if (!parsed.ok) problems.push(...parsed.errors.map((e) => `profiles.${i}.${e}`));
-			else if (checkProfileName(parsed.value.name, `profiles.${i}.name`).id !== parsed.value.id) problems.push(`profiles.${i}.id: must be the file-name form of its name`);
+			else if (checkProfileName(parsed.value.name, `profiles.${i}.name`).id !== parsed.value.id)
+				problems.push(`profiles.${i}.id: must be the file-name form of its name`);
 			else profiles.push(parsed.value);
 		});
-		if (problems.length) throw new ScannerStoreError(`${where}: not valid scanner profiles; nothing was imported`, problems.slice(0, 20));
+		if (problems.length)
+			throw new ScannerStoreError(`${where}: not valid scanner profiles; nothing was imported`, problems.slice(0, 20));
 		const ids = profiles.map((p) => p.id);
 		const twice = ids.find((id, i) => ids.indexOf(id) !== i);
 		if (twice) throw new ScannerStoreError(`${where}: the profile "${twice}" appears twice; nothing was imported`);
@@ -206,8 +232,13 @@ export class ScannerProfileStore {
 		);
 		if (outcome !== 'done') {
 			const clash = outcome.taken.map((i) => `"${ids[i]}"`);
-			if (outcome.raced) throw new ScannerStoreError(`${where}: ${clash[0] ?? 'a profile'} was saved by another process meanwhile; nothing was imported`);
-			throw new ScannerStoreError(`${where}: ${clash.join(', ')} already exist${clash.length > 1 ? '' : 's'}; use --force to replace; nothing was imported`);
+			if (outcome.raced)
+				throw new ScannerStoreError(
+					`${where}: ${clash[0] ?? 'a profile'} was saved by another process meanwhile; nothing was imported`,
+				);
+			throw new ScannerStoreError(
+				`${where}: ${clash.join(', ')} already exist${clash.length > 1 ? '' : 's'}; use --force to replace; nothing was imported`,
+			);
 		}
 		return profiles;
 	}

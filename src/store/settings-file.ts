@@ -30,7 +30,12 @@ class FolderOnlyConf extends Conf<Settings> {
 
 /** Where the settings file lives: `<home>/config.json`, home being conf's choice unless given. */
 export function settingsPath(home: string | undefined): string {
-	return new FolderOnlyConf({projectName: 'evenecho', configName: 'config', ...(home !== undefined ? {cwd: home} : {}), clearInvalidConfig: false}).path;
+	return new FolderOnlyConf({
+		projectName: 'evenecho',
+		configName: 'config',
+		...(home !== undefined ? {cwd: home} : {}),
+		clearInvalidConfig: false,
+	}).path;
 }
 
 export function storeHomeOf(settingsFile: string): string {
@@ -59,7 +64,9 @@ export function readSettings(file: string): SettingsRead {
 	const identity = read.identity!;
 	try {
 		const doc = parseJsonBytes(file, read.bytes, identity);
-		return isPlainObject(doc.value) ? {kind: 'ok', settings: doc.value} : {kind: 'damaged', problem: 'not a JSON object', identity};
+		return isPlainObject(doc.value)
+			? {kind: 'ok', settings: doc.value}
+			: {kind: 'damaged', problem: 'not a JSON object', identity};
 	} catch (error) {
 		if (!(error instanceof FileRefusedError)) throw error;
 		// The message starts with the path; the notice names the file itself.

@@ -40,7 +40,9 @@ export class TemplateReadOnlyError extends PresetStoreError {
 		readonly templateId: string,
 		action: string,
 	) {
-		super(`"${templateId}" is a built-in template and cannot be ${action}; "evenecho presets copy ${templateId} <name>" makes your own copy`);
+		super(
+			`"${templateId}" is a built-in template and cannot be ${action}; "evenecho presets copy ${templateId} <name>" makes your own copy`,
+		);
 		this.name = 'TemplateReadOnlyError';
 	}
 }
@@ -68,7 +70,10 @@ export class PresetInvalidError extends PresetStoreError {
 		readonly file: string,
 		problems: readonly string[],
 	) {
-		super(`user preset ${presetId} (${file}) no longer validates; fix the file or delete it with "evenecho presets delete ${presetId}"`, problems);
+		super(
+			`user preset ${presetId} (${file}) no longer validates; fix the file or delete it with "evenecho presets delete ${presetId}"`,
+			problems,
+		);
 		this.name = 'PresetInvalidError';
 	}
 }

@@ -54,10 +54,14 @@ export function loadTemplates(dir?: string): {templates: Template[]; problems: s
 	const problems: string[] = [];
 	let names: string[];
 	try {
-		names = readdirSync(where).filter((n) => n.endsWith('.json')).sort();
+		names = readdirSync(where)
+			.filter((n) => n.endsWith('.json'))
+			.sort();
 	} catch (error) {
 		names = [];
-		problems.push(`templates folder ${where} cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'}); only user presets are available`);
+		problems.push(
+			`templates folder ${where} cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'}); only user presets are available`,
+		);
 	}
 	for (const fileName of names) {
 		const id = fileName.slice(0, -'.json'.length);

@@ -6,7 +6,17 @@
  */
 import type {Limit} from '../plan/plan-schema.js';
 import {describeRange, limits} from '../plan/plan-schema.js';
-import {checkNumberList, marginLimit, maxLadderLength, maxTableRows, SweepError, type LayerSwap, type ReceiveMode, type SweepSpec, type TissueChoice} from './sweep-spec.js';
+import {
+	checkNumberList,
+	marginLimit,
+	maxLadderLength,
+	maxTableRows,
+	SweepError,
+	type LayerSwap,
+	type ReceiveMode,
+	type SweepSpec,
+	type TissueChoice,
+} from './sweep-spec.js';
 
 const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)$/;
 
@@ -20,9 +30,16 @@ export function parseDecimal(text: string): number {
  * "1,2,4,6,8" → [1, 2, 4, 6, 8], or "1:8:0.5" (from:to:step, both ends included when the steps
  * land on them) → [1, 1.5, …, 8]; checked against the limit.
  */
-export function parseNumberList(option: string, text: string, limit: Limit, unit: string, maxLength = maxTableRows): number[] {
+export function parseNumberList(
+	option: string,
+	text: string,
+	limit: Limit,
+	unit: string,
+	maxLength = maxTableRows,
+): number[] {
 	const range = describeRange(limit, unit);
-	const form = `a comma-separated list of numbers ${range} (e.g. ` +
+	const form =
+		`a comma-separated list of numbers ${range} (e.g. ` +
 		`${option === 'fat' ? '1,2,4,6,8' : option === 'angle' ? '0,15,30' : '2.5,3.5,5'}) or ` +
 		'from:to:step';
 	const trimmed = text.trim();
@@ -30,11 +47,14 @@ export function parseNumberList(option: string, text: string, limit: Limit, unit
 	let values: number[];
 	if (trimmed.includes(':')) {
 		const parts = trimmed.split(':').map(parseDecimal);
-		if (parts.length !== 3 || parts.some(Number.isNaN)) throw new SweepError(option, `--${option}: "${trimmed}" is not a from:to:step range; expected ${form}`);
+		if (parts.length !== 3 || parts.some(Number.isNaN))
+			throw new SweepError(option, `--${option}: "${trimmed}" is not a from:to:step range; expected ${form}`);
 		const [from, to, step] = parts as [number, number, number];
-		if (!(step > 0) || to < from) throw new SweepError(option, `--${option}: "${trimmed}" needs a step above 0 and to ≥ from; expected ${form}`);
+		if (!(step > 0) || to < from)
+			throw new SweepError(option, `--${option}: "${trimmed}" needs a step above 0 and to ≥ from; expected ${form}`);
 		const count = Math.floor((to - from) / step + 1e-9) + 1;
-		if (count > maxLength) throw new SweepError(option, `--${option}: "${trimmed}" makes ${count} values; at most ${maxLength} are allowed`);
+		if (count > maxLength)
+			throw new SweepError(option, `--${option}: "${trimmed}" makes ${count} values; at most ${maxLength} are allowed`);
 		values = Array.from({length: count}, (_, i) => Number((from + i * step).toFixed(6)));
 	} else {
 		values = trimmed.split(',').map((raw) => {
@@ -52,7 +72,11 @@ export function parseNumberList(option: string, text: string, limit: Limit, unit
 /** A 1-based layer number. */
 export function parseLayerNumber(option: string, text: string): number {
 	const t = text.trim();
-	if (!/^\d+$/.test(t)) throw new SweepError(option, `--${option}: must be a whole layer number from 1 (the layer just under the skin) down (got "${text}")`);
+	if (!/^\d+$/.test(t))
+		throw new SweepError(
+			option,
+			`--${option}: must be a whole layer number from 1 (the layer just under the skin) down (got "${text}")`,
+		);
 	return Number(t);
 }
 
@@ -93,7 +117,8 @@ export type PresetLayerLookup = (preset: string, layer: number) => TissueChoice 
 
 /** `4=spleen`, `4=liver,spleen`, `4=lower-abdomen:3` (layer 3 of that preset). */
 export function parseSwap(text: string, presetLayer?: PresetLayerLookup): LayerSwap {
-	const form = 'expected N=TISSUE[,TISSUE…] where N is a layer number and TISSUE a tissue id or PRESET:M (layer M of a preset)';
+	const form =
+		'expected N=TISSUE[,TISSUE…] where N is a layer number and TISSUE a tissue id or PRESET:M (layer M of a preset)';
 	const eq = text.indexOf('=');
 	if (eq < 0) throw new SweepError('swap', `--swap: "${text}" has no "="; ${form}`);
 	const layerText = text.slice(0, eq).trim();
@@ -112,7 +137,8 @@ export function parseSwap(text: string, presetLayer?: PresetLayerLookup): LayerS
 		if (preset === '' || !/^\d+$/.test(mText) || Number(mText) < 1) {
 			throw new SweepError('swap', `--swap: "${item}" should be PRESET:M with M a layer number from 1; ${form}`);
 		}
-		if (!presetLayer) throw new SweepError('swap', `--swap: "${item}": presets are not available here; use a tissue id`);
+		if (!presetLayer)
+			throw new SweepError('swap', `--swap: "${item}": presets are not available here; use a tissue id`);
 		const found = presetLayer(preset, Number(mText));
 		if (!found) throw new SweepError('swap', `--swap: no preset or template "${preset}" (see evenecho presets list)`);
 		return found;
@@ -145,7 +171,9 @@ export function parseSweepText(t: SweepText, presetLayer?: PresetLayerLookup): S
 		...(t.swap?.length ? {swaps: t.swap.map((s) => parseSwap(s, presetLayer))} : {}),
 		...(t.delta ? {delta: true} : {}),
 		...(t.margin !== undefined ? {marginDb: parseBoundedNumber('margin', t.margin, marginLimit, 'dB')} : {}),
-		...(t.ladder !== undefined ? {ladderMhz: parseNumberList('ladder', t.ladder, limits.centerMhz, 'MHz', maxLadderLength)} : {}),
+		...(t.ladder !== undefined
+			? {ladderMhz: parseNumberList('ladder', t.ladder, limits.centerMhz, 'MHz', maxLadderLength)}
+			: {}),
 		...(t.step !== undefined ? {stepCm: parseBoundedNumber('step', t.step, {min: 0.01, max: 5}, 'cm')} : {}),
 	};
 }

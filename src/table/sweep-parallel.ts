@@ -10,7 +10,20 @@ import {fileURLToPath} from 'node:url';
 import {Worker} from 'node:worker_threads';
 import {settingsOf} from '../engine/plan-difference.js';
 import type {ResolvedSweep} from './sweep-spec.js';
-import {referenceFitOf, rowSpots, rowsPerFrequency, rowValues, type LadderCache, runSweep, tableOf, tableRow, type ProtocolTable, type RowValues, type RunOptions, type TableRow} from './sweep-runner.js';
+import {
+	referenceFitOf,
+	rowSpots,
+	rowsPerFrequency,
+	rowValues,
+	type LadderCache,
+	runSweep,
+	tableOf,
+	tableRow,
+	type ProtocolTable,
+	type RowValues,
+	type RunOptions,
+	type TableRow,
+} from './sweep-runner.js';
 import {isWorkersRow, rowsPerReply, type SweepJob, type WorkerReply} from './sweep-worker.js';
 
 /** Below this many rows the threads' start-up (~0.1 s each) costs more than they save. */

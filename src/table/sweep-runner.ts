@@ -136,7 +136,10 @@ export function rowsPerFrequency(sweep: ResolvedSweep): number {
 export type LadderCache = Map<string, {readonly mhz: number | null; readonly penetrationCm: number | null}>;
 
 /** What the engine gives for one row (plain data, so a worker thread can send it back). */
-export type RowValues = Omit<TableRow, 'index' | 'layerCm' | 'centerMhz' | 'angleDeg' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'>;
+export type RowValues = Omit<
+	TableRow,
+	'index' | 'layerCm' | 'centerMhz' | 'angleDeg' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'
+>;
 
 /** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
 export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
@@ -167,7 +170,14 @@ export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCa
 		highestReachingPenetrationCm: highest.penetrationCm,
 		// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
 		warnings: r.warnings.filter((w) => w.severity === 'warning'),
-		...(keepCurves ? {curve: {depthsCm: r.samples.map((s) => s.displayedDepthCm), compensationDb: r.samples.map((s) => s.compensationDb)}} : {}),
+		...(keepCurves
+			? {
+					curve: {
+						depthsCm: r.samples.map((s) => s.displayedDepthCm),
+						compensationDb: r.samples.map((s) => s.compensationDb),
+					},
+				}
+			: {}),
 	};
 }
 
@@ -191,7 +201,9 @@ export function tableRow(sweep: ResolvedSweep, spot: RowSpot, values: RowValues,
 			return resolvePlan(variantDoc(sweep, combo, layerCm), sweep.scanner);
 		},
 		...values,
-		...(sweep.delta ? {delta: settingsDelta({slidersDb: values.slidersDb, masterGainDb: values.masterGainDb}, reference)} : {}),
+		...(sweep.delta
+			? {delta: settingsDelta({slidersDb: values.slidersDb, masterGainDb: values.masterGainDb}, reference)}
+			: {}),
 	};
 }
 
@@ -235,17 +247,48 @@ export function variantDoc(sweep: ResolvedSweep, combo: Combination, layerCm: nu
 
 /** Everything the ladder depends on except the frequency. */
 export function ladderKey(plan: EnginePlan, targetCm: number): string {
-	return JSON.stringify([targetCm, plan.layers.map((l) => [l.tissue.label, l.tissue.alphaDbPerCmMhz, l.tissue.exponent, l.tissue.speedMps, l.tissue.densityKgM3, l.thicknessCm]), plan.probe.receive, plan.probe.bandwidthFraction, plan.probe.spectrumSteepness, plan.probe.angleDeg, plan.noiseBudgetDb]);
+	return JSON.stringify([
+		targetCm,
+		plan.layers.map((l) => [
+			l.tissue.label,
+			l.tissue.alphaDbPerCmMhz,
+			l.tissue.exponent,
+			l.tissue.speedMps,
+			l.tissue.densityKgM3,
+			l.thicknessCm,
+		]),
+		plan.probe.receive,
+		plan.probe.bandwidthFraction,
+		plan.probe.spectrumSteepness,
+		plan.probe.angleDeg,
+		plan.noiseBudgetDb,
+	]);
 }
 
 export function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 	const swapped = new Set(sweep.swaps.map((s) => s.layer));
 	// A swapped layer never carries the plan's own tissue in any row: list only its choices.
 	const out: TissueUse[] = sweep.doc.layers.flatMap((l, i) =>
-		swapped.has(i + 1) ? [] : [{where: `layer ${i + 1}`, layer: i + 1, swapped: false, tissue: resolveLayer(l, sweep.doc.display.assumedSpeedMps).tissue}],
+		swapped.has(i + 1)
+			? []
+			: [
+					{
+						where: `layer ${i + 1}`,
+						layer: i + 1,
+						swapped: false,
+						tissue: resolveLayer(l, sweep.doc.display.assumedSpeedMps).tissue,
+					},
+				],
 	);
 	for (const s of sweep.swaps) {
-		for (const c of s.choices) out.push({where: `layer ${s.layer} (swap)`, layer: s.layer, swapped: true, tissue: c.record, ...(c.from ? {from: c.from} : {})});
+		for (const c of s.choices)
+			out.push({
+				where: `layer ${s.layer} (swap)`,
+				layer: s.layer,
+				swapped: true,
+				tissue: c.record,
+				...(c.from ? {from: c.from} : {}),
+			});
 	}
 	return out;
 }

@@ -8,7 +8,15 @@
 import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {ReceiveMode, Tissue} from '../engine/types.js';
 import {fatLayerIndex} from '../plan/fat-layer.js';
-import {describeRange, limits, receiveModes, resolveTissue, type Limit, type LayerDocument, type PlanDocument} from '../plan/plan-schema.js';
+import {
+	describeRange,
+	limits,
+	receiveModes,
+	resolveTissue,
+	type Limit,
+	type LayerDocument,
+	type PlanDocument,
+} from '../plan/plan-schema.js';
 import {resolvePlan, type PlanScanner} from '../plan/resolve-plan.js';
 import {describeTarget, targetDepthOf} from '../plan/plan-target.js';
 
@@ -126,15 +134,25 @@ function within(l: Limit, x: number): boolean {
  * Checks a list of numbers for one option: not empty, finite, not negative, in range, no value
  * twice; `unit` goes into the range text.
  */
-export function checkNumberList(option: string, values: readonly number[], limit: Limit, unit: string, maxLength = maxTableRows): void {
+export function checkNumberList(
+	option: string,
+	values: readonly number[],
+	limit: Limit,
+	unit: string,
+	maxLength = maxTableRows,
+): void {
 	const range = `${describeRange(limit, unit)}`;
-	if (values.length === 0) throw new SweepError(option, `--${option}: no values given; expected a comma-separated list of numbers ${range}`);
-	if (values.length > maxLength) throw new SweepError(option, `--${option}: ${values.length} values; at most ${maxLength} are allowed`);
+	if (values.length === 0)
+		throw new SweepError(option, `--${option}: no values given; expected a comma-separated list of numbers ${range}`);
+	if (values.length > maxLength)
+		throw new SweepError(option, `--${option}: ${values.length} values; at most ${maxLength} are allowed`);
 	const seen = new Set<number>();
 	for (const v of values) {
 		if (!Number.isFinite(v)) throw new SweepError(option, `--${option}: every value must be a number ${range}`);
-		if (v < 0) throw new SweepError(option, `--${option}: ${show(v)} is negative; every value must be a number ${range}`);
-		if (!within(limit, v)) throw new SweepError(option, `--${option}: ${show(v)} is out of range; every value must be a number ${range}`);
+		if (v < 0)
+			throw new SweepError(option, `--${option}: ${show(v)} is negative; every value must be a number ${range}`);
+		if (!within(limit, v))
+			throw new SweepError(option, `--${option}: ${show(v)} is out of range; every value must be a number ${range}`);
 		if (seen.has(v)) throw new SweepError(option, `--${option}: ${show(v)} is listed twice; give each value once`);
 		seen.add(v);
 	}
@@ -144,8 +162,12 @@ export function checkNumberList(option: string, values: readonly number[], limit
 function choiceRecord(layer: number, choice: TissueChoice): Tissue {
 	if (typeof choice.tissue === 'string') {
 		const found = libraryTissue(choice.tissue);
-		if (!found) throw new SweepError('swap', `--swap: unknown tissue "${choice.tissue}" for layer ${layer}; known tissues: ` +
-			`${tissueIds.join(', ')} (or PRESET:M for layer M of a preset)`);
+		if (!found)
+			throw new SweepError(
+				'swap',
+				`--swap: unknown tissue "${choice.tissue}" for layer ${layer}; known tissues: ` +
+					`${tissueIds.join(', ')} (or PRESET:M for layer M of a preset)`,
+			);
 		return found;
 	}
 	return resolveTissue(choice.tissue);
@@ -165,14 +187,20 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	let layerIndex: number | null;
 	if (spec.layer !== undefined) {
 		if (!Number.isInteger(spec.layer) || spec.layer < 1 || spec.layer > layerCount) {
-			throw new SweepError('layer', `--layer: must be a whole number ${layerRange} (the plan has ${layerCount} layer${layerCount === 1 ? '' : 's'}; ` +
-				`got ${show(spec.layer)})`);
+			throw new SweepError(
+				'layer',
+				`--layer: must be a whole number ${layerRange} (the plan has ${layerCount} layer${layerCount === 1 ? '' : 's'}; ` +
+					`got ${show(spec.layer)})`,
+			);
 		}
 		layerIndex = spec.layer - 1;
 	} else {
 		layerIndex = fatLayerIndex(doc);
 		if (layerIndex === null && spec.fatCm !== undefined) {
-			throw new SweepError('layer', `--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (${layerRange})`);
+			throw new SweepError(
+				'layer',
+				`--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (${layerRange})`,
+			);
 		}
 	}
 	const fatSwept = spec.fatCm !== undefined;
@@ -180,9 +208,12 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	if (layerIndex === layerCount - 1) {
 		// The deepest layer extends as far as needed: its thickness means nothing.
 		if (fatSwept || spec.layer !== undefined) {
-			throw new SweepError('layer', `--${fatSwept ? 'fat' : 'layer'}: layer ${layerIndex + 1} is the deepest layer, which ` +
-				'extends as far as needed, so its thickness changes nothing; choose another with --layer ' +
-				`N${layerCount > 1 ? ` (from 1 to ${layerCount - 1})` : ''}`);
+			throw new SweepError(
+				'layer',
+				`--${fatSwept ? 'fat' : 'layer'}: layer ${layerIndex + 1} is the deepest layer, which ` +
+					'extends as far as needed, so its thickness changes nothing; choose another with --layer ' +
+					`N${layerCount > 1 ? ` (from 1 to ${layerCount - 1})` : ''}`,
+			);
 		}
 		layerIndex = null;
 	}
@@ -199,9 +230,13 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	let receive: ReceiveMode[];
 	if (spec.receive !== undefined) {
 		if (spec.receive.length === 0 || spec.receive.some((r) => !receiveModes.includes(r))) {
-			throw new SweepError('receive', '--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both');
+			throw new SweepError(
+				'receive',
+				'--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both',
+			);
 		}
-		if (new Set(spec.receive).size !== spec.receive.length) throw new SweepError('receive', '--receive: each mode once');
+		if (new Set(spec.receive).size !== spec.receive.length)
+			throw new SweepError('receive', '--receive: each mode once');
 		receive = [...spec.receive];
 	} else {
 		receive = [doc.probe.receive ?? 'fundamental'];
@@ -211,20 +246,36 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	const swapped = new Set<number>();
 	for (const s of spec.swaps ?? []) {
 		if (!Number.isInteger(s.layer) || s.layer < 1 || s.layer > layerCount) {
-			throw new SweepError('swap', `--swap: the layer number must be a whole number ${layerRange} (got ${show(s.layer)})`);
+			throw new SweepError(
+				'swap',
+				`--swap: the layer number must be a whole number ${layerRange} (got ${show(s.layer)})`,
+			);
 		}
-		if (swapped.has(s.layer)) throw new SweepError('swap', `--swap: layer ${s.layer} is swapped twice; list all its tissues in one --swap ${s.layer}=A,B`);
+		if (swapped.has(s.layer))
+			throw new SweepError(
+				'swap',
+				`--swap: layer ${s.layer} is swapped twice; list all its tissues in one --swap ${s.layer}=A,B`,
+			);
 		swapped.add(s.layer);
-		if (s.choices.length === 0) throw new SweepError('swap', `--swap: no tissue given for layer ${s.layer}; expected N=TISSUE[,TISSUE…]`);
+		if (s.choices.length === 0)
+			throw new SweepError('swap', `--swap: no tissue given for layer ${s.layer}; expected N=TISSUE[,TISSUE…]`);
 		const choices = s.choices.map((c) => ({...c, record: choiceRecord(s.layer, c)}));
 		const keys = choices.map((c) => JSON.stringify(c.tissue));
 		const twice = keys.find((k, i) => keys.indexOf(k) !== i);
-		if (twice !== undefined) throw new SweepError('swap', `--swap: layer ${s.layer} lists the same tissue twice (${choices[keys.indexOf(twice)]!.record.label})`);
+		if (twice !== undefined)
+			throw new SweepError(
+				'swap',
+				`--swap: layer ${s.layer} lists the same tissue twice (${choices[keys.indexOf(twice)]!.record.label})`,
+			);
 		swaps.push({layer: s.layer, choices});
 	}
 
 	const marginDb = spec.marginDb ?? 0;
-	if (!within(marginLimit, marginDb)) throw new SweepError('margin', `--margin: must be a number ${describeRange(marginLimit, 'dB')} (got ${show(marginDb)})`);
+	if (!within(marginLimit, marginDb))
+		throw new SweepError(
+			'margin',
+			`--margin: must be a number ${describeRange(marginLimit, 'dB')} (got ${show(marginDb)})`,
+		);
 
 	let ladderMhz: number[];
 	let ladderFrom: ResolvedSweep['ladderFrom'];
@@ -242,9 +293,16 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 	ladderMhz.sort((a, b) => a - b);
 
 	const stepCm = spec.stepCm ?? 0.1;
-	if (!(Number.isFinite(stepCm) && stepCm >= 0.01 && stepCm <= 5)) throw new SweepError('step', `--step: must be a number from 0.01 to 5 cm (got ${show(stepCm)})`);
+	if (!(Number.isFinite(stepCm) && stepCm >= 0.01 && stepCm <= 5))
+		throw new SweepError('step', `--step: must be a number from 0.01 to 5 cm (got ${show(stepCm)})`);
 
-	const parts = [Math.max(1, fatCm.length), freqMhz.length, angleDeg.length, receive.length, ...swaps.map((s) => s.choices.length)];
+	const parts = [
+		Math.max(1, fatCm.length),
+		freqMhz.length,
+		angleDeg.length,
+		receive.length,
+		...swaps.map((s) => s.choices.length),
+	];
 	const rowCount = combinationCount(parts);
 	if (rowCount > maxTableRows) {
 		const named = [
@@ -254,8 +312,11 @@ export function resolveSweep(doc: PlanDocument, spec: SweepSpec = {}): ResolvedS
 			`${receive.length} --receive`,
 			...swaps.map((s) => `${s.choices.length} --swap ${s.layer}`),
 		].join(' × ');
-		throw new SweepError('sweep', `the sweep has ${rowCount.toLocaleString('en-US')} combinations (${named}); a table ` +
-			`holds at most ${maxTableRows.toLocaleString('en-US')} rows. Shorten a list.`);
+		throw new SweepError(
+			'sweep',
+			`the sweep has ${rowCount.toLocaleString('en-US')} combinations (${named}); a table ` +
+				`holds at most ${maxTableRows.toLocaleString('en-US')} rows. Shorten a list.`,
+		);
 	}
 
 	return {

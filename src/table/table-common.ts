@@ -47,15 +47,20 @@ export const warningLegend: Record<WarningCode, string> = {
 	'strong-reflector': 'a boundary reflects most of the beam: no useful echoes beyond it; gain is held flat there',
 	'strong-absorber': 'a layer absorbs so strongly that no useful echoes come from beyond it; gain is held flat there',
 	'below-noise-floor': 'the echo falls below the noise floor within the display: gain there lifts noise, not signal',
-	'slider-range-exceeded': 'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
-	'speed-mismatch': 'a layer\'s speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is',
+	'slider-range-exceeded':
+		'sliders and master gain cannot follow the curve to within 2 dB: the slider or master range is too narrow',
+	'speed-mismatch':
+		"a layer's speed of sound differs from the assumed speed by over 3 %: it is drawn thicker or thinner than it is",
 	'harmonic-simplified':
 		'harmonic receive: tissue harmonic with plane-wave build-up from 1 cm, ' +
 		'or a scatterer harmonic out at f0 and back at 2·f0 (see the notes)',
-	'thick-body-wall': 'over 3 cm of fat under the skin: depth and reach change, the slider shape barely does; gain cannot fix body-wall clutter',
+	'thick-body-wall':
+		'over 3 cm of fat under the skin: depth and reach change, the slider shape barely does; gain cannot fix body-wall clutter',
 	'refraction-shift': 'an oblique beam bends at the boundaries: deep targets are drawn sideways of where they are',
-	'budget-receive-mismatch': 'the noise budget was measured or stated for another receive mode than the row\'s: its reach is not calibrated',
-	'scanner-profile': 'the scanner\'s depth gain was measured from phantom images (a scanner profile) and replaces the assumed ramp',
+	'budget-receive-mismatch':
+		"the noise budget was measured or stated for another receive mode than the row's: its reach is not calibrated",
+	'scanner-profile':
+		"the scanner's depth gain was measured from phantom images (a scanner profile) and replaces the assumed ramp",
 };
 
 /** Distinct warning codes in a table, in the legend's order. */
@@ -110,13 +115,22 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	out.push(['Probe', `${list(s.freqMhz, 'MHz')} centre frequency${planFreq}, ${bw}`]);
 	if (s.angleSwept || s.angleDeg.some((a) => a !== 0)) {
 		const own = doc.probe.angleDeg ?? 0;
-		out.push(['Beam angle', `${list(s.angleDeg, '°')} from the layer normal${s.angleSwept ? `; the plan has ${plain(own)}°` : ''}`]);
+		out.push([
+			'Beam angle',
+			`${list(s.angleDeg, '°')} from the layer normal${s.angleSwept ? `; the plan has ${plain(own)}°` : ''}`,
+		]);
 	}
 	out.push(['Receive', s.receive.map((r) => (r === 'fundamental' ? 'fundamental' : `${r} (2·f0)`)).join(', ')]);
 	for (const w of s.swaps) {
-		out.push([`Layer ${w.layer} tissue`, w.choices.map((c) => c.record.label + (c.from ? ` (${c.from})` : '')).join(', ')]);
+		out.push([
+			`Layer ${w.layer} tissue`,
+			w.choices.map((c) => c.record.label + (c.from ? ` (${c.from})` : '')).join(', '),
+		]);
 	}
-	out.push(['Display', `${plain(doc.display.depthCm)} cm at an assumed ${plain(doc.display.assumedSpeedMps)} m/s; samples every ${plain(s.stepCm)} cm`]);
+	out.push([
+		'Display',
+		`${plain(doc.display.depthCm)} cm at an assumed ${plain(doc.display.assumedSpeedMps)} m/s; samples every ${plain(s.stepCm)} cm`,
+	]);
 	const bank = doc.sliders;
 	const sliderBase =
 		bank.rampDbPerCmMhz > 0
@@ -126,7 +140,10 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 		'Controls',
 		`${bank.count} sliders from ${plain(bank.minDb)} to ${plain(bank.maxDb)} dB, ` +
 			`knots at ${bank.knots} (${bank.ends} ends), ` +
-			`knots at ${list(t.knotDepthsCm.map((d) => roundTo(d, 2)), 'cm')}, ${sliderBase}; ` +
+			`knots at ${list(
+				t.knotDepthsCm.map((d) => roundTo(d, 2)),
+				'cm',
+			)}, ${sliderBase}; ` +
 			`master gain ${plain(doc.masterGain.minDb)} to ${plain(doc.masterGain.maxDb)} dB`,
 	]);
 	const budget = sharedNoiseBudget(t);
@@ -137,7 +154,12 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 			? `${fixed(budget, 1)} dB${doc.phantomCalibration ? ' (from the phantom calibration)' : ''}`
 			: `per row, ${budgets.join(' or ')} dB (from the phantom calibration at each row's probe settings)`,
 	]);
-	const ladderFrom = s.ladderFrom === 'freq' ? 'the probe frequencies above' : s.ladderFrom === 'default' ? 'the default ladder' : 'the --ladder list';
+	const ladderFrom =
+		s.ladderFrom === 'freq'
+			? 'the probe frequencies above'
+			: s.ladderFrom === 'default'
+				? 'the default ladder'
+				: 'the --ladder list';
 	const targetText = s.targetFollowsLayer
 		? `, ${s.targetRule} (${plain(roundTo(s.targetDepthCm, 2))} cm in the plan as it is; it follows the layers above it),`
 		: ` ${plain(s.targetDepthCm)} cm`;
@@ -148,7 +170,8 @@ export function inputLines(t: ProtocolTable, o: TableFormatOptions = {}): [strin
 	]);
 	if (s.delta) {
 		const ref = t.reference;
-		const own = s.layerIndex !== null ? `layer ${s.layerIndex + 1} at ${plain(doc.layers[s.layerIndex]!.thicknessCm)} cm, ` : '';
+		const own =
+			s.layerIndex !== null ? `layer ${s.layerIndex + 1} at ${plain(doc.layers[s.layerIndex]!.thicknessCm)} cm, ` : '';
 		out.push([
 			'Deltas',
 			`row minus the standard habitus (the plan as it is: ${own}${plain(doc.probe.centerMhz)} MHz, ` +

@@ -12,7 +12,14 @@
 import {stringify} from 'csv-stringify/sync';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import {roundTo} from '../plan/rounding.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, rowWarningCodes, showsAngle} from './table-common.js';
+import {
+	depthDecimals,
+	gainDecimals,
+	mhzDecimals,
+	residualDecimals,
+	rowWarningCodes,
+	showsAngle,
+} from './table-common.js';
 
 /** `penetration_cm` when the echo stays above the noise floor down to the display depth. */
 export const beyondDisplay = 'beyond display';
@@ -44,7 +51,8 @@ export function csvCells(t: ProtocolTable, r: TableRow): string[] {
 	if (showsAngle(t)) out.push(n(r.angleDeg, 2));
 	out.push(r.receive);
 	out.push(...r.swapLabels);
-	if (r.delta) out.push(...r.delta.sliderDeltasDb.map((x) => n(x, gainDecimals)), n(r.delta.masterDeltaDb, gainDecimals));
+	if (r.delta)
+		out.push(...r.delta.sliderDeltasDb.map((x) => n(x, gainDecimals)), n(r.delta.masterDeltaDb, gainDecimals));
 	else out.push(...r.slidersDb.map((x) => n(x, gainDecimals)));
 	out.push(
 		n(r.masterGainDb, gainDecimals),
@@ -64,6 +72,9 @@ export function tableCsv(t: ProtocolTable): string {
 export function* tableCsvChunks(t: ProtocolTable, rowsPerChunk = 500): Generator<string> {
 	yield stringify([csvHeader(t)], {record_delimiter: '\r\n'});
 	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
-		yield stringify(t.rows.slice(i, i + rowsPerChunk).map((r) => csvCells(t, r)), {record_delimiter: '\r\n'});
+		yield stringify(
+			t.rows.slice(i, i + rowsPerChunk).map((r) => csvCells(t, r)),
+			{record_delimiter: '\r\n'},
+		);
 	}
 }

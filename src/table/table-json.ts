@@ -10,7 +10,15 @@ import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import type {WarningCode} from '../engine/types.js';
 import {roundTo} from '../plan/rounding.js';
-import {depthDecimals, gainDecimals, mhzDecimals, residualDecimals, sweptLayerLabel, warningLegend, type TableFormatOptions} from './table-common.js';
+import {
+	depthDecimals,
+	gainDecimals,
+	mhzDecimals,
+	residualDecimals,
+	sweptLayerLabel,
+	warningLegend,
+	type TableFormatOptions,
+} from './table-common.js';
 
 export const tableFormat = 'evenecho-table/1';
 
@@ -60,7 +68,9 @@ export const tableJsonSchema = z.strictObject({
 		source: z.string().nullable(),
 		plan: z.string(),
 		region: z.string(),
-		sweptLayer: z.strictObject({layer: z.number().int().min(1), label: z.string(), planThicknessCm: z.number()}).nullable(),
+		sweptLayer: z
+			.strictObject({layer: z.number().int().min(1), label: z.string(), planThicknessCm: z.number()})
+			.nullable(),
 		layerCm: z.array(z.number()),
 		layerSwept: z.boolean(),
 		centerMhz: z.array(z.number()),
@@ -121,7 +131,11 @@ function rowJson(t: ProtocolTable, r: TableRow): TableJson['rows'][number] {
 		targetDepthCm: d(r.targetDepthCm),
 		highestReachingMhz: r.highestReachingMhz === null ? null : roundTo(r.highestReachingMhz, mhzDecimals),
 		highestReachingPenetrationCm: dn(r.highestReachingPenetrationCm),
-		warnings: r.warnings.map((w) => ({code: w.code, message: w.message, depthCm: w.depthCm === undefined ? null : d(w.depthCm)})),
+		warnings: r.warnings.map((w) => ({
+			code: w.code,
+			message: w.message,
+			depthCm: w.depthCm === undefined ? null : d(w.depthCm),
+		})),
 	};
 }
 
@@ -146,7 +160,11 @@ function tableJsonHead(t: ProtocolTable, o: TableFormatOptions): Omit<TableJson,
 			sweptLayer:
 				s.layerIndex === null
 					? null
-					: {layer: s.layerIndex + 1, label: sweptLayerLabel(t)!, planThicknessCm: d(doc.layers[s.layerIndex]!.thicknessCm)},
+					: {
+							layer: s.layerIndex + 1,
+							label: sweptLayerLabel(t)!,
+							planThicknessCm: d(doc.layers[s.layerIndex]!.thicknessCm),
+						},
 			layerCm: s.fatCm.map(d),
 			layerSwept: s.fatSwept,
 			centerMhz: s.freqMhz.map((f) => roundTo(f, mhzDecimals)),
@@ -188,8 +206,10 @@ function tableJsonHead(t: ProtocolTable, o: TableFormatOptions): Omit<TableJson,
 			residualDb: 'worst |fitted − curve| over the usable depth, dB',
 			penetrationDepthCm: 'displayed depth where the echo meets the noise floor; null if not on screen',
 			targetDepthCm: "this row's target depth, displayed cm (follows the layers above it when the plan says so)",
-			highestReachingPenetrationCm: 'where that frequency meets the noise floor, displayed cm; null if none reaches or beyond 40 cm',
-			highestReachingMhz: 'highest ladder frequency reaching the target depth within the noise budget less the margin; null if none',
+			highestReachingPenetrationCm:
+				'where that frequency meets the noise floor, displayed cm; null if none reaches or beyond 40 cm',
+			highestReachingMhz:
+				'highest ladder frequency reaching the target depth within the noise budget less the margin; null if none',
 		},
 	};
 }
@@ -214,7 +234,9 @@ export function* tableJsonChunks(t: ProtocolTable, o: TableFormatOptions = {}): 
 	}
 	yield head.slice(0, -'[]\n}'.length) + '[\n';
 	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
-		const part = t.rows.slice(i, i + rowsPerChunk).map((r) => '    ' + JSON.stringify(rowJson(t, r), null, 2).replaceAll('\n', '\n    '));
+		const part = t.rows
+			.slice(i, i + rowsPerChunk)
+			.map((r) => '    ' + JSON.stringify(rowJson(t, r), null, 2).replaceAll('\n', '\n    '));
 		yield part.join(',\n') + (i + rowsPerChunk < t.rows.length ? ',\n' : '\n');
 	}
 	yield '  ]\n}\n';

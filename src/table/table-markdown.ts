@@ -6,7 +6,20 @@
 import {modelVersion} from '../engine/compensation-curve.js';
 import {cautionLine} from '../report/cautions.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
-import {fixed, habitusGroups, highestPerRow, inputLines, showsAngle, plain, rowWarningCodes, signed, sweptLayerLabel, warningCodesUsed, warningLegend, type TableFormatOptions} from './table-common.js';
+import {
+	fixed,
+	habitusGroups,
+	highestPerRow,
+	inputLines,
+	showsAngle,
+	plain,
+	rowWarningCodes,
+	signed,
+	sweptLayerLabel,
+	warningCodesUsed,
+	warningLegend,
+	type TableFormatOptions,
+} from './table-common.js';
 
 /** Escapes text for one table cell or line: pipes, backslashes, HTML-ish brackets, line breaks. */
 export function markdownText(s: string): string {
@@ -19,7 +32,11 @@ export function markdownText(s: string): string {
 		.replace(/\r\n|\r|\n/g, ' ');
 }
 
-function tableLines(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string[] {
+function tableLines(
+	header: readonly string[],
+	align: readonly ('l' | 'r')[],
+	rows: readonly (readonly string[])[],
+): string[] {
 	const line = (cells: readonly string[]) => `| ${cells.join(' | ')} |`;
 	return [line(header), line(align.map((a) => (a === 'r' ? '---:' : ':---'))), ...rows.map(line)];
 }
@@ -28,7 +45,10 @@ function tableLines(header: readonly string[], align: readonly ('l' | 'r')[], ro
  * The columns that say which combination a row is: the swept layer, the frequency (left out in the
  * per-habitus table, whose rows span every frequency), the angle, the receive mode and each swap.
  */
-function comboColumns(t: ProtocolTable, withFrequency: boolean): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
+function comboColumns(
+	t: ProtocolTable,
+	withFrequency: boolean,
+): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
 	const s = t.sweep;
 	const header: string[] = [];
 	const align: ('l' | 'r')[] = [];
@@ -38,7 +58,8 @@ function comboColumns(t: ProtocolTable, withFrequency: boolean): {header: string
 		align.push(side);
 		parts.push(cell);
 	};
-	if (s.layerIndex !== null) column(`${markdownText(sweptLayerLabel(t) ?? 'Layer')} cm`, 'r', (r) => fixed(r.layerCm ?? 0, 1));
+	if (s.layerIndex !== null)
+		column(`${markdownText(sweptLayerLabel(t) ?? 'Layer')} cm`, 'r', (r) => fixed(r.layerCm ?? 0, 1));
 	if (withFrequency) column('MHz', 'r', (r) => plain(r.centerMhz));
 	if (showsAngle(t)) column('Angle °', 'r', (r) => plain(r.angleDeg));
 	column('Receive', 'l', (r) => r.receive);
@@ -47,7 +68,11 @@ function comboColumns(t: ProtocolTable, withFrequency: boolean): {header: string
 }
 
 /** Column headers and cells of the main table (exported for the console's scrolling view). */
-export function markdownColumns(t: ProtocolTable): {header: string[]; align: ('l' | 'r')[]; cells: (row: TableRow) => string[]} {
+export function markdownColumns(t: ProtocolTable): {
+	header: string[];
+	align: ('l' | 'r')[];
+	cells: (row: TableRow) => string[];
+} {
 	const s = t.sweep;
 	const combo = comboColumns(t, true);
 	const header: string[] = ['#', ...combo.header];
@@ -107,7 +132,11 @@ function habitusLadderTable(t: ProtocolTable): string[] {
 		out.push(
 			fixed(r.targetDepthCm, 1),
 			r.highestReachingMhz === null ? 'none' : plain(r.highestReachingMhz),
-			r.highestReachingPenetrationCm === null ? (r.highestReachingMhz === null ? '–' : 'beyond 40') : fixed(r.highestReachingPenetrationCm, 1),
+			r.highestReachingPenetrationCm === null
+				? r.highestReachingMhz === null
+					? '–'
+					: 'beyond 40'
+				: fixed(r.highestReachingPenetrationCm, 1),
 			g.map((x) => String(x.index)).join(', '),
 		);
 		return out;
@@ -120,7 +149,11 @@ export function tableMarkdown(t: ProtocolTable, o: TableFormatOptions = {}): str
 }
 
 /** The Markdown text in pieces: the head, the rows a few hundred at a time, the notes. */
-export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {}, rowsPerChunk = 500): Generator<string> {
+export function* tableMarkdownChunks(
+	t: ProtocolTable,
+	o: TableFormatOptions = {},
+	rowsPerChunk = 500,
+): Generator<string> {
 	const s = t.sweep;
 	const out: string[] = [];
 	out.push(`# Depth-gain protocol table: ${markdownText(s.doc.name)}`);
@@ -140,8 +173,16 @@ export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {
 			['l', 'l', 'r', 'r', 'r', 'r', 'r', 'l'],
 			t.tissues.map((u) => {
 				const i = u.layer - 1;
-				const thickness = u.swapped ? 'as the layer' : i === last ? 'rest' : i === s.layerIndex && s.fatSwept ? 'swept' : plain(s.doc.layers[i]!.thicknessCm);
-				const source = [u.tissue.source ?? 'no source recorded', u.from ? `taken from ${u.from}` : ''].filter(Boolean).join('; ');
+				const thickness = u.swapped
+					? 'as the layer'
+					: i === last
+						? 'rest'
+						: i === s.layerIndex && s.fatSwept
+							? 'swept'
+							: plain(s.doc.layers[i]!.thicknessCm);
+				const source = [u.tissue.source ?? 'no source recorded', u.from ? `taken from ${u.from}` : '']
+					.filter(Boolean)
+					.join('; ');
 				return [
 					u.where,
 					markdownText(u.tissue.label),
@@ -157,13 +198,17 @@ export function* tableMarkdownChunks(t: ProtocolTable, o: TableFormatOptions = {
 	);
 	out.push('');
 
-	out.push(s.delta ? '## Starting settings (sliders and master as deltas from the standard habitus)' : '## Starting settings');
+	out.push(
+		s.delta ? '## Starting settings (sliders and master as deltas from the standard habitus)' : '## Starting settings',
+	);
 	out.push('');
 	const cols = markdownColumns(t);
 	out.push(...tableLines(cols.header, cols.align, []));
 	yield out.join('\n') + '\n';
 	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
-		yield tableLines(cols.header, cols.align, t.rows.slice(i, i + rowsPerChunk).map(cols.cells)).slice(2).join('\n') + '\n';
+		yield tableLines(cols.header, cols.align, t.rows.slice(i, i + rowsPerChunk).map(cols.cells))
+			.slice(2)
+			.join('\n') + '\n';
 	}
 	out.length = 0;
 	out.push('');

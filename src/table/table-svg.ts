@@ -13,7 +13,15 @@ import {cautionLine} from '../report/cautions.js';
 import {SweepError, type ResolvedSweep} from './sweep-spec.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 import {roundTo} from '../plan/rounding.js';
-import {fixed, inputLines, plain, showsAngle, signed, sweptLayerLabel, type TableFormatOptions} from './table-common.js';
+import {
+	fixed,
+	inputLines,
+	plain,
+	showsAngle,
+	signed,
+	sweptLayerLabel,
+	type TableFormatOptions,
+} from './table-common.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 
 /** Most groups (frequency × receive × swap) in one chart. */
@@ -29,27 +37,35 @@ const lineGap = 15;
 
 /** Escapes text for XML content and attribute values. */
 export function xmlText(s: string): string {
-	return s
-		.replace(/&/g, '&amp;')
-		.replace(/</g, '&lt;')
-		.replace(/>/g, '&gt;')
-		.replace(/"/g, '&quot;')
-		.replace(/'/g, '&apos;')
-		// Characters XML 1.0 does not allow.
-		.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '');
+	return (
+		s
+			.replace(/&/g, '&amp;')
+			.replace(/</g, '&lt;')
+			.replace(/>/g, '&gt;')
+			.replace(/"/g, '&quot;')
+			.replace(/'/g, '&apos;')
+			// Characters XML 1.0 does not allow.
+			.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '')
+	);
 }
 
 /** Throws a {@link SweepError} when the chart would be unreadable; call before running the sweep. */
 export function checkSvgSweep(sweep: ResolvedSweep): void {
 	const lines = Math.max(1, sweep.fatCm.length);
 	if (lines > maxSvgLines) {
-		throw new SweepError('format', `--format svg: draws one line per --fat value, at most ${maxSvgLines} (got ${lines}); shorten --fat or use markdown, csv or json`);
+		throw new SweepError(
+			'format',
+			`--format svg: draws one line per --fat value, at most ${maxSvgLines} (got ${lines}); shorten --fat or use markdown, csv or json`,
+		);
 	}
 	const panels = sweep.rowCount / lines;
 	if (panels > maxSvgPanels) {
-		throw new SweepError('format', '--format svg: draws one panel per frequency, beam angle, receive mode and swapped ' +
-			`tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --angle, --receive or ` +
-			'--swap, or use markdown, csv or json');
+		throw new SweepError(
+			'format',
+			'--format svg: draws one panel per frequency, beam angle, receive mode and swapped ' +
+				`tissue, at most ${maxSvgPanels} (got ${panels}); shorten --freq, --angle, --receive or ` +
+				'--swap, or use markdown, csv or json',
+		);
 	}
 }
 
@@ -166,7 +182,8 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const textChars = Math.floor((width - 2 * pad) / (footFont * 0.56));
 	const layerLabel = sweptLayerLabel(t);
 	const swept = layerLabel !== null && s.layerIndex !== null && s.fatSwept;
-	const cellLabel = (r: TableRow) => (r.layerCm === null || layerLabel === null ? 'plan as given' : `${layerLabel} ${plain(r.layerCm)} cm`);
+	const cellLabel = (r: TableRow) =>
+		r.layerCm === null || layerLabel === null ? 'plan as given' : `${layerLabel} ${plain(r.layerCm)} cm`;
 	const wide = (px: number) => Math.floor((textChars * footFont) / px);
 
 	const out: string[] = [];
@@ -196,8 +213,14 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	y += 8;
 	const keyItems: [string, string][] = [
 		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="#0072B2" stroke-width="2.5"/>`, 'above the noise floor'],
-		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3"/>`, 'below the noise floor or a barrier: gain lifts only noise'],
-		[`<circle cx="13" cy="-4" r="3.5" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`, `slider knot; its ${s.delta ? 'Δ ' : ''}value in dB at the right`],
+		[
+			`<line x1="0" y1="-4" x2="26" y2="-4" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3"/>`,
+			'below the noise floor or a barrier: gain lifts only noise',
+		],
+		[
+			`<circle cx="13" cy="-4" r="3.5" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`,
+			`slider knot; its ${s.delta ? 'Δ ' : ''}value in dB at the right`,
+		],
 		[`<line x1="0" y1="-4" x2="26" y2="-4" stroke="#B00020" stroke-width="1" stroke-dasharray="2 2"/>`, 'target depth'],
 	];
 	let kx = pad;
@@ -207,7 +230,9 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 			kx = pad;
 			y += lineGap;
 		}
-		legend.push(`<g transform="translate(${kx},${y})">${mark}<text x="32" y="0" font-size="12">${xmlText(text)}</text></g>`);
+		legend.push(
+			`<g transform="translate(${kx},${y})">${mark}<text x="32" y="0" font-size="12">${xmlText(text)}</text></g>`,
+		);
 		kx += w + 10;
 	}
 	y += lineGap + 6;
@@ -218,7 +243,9 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const xOf = (db: number) => ((db - dbLo) / (dbHi - dbLo)) * plotW;
 	const yOf = (cm: number) => (Math.min(cm, depthCm) / depthCm) * plotH;
 	for (const rows of groups) {
-		body.push(`<text x="${pad}" y="${y + 14}" font-size="14" font-weight="bold">${xmlText(panelTitle(rows[0]!, t))}</text>`);
+		body.push(
+			`<text x="${pad}" y="${y + 14}" font-size="14" font-weight="bold">${xmlText(panelTitle(rows[0]!, t))}</text>`,
+		);
 		y += 22;
 		rows.forEach((r, k) => {
 			const px = pad + (k % cols) * cellW + cell.left;
@@ -231,8 +258,13 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 					? `no listed MHz reaches ${plain(roundTo(r.targetDepthCm, 1))} cm`
 					: `highest reaching ${plain(r.highestReachingMhz)} MHz${floorText(r.highestReachingPenetrationCm)}`;
 			g.push(`<text x="-${cell.left - 4}" y="-16" font-size="10">${xmlText(reach)}</text>`);
-			const master = s.delta && r.delta ? `Δ master ${signed(r.delta.masterDeltaDb, 1)} dB` : `master ${fixed(r.masterGainDb, 1)} dB`;
-			g.push(`<text x="-${cell.left - 4}" y="-4" font-size="10">${xmlText(`${master}, fit ±${fixed(r.residualDb, 1)} dB`)}</text>`);
+			const master =
+				s.delta && r.delta
+					? `Δ master ${signed(r.delta.masterDeltaDb, 1)} dB`
+					: `master ${fixed(r.masterGainDb, 1)} dB`;
+			g.push(
+				`<text x="-${cell.left - 4}" y="-4" font-size="10">${xmlText(`${master}, fit ±${fixed(r.residualDb, 1)} dB`)}</text>`,
+			);
 			g.push(`<rect x="0" y="0" width="${plotW}" height="${plotH}" fill="none" stroke="#444444"/>`);
 			for (const v of ticks(dbLo, dbHi, dbStep)) {
 				const x = fixed(xOf(v), 1);
@@ -244,16 +276,23 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 				g.push(`<line x1="0" y1="${yy}" x2="${plotW}" y2="${yy}" stroke="#E4E4E4"/>`);
 				g.push(`<text x="-5" y="${yy}" font-size="9" text-anchor="end" dominant-baseline="middle">${plain(v)}</text>`);
 			}
-			g.push(`<text x="${fixed(plotW / 2, 1)}" y="${plotH + 28}" font-size="10" text-anchor="middle">${s.delta ? 'Δ dB' : 'dB'}</text>`);
+			g.push(
+				`<text x="${fixed(plotW / 2, 1)}" y="${plotH + 28}" font-size="10" text-anchor="middle">${s.delta ? 'Δ dB' : 'dB'}</text>`,
+			);
 			if (r.targetDepthCm <= depthCm) {
 				const ty = fixed(yOf(r.targetDepthCm), 1);
-				g.push(`<line x1="0" y1="${ty}" x2="${plotW}" y2="${ty}" stroke="#B00020" stroke-width="1" stroke-dasharray="2 2"/>`);
+				g.push(
+					`<line x1="0" y1="${ty}" x2="${plotW}" y2="${ty}" stroke="#B00020" stroke-width="1" stroke-dasharray="2 2"/>`,
+				);
 			}
 			const good = Math.min(r.penetrationDepthCm ?? depthCm, r.blockedDepthCm ?? depthCm, depthCm);
 			const above = segment(c, 0, good, xOf, yOf);
 			const below = segment(c, good, depthCm, xOf, yOf);
 			const name = `${cellLabel(r)}, ${panelTitle(r, t)}, row ${r.index}`;
-			if (above) g.push(`<polyline fill="none" stroke="#0072B2" stroke-width="2.2" points="${above}"><title>${xmlText(name)}</title></polyline>`);
+			if (above)
+				g.push(
+					`<polyline fill="none" stroke="#0072B2" stroke-width="2.2" points="${above}"><title>${xmlText(name)}</title></polyline>`,
+				);
 			if (below) {
 				const dashed = `fill="none" stroke="${muted}" stroke-width="2" stroke-dasharray="4 3"`;
 				const title = xmlText(`${name}: below the noise floor`);
@@ -263,8 +302,12 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 			t.knotDepthsCm.forEach((d, j) => {
 				if (d > depthCm) return;
 				const ky = fixed(yOf(d), 1);
-				g.push(`<circle cx="${fixed(xOf(valueAt(c, d)), 1)}" cy="${ky}" r="3" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`);
-				g.push(`<text x="${plotW + 4}" y="${ky}" font-size="9" dominant-baseline="middle">${xmlText(`S${j + 1} ${signed(values[j]!, 1)}`)}</text>`);
+				g.push(
+					`<circle cx="${fixed(xOf(valueAt(c, d)), 1)}" cy="${ky}" r="3" fill="#FFFFFF" stroke="#0072B2" stroke-width="1.5"/>`,
+				);
+				g.push(
+					`<text x="${plotW + 4}" y="${ky}" font-size="9" dominant-baseline="middle">${xmlText(`S${j + 1} ${signed(values[j]!, 1)}`)}</text>`,
+				);
 			});
 			g.push('</g>');
 			body.push(g.join('\n'));
@@ -277,7 +320,9 @@ export function tableSvg(t: ProtocolTable, o: TableFormatOptions = {}): string {
 	const foot: string[] = [];
 	const para = (text: string, bold = false) => {
 		for (const l of wrap(text, textChars)) {
-			foot.push(`<text x="${pad}" y="${y}" font-size="${footFont}"${bold ? ' font-weight="bold"' : ''}>${xmlText(l)}</text>`);
+			foot.push(
+				`<text x="${pad}" y="${y}" font-size="${footFont}"${bold ? ' font-weight="bold"' : ''}>${xmlText(l)}</text>`,
+			);
 			y += lineGap;
 		}
 	};

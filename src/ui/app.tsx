@@ -66,7 +66,12 @@ function curveOf(doc: PlanDocument, scanner: PlanScanner | undefined): CurveResu
 	}
 }
 
-function Body({state, curve, layout, scanner}: {
+function Body({
+	state,
+	curve,
+	layout,
+	scanner,
+}: {
 	readonly state: ConsoleState;
 	readonly curve: CurveResult;
 	readonly layout: Layout;
@@ -81,12 +86,33 @@ function Body({state, curve, layout, scanner}: {
 	if (o?.kind === 'compare') {
 		const point = o.index < 0 ? undefined : state.startingPoints[o.index];
 		const against = o.index < 0 ? {name: state.origin.name, plan: state.origin.doc} : o.against;
-		const title = o.index < 0 ? 'Starting plan' : point?.kind === 'preset' ? 'Saved preset' : point?.kind === 'demo' ? 'Built-in demo' : 'Template';
-		const other = against ? curveOf(against.plan, against.plan.scanner === state.doc.scanner ? scanner : undefined) : 'Reading that plan…';
-		return <CompareView curve={curve} other={other} thisName={state.doc.name} otherName={against?.name ?? point?.name ?? ''} otherTitle={title} width={columns} height={bodyRows} />;
+		const title =
+			o.index < 0
+				? 'Starting plan'
+				: point?.kind === 'preset'
+					? 'Saved preset'
+					: point?.kind === 'demo'
+						? 'Built-in demo'
+						: 'Template';
+		const other = against
+			? curveOf(against.plan, against.plan.scanner === state.doc.scanner ? scanner : undefined)
+			: 'Reading that plan…';
+		return (
+			<CompareView
+				curve={curve}
+				other={other}
+				thisName={state.doc.name}
+				otherName={against?.name ?? point?.name ?? ''}
+				otherTitle={title}
+				width={columns}
+				height={bodyRows}
+			/>
+		);
 	}
-	if (o?.kind === 'tissue') return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
-	if (o?.kind === 'scanner') return <ScannerView overlay={o} plan={state.doc} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
+	if (o?.kind === 'tissue')
+		return <TissuePicker layer={o.layer} cursor={o.cursor} filter={o.filter ?? ''} width={columns} height={bodyRows} />;
+	if (o?.kind === 'scanner')
+		return <ScannerView overlay={o} plan={state.doc} chosen={state.doc.scanner} width={columns} height={bodyRows} />;
 	if (state.refine.phase !== 'closed') return <RefineView panel={state.refine} width={columns} height={bodyRows} />;
 	if (state.sweep.isOpen) return <SweepView state={state} width={columns} height={bodyRows} />;
 	const slider = Math.min(state.cursors.curve, curve.fit.sliders.length - 1);
@@ -95,9 +121,23 @@ function Body({state, curve, layout, scanner}: {
 		return (
 			<Box flexDirection="row">
 				{isCurveStep ? (
-					<CurveStep state={state} curve={curve} delta={delta} layout={layout} width={layout.stepWidth} height={bodyRows} />
+					<CurveStep
+						state={state}
+						curve={curve}
+						delta={delta}
+						layout={layout}
+						width={layout.stepWidth}
+						height={bodyRows}
+					/>
 				) : (
-					<StepPane state={state} curve={curve} delta={delta} width={layout.stepWidth} height={bodyRows} isFocused={state.pane === 'step'} />
+					<StepPane
+						state={state}
+						curve={curve}
+						delta={delta}
+						width={layout.stepWidth}
+						height={bodyRows}
+						isFocused={state.pane === 'step'}
+					/>
 				)}
 				<Box width={1} />
 				<CurvePane
@@ -114,7 +154,8 @@ function Body({state, curve, layout, scanner}: {
 			</Box>
 		);
 	}
-	if (state.step === 'curve') return <CurveStep state={state} curve={curve} delta={delta} layout={layout} width={columns} height={bodyRows} />;
+	if (state.step === 'curve')
+		return <CurveStep state={state} curve={curve} delta={delta} layout={layout} width={columns} height={bodyRows} />;
 	return (
 		<Box flexDirection="column">
 			<Box height={bodyRows - 1}>
@@ -125,7 +166,16 @@ function Body({state, curve, layout, scanner}: {
 	);
 }
 
-export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exportDir, scanners = noScannerServices, onExit}: AppProps) {
+export function App({
+	shelf,
+	initialPlan,
+	theme = colourTheme,
+	columns,
+	rows,
+	exportDir,
+	scanners = noScannerServices,
+	onExit,
+}: AppProps) {
 	const size = useTerminalSize({...(columns === undefined ? {} : {columns}), ...(rows === undefined ? {} : {rows})});
 	const layout = layoutFor(size.columns, size.rows);
 	const [state, dispatch] = useReducer(consoleReducer, undefined, () => {
@@ -193,13 +243,18 @@ export function App({shelf, initialPlan, theme = colourTheme, columns, rows, exp
 	// A notice read whole (a written path) takes the key-hint line, then lines from the body's bottom.
 	const noticeRows = statusLines(state, layout.columns).length;
 	const bodyGiven = Math.max(0, noticeRows - 2);
-	const hintPage = state.overlay?.kind === 'scanner' && state.overlay.panel.kind === 'result' ? 'scanner-result' : undefined;
+	const hintPage =
+		state.overlay?.kind === 'scanner' && state.overlay.panel.kind === 'result' ? 'scanner-result' : undefined;
 	return (
 		<ThemeContext.Provider value={theme}>
 			<Box flexDirection="column" width={layout.columns}>
 				<StepBar step={state.step} width={layout.columns} isDirty={state.dirty} />
 				<Box height={layout.bodyRows - bodyGiven} flexDirection="column" overflow="hidden">
-					{typeof curve === 'string' ? <Text {...theme.refusal}>{curve}</Text> : <Body state={state} curve={curve} layout={layout} scanner={planScanner} />}
+					{typeof curve === 'string' ? (
+						<Text {...theme.refusal}>{curve}</Text>
+					) : (
+						<Body state={state} curve={curve} layout={layout} scanner={planScanner} />
+					)}
 				</Box>
 				<StatusLine state={state} width={layout.columns} />
 				{noticeRows > 1 ? null : <HintLine mode={modeOf(state)} width={layout.columns} page={hintPage} />}

@@ -14,11 +14,17 @@ function isCi(env: NodeJS.ProcessEnv): boolean {
 	return ci !== undefined && ci !== '' && ci !== '0' && ci.toLowerCase() !== 'false';
 }
 
-export function canOpenConsole(stdin: {isTTY?: boolean} = process.stdin, stdout: {isTTY?: boolean} = process.stdout, env = process.env): boolean {
+export function canOpenConsole(
+	stdin: {isTTY?: boolean} = process.stdin,
+	stdout: {isTTY?: boolean} = process.stdout,
+	env = process.env,
+): boolean {
 	return Boolean(stdin.isTTY) && Boolean(stdout.isTTY) && !isCi(env);
 }
 
-export const howToOpen = 'This is the built-in demo plan. To plan a patient, run `evenecho` in a terminal (no pipe, CI unset) to open the console; `evenecho curve PLAN.json` works without one.';
+export const howToOpen =
+	'This is the built-in demo plan. To plan a patient, run `evenecho` in a terminal (no pipe, CI unset) to open the ' +
+	'console; `evenecho curve PLAN.json` works without one.';
 
 // Alternate screen: the console gets the whole terminal and the shell's scrollback comes back intact.
 const enterScreen = '\u001B[?1049h\u001B[H';
@@ -65,5 +71,7 @@ export async function openConsole(): Promise<void> {
 	} finally {
 		process.stdout.write(leaveScreen);
 	}
-	process.stdout.write(isDirty ? 'evenecho: closed; the last changes were not saved as a preset.\n' : 'evenecho: closed.\n');
+	process.stdout.write(
+		isDirty ? 'evenecho: closed; the last changes were not saved as a preset.\n' : 'evenecho: closed.\n',
+	);
 }

@@ -11,7 +11,10 @@ describe('src/analysis is pure', () => {
 			const text = readFileSync(new URL(file, dir), 'utf8');
 			const imports = [...text.matchAll(/from\s+'([^']+)'/g)].map((m) => m[1]!);
 			for (const spec of imports) {
-				expect(['./', '../engine/', '../speckle/'].some((p) => spec.startsWith(p)), `${file} imports ${spec}`).toBe(true);
+				expect(
+					['./', '../engine/', '../speckle/'].some((p) => spec.startsWith(p)),
+					`${file} imports ${spec}`,
+				).toBe(true);
 			}
 			expect(text).not.toMatch(/\bprocess\.|require\(|import\(/);
 		});

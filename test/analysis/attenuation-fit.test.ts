@@ -65,7 +65,11 @@ describe('C39: broadband fit of a deep attenuation change', () => {
 
 	it('halving every band SD halves the reported SD (precision scales with the speckle statistics)', () => {
 		const a = fitLayerAttenuation(plan, 1, bands);
-		const b = fitLayerAttenuation(plan, 1, bands.map((x) => ({...x, sdDb: x.sdDb / 2})));
+		const b = fitLayerAttenuation(
+			plan,
+			1,
+			bands.map((x) => ({...x, sdDb: x.sdDb / 2})),
+		);
 		expect(b.sd / a.sd).toBeCloseTo(0.5, 3);
 	});
 });

@@ -53,10 +53,18 @@ const liver = plan.layers.length - 1;
 const phantomDir = join(dir, 'phantom');
 mkdirSync(phantomDir);
 const series = phantomSeries(plan, 3, 'dcm', 'Simulated test cart (invented)', {width: 420, height: 280});
-for (const f of imageFiles(series, 'dicom', 'phantom-series', 3, plan.name)) writeFileSync(join(phantomDir, f.name), f.data);
+for (const f of imageFiles(series, 'dicom', 'phantom-series', 3, plan.name))
+	writeFileSync(join(phantomDir, f.name), f.data);
 writeFileSync(join(phantomDir, 'session.json'), JSON.stringify(series.session));
 const store = openScannerProfileStore(join(dir, 'home'));
-store.save(profileFromCalibration(calibrateScanner(loadSession(join(phantomDir, 'session.json')).input), 'test-cart', 'Test cart'), {replace: false});
+store.save(
+	profileFromCalibration(
+		calibrateScanner(loadSession(join(phantomDir, 'session.json')).input),
+		'test-cart',
+		'Test cart',
+	),
+	{replace: false},
+);
 const profile = store.get('test-cart');
 const measuredPlan = resolvePlan(doc, scannerResponseOf(profile));
 const reading = profileReading(profile);
@@ -91,7 +99,11 @@ function writtenAndRead(set: DemoSet, seed: number, format: 'dicom' | 'png') {
 	return {image: readImageFile(path, {pixelScale: {cmPerPixel: set.cmPerPixel, topRowCm: 0}}), shift: {x: x0, y: y0}};
 }
 
-function refined(seed: number, options: {cyst: boolean; brightLine: boolean; alphaFactor?: number}, imaged = plan): Seed {
+function refined(
+	seed: number,
+	options: {cyst: boolean; brightLine: boolean; alphaFactor?: number},
+	imaged = plan,
+): Seed {
 	const format = seed % 2 === 0 ? 'dicom' : 'png';
 	const set = patientImage(imaged, seed, format === 'dicom' ? 'dcm' : 'png', {...options, size: patientSize});
 	const {image, shift} = writtenAndRead(set, seed, format);
@@ -115,13 +127,21 @@ function flatness(r: RefineResult): number {
 	return Math.max(...usable.map((b) => Math.abs(b.correctedDb - mean)));
 }
 
-
 describe('40 simulated patients through files, the reader and a scanner profile', () => {
-	const seeds = Array.from({length: 40}, (_, k) => refined(k + 1, {cyst: k % 4 === 1 || k % 4 === 2, brightLine: k % 4 >= 2}));
+	const seeds = Array.from({length: 40}, (_, k) =>
+		refined(k + 1, {cyst: k % 4 === 1 || k % 4 === 2, brightLine: k % 4 >= 2}),
+	);
 	const truth = (s: Seed) => s.set.truth['trueAlphaDbPerCmMhz'] as number;
 	const report = seeds.map((s) => {
 		const a = s.result.attenuation;
-		return {seed: s.seed, format: s.format, alpha: a?.alphaDbPerCmMhz, low: a?.low, high: a?.high, flat: flatness(s.result)};
+		return {
+			seed: s.seed,
+			format: s.format,
+			alpha: a?.alphaDbPerCmMhz,
+			low: a?.low,
+			high: a?.high,
+			flat: flatness(s.result),
+		};
 	});
 
 	it('measures the liver in every seed, with the profile (calibrated)', () => {
@@ -133,12 +153,15 @@ describe('40 simulated patients through files, the reader and a scanner profile'
 	});
 
 	it('the 95 % interval holds the true α0 in at least 38 of 40 seeds', () => {
-		const inside = seeds.filter((s) => s.result.attenuation && truth(s) >= s.result.attenuation.low && truth(s) <= s.result.attenuation.high);
+		const inside = seeds.filter(
+			(s) => s.result.attenuation && truth(s) >= s.result.attenuation.low && truth(s) <= s.result.attenuation.high,
+		);
 		expect(inside.length, JSON.stringify(report)).toBeGreaterThanOrEqual(38);
 	});
 
 	it('every estimate is within 0.08 dB/cm/MHz of the truth', () => {
-		for (const s of seeds) expect(Math.abs(s.result.attenuation!.alphaDbPerCmMhz - truth(s)), `seed ${s.seed}`).toBeLessThan(0.08);
+		for (const s of seeds)
+			expect(Math.abs(s.result.attenuation!.alphaDbPerCmMhz - truth(s)), `seed ${s.seed}`).toBeLessThan(0.08);
 	});
 
 	it('after the corrections the band levels are flat within ±1.5 dB over the usable depth', () => {
@@ -147,7 +170,10 @@ describe('40 simulated patients through files, the reader and a scanner profile'
 
 	it('cyst and bright line pixels in the measured columns are masked, not averaged in', () => {
 		for (const s of seeds) {
-			const st = (s.set.truth['structures'] as {cyst: PatientStructures['cyst'] | null; brightLine: PatientStructures['brightLine'] | null});
+			const st = s.set.truth['structures'] as {
+				cyst: PatientStructures['cyst'] | null;
+				brightLine: PatientStructures['brightLine'] | null;
+			};
 			const {x0, y0, x1} = s.set.region;
 			const regionWidth = x1 - x0 + 1;
 			const cm = s.set.cmPerPixel;
@@ -168,27 +194,39 @@ describe('40 simulated patients through files, the reader and a scanner profile'
 			if (st.cyst) {
 				const c = st.cyst;
 				const r = c.radiusCm / cm / regionWidth;
-				expect(share((fx, d) => ((fx - c.centreX) / r) ** 2 + ((d - c.centreCm) / c.radiusCm) ** 2 <= 1), `seed ${s.seed} cyst`).toBeGreaterThan(0.97);
+				expect(
+					share((fx, d) => ((fx - c.centreX) / r) ** 2 + ((d - c.centreCm) / c.radiusCm) ** 2 <= 1),
+					`seed ${s.seed} cyst`,
+				).toBeGreaterThan(0.97);
 			}
 			if (st.brightLine) {
 				const l = st.brightLine;
-				expect(share((fx, d) => fx >= l.fromX && fx <= l.toX && Math.abs(d - l.depthCm) <= l.thicknessCm / 2), `seed ${s.seed} line`).toBeGreaterThan(0.97);
+				expect(
+					share((fx, d) => fx >= l.fromX && fx <= l.toX && Math.abs(d - l.depthCm) <= l.thicknessCm / 2),
+					`seed ${s.seed} line`,
+				).toBeGreaterThan(0.97);
 			}
 		}
 	});
 
 	it('reports its figures', () => {
-		const inside = seeds.filter((s) => truth(s) >= s.result.attenuation!.low && truth(s) <= s.result.attenuation!.high).length;
+		const inside = seeds.filter(
+			(s) => truth(s) >= s.result.attenuation!.low && truth(s) <= s.result.attenuation!.high,
+		).length;
 		const worstError = Math.max(...seeds.map((s) => Math.abs(s.result.attenuation!.alphaDbPerCmMhz - truth(s))));
 		const worstFlat = Math.max(...seeds.map((s) => flatness(s.result)));
-		console.log(`coverage ${inside}/40, worst error ${worstError.toFixed(3)} dB/cm/MHz, worst flatness ±${worstFlat.toFixed(2)} dB`);
+		console.log(
+			`coverage ${inside}/40, worst error ${worstError.toFixed(3)} dB/cm/MHz, worst flatness ±${worstFlat.toFixed(2)} dB`,
+		);
 	});
 });
 
 describe('round trip: the plan itself imaged at its own fitted settings', () => {
-	const seeds = [41, 42, 43, 44].map((k) => refined(k, {cyst: k === 43, brightLine: k === 44, alphaFactor: 1}, measuredPlan));
+	const seeds = [41, 42, 43, 44].map((k) =>
+		refined(k, {cyst: k === 43, brightLine: k === 44, alphaFactor: 1}, measuredPlan),
+	);
 
-	it('the plan\'s α0 lies in the interval, and every correction lies within what the interval allows', () => {
+	it("the plan's α0 lies in the interval, and every correction lies within what the interval allows", () => {
 		for (const s of seeds) {
 			const a = s.result.attenuation!;
 			const planned = plan.layers[liver]!.tissue.alphaDbPerCmMhz;

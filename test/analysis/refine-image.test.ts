@@ -36,12 +36,15 @@ describe('40 simulated patients', () => {
 	});
 
 	it('the 95 % interval holds the true α0 in at least 38 of 40 frames (95 %)', () => {
-		const inside = results.filter((r) => r.out.attenuation && r.truth >= r.out.attenuation.low && r.truth <= r.out.attenuation.high);
+		const inside = results.filter(
+			(r) => r.out.attenuation && r.truth >= r.out.attenuation.low && r.truth <= r.out.attenuation.high,
+		);
 		expect(inside.length).toBeGreaterThanOrEqual(38);
 	});
 
 	it('every estimate is within 0.08 dB/cm/MHz of the truth', () => {
-		for (const r of results) expect(Math.abs(r.out.attenuation!.alphaDbPerCmMhz - r.truth), `case ${r.k}`).toBeLessThan(0.08);
+		for (const r of results)
+			expect(Math.abs(r.out.attenuation!.alphaDbPerCmMhz - r.truth), `case ${r.k}`).toBeLessThan(0.08);
 	});
 
 	it('after the corrections the tissue level is flat within 1.5 dB over the usable depth', () => {
@@ -69,13 +72,19 @@ describe('40 simulated patients', () => {
 describe('round trip: the plan itself', () => {
 	const applied = settingsOfFit(computeCurve(plan).fit);
 	const runs = [0, 1, 2, 3].map((k) => {
-		const {frame, region} = speckleFrame({plan, truth: plan, applied, seed: 900 + k, cyst: k % 2 ? {depthCm: 8, x: 0.5, radiusCm: 0.8} : undefined});
+		const {frame, region} = speckleFrame({
+			plan,
+			truth: plan,
+			applied,
+			seed: 900 + k,
+			cyst: k % 2 ? {depthCm: 8, x: 0.5, radiusCm: 0.8} : undefined,
+		});
 		const out = refineImage({frame, region, plan});
 		if (!out.ok) throw new Error(out.problem);
 		return out;
 	});
 
-	it('the plan\'s own α0 lies in the interval and the corrections stay within what the interval allows', () => {
+	it("the plan's own α0 lies in the interval and the corrections stay within what the interval allows", () => {
 		for (const out of runs) {
 			const a = out.attenuation!;
 			expect(a.low).toBeLessThanOrEqual(0.5);
@@ -84,7 +93,9 @@ describe('round trip: the plan itself', () => {
 			const ends = [a.low, a.high].map((x) => settingsOfFit(computeCurve(withLayerAlpha(plan, liverLayer, x)).fit));
 			const bound = (k: number) => Math.max(...ends.map((e) => Math.abs(e.slidersDb[k]! - applied.slidersDb[k]!)));
 			out.sliders.forEach((s, k) => expect(Math.abs(s.correctionDb)).toBeLessThanOrEqual(bound(k) + 0.05));
-			expect(Math.abs(out.masterCorrectionDb)).toBeLessThanOrEqual(Math.max(...ends.map((e) => Math.abs(e.masterGainDb - applied.masterGainDb))) + 0.05);
+			expect(Math.abs(out.masterCorrectionDb)).toBeLessThanOrEqual(
+				Math.max(...ends.map((e) => Math.abs(e.masterGainDb - applied.masterGainDb))) + 0.05,
+			);
 		}
 	});
 
@@ -98,7 +109,7 @@ describe('round trip: the plan itself', () => {
 });
 
 describe('stated settings', () => {
-	it('an image taken with other settings: corrections bring them to the plan\'s own fit', () => {
+	it("an image taken with other settings: corrections bring them to the plan's own fit", () => {
 		const fit = settingsOfFit(computeCurve(plan).fit);
 		const applied = {slidersDb: fit.slidersDb.map((s, k) => s + (k === 5 ? 4 : 0)), masterGainDb: fit.masterGainDb - 3};
 		const {frame, region} = speckleFrame({plan, truth: plan, applied, seed: 77});
@@ -106,7 +117,9 @@ describe('stated settings', () => {
 		if (!out.ok) throw new Error(out.problem);
 		const a = out.attenuation!;
 		expect(Math.abs(a.alphaDbPerCmMhz - 0.5)).toBeLessThan(0.04);
-		expect(out.masterCorrectionDb + out.sliders[5]!.correctionDb - (out.sliders[0]!.correctionDb + out.masterCorrectionDb)).toBeLessThan(-2);
+		expect(
+			out.masterCorrectionDb + out.sliders[5]!.correctionDb - (out.sliders[0]!.correctionDb + out.masterCorrectionDb),
+		).toBeLessThan(-2);
 		expect(out.warnings.find((w) => w.code === 'settings-stated')?.message).toMatch(/stated settings/);
 	});
 });
@@ -126,7 +139,11 @@ describe('what the image cannot tell, and bad input', () => {
 
 	it('a layer below the usable image is too shallow to tell', () => {
 		const deep = scenarioPlan({
-			layers: [{tissue: 'fat', thicknessCm: 2}, {tissue: 'liver', thicknessCm: 5}, {tissue: 'kidney', thicknessCm: 10}],
+			layers: [
+				{tissue: 'fat', thicknessCm: 2},
+				{tissue: 'liver', thicknessCm: 5},
+				{tissue: 'kidney', thicknessCm: 10},
+			],
 			noiseBudgetDb: 30,
 		});
 		const applied = settingsOfFit(computeCurve(deep).fit);

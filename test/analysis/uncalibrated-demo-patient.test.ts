@@ -55,7 +55,11 @@ function read(set: DemoSet, seed: number, format: 'dicom' | 'png') {
 describe('the demo patient refined without a scanner profile', () => {
 	const runs = [1, 2, 3, 4, 5, 6].map((seed) => {
 		const format = seed % 2 === 0 ? 'dicom' : 'png';
-		const set = patientImage(plan, seed, format === 'dicom' ? 'dcm' : 'png', {size, cyst: seed % 3 === 1, brightLine: seed % 3 === 2});
+		const set = patientImage(plan, seed, format === 'dicom' ? 'dcm' : 'png', {
+			size,
+			cyst: seed % 3 === 1,
+			brightLine: seed % 3 === 2,
+		});
 		const {frame, region} = frameFromImage(read(set, seed, format));
 		const a = set.appliedSettings!;
 		const out = refineImage({frame, region, plan, applied: {slidersDb: a.sliders, masterGainDb: a.masterGainDb}});
@@ -76,17 +80,22 @@ describe('the demo patient refined without a scanner profile', () => {
 		}
 	});
 
-	it('judges the noise from the image, not from the plan\'s budget, and says what that costs', () => {
+	it("judges the noise from the image, not from the plan's budget, and says what that costs", () => {
 		for (const {seed, out} of runs) {
 			const u = out.uncalibrated!;
 			// The simulated scanner's noise meets the echo well above the plan's budget: the image shows it.
 			expect(u.imageNoiseBudgetDb, `seed ${seed}`).not.toBeNull();
 			expect(u.imageNoiseBudgetDb!, `seed ${seed}`).toBeLessThan(u.planNoiseBudgetDb);
 			const w = out.warnings.find((x) => x.code === 'uncalibrated')!.message;
-			expect(w.split('. ')[0]).toMatch(/logarithmic display, the scanner's own depth gain as the assumed ramp .* and its noise/);
+			expect(w.split('. ')[0]).toMatch(
+				/logarithmic display, the scanner's own depth gain as the assumed ramp .* and its noise/,
+			);
 			expect(w).toMatch(/noise level is itself an estimate/);
 			// Bands deep in the noise are not used as tissue.
-			expect(out.bands.filter((b) => b.depthCm > 13).every((b) => !b.usable), `seed ${seed}`).toBe(true);
+			expect(
+				out.bands.filter((b) => b.depthCm > 13).every((b) => !b.usable),
+				`seed ${seed}`,
+			).toBe(true);
 		}
 	});
 });

@@ -65,7 +65,12 @@ describe('the import graph of src/', () => {
 
 	it('the loop finder finds a loop', () => {
 		const fake = (path: string, locals: string[]) => ({path, folder: folderOf(path), packages: [], locals, text: ''});
-		const loops = importLoops([fake('a/x.ts', ['a/y.ts']), fake('a/y.ts', ['a/z.ts']), fake('a/z.ts', ['a/x.ts']), fake('a/w.ts', ['a/x.ts'])]);
+		const loops = importLoops([
+			fake('a/x.ts', ['a/y.ts']),
+			fake('a/y.ts', ['a/z.ts']),
+			fake('a/z.ts', ['a/x.ts']),
+			fake('a/w.ts', ['a/x.ts']),
+		]);
 		expect(loops).toEqual([['a/x.ts', 'a/y.ts', 'a/z.ts']]);
 	});
 });

@@ -25,7 +25,15 @@ describe('the import reader sees every form of import', () => {
 			`const e = await import('node:os');`,
 			`const f = require("node:path");`,
 		].join('\n');
-		expect(importSpecifiers(text)).toEqual(['ink', 'react', 'conf', 'node:fs', 'node:child_process', 'node:os', 'node:path']);
+		expect(importSpecifiers(text)).toEqual([
+			'ink',
+			'react',
+			'conf',
+			'node:fs',
+			'node:child_process',
+			'node:os',
+			'node:path',
+		]);
 	});
 
 	it('finds process in code, not in comments or strings', () => {
@@ -50,7 +58,8 @@ describe.each(pureFolders)('src/%s is pure', (folder) => {
 	for (const file of own) {
 		it(`${file.path} reaches no I/O, terminal or process through any import`, () => {
 			for (const f of reachable(files, [file])) {
-				for (const p of f.packages) expect(allowedPackages.has(p), `${file.path} reaches ${f.path}, which imports ${p}`).toBe(true);
+				for (const p of f.packages)
+					expect(allowedPackages.has(p), `${file.path} reaches ${f.path}, which imports ${p}`).toBe(true);
 				expect(readsProcess(f.text), `${file.path} reaches ${f.path}, which reads process`).toBe(false);
 			}
 		});
@@ -69,7 +78,8 @@ describe('src/engine is the core', () => {
 describe('the table thread runner', () => {
 	it('is reached by no pure file', () => {
 		for (const file of files.filter((f) => pureFolders.includes(f.folder) && !threadRunner.has(f.path))) {
-			for (const f of reachable(files, [file])) expect(threadRunner.has(f.path), `${file.path} reaches ${f.path}`).toBe(false);
+			for (const f of reachable(files, [file]))
+				expect(threadRunner.has(f.path), `${file.path} reaches ${f.path}`).toBe(false);
 		}
 	});
 });

@@ -16,9 +16,23 @@ function inputOf(s: Series): CalibrationInput {
 		phantom: testPhantom,
 		columns: [0.3, 0.7],
 		sliderCount: 8,
-		gainSteps: s.gainSteps.map((g, i) => ({name: `g${i}`, field: `gainSteps.${i}`, image: g.image, masterGainDb: g.masterGainDb})),
+		gainSteps: s.gainSteps.map((g, i) => ({
+			name: `g${i}`,
+			field: `gainSteps.${i}`,
+			image: g.image,
+			masterGainDb: g.masterGainDb,
+		})),
 		probeInAir: {name: 'air', field: 'probeInAir', image: s.probeInAir.image, masterGainDb: s.probeInAir.masterGainDb},
-		sliderSteps: [{name: 's', field: 'sliderSteps.0', image: s.sliderStep.image, masterGainDb: s.sliderStep.masterGainDb, slider: s.sliderStep.slider, position: 1}],
+		sliderSteps: [
+			{
+				name: 's',
+				field: 'sliderSteps.0',
+				image: s.sliderStep.image,
+				masterGainDb: s.sliderStep.masterGainDb,
+				slider: s.sliderStep.slider,
+				position: 1,
+			},
+		],
 	};
 }
 
@@ -44,13 +58,15 @@ describe.each(cases)('recovery with a $name', ({gamma, smoothPx}) => {
 		const depthErr = worstAfterOffset(cal.depthResponse.map((p) => [p.gainDb, s.truth.depthResponse(p.depthCm)]));
 		const travelErr = Math.abs(cal.sliderTravelDb! - s.truth.sliderTravelDb);
 		const penErr = Math.abs(cal.penetrationCm! - s.truth.penetrationCm);
-		console.log(`γ ${gamma} smooth ${smoothPx} seed ${seed}: grey ${greyErr.toFixed(2)} dB over ` +
-			`${grey[0]!.grey}–${grey[grey.length - 1]!.grey}, depth ${depthErr.toFixed(2)} dB to ` +
-			`${cal.depthResponse[cal.depthResponse.length - 1]!.depthCm} cm, travel ` +
-			`${cal.sliderTravelDb!.toFixed(2)} (true ${s.truth.sliderTravelDb}), penetration ` +
-			`${cal.penetrationCm!.toFixed(2)} (true ${s.truth.penetrationCm.toFixed(2)}) cm, budget ` +
-			`${cal.noiseBudgetDb!.toFixed(1)} dB, cells ` +
-			`${Math.min(...cal.bands.map((b) => b.cells)).toFixed(0)}`);
+		console.log(
+			`γ ${gamma} smooth ${smoothPx} seed ${seed}: grey ${greyErr.toFixed(2)} dB over ` +
+				`${grey[0]!.grey}–${grey[grey.length - 1]!.grey}, depth ${depthErr.toFixed(2)} dB to ` +
+				`${cal.depthResponse[cal.depthResponse.length - 1]!.depthCm} cm, travel ` +
+				`${cal.sliderTravelDb!.toFixed(2)} (true ${s.truth.sliderTravelDb}), penetration ` +
+				`${cal.penetrationCm!.toFixed(2)} (true ${s.truth.penetrationCm.toFixed(2)}) cm, budget ` +
+				`${cal.noiseBudgetDb!.toFixed(1)} dB, cells ` +
+				`${Math.min(...cal.bands.map((b) => b.cells)).toFixed(0)}`,
+		);
 		expect(greyErr).toBeLessThanOrEqual(1.5);
 		expect(depthErr).toBeLessThanOrEqual(1.5);
 		expect(travelErr).toBeLessThanOrEqual(1.5);

@@ -35,7 +35,16 @@ describe('evenecho curve', () => {
 		expect(r.status).toBe(0);
 		const j = JSON.parse(r.stdout);
 		expect(Object.keys(j.samples[0])).toEqual(
-			expect.arrayContaining(['displayedDepthCm', 'trueDepthCm', 'attenuationDb', 'interfaceLossDb', 'compensationDb', 'lowDb', 'highDb', 'echoCenterMhz']),
+			expect.arrayContaining([
+				'displayedDepthCm',
+				'trueDepthCm',
+				'attenuationDb',
+				'interfaceLossDb',
+				'compensationDb',
+				'lowDb',
+				'highDb',
+				'echoCenterMhz',
+			]),
 		);
 		expect(j.samples).toHaveLength(161);
 		expect(j.sliders).toHaveLength(8);
@@ -58,29 +67,67 @@ describe('evenecho curve', () => {
 	});
 
 	it('needs only layers and probe.centerMhz', () => {
-		const r = runCli(['curve', '-', '--format', 'json'], {input: JSON.stringify({layers: [{tissue: 'liver', thicknessCm: 10}], probe: {centerMhz: 3.5}})});
+		const r = runCli(['curve', '-', '--format', 'json'], {
+			input: JSON.stringify({layers: [{tissue: 'liver', thicknessCm: 10}], probe: {centerMhz: 3.5}}),
+		});
 		expect(r.status).toBe(0);
 	});
 });
 
 describe('bad input: exit 2, the field named, nothing on stdout', () => {
 	const cases: [string, (p: Record<string, any>) => unknown, RegExp][] = [
-		['negative thickness', (p) => ((p.layers[1].thicknessCm = -2), p), /layers\.1\.thicknessCm: must be a number above 0 and up to 50 cm/],
+		[
+			'negative thickness',
+			(p) => ((p.layers[1].thicknessCm = -2), p),
+			/layers\.1\.thicknessCm: must be a number above 0 and up to 50 cm/,
+		],
 		['0 MHz', (p) => ((p.probe.centerMhz = 0), p), /probe\.centerMhz: .*above 0 and up to 50 MHz/],
 		['over 50 MHz', (p) => ((p.probe.centerMhz = 60), p), /probe\.centerMhz/],
-		['bandwidth outside 0–1.5', (p) => ((p.probe.bandwidthFraction = 2), p), /probe\.bandwidthFraction: must be a number from 0 to 1\.5/],
-		['more than 40 layers', (p) => ((p.layers = Array.from({length: 41}, () => ({tissue: 'fat', thicknessCm: 1}))), p), /layers: must be a list of 1 to 40 layers/],
+		[
+			'bandwidth outside 0–1.5',
+			(p) => ((p.probe.bandwidthFraction = 2), p),
+			/probe\.bandwidthFraction: must be a number from 0 to 1\.5/,
+		],
+		[
+			'more than 40 layers',
+			(p) => ((p.layers = Array.from({length: 41}, () => ({tissue: 'fat', thicknessCm: 1}))), p),
+			/layers: must be a list of 1 to 40 layers/,
+		],
 		['no layers', (p) => ((p.layers = []), p), /layers: must be a list of 1 to 40 layers/],
-		['depth over 40 cm', (p) => ((p.display.depthCm = 41), p), /display\.depthCm: must be a number above 0 and up to 40 cm/],
+		[
+			'depth over 40 cm',
+			(p) => ((p.display.depthCm = 41), p),
+			/display\.depthCm: must be a number above 0 and up to 40 cm/,
+		],
 		['unknown key', (p) => ((p.colour = 'blue'), p), /\(plan\): unknown field "colour"/],
 		['unknown nested key', (p) => ((p.probe.focusCm = 6), p), /probe: unknown field "focusCm"/],
 		['wrong type', (p) => ((p.probe.centerMhz = '3.5'), p), /probe\.centerMhz: must be a number/],
-		['unknown tissue id', (p) => ((p.layers[1].tissue = 'blubber'), p), /layers\.1\.tissue: .*unknown tissue id "blubber"/],
+		[
+			'unknown tissue id',
+			(p) => ((p.layers[1].tissue = 'blubber'), p),
+			/layers\.1\.tissue: .*unknown tissue id "blubber"/,
+		],
 		['custom tissue missing a value', (p) => (delete p.layers[0].tissue.exponent, p), /layers\.0\.tissue/],
-		['slider range inverted', (p) => ((p.sliders.minDb = 10), (p.sliders.maxDb = -10), p), /sliders\.maxDb: minDb must be below maxDb/],
-		['fractional slider count', (p) => ((p.sliders.count = 7.5), p), /sliders\.count: must be a whole number from 1 to 16/],
-		['noise budget and phantom both', (p) => ((p.phantomCalibration = {centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}), p), /phantomCalibration: give either/],
-		['wrong format version', (p) => ((p.format = 'evenecho-plan/9'), p), /format: must be "evenecho-plan\/2" \(or "evenecho-plan\/1", read and migrated\)/],
+		[
+			'slider range inverted',
+			(p) => ((p.sliders.minDb = 10), (p.sliders.maxDb = -10), p),
+			/sliders\.maxDb: minDb must be below maxDb/,
+		],
+		[
+			'fractional slider count',
+			(p) => ((p.sliders.count = 7.5), p),
+			/sliders\.count: must be a whole number from 1 to 16/,
+		],
+		[
+			'noise budget and phantom both',
+			(p) => ((p.phantomCalibration = {centerMhz: 3.5, depthCm: 16, alphaDbPerCmMhz: 0.5}), p),
+			/phantomCalibration: give either/,
+		],
+		[
+			'wrong format version',
+			(p) => ((p.format = 'evenecho-plan/9'), p),
+			/format: must be "evenecho-plan\/2" \(or "evenecho-plan\/1", read and migrated\)/,
+		],
 		['not an object', () => [1, 2, 3], /\(plan\): must be a JSON object/],
 	];
 	for (const [what, mutate, message] of cases) {
@@ -125,7 +172,7 @@ describe('bad input: exit 2, the field named, nothing on stdout', () => {
 });
 
 describe('traceability', () => {
-	it('JSON and text name every layer\'s tissue values and their sources', () => {
+	it("JSON and text name every layer's tissue values and their sources", () => {
 		const path = planFile('trace.json', demo());
 		const j = JSON.parse(runCli(['curve', path, '--format', 'json']).stdout);
 		expect(j.layers).toHaveLength(4);
@@ -140,12 +187,14 @@ describe('traceability', () => {
 });
 
 describe('harmonic receive', () => {
-	it('an older plan\'s harmonic flag becomes tissue-harmonic receive, and the curve states the model in text and JSON', () => {
+	it("an older plan's harmonic flag becomes tissue-harmonic receive, and the curve states the model in text and JSON", () => {
 		const p = demo();
 		(p as {probe: unknown}).probe = {centerMhz: 2.5, bandwidthFraction: 0.6, harmonic: true};
 		const path = planFile('harmonic.json', p);
 		expect(runCli(['curve', path]).stdout).toContain('builds up along the way down');
-		const w = JSON.parse(runCli(['curve', path, '--format', 'json']).stdout).warnings.find((x: {code: string}) => x.code === 'harmonic-simplified');
+		const w = JSON.parse(runCli(['curve', path, '--format', 'json']).stdout).warnings.find(
+			(x: {code: string}) => x.code === 'harmonic-simplified',
+		);
 		expect(w).toMatchObject({severity: 'note', message: expect.stringMatching(/Cobb 1983/)});
 	});
 });

@@ -49,7 +49,15 @@ describe('demo phantom series → scanner calibrate', () => {
 			const out = join(dir, 'series');
 			const made = runCli(['simulate', planPath, '--out', out, '--format', format, '--seed', String(seed)]);
 			expect(made.status, made.stderr).toBe(0);
-			const cal = runCli(['scanner', 'calibrate', join(out, 'session.json'), '--name', `Demo ${format}`, '--format', 'json']);
+			const cal = runCli([
+				'scanner',
+				'calibrate',
+				join(out, 'session.json'),
+				'--name',
+				`Demo ${format}`,
+				'--format',
+				'json',
+			]);
 			expect(cal.status, cal.stderr).toBe(0);
 			const profile = JSON.parse(cal.stdout);
 			const truth = JSON.parse(readFileSync(join(out, 'truth.json'), 'utf8'));

@@ -42,7 +42,9 @@ describe('special files and endless input', () => {
 			['presets', 'save', 'Piped', '--from', fifo],
 			['presets', 'import', fifo],
 		];
-		const runs = await Promise.all(doors.map((args) => spawnCli(args, {env: {EVENECHO_HOME: home}, timeoutMs: 15_000}).ended));
+		const runs = await Promise.all(
+			doors.map((args) => spawnCli(args, {env: {EVENECHO_HOME: home}, timeoutMs: 15_000}).ended),
+		);
 		runs.forEach((r, i) => {
 			expect(r.timedOut, `${doors[i]!.join(' ')} hung`).toBe(false);
 			expect(r.code, doors[i]!.join(' ')).toBe(2);
@@ -77,7 +79,11 @@ describe('special files and endless input', () => {
 		while (open && accepted < 64 << 20) {
 			const flushed = run.child.stdin!.write(chunk);
 			accepted += chunk.length;
-			if (!flushed) await new Promise((resolve) => { run.child.stdin!.once('drain', resolve); run.child.once('close', resolve); });
+			if (!flushed)
+				await new Promise((resolve) => {
+					run.child.stdin!.once('drain', resolve);
+					run.child.once('close', resolve);
+				});
 		}
 		const r = await run.ended;
 		expect(r.timedOut).toBe(false);
@@ -105,27 +111,68 @@ describe('control characters never reach the terminal raw', () => {
 	const hostile = '\u001b]0;owned\u0007\u001b[2J\u009b31m\u202e';
 
 	const cases: Array<[string, Record<string, unknown>, string]> = [
-		['name', {name: `Liver${hostile}`}, 'name: contains a control or invisible formatting character (U+001B at character 6)'],
-		['name on two lines', {name: 'Liver\nthick fat'}, 'name: must be one line without control or invisible formatting characters (found U+000A'],
+		[
+			'name',
+			{name: `Liver${hostile}`},
+			'name: contains a control or invisible formatting character (U+001B at character 6)',
+		],
+		[
+			'name on two lines',
+			{name: 'Liver\nthick fat'},
+			'name: must be one line without control or invisible formatting characters (found U+000A',
+		],
 		['region', {region: `abdomen${hostile}`}, 'region: contains a control'],
 		['note', {note: `see${hostile}`}, 'note: contains a control'],
 		['unknown key', {[`x${hostile}`]: 1}, '(top): a key contains a control or invisible formatting character'],
 		['tissue id', {layers: [{tissue: `fat${hostile}`, thicknessCm: 1}]}, 'layers.0.tissue: contains a control'],
-		['custom label', {layers: [{tissue: {label: `mine${hostile}`, speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.5, exponent: 1}, thicknessCm: 1}]}, 'layers.0.tissue.label: contains a control'],
-		['custom label on two lines', {layers: [{tissue: {label: 'mine\ntoo', speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.5, exponent: 1}, thicknessCm: 1}]}, 'layers.0.tissue'],
+		[
+			'custom label',
+			{
+				layers: [
+					{
+						tissue: {label: `mine${hostile}`, speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.5, exponent: 1},
+						thicknessCm: 1,
+					},
+				],
+			},
+			'layers.0.tissue.label: contains a control',
+		],
+		[
+			'custom label on two lines',
+			{
+				layers: [
+					{
+						tissue: {label: 'mine\ntoo', speedMps: 1540, densityKgM3: 1000, alphaDbPerCmMhz: 0.5, exponent: 1},
+						thicknessCm: 1,
+					},
+				],
+			},
+			'layers.0.tissue',
+		],
 	];
 
-	it.each(cases)('%s: refused at every door by the one text rule; the message shows escapes only', (what, overrides, expected) => {
-		const home = tempHome();
-		const file = join(home, 'plan.json');
-		writeFileSync(file, planText(overrides));
-		for (const args of [['curve', file], ['ladder', file], ['table', file, '--fat', '1'], ['presets', 'save', 'X', '--from', file], ['presets', 'import', file]]) {
-			const r = runCli(args, {env: {EVENECHO_HOME: home}});
-			expect(r.status, `${what}: ${args[0]}`).toBe(2);
-			expect(r.stderr, `${what}: ${args.join(' ')}`).toContain(expected);
-			expect(rawControl.test(r.stderr + r.stdout), `${what}: ${args.join(' ')} printed raw control characters`).toBe(false);
-		}
-	});
+	it.each(cases)(
+		'%s: refused at every door by the one text rule; the message shows escapes only',
+		(what, overrides, expected) => {
+			const home = tempHome();
+			const file = join(home, 'plan.json');
+			writeFileSync(file, planText(overrides));
+			for (const args of [
+				['curve', file],
+				['ladder', file],
+				['table', file, '--fat', '1'],
+				['presets', 'save', 'X', '--from', file],
+				['presets', 'import', file],
+			]) {
+				const r = runCli(args, {env: {EVENECHO_HOME: home}});
+				expect(r.status, `${what}: ${args[0]}`).toBe(2);
+				expect(r.stderr, `${what}: ${args.join(' ')}`).toContain(expected);
+				expect(rawControl.test(r.stderr + r.stdout), `${what}: ${args.join(' ')} printed raw control characters`).toBe(
+					false,
+				);
+			}
+		},
+	);
 
 	it('a file name and a syntax error quoting hostile bytes are shown escaped', () => {
 		const home = tempHome();
@@ -163,7 +210,11 @@ describe('one rule for encodings and duplicate keys, at every door', () => {
 		const home = tempHome();
 		const file = join(home, 'wide.json');
 		writeFileSync(file, Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(planText(), 'utf16le')]));
-		for (const args of [['curve', file], ['presets', 'import', file], ['presets', 'save', 'Wide', '--from', file]]) {
+		for (const args of [
+			['curve', file],
+			['presets', 'import', file],
+			['presets', 'save', 'Wide', '--from', file],
+		]) {
 			const r = runCli(args, {env: {EVENECHO_HOME: home}});
 			expect(r.status).toBe(2);
 			expect(r.stderr).toContain('is UTF-16 (little-endian) text; evenecho reads UTF-8 only: save it as UTF-8');
@@ -175,7 +226,10 @@ describe('one rule for encodings and duplicate keys, at every door', () => {
 		const home = tempHome();
 		const file = join(home, 'twice.json');
 		writeFileSync(file, planText().replace('"probe": {', '"probe": {"centerMhz": 9, '));
-		for (const args of [['curve', file], ['presets', 'import', file]]) {
+		for (const args of [
+			['curve', file],
+			['presets', 'import', file],
+		]) {
 			const r = runCli(args, {env: {EVENECHO_HOME: home}});
 			expect(r.status).toBe(2);
 			expect(r.stderr).toContain('probe: the key "centerMhz" appears more than once');
@@ -184,7 +238,7 @@ describe('one rule for encodings and duplicate keys, at every door', () => {
 });
 
 describe('smaller rules', () => {
-	it('ladder --target deeper than the display is refused, like a plan\'s own target', () => {
+	it("ladder --target deeper than the display is refused, like a plan's own target", () => {
 		const home = tempHome();
 		const file = join(home, 'plan.json');
 		writeFileSync(file, planText({display: {depthCm: 12}}));
@@ -198,7 +252,9 @@ describe('smaller rules', () => {
 	it('an unknown command is called that, with the list of commands', () => {
 		const top = runCli(['frobnicate']);
 		expect(top.status).toBe(2);
-		expect(top.stderr).toContain('unknown command "frobnicate"; the commands are: curve, ladder, presets, refine, table, preview, simulate, scanner');
+		expect(top.stderr).toContain(
+			'unknown command "frobnicate"; the commands are: curve, ladder, presets, refine, table, preview, simulate, scanner',
+		);
 		const sub = runCli(['presets', 'frobnicate']);
 		expect(sub.status).toBe(2);
 		expect(sub.stderr).toContain('unknown command "presets frobnicate"; the commands are: presets list, presets show');
@@ -219,7 +275,12 @@ describe('smaller rules', () => {
 		const full = openSync('/dev/full', 'w');
 		try {
 			const env: NodeJS.ProcessEnv = {...process.env, EVENECHO_HOME: tempHome()};
-			const r = spawnSync(process.execPath, [cliPath, 'presets', 'export', '-', 'breast'], {env, stdio: ['ignore', full, 'pipe'], encoding: 'utf8', timeout: 20_000});
+			const r = spawnSync(process.execPath, [cliPath, 'presets', 'export', '-', 'breast'], {
+				env,
+				stdio: ['ignore', full, 'pipe'],
+				encoding: 'utf8',
+				timeout: 20_000,
+			});
 			expect(r.status).not.toBe(0);
 			expect(r.stderr).toContain('cannot write the output (the device is full)');
 			expect(r.stderr).not.toContain('exported 1 preset');

@@ -20,7 +20,20 @@ afterAll(() => rmSync(root, {recursive: true, force: true}));
 describe('evenecho preview', () => {
 	it('--png writes one 8-bit grey panel whose rows map to depth (row r = r/height × display depth)', () => {
 		const out = join(root, 'plan.png');
-		const r = runCli(['preview', planPath, '--png', out, '--panel', 'plan', '--width', '64', '--height', '96', '--seed', '3']);
+		const r = runCli([
+			'preview',
+			planPath,
+			'--png',
+			out,
+			'--panel',
+			'plan',
+			'--width',
+			'64',
+			'--height',
+			'96',
+			'--seed',
+			'3',
+		]);
 		expect(r.status, r.stderr).toBe(0);
 		expect(r.stdout).toContain('Illustration');
 		const png = decode(readFileSync(out));
@@ -83,7 +96,17 @@ describe('evenecho simulate', () => {
 		const r = runCli(['simulate', planPath, '--out', dir, '--seed', '2']);
 		expect(r.status, r.stderr).toBe(0);
 		const files = readdirSync(dir).sort();
-		expect(files).toEqual(['air.dcm', 'g18.dcm', 'g24.dcm', 'g30.dcm', 'g36.dcm', 'g42.dcm', 's4-max.dcm', 'session.json', 'truth.json']);
+		expect(files).toEqual([
+			'air.dcm',
+			'g18.dcm',
+			'g24.dcm',
+			'g30.dcm',
+			'g36.dcm',
+			'g42.dcm',
+			's4-max.dcm',
+			'session.json',
+			'truth.json',
+		]);
 		const session = JSON.parse(readFileSync(join(dir, 'session.json'), 'utf8'));
 		expect(session.format).toBe('evenecho-scanner-session/1');
 		expect(session.gainSteps).toHaveLength(5);
@@ -91,7 +114,8 @@ describe('evenecho simulate', () => {
 		expect(session.sliderSteps[0]).toEqual({image: 's4-max.dcm', slider: 4, position: 1, masterGainDb: 30});
 		expect(session.sliders.count).toBe(8);
 		expect(session.pixelScale).toBeUndefined();
-		for (const step of [...session.gainSteps, session.probeInAir, ...session.sliderSteps]) expect(existsSync(join(dir, step.image))).toBe(true);
+		for (const step of [...session.gainSteps, session.probeInAir, ...session.sliderSteps])
+			expect(existsSync(join(dir, step.image))).toBe(true);
 		const photometrics = new Set<string>();
 		for (const f of files.filter((n) => n.endsWith('.dcm'))) {
 			const ds = dicomParser.parseDicom(readFileSync(join(dir, f)));
@@ -113,13 +137,19 @@ describe('evenecho simulate', () => {
 		const session = JSON.parse(readFileSync(join(dir, 'session.json'), 'utf8'));
 		expect(session.pixelScale.cmPerPixel).toBeCloseTo(16 / 440, 6);
 		expect(session.pixelScale.topRowCm).toBeCloseTo(-24 * (16 / 440), 6);
-		const channels = new Set(readdirSync(dir).filter((n) => n.endsWith('.png')).map((n) => decode(readFileSync(join(dir, n))).channels));
+		const channels = new Set(
+			readdirSync(dir)
+				.filter((n) => n.endsWith('.png'))
+				.map((n) => decode(readFileSync(join(dir, n))).channels),
+		);
 		expect([...channels].sort()).toEqual([1, 3]);
 	}, 60_000);
 
 	it('patient: the image, the applied settings {sliders, masterGainDb} and the truth with the changed attenuation', () => {
 		const dir = join(root, 'patient');
-		expect(runCli(['simulate', planPath, '--out', dir, '--kind', 'patient', '--format', 'dicom', '--seed', '5']).status).toBe(0);
+		expect(
+			runCli(['simulate', planPath, '--out', dir, '--kind', 'patient', '--format', 'dicom', '--seed', '5']).status,
+		).toBe(0);
 		expect(readdirSync(dir).sort()).toEqual(['applied-settings.json', 'patient.dcm', 'truth.json']);
 		const applied = JSON.parse(readFileSync(join(dir, 'applied-settings.json'), 'utf8'));
 		expect(Object.keys(applied).sort()).toEqual(['masterGainDb', 'sliders']);

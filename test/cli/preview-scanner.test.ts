@@ -66,13 +66,31 @@ describe('preview with a measured scanner', () => {
 		const width = 120;
 		const height = 160;
 		const draw = (planFile: string, out: string) => {
-			const r = runCli(['preview', join(root, planFile), '--png', join(root, out), '--panel', 'ramp', '--width', `${width}`, '--height', `${height}`, '--seed', '4'], {env});
+			const r = runCli(
+				[
+					'preview',
+					join(root, planFile),
+					'--png',
+					join(root, out),
+					'--panel',
+					'ramp',
+					'--width',
+					`${width}`,
+					'--height',
+					`${height}`,
+					'--seed',
+					'4',
+				],
+				{env},
+			);
 			expect(r.status, r.stderr).toBe(0);
 			return r;
 		};
 		draw('assumed.json', 'assumed.png');
 		const measured = draw('measured.json', 'measured.png');
-		expect(measured.stdout).toMatch(/sliders as a fraction of travel \(full travel \d+\.\d dB, measured\): 1 [+−]?\d\.\d\d/);
+		expect(measured.stdout).toMatch(
+			/sliders as a fraction of travel \(full travel \d+\.\d dB, measured\): 1 [+−]?\d\.\d\d/,
+		);
 		const a = decode(readFileSync(join(root, 'assumed.png'))).data;
 		const b = decode(readFileSync(join(root, 'measured.png'))).data;
 		let worst = 0;
@@ -87,7 +105,9 @@ describe('preview with a measured scanner', () => {
 	}, 120_000);
 
 	it('titles the terminal panel by what it shows; --scanner draws an unnamed plan on a profile', () => {
-		const r = runCli(['preview', join(root, 'assumed.json'), '--width', '30', '--height', '40', '--scanner', id], {env});
+		const r = runCli(['preview', join(root, 'assumed.json'), '--width', '30', '--height', '40', '--scanner', id], {
+			env,
+		});
 		expect(r.status, r.stderr).toBe(0);
 		expect(r.stdout).toContain('measured gain only');
 		expect(r.stdout).not.toContain('built-in ramp only');

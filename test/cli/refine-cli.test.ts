@@ -93,7 +93,9 @@ describe('refine on a PNG still', () => {
 		// The written plan is a valid plan whose fit equals the refined sliders.
 		const curve = runCli(['curve', out, '--format', 'json']);
 		expect(curve.status).toBe(0);
-		JSON.parse(curve.stdout).sliders.forEach((s: {gainDb: number}, k: number) => expect(s.gainDb).toBeCloseTo(j.sliders[k].gainDb, 1));
+		JSON.parse(curve.stdout).sliders.forEach((s: {gainDb: number}, k: number) =>
+			expect(s.gainDb).toBeCloseTo(j.sliders[k].gainDb, 1),
+		);
 		// Again, not on a terminal and without --force: refused, file untouched.
 		const before = readFileSync(out, 'utf8');
 		const again = runCli(['refine', png, '--plan', planPath, ...scale, '--write-plan', out]);
@@ -112,7 +114,8 @@ function dicomOf(k: number, options: {rgb?: boolean; deltaY?: number} = {}): str
 	const H = frame.height + 2 * margin;
 	const grey = new Uint8Array(W * H).fill(8);
 	for (let x = 0; x < W; x += 3) grey[5 * W + x] = 235; // burned-in text line
-	for (let y = 0; y < frame.height; y++) for (let x = 0; x < frame.width; x++) grey[(y + margin) * W + x + margin] = frame.grey[y * frame.width + x]!;
+	for (let y = 0; y < frame.height; y++)
+		for (let x = 0; x < frame.width; x++) grey[(y + margin) * W + x + margin] = frame.grey[y * frame.width + x]!;
 	let pixels: Uint8Array = grey;
 	if (options.rgb) {
 		pixels = new Uint8Array(W * H * 3);
@@ -126,7 +129,15 @@ function dicomOf(k: number, options: {rgb?: boolean; deltaY?: number} = {}): str
 		photometric: options.rgb ? 'RGB' : 'MONOCHROME2',
 		samples: options.rgb ? 3 : 1,
 		pixels,
-		regions: [{minX0: margin, minY0: margin, maxX1: margin + frame.width - 1, maxY1: margin + frame.height - 1, deltaY: options.deltaY ?? 0.05}],
+		regions: [
+			{
+				minX0: margin,
+				minY0: margin,
+				maxX1: margin + frame.width - 1,
+				maxY1: margin + frame.height - 1,
+				deltaY: options.deltaY ?? 0.05,
+			},
+		],
 	});
 	const path = join(dir, `case${k}${options.rgb ? '-rgb' : ''}${options.deltaY ? '-scaled' : ''}.dcm`);
 	writeFileSync(path, bytes);
@@ -157,7 +168,13 @@ describe('refine on a DICOM still with an ultrasound region', () => {
 		const path = join(dir, 'two-frames.dcm');
 		writeFileSync(
 			path,
-			writeDicom({rows: frame.height, columns: frame.width, frames: 2, pixels, regions: [{minX0: 0, minY0: 0, maxX1: frame.width - 1, maxY1: frame.height - 1, deltaY: 0.05}]}),
+			writeDicom({
+				rows: frame.height,
+				columns: frame.width,
+				frames: 2,
+				pixels,
+				regions: [{minX0: 0, minY0: 0, maxX1: frame.width - 1, maxY1: frame.height - 1, deltaY: 0.05}],
+			}),
 		);
 		const second = runCli(['refine', path, '--plan', planPath, '--frame', '2', '--format', 'json']);
 		expect(second.stderr).toBe('');
@@ -179,14 +196,18 @@ describe('refine on a DICOM still with an ultrasound region', () => {
 });
 
 describe('stated settings', () => {
-	it('--applied with the plan\'s own fit gives the same corrections as none', () => {
+	it("--applied with the plan's own fit gives the same corrections as none", () => {
 		const png = join(dir, 'case4.png');
 		const fit = settingsOfFit(computeCurve(plan).fit);
 		const settings = join(dir, 'settings.json');
 		writeFileSync(settings, JSON.stringify({sliders: fit.slidersDb, masterGainDb: fit.masterGainDb}));
 		const a = JSON.parse(runCli(['refine', png, '--plan', planPath, ...scale, '--format', 'json']).stdout);
-		const b = JSON.parse(runCli(['refine', png, '--plan', planPath, ...scale, '--applied', settings, '--format', 'json']).stdout);
-		b.sliders.forEach((s: {correctionDb: number}, k: number) => expect(s.correctionDb).toBeCloseTo(a.sliders[k].correctionDb, 1));
+		const b = JSON.parse(
+			runCli(['refine', png, '--plan', planPath, ...scale, '--applied', settings, '--format', 'json']).stdout,
+		);
+		b.sliders.forEach((s: {correctionDb: number}, k: number) =>
+			expect(s.correctionDb).toBeCloseTo(a.sliders[k].correctionDb, 1),
+		);
 		expect(b.appliedSettings.from).toBe('stated');
 	});
 });
@@ -238,7 +259,9 @@ describe('bad input: exit 2 naming the problem, nothing written', () => {
 	it('a PNG without a depth scale, and half a scale', () => {
 		const r = runCli(['refine', png, '--plan', planPath]);
 		expect(r.status).toBe(2);
-		expect(runCli(['refine', png, '--plan', planPath, '--cm-per-pixel', '0.05']).stderr).toMatch(/--cm-per-pixel and --top-cm go together/);
+		expect(runCli(['refine', png, '--plan', planPath, '--cm-per-pixel', '0.05']).stderr).toMatch(
+			/--cm-per-pixel and --top-cm go together/,
+		);
 	});
 
 	it('a layer number outside the plan', () => {

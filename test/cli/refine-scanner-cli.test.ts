@@ -27,11 +27,33 @@ writeFileSync(namingPlan, JSON.stringify({...planJson, scanner: 'ward-cart'}));
 describe('refine through a stored scanner profile', () => {
 	const made = run(['simulate', planPath, '--out', join(dir, 'phantom'), '--kind', 'phantom-series', '--seed', '3']);
 	const calibrated = run(['scanner', 'calibrate', join(dir, 'phantom', 'session.json'), '--name', 'Ward cart']);
-	const patient = run(['simulate', planPath, '--out', join(dir, 'patient'), '--kind', 'patient', '--cyst', '--bright-line', '--seed', '11']);
+	const patient = run([
+		'simulate',
+		planPath,
+		'--out',
+		join(dir, 'patient'),
+		'--kind',
+		'patient',
+		'--cyst',
+		'--bright-line',
+		'--seed',
+		'11',
+	]);
 	const image = join(dir, 'patient', 'patient.dcm');
 	const applied = join(dir, 'patient', 'applied-settings.json');
 	const truth = JSON.parse(readFileSync(join(dir, 'patient', 'truth.json'), 'utf8'));
-	const byOption = run(['refine', image, '--plan', planPath, '--scanner', 'ward-cart', '--applied', applied, '--format', 'json']);
+	const byOption = run([
+		'refine',
+		image,
+		'--plan',
+		planPath,
+		'--scanner',
+		'ward-cart',
+		'--applied',
+		applied,
+		'--format',
+		'json',
+	]);
 
 	it('the demo set is made through the public commands, the structures recorded in the truth', () => {
 		expect(made.status, made.stderr).toBe(0);
@@ -41,7 +63,7 @@ describe('refine through a stored scanner profile', () => {
 		expect(truth.structures.brightLine.depthCm).toBeGreaterThan(0);
 	});
 
-	it('--scanner: calibrated, the liver\'s α0 within 0.08 of the truth and inside its interval, changes in travel', () => {
+	it("--scanner: calibrated, the liver's α0 within 0.08 of the truth and inside its interval, changes in travel", () => {
 		expect(byOption.status, byOption.stderr).toBe(0);
 		const j = JSON.parse(byOption.stdout);
 		expect(j.calibrated).toBe(true);
@@ -68,7 +90,18 @@ describe('refine through a stored scanner profile', () => {
 
 	it('an unknown profile is refused with exit 2, naming it, and nothing is written', () => {
 		const out = join(dir, 'never.json');
-		const r = run(['refine', image, '--plan', planPath, '--scanner', 'no-such-cart', '--applied', applied, '--write-plan', out]);
+		const r = run([
+			'refine',
+			image,
+			'--plan',
+			planPath,
+			'--scanner',
+			'no-such-cart',
+			'--applied',
+			applied,
+			'--write-plan',
+			out,
+		]);
 		expect(r.status).toBe(2);
 		expect(r.stderr).toContain('--scanner');
 		expect(r.stderr).toContain('no-such-cart');

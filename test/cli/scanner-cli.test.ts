@@ -32,7 +32,10 @@ function listing(home: string): string[] {
 const plan = (scanner?: string) => ({
 	format: 'evenecho-plan/2',
 	name: 'Invented patient, 4 cm fat',
-	layers: [{tissue: 'fat', thicknessCm: 4}, {tissue: 'liver', thicknessCm: 20}],
+	layers: [
+		{tissue: 'fat', thicknessCm: 4},
+		{tissue: 'liver', thicknessCm: 20},
+	],
 	probe: {centerMhz: 3.5, bandwidthFraction: 0.6},
 	display: {depthCm: 16},
 	...(scanner ? {scanner} : {}),
@@ -42,11 +45,23 @@ describe('scanner calibrate and the profile commands', () => {
 	it('calibrates, stores, lists, shows, renames, exports, deletes and imports', () => {
 		const home = freshHome();
 		const env = {EVENECHO_HOME: home};
-		const cal = runCli(['scanner', 'calibrate', good.sessionPath, '--name', 'Cart B abdomen', '--format', 'json'], {env});
+		const cal = runCli(['scanner', 'calibrate', good.sessionPath, '--name', 'Cart B abdomen', '--format', 'json'], {
+			env,
+		});
 		expect(cal.stderr).toContain('stored scanner profile cart-b-abdomen');
 		expect(cal.status).toBe(0);
 		const profile = JSON.parse(cal.stdout);
-		for (const key of ['id', 'label', 'greyMap', 'depthResponse', 'sliderTravelDb', 'noiseFloor', 'penetrationCm', 'noiseBudgetDb']) expect(profile).toHaveProperty(key);
+		for (const key of [
+			'id',
+			'label',
+			'greyMap',
+			'depthResponse',
+			'sliderTravelDb',
+			'noiseFloor',
+			'penetrationCm',
+			'noiseBudgetDb',
+		])
+			expect(profile).toHaveProperty(key);
 		expect(profile.id).toBe('cart-b-abdomen');
 		expect(profile.greyMap[0]).toHaveProperty('grey');
 		expect(profile.depthResponse[0].depthCm).toBeLessThanOrEqual(1);
@@ -84,7 +99,10 @@ describe('scanner calibrate and the profile commands', () => {
 		const before = listing(home);
 		const stored = JSON.parse(readFileSync(join(home, 'scanner-profiles', before[0]!), 'utf8'));
 		const cases: Array<[string, string]> = [
-			['proto.json', JSON.stringify({...stored, id: 'x', name: 'x'}).replace('"format"', '"__proto__":{"polluted":1},"format"')],
+			[
+				'proto.json',
+				JSON.stringify({...stored, id: 'x', name: 'x'}).replace('"format"', '"__proto__":{"polluted":1},"format"'),
+			],
 			['nan.json', JSON.stringify({...stored, id: 'other', name: 'other', penetrationCm: 'deep'})],
 			['control.json', JSON.stringify({...stored, id: 'other', name: 'other', label: 'evil\u001b[2J'})],
 			['format.json', JSON.stringify({...stored, format: 'something-else/1'})],
@@ -146,13 +164,36 @@ describe('bad sessions: exit 2, the field named, the store unchanged', () => {
 		const w = 64;
 		const px = new Uint8Array(w * w * 3);
 		for (let i = 0; i < w * w; i++) px.set([200, 60, 10], 3 * i);
-		writeFileSync(join(dir, 'colour.dcm'), writeDicom({rows: w, columns: w, pixels: px, photometric: 'RGB', samples: 3, planar: 0, regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: w - 1, deltaY: 0.25}]}));
+		writeFileSync(
+			join(dir, 'colour.dcm'),
+			writeDicom({
+				rows: w,
+				columns: w,
+				pixels: px,
+				photometric: 'RGB',
+				samples: 3,
+				planar: 0,
+				regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: w - 1, deltaY: 0.25}],
+			}),
+		);
 	};
 	type Steps = Array<{image: string}>;
 	const cases: Array<{name: string; field: RegExp; edit: (s: Record<string, unknown>, dir: string) => void}> = [
-		{name: 'missing image', field: /gainSteps\.2\.image: gone\.dcm: no such file/, edit: (s) => ((s['gainSteps'] as Steps)[2]!.image = 'gone.dcm')},
-		{name: 'wrong format', field: /format: must be "evenecho-scanner-session\/1"/, edit: (s) => (s['format'] = 'evenecho-session/9')},
-		{name: 'two gain steps', field: /gainSteps: must list at least 3 images/, edit: (s) => (s['gainSteps'] = (s['gainSteps'] as unknown[]).slice(0, 2))},
+		{
+			name: 'missing image',
+			field: /gainSteps\.2\.image: gone\.dcm: no such file/,
+			edit: (s) => ((s['gainSteps'] as Steps)[2]!.image = 'gone.dcm'),
+		},
+		{
+			name: 'wrong format',
+			field: /format: must be "evenecho-scanner-session\/1"/,
+			edit: (s) => (s['format'] = 'evenecho-session/9'),
+		},
+		{
+			name: 'two gain steps',
+			field: /gainSteps: must list at least 3 images/,
+			edit: (s) => (s['gainSteps'] = (s['gainSteps'] as unknown[]).slice(0, 2)),
+		},
 		{
 			name: 'steps that do not overlap',
 			field: /gainSteps: the steps overlap too little to stitch/,
@@ -162,7 +203,15 @@ describe('bad sessions: exit 2, the field named, the store unchanged', () => {
 			name: 'a region outside the pixels',
 			field: /gainSteps\.0\.image: .*\(0018,601E\) Region Location Max Y1: .*inside the image/,
 			edit: (s, dir) => {
-				writeFileSync(join(dir, 'outside.dcm'), writeDicom({rows: 50, columns: 50, pixels: new Uint8Array(2500), regions: [{minX0: 0, minY0: 0, maxX1: 49, maxY1: 50, deltaY: 0.1}]}));
+				writeFileSync(
+					join(dir, 'outside.dcm'),
+					writeDicom({
+						rows: 50,
+						columns: 50,
+						pixels: new Uint8Array(2500),
+						regions: [{minX0: 0, minY0: 0, maxX1: 49, maxY1: 50, deltaY: 0.1}],
+					}),
+				);
 				(s['gainSteps'] as Steps)[0]!.image = 'outside.dcm';
 			},
 		},
@@ -178,7 +227,15 @@ describe('bad sessions: exit 2, the field named, the store unchanged', () => {
 			name: 'a size claim over the cap',
 			field: /gainSteps\.0\.image: .*\(0028,0010\) Rows: is 9000/,
 			edit: (s, dir) => {
-				writeFileSync(join(dir, 'huge.dcm'), writeDicom({rows: 9000, columns: 16, pixels: new Uint8Array(16), regions: [{minX0: 0, minY0: 0, maxX1: 15, maxY1: 15, deltaY: 0.1}]}));
+				writeFileSync(
+					join(dir, 'huge.dcm'),
+					writeDicom({
+						rows: 9000,
+						columns: 16,
+						pixels: new Uint8Array(16),
+						regions: [{minX0: 0, minY0: 0, maxX1: 15, maxY1: 15, deltaY: 0.1}],
+					}),
+				);
 				(s['gainSteps'] as Steps)[0]!.image = 'huge.dcm';
 			},
 		},
@@ -210,18 +267,24 @@ describe('bad sessions: exit 2, the field named, the store unchanged', () => {
 		expect(r.status, r.stderr).toBe(0);
 	}, 120_000);
 
-	it.each(cases)('$name', ({name, field, edit}) => {
-		const dir = join(root, `bad-${name.replace(/\W+/g, '-')}`);
-		const written = writeSession(dir, 'dicom', {seed: 3, width: 200, height: 200}, (s) => edit(s, dir));
-		const home = freshHome();
-		cpSync(seeded, home, {recursive: true});
-		const before = snapshotDir(home);
-		expect(Object.keys(before)).toContain(join('scanner-profiles', 'cart-a.json'));
-		const r = runCli(['scanner', 'calibrate', written.sessionPath, '--name', 'Cart A', '--force'], {env: {EVENECHO_HOME: home}});
-		expect(r.stderr).toMatch(field);
-		expect(r.status).toBe(2);
-		expect(r.stderr).not.toMatch(/\n\s+at /);
-		expect(r.stdout).toBe('');
-		expect(snapshotDir(home)).toEqual(before);
-	}, 60_000);
+	it.each(cases)(
+		'$name',
+		({name, field, edit}) => {
+			const dir = join(root, `bad-${name.replace(/\W+/g, '-')}`);
+			const written = writeSession(dir, 'dicom', {seed: 3, width: 200, height: 200}, (s) => edit(s, dir));
+			const home = freshHome();
+			cpSync(seeded, home, {recursive: true});
+			const before = snapshotDir(home);
+			expect(Object.keys(before)).toContain(join('scanner-profiles', 'cart-a.json'));
+			const r = runCli(['scanner', 'calibrate', written.sessionPath, '--name', 'Cart A', '--force'], {
+				env: {EVENECHO_HOME: home},
+			});
+			expect(r.stderr).toMatch(field);
+			expect(r.status).toBe(2);
+			expect(r.stderr).not.toMatch(/\n\s+at /);
+			expect(r.stdout).toBe('');
+			expect(snapshotDir(home)).toEqual(before);
+		},
+		60_000,
+	);
 });

@@ -59,12 +59,20 @@ describe('rows agree with evenecho curve', () => {
 			plan.probe.receive = row.receive;
 			const c = runCli(['curve', write(`row-${row.row}.json`, plan), '--format', 'json']);
 			expect(c.status).toBe(0);
-			const curve = JSON.parse(c.stdout) as {masterGainDb: number; sliders: {depthCm: number; gainDb: number}[]; residualDb: number; penetrationDepthCm: number | null; warnings: {code: string; severity: string}[]};
+			const curve = JSON.parse(c.stdout) as {
+				masterGainDb: number;
+				sliders: {depthCm: number; gainDb: number}[];
+				residualDb: number;
+				penetrationDepthCm: number | null;
+				warnings: {code: string; severity: string}[];
+			};
 			expect(row.masterGainDb, `row ${row.row}`).toBe(curve.masterGainDb);
 			expect(row.sliders, `row ${row.row}`).toEqual(curve.sliders);
 			expect(row.residualDb, `row ${row.row}`).toBe(curve.residualDb);
 			expect(row.penetrationDepthCm, `row ${row.row}`).toBe(curve.penetrationDepthCm);
-			expect(row.warnings.map((w) => w.code)).toEqual(curve.warnings.filter((w) => w.severity === 'warning').map((w) => w.code));
+			expect(row.warnings.map((w) => w.code)).toEqual(
+				curve.warnings.filter((w) => w.severity === 'warning').map((w) => w.code),
+			);
 		}
 	});
 
@@ -88,7 +96,10 @@ describe('rows agree with evenecho curve', () => {
 		expect(t.rows[1]!.masterGainDb + Math.max(...t.rows[1]!.sliders.map((s) => s.gainDb))).toBeGreaterThan(
 			t.rows[0]!.masterGainDb + Math.max(...t.rows[0]!.sliders.map((s) => s.gainDb)),
 		);
-		const csv = parse(table(planPath, '--angle', '0,30', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
+		const csv = parse(table(planPath, '--angle', '0,30', '--format', 'csv').stdout, {columns: true}) as Record<
+			string,
+			string
+		>[];
 		expect(csv.map((row) => row['angle_deg'])).toEqual(['0', '30']);
 		const md = table(planPath, '--angle', '0,30').stdout;
 		expect(md.match(/\| Angle ° \|/g)).toHaveLength(1);
@@ -101,7 +112,10 @@ describe('rows agree with evenecho curve', () => {
 
 	it('the CSV cells are the same numbers', () => {
 		const json = JSON.parse(table(planPath, '--fat', '1,6', '--format', 'json').stdout) as TableJson;
-		const csv = parse(table(planPath, '--fat', '1,6', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
+		const csv = parse(table(planPath, '--fat', '1,6', '--format', 'csv').stdout, {columns: true}) as Record<
+			string,
+			string
+		>[];
 		expect(csv).toHaveLength(2);
 		csv.forEach((r, i) => {
 			expect(Number(r['master_gain_db'])).toBe(json.rows[i]!.masterGainDb);
@@ -144,7 +158,9 @@ describe('formats and determinism', () => {
 
 	it('--receive harmonic (tissue harmonic) states the harmonic model', () => {
 		for (const format of ['markdown', 'json', 'svg']) {
-			expect(table(planPath, '--receive', 'harmonic', '--format', format).stdout).toContain('builds up along the way down');
+			expect(table(planPath, '--receive', 'harmonic', '--format', format).stdout).toContain(
+				'builds up along the way down',
+			);
 		}
 	});
 
@@ -155,13 +171,18 @@ describe('formats and determinism', () => {
 	});
 
 	it('reads the plan from standard input with "-"', () => {
-		const r = runCli(['table', '-', '--fat', '3', '--format', 'csv'], {input: JSON.stringify(protocolPlan), env: env()});
+		const r = runCli(['table', '-', '--fat', '3', '--format', 'csv'], {
+			input: JSON.stringify(protocolPlan),
+			env: env(),
+		});
 		expect(r.status).toBe(0);
 		expect(r.stdout.split('\r\n')[1]).toMatch(/^1,3,3\.5,fundamental,/);
 	});
 
 	it('--delta gives zero deltas on the standard habitus row', () => {
-		const rows = parse(table(planPath, '--fat', '2.5,6', '--delta', '--format', 'csv').stdout, {columns: true}) as Record<string, string>[];
+		const rows = parse(table(planPath, '--fat', '2.5,6', '--delta', '--format', 'csv').stdout, {
+			columns: true,
+		}) as Record<string, string>[];
 		expect(rows[0]!['master_delta_db']).toBe('0');
 		for (let k = 1; k <= 8; k++) expect(rows[0]![`slider${k}_delta_db`]).toBe('0');
 	});
@@ -217,30 +238,58 @@ describe('presets', () => {
 
 describe('bad sweeps: exit 2, the option and range named, nothing on stdout, no stack trace', () => {
 	const cases: [string, string[], RegExp][] = [
-		['empty --fat', ['--fat', ''], /--fat: no values given; expected a comma-separated list of numbers above 0 and up to 50 cm/],
-		['negative --fat', ['--fat', '2,-1'], /--fat: -1 is negative; every value must be a number above 0 and up to 50 cm/],
+		[
+			'empty --fat',
+			['--fat', ''],
+			/--fat: no values given; expected a comma-separated list of numbers above 0 and up to 50 cm/,
+		],
+		[
+			'negative --fat',
+			['--fat', '2,-1'],
+			/--fat: -1 is negative; every value must be a number above 0 and up to 50 cm/,
+		],
 		['zero --fat', ['--fat', '0,2'], /--fat: 0 is out of range; every value must be a number above 0 and up to 50 cm/],
 		['--fat beyond 50 cm', ['--fat', '2,60'], /--fat: 60 is out of range/],
 		['--fat not a number', ['--fat', '2,thick'], /--fat: "thick" is not a number/],
 		['--fat twice', ['--fat', '2,4,2'], /--fat: 2 is listed twice/],
-		['--freq zero', ['--freq', '0'], /--freq: 0 is out of range; every value must be a number above 0 and up to 50 MHz/],
+		[
+			'--freq zero',
+			['--freq', '0'],
+			/--freq: 0 is out of range; every value must be a number above 0 and up to 50 MHz/,
+		],
 		['--freq beyond 50', ['--freq', '3.5,75'], /--freq: 75 is out of range/],
 		['empty --freq', ['--freq', ','], /--freq: empty entry/],
-		['--angle beyond 80', ['--angle', '0,85'], /--angle: 85 is out of range; every value must be a number from 0 to 80/],
+		[
+			'--angle beyond 80',
+			['--angle', '0,85'],
+			/--angle: 85 is out of range; every value must be a number from 0 to 80/,
+		],
 		['--angle negative', ['--angle', '-10'], /--angle: -10 is negative; every value must be a number from 0 to 80/],
 		['--angle not a number', ['--angle', '0,steep'], /--angle: "steep" is not a number/],
-		['too many combinations', ['--fat', '0.1:20:0.1', '--freq', '0.5:50:0.5', '--receive', 'both'], /the sweep has 40,000 combinations \(200 --fat × 100 --freq × 2 --receive\); a table holds at most 20,000 rows/],
+		[
+			'too many combinations',
+			['--fat', '0.1:20:0.1', '--freq', '0.5:50:0.5', '--receive', 'both'],
+			/the sweep has 40,000 combinations \(200 --fat × 100 --freq × 2 --receive\); a table holds at most 20,000 rows/,
+		],
 		['--layer outside the plan', ['--fat', '1', '--layer', '9'], /--layer: must be a whole number from 1 to 4/],
 		['--layer on the deepest layer', ['--fat', '1', '--layer', '4'], /--fat: layer 4 is the deepest layer/],
 		['--layer not a number', ['--layer', 'two'], /--layer: must be a whole layer number/],
-		['--receive unknown', ['--receive', 'loud'], /--receive: must be fundamental, tissue-harmonic \(or harmonic\), scatterer-harmonic or both/],
+		[
+			'--receive unknown',
+			['--receive', 'loud'],
+			/--receive: must be fundamental, tissue-harmonic \(or harmonic\), scatterer-harmonic or both/,
+		],
 		['--swap unknown tissue', ['--swap', '4=marble'], /--swap: unknown tissue "marble" for layer 4/],
 		['--swap malformed', ['--swap', 'liver'], /--swap: "liver" has no "="/],
 		['--margin negative', ['--margin', '-3'], /--margin: must be a number from 0 to 100 dB/],
 		['--ladder empty', ['--ladder', ''], /--ladder: no values given/],
 		['--step out of range', ['--step', '9'], /--step: must be a number from 0.01 to 5 cm/],
 		['--format unknown', ['--format', 'xlsx'], /--format: must be one of markdown, csv, json, svg/],
-		['--format svg with too many lines', ['--fat', '1:17:1', '--format', 'svg'], /--format svg: draws one line per --fat value, at most 16 \(got 17\)/],
+		[
+			'--format svg with too many lines',
+			['--fat', '1:17:1', '--format', 'svg'],
+			/--format svg: draws one line per --fat value, at most 16 \(got 17\)/,
+		],
 	];
 	for (const [what, args, message] of cases) {
 		it(what, () => {

@@ -3,7 +3,15 @@ import {describe, expect, it} from 'vitest';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {plan, tissue} from '../helpers/plans.js';
 
-const stack = (fatCm: number) => plan([{tissue: tissue('skin'), thicknessCm: 0.2}, {tissue: tissue('fat'), thicknessCm: fatCm}, {tissue: tissue('liver'), thicknessCm: 30}], {centerMhz: 3.5, bandwidthFraction: 0.6});
+const stack = (fatCm: number) =>
+	plan(
+		[
+			{tissue: tissue('skin'), thicknessCm: 0.2},
+			{tissue: tissue('fat'), thicknessCm: fatCm},
+			{tissue: tissue('liver'), thicknessCm: 30},
+		],
+		{centerMhz: 3.5, bandwidthFraction: 0.6},
+	);
 
 describe('thick body wall', () => {
 	it('over 3 cm of fat under the skin: one note saying what changes and what gain cannot fix', () => {

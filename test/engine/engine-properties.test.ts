@@ -17,10 +17,12 @@ const arbTissue = fc.record({
 	alphaDbPerCmMhz: fc.double({min: 0, max: 2, noNaN: true}),
 	exponent: fc.double({min: 1, max: 2, noNaN: true}),
 });
-const arbLayers = fc.array(
-	fc.record({tissue: arbTissue, thicknessCm: fc.double({min: 0.1, max: 8, noNaN: true})}),
-	{minLength: 1, maxLength: 6},
-).map((ls): Layer[] => ls.map((l, i) => ({tissue: {label: `t${i}`, ...l.tissue}, thicknessCm: l.thicknessCm})));
+const arbLayers = fc
+	.array(fc.record({tissue: arbTissue, thicknessCm: fc.double({min: 0.1, max: 8, noNaN: true})}), {
+		minLength: 1,
+		maxLength: 6,
+	})
+	.map((ls): Layer[] => ls.map((l, i) => ({tissue: {label: `t${i}`, ...l.tissue}, thicknessCm: l.thicknessCm})));
 const arbProbe = fc.record({
 	centerMhz: fc.double({min: 1, max: 15, noNaN: true}),
 	bandwidthFraction: fc.oneof(fc.constant(0), fc.double({min: 0.05, max: 1.2, noNaN: true})),
@@ -98,46 +100,67 @@ describe('engine properties', () => {
 
 	it('narrowband limit: one layer loses exactly 2·α0·fⁿ·z', () => {
 		fc.assert(
-			fc.property(arbTissue, fc.double({min: 0.5, max: 20, noNaN: true}), fc.double({min: 1, max: 20, noNaN: true}), (t, f, d) => {
-				const p = plan([{tissue: {label: 'x', ...t}, thicknessCm: 30}], {centerMhz: f, bandwidthFraction: 0, depthCm: 30});
-				const at = pathModelOf(p).at(d);
-				expect(at.attenuationDb).toBeCloseTo(2 * t.alphaDbPerCmMhz * f ** t.exponent * at.trueDepthCm, 8);
-			}),
+			fc.property(
+				arbTissue,
+				fc.double({min: 0.5, max: 20, noNaN: true}),
+				fc.double({min: 1, max: 20, noNaN: true}),
+				(t, f, d) => {
+					const p = plan([{tissue: {label: 'x', ...t}, thicknessCm: 30}], {
+						centerMhz: f,
+						bandwidthFraction: 0,
+						depthCm: 30,
+					});
+					const at = pathModelOf(p).at(d);
+					expect(at.attenuationDb).toBeCloseTo(2 * t.alphaDbPerCmMhz * f ** t.exponent * at.trueDepthCm, 8);
+				},
+			),
 			runs,
 		);
 	});
 
 	it('a very narrow band tends to the narrowband value', () => {
-		const p = (b: number) => plan([{tissue: custom('liver-like', 1578, 1060, 0.5, 1.1), thicknessCm: 30}], {centerMhz: 3.5, bandwidthFraction: b});
+		const p = (b: number) =>
+			plan([{tissue: custom('liver-like', 1578, 1060, 0.5, 1.1), thicknessCm: 30}], {
+				centerMhz: 3.5,
+				bandwidthFraction: b,
+			});
 		const nb = pathModelOf(p(0)).lossAt(10);
 		expect(pathModelOf(p(0.01)).lossAt(10)).toBeCloseTo(nb, 2);
 	});
 
-	it('for linear-in-f tissue the loss depends only on Σβ·d: reordering layers keeps the final ' +
-		'loss (derived: the broadband loss depends on the layers only through Σβ·d)', () => {
-		const a = {tissue: custom('a', 1540, 1039, 0.6), thicknessCm: 3};
-		const b = {tissue: custom('b', 1540, 1039, 1.0), thicknessCm: 2};
-		const tail = {tissue: custom('c', 1540, 1039, 0.5), thicknessCm: 30};
-		const p1 = plan([a, b, tail], {bandwidthFraction: 0.8});
-		const p2 = plan([b, a, tail], {bandwidthFraction: 0.8});
-		expect(pathModelOf(p1).lossAt(12)).toBeCloseTo(pathModelOf(p2).lossAt(12), 9);
-	});
+	it(
+		'for linear-in-f tissue the loss depends only on Σβ·d: reordering layers keeps the final ' +
+			'loss (derived: the broadband loss depends on the layers only through Σβ·d)',
+		() => {
+			const a = {tissue: custom('a', 1540, 1039, 0.6), thicknessCm: 3};
+			const b = {tissue: custom('b', 1540, 1039, 1.0), thicknessCm: 2};
+			const tail = {tissue: custom('c', 1540, 1039, 0.5), thicknessCm: 30};
+			const p1 = plan([a, b, tail], {bandwidthFraction: 0.8});
+			const p2 = plan([b, a, tail], {bandwidthFraction: 0.8});
+			expect(pathModelOf(p1).lossAt(12)).toBeCloseTo(pathModelOf(p2).lossAt(12), 9);
+		},
+	);
 
 	it("the fitted sliders never do worse than the naive fit that samples each slider's depth", () => {
 		fc.assert(
-			fc.property(arbPlan, fc.constantFrom('band-centres' as const, 'band-edges' as const), fc.integer({min: 2, max: 12}), (p, knots, count) => {
-				const q = {...p, sliders: {...p.sliders, knots, count}};
-				const r = computeCurve(q, {stepCm: 0.2});
-				const naive = naiveFit({
-					depthsCm: r.samples.map((s) => s.displayedDepthCm),
-					targetDb: r.samples.map((s) => controlTargetDb(q, s)),
-					usableDepthCm: r.usableDepthCm,
-					bank: q.sliders,
-					displayDepthCm: q.display.depthCm,
-					master: q.masterGain,
-				});
-				expect(r.fit.residualDb).toBeLessThanOrEqual(naive.residualDb + 1e-6);
-			}),
+			fc.property(
+				arbPlan,
+				fc.constantFrom('band-centres' as const, 'band-edges' as const),
+				fc.integer({min: 2, max: 12}),
+				(p, knots, count) => {
+					const q = {...p, sliders: {...p.sliders, knots, count}};
+					const r = computeCurve(q, {stepCm: 0.2});
+					const naive = naiveFit({
+						depthsCm: r.samples.map((s) => s.displayedDepthCm),
+						targetDb: r.samples.map((s) => controlTargetDb(q, s)),
+						usableDepthCm: r.usableDepthCm,
+						bank: q.sliders,
+						displayDepthCm: q.display.depthCm,
+						master: q.masterGain,
+					});
+					expect(r.fit.residualDb).toBeLessThanOrEqual(naive.residualDb + 1e-6);
+				},
+			),
 			{numRuns: 40},
 		);
 	});
@@ -159,7 +182,11 @@ describe('fast broadband path against brute-force integration over f > 0', () =>
 	});
 
 	it('holds for a deep, strongly attenuating broadband case (15 MHz, 120 % bandwidth, 30 cm of muscle)', () => {
-		const p = plan([{tissue: custom('muscle', 1580, 1050, 0.96), thicknessCm: 40}], {centerMhz: 15, bandwidthFraction: 1.2, depthCm: 30});
+		const p = plan([{tissue: custom('muscle', 1580, 1050, 0.96), thicknessCm: 40}], {
+			centerMhz: 15,
+			bandwidthFraction: 1.2,
+			depthCm: 30,
+		});
 		const depths = [5, 15, 30];
 		const reference = bruteForceAttenuationDb(p, depths, {points: 40000});
 		const model = pathModelOf(p);

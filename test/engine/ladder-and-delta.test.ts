@@ -11,16 +11,28 @@ import {custom, plan, tissue} from '../helpers/plans.js';
 import {runCli} from '../helpers/run-cli.js';
 
 describe('frequency ladder', () => {
-	it('100 dB of dynamic range at 3 MHz in 1 dB/cm/MHz tissue reaches 16.7 cm, and 33.3 cm at ' +
-		'0.5 dB/cm/MHz (round trip: depth = DR/(2·α·f), common practice, no source; derived)', () => {
-		const one = plan([{tissue: custom('one', 1540, 1000, 1), thicknessCm: 50}], {noiseBudgetDb: 100, depthCm: 40});
-		const half = plan([{tissue: custom('half', 1540, 1000, 0.5), thicknessCm: 50}], {noiseBudgetDb: 100, depthCm: 40});
-		expect(frequencyLadder(one, [3], 10).rungs[0]!.penetrationDepthCm).toBeCloseTo(16.67, 2);
-		expect(frequencyLadder(half, [3], 10).rungs[0]!.penetrationDepthCm).toBeCloseTo(33.33, 2);
-	});
+	it(
+		'100 dB of dynamic range at 3 MHz in 1 dB/cm/MHz tissue reaches 16.7 cm, and 33.3 cm at ' +
+			'0.5 dB/cm/MHz (round trip: depth = DR/(2·α·f), common practice, no source; derived)',
+		() => {
+			const one = plan([{tissue: custom('one', 1540, 1000, 1), thicknessCm: 50}], {noiseBudgetDb: 100, depthCm: 40});
+			const half = plan([{tissue: custom('half', 1540, 1000, 0.5), thicknessCm: 50}], {
+				noiseBudgetDb: 100,
+				depthCm: 40,
+			});
+			expect(frequencyLadder(one, [3], 10).rungs[0]!.penetrationDepthCm).toBeCloseTo(16.67, 2);
+			expect(frequencyLadder(half, [3], 10).rungs[0]!.penetrationDepthCm).toBeCloseTo(33.33, 2);
+		},
+	);
 
 	it('penetration falls as frequency rises, and the highest reaching frequency honours the margin', () => {
-		const p = plan([{tissue: tissue('fat'), thicknessCm: 4}, {tissue: tissue('liver'), thicknessCm: 30}], {noiseBudgetDb: 60, bandwidthFraction: 0});
+		const p = plan(
+			[
+				{tissue: tissue('fat'), thicknessCm: 4},
+				{tissue: tissue('liver'), thicknessCm: 30},
+			],
+			{noiseBudgetDb: 60, bandwidthFraction: 0},
+		);
 		const ladder = frequencyLadder(p, [2, 3, 4, 5, 6, 7], 10, 6);
 		const depths = ladder.rungs.map((r) => r.penetrationDepthCm ?? 99);
 		for (let i = 1; i < depths.length; i++) expect(depths[i]!).toBeLessThan(depths[i - 1]!);
@@ -35,7 +47,18 @@ describe('frequency ladder', () => {
 		const dir = mkdtempSync(join(tmpdir(), 'evenecho-ladder-'));
 		const path = join(dir, 'demo.json');
 		writeFileSync(path, JSON.stringify(demoPlanJson));
-		const ok = runCli(['ladder', path, '--freqs', '2,3.5,5,7.5', '--target', '14', '--margin', '6', '--format', 'json']);
+		const ok = runCli([
+			'ladder',
+			path,
+			'--freqs',
+			'2,3.5,5,7.5',
+			'--target',
+			'14',
+			'--margin',
+			'6',
+			'--format',
+			'json',
+		]);
 		expect(ok.status).toBe(0);
 		const j = JSON.parse(ok.stdout);
 		expect(j.rungs).toHaveLength(4);
@@ -57,8 +80,20 @@ describe('frequency ladder', () => {
 
 describe('a patient against the standard habitus', () => {
 	it('deltas are patient minus reference, per slider and for the master gain', () => {
-		const standard = plan([{tissue: tissue('fat'), thicknessCm: 1.5}, {tissue: tissue('liver'), thicknessCm: 30}], {bandwidthFraction: 0.6});
-		const thick = {...standard, layers: [{tissue: tissue('fat'), thicknessCm: 6}, {tissue: tissue('liver'), thicknessCm: 30}]};
+		const standard = plan(
+			[
+				{tissue: tissue('fat'), thicknessCm: 1.5},
+				{tissue: tissue('liver'), thicknessCm: 30},
+			],
+			{bandwidthFraction: 0.6},
+		);
+		const thick = {
+			...standard,
+			layers: [
+				{tissue: tissue('fat'), thicknessCm: 6},
+				{tissue: tissue('liver'), thicknessCm: 30},
+			],
+		};
 		const a = settingsOf(computeCurve(thick).fit);
 		const b = settingsOf(computeCurve(standard).fit);
 		const d = settingsDelta(a, b);
@@ -74,7 +109,17 @@ describe('a patient against the standard habitus', () => {
 		const standard = join(dir, 'standard.json');
 		const other = join(dir, 'other.json');
 		writeFileSync(patient, JSON.stringify(demoPlanJson));
-		writeFileSync(standard, JSON.stringify({...demoPlanJson, name: 'standard habitus', layers: [{tissue: 'fat', thicknessCm: 1.5}, {tissue: 'liver', thicknessCm: 20}]}));
+		writeFileSync(
+			standard,
+			JSON.stringify({
+				...demoPlanJson,
+				name: 'standard habitus',
+				layers: [
+					{tissue: 'fat', thicknessCm: 1.5},
+					{tissue: 'liver', thicknessCm: 20},
+				],
+			}),
+		);
 		writeFileSync(other, JSON.stringify({...demoPlanJson, sliders: {count: 6}}));
 		const r = runCli(['curve', patient, '--against', standard]);
 		expect(r.status).toBe(0);

@@ -3,7 +3,8 @@ import fc from 'fast-check';
 import {fitError, fitSliders, naiveFit, type FitRequest} from '../../src/engine/slider-fit.js';
 import type {EndBehaviour, KnotPlacement, SliderBank, SliderFit} from '../../src/engine/types.js';
 
-const C20_SOURCE = 'Reference arithmetic (derived; worked independently with SciPy linprog/lsq_linear, Virtanen et al. 2020)';
+const C20_SOURCE =
+	'Reference arithmetic (derived; worked independently with SciPy linprog/lsq_linear, Virtanen et al. 2020)';
 
 /** Target of case C20: G(z) = 3.5z − 0.04594z² dB. */
 const c20 = (z: number): number => 3.5 * z - 0.04594 * z * z;
@@ -70,20 +71,28 @@ describe('case C20: 8 sliders on G = 3.5z − 0.04594z² over 0–16 cm, sampled
 		expect(fit.residualDb).toBeGreaterThan(aH2Over8 - 3e-4);
 	});
 
-	it('(b′) with knots and segment midpoints on the grid the minimax is exactly a·h²/8 — derived (linear-interpolation error bound, de Boor 1978, from memory)', () => {
-		// Step h/40: every knot and every segment midpoint is a sample, so the equioscillation points
-		// of the best piecewise-linear fit (error +ah²/8 at knots, −ah²/8 at midpoints) are all seen.
-		const req = request(grid(16, 280), c20, bank(8, 'band-edges', 'flat', -100, 100), loose);
-		const fit = fitSliders(req);
-		expect(fit.residualDb).toBeCloseTo((0.04594 * (16 / 7) ** 2) / 8, 7);
-		// Interpolating through the target at the knots doubles it (a·h²/4), same source.
-		expect(naiveFit(req).residualDb).toBeCloseTo((0.04594 * (16 / 7) ** 2) / 4, 7);
-	});
+	it(
+		'(b′) with knots and segment midpoints on the grid the minimax is exactly a·h²/8 — derived (linear-interpolation ' +
+			'error bound, de Boor 1978, from memory)',
+		() => {
+			// Step h/40: every knot and every segment midpoint is a sample, so the equioscillation points
+			// of the best piecewise-linear fit (error +ah²/8 at knots, −ah²/8 at midpoints) are all seen.
+			const req = request(grid(16, 280), c20, bank(8, 'band-edges', 'flat', -100, 100), loose);
+			const fit = fitSliders(req);
+			expect(fit.residualDb).toBeCloseTo((0.04594 * (16 / 7) ** 2) / 8, 7);
+			// Interpolating through the target at the knots doubles it (a·h²/4), same source.
+			expect(naiveFit(req).residualDb).toBeCloseTo((0.04594 * (16 / 7) ** 2) / 4, 7);
+		},
+	);
 
-	it('(a′) band centres with linear end extrapolation: 0.052 dB — derived (reference arithmetic with SciPy linprog, Virtanen et al. 2020)', () => {
-		const req = request(depths, c20, bank(8, 'band-centres', 'extrapolate', -100, 100), loose);
-		expect(Math.abs(fitSliders(req).residualDb - 0.052)).toBeLessThanOrEqual(0.001);
-	});
+	it(
+		'(a′) band centres with linear end extrapolation: 0.052 dB — derived (reference arithmetic with SciPy linprog, ' +
+			'Virtanen et al. 2020)',
+		() => {
+			const req = request(depths, c20, bank(8, 'band-centres', 'extrapolate', -100, 100), loose);
+			expect(Math.abs(fitSliders(req).residualDb - 0.052)).toBeLessThanOrEqual(0.001);
+		},
+	);
 
 	it(`(c) band edges, totals bounded to [0, 30] dB: max shortfall 14.24 dB at 16 cm — ${C20_SOURCE}`, () => {
 		const req = request(depths, c20, bank(8, 'band-edges', 'flat', 0, 30), {minDb: 0, maxDb: 0});
@@ -160,13 +169,36 @@ describe('edge cases', () => {
 		const cases: FitRequest[] = [
 			{depthsCm: [], targetDb: [], usableDepthCm: 10, bank: b, displayDepthCm: 10, master: loose},
 			{depthsCm: [0], targetDb: [7], usableDepthCm: 10, bank: b, displayDepthCm: 10, master: loose},
-			{depthsCm: [0, 1, 2], targetDb: [0, Number.NaN, 4], usableDepthCm: 10, bank: b, displayDepthCm: 10, master: loose},
-			{depthsCm: [0, 1, 1, 2], targetDb: [0, 1, 3, 4], usableDepthCm: 1.5, bank: b, displayDepthCm: 10, master: {minDb: 2, maxDb: 2}},
-			{depthsCm: [0, 5, 10, 15], targetDb: [0, 30, 60, 90], usableDepthCm: 15, bank: bank(3, 'band-centres', 'flat', 0, 0), displayDepthCm: 10, master: {minDb: 0, maxDb: 0}},
+			{
+				depthsCm: [0, 1, 2],
+				targetDb: [0, Number.NaN, 4],
+				usableDepthCm: 10,
+				bank: b,
+				displayDepthCm: 10,
+				master: loose,
+			},
+			{
+				depthsCm: [0, 1, 1, 2],
+				targetDb: [0, 1, 3, 4],
+				usableDepthCm: 1.5,
+				bank: b,
+				displayDepthCm: 10,
+				master: {minDb: 2, maxDb: 2},
+			},
+			{
+				depthsCm: [0, 5, 10, 15],
+				targetDb: [0, 30, 60, 90],
+				usableDepthCm: 15,
+				bank: bank(3, 'band-centres', 'flat', 0, 0),
+				displayDepthCm: 10,
+				master: {minDb: 0, maxDb: 0},
+			},
 		];
 		for (const req of cases) {
 			for (const fit of [fitSliders(req), naiveFit(req)]) {
-				expect(Number.isFinite(fit.residualDb) && Number.isFinite(fit.residualAtCm) && Number.isFinite(fit.masterGainDb)).toBe(true);
+				expect(
+					Number.isFinite(fit.residualDb) && Number.isFinite(fit.residualAtCm) && Number.isFinite(fit.masterGainDb),
+				).toBe(true);
 				expect(fit.sliders.every((s) => Number.isFinite(s.gainDb) && Number.isFinite(s.depthCm))).toBe(true);
 				expect(isRealisable(fit, req)).toBe(true);
 			}
@@ -266,21 +298,24 @@ describe('properties', () => {
 		);
 	});
 
-	it('(ii) adding x dB to the target shifts every total by x when no bound is active — ' +
-		'derived: hat functions sum to one (partition of unity; de Boor 1978, A Practical Guide to Splines, from memory)', () => {
-		fc.assert(
-			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, x) => {
-				const a = totals(fitSliders(scenarioRequest(s, 0, true)));
-				const b = totals(fitSliders(scenarioRequest(s, x, true)));
-				// 1e-5 dB: the tie-break QP stops at a tolerance scaled to the bounds (±500 dB here), and its
-				// weakest direction is held only by the 1e-6 smoothness weight, so two solves of shifted
-				// targets agree to about 1e-6 dB at worst (seed 1631561233 found 1.3e-6 dB on a 95 dB deep
-				// target). The display step is 0.1 dB, four orders of magnitude coarser.
-				return a.every((v, k) => Math.abs(b[k]! - v - x) <= 1e-5);
-			}),
-			{numRuns: 200},
-		);
-	});
+	it(
+		'(ii) adding x dB to the target shifts every total by x when no bound is active — ' +
+			'derived: hat functions sum to one (partition of unity; de Boor 1978, A Practical Guide to Splines, from memory)',
+		() => {
+			fc.assert(
+				fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, x) => {
+					const a = totals(fitSliders(scenarioRequest(s, 0, true)));
+					const b = totals(fitSliders(scenarioRequest(s, x, true)));
+					// 1e-5 dB: the tie-break QP stops at a tolerance scaled to the bounds (±500 dB here), and its
+					// weakest direction is held only by the 1e-6 smoothness weight, so two solves of shifted
+					// targets agree to about 1e-6 dB at worst (seed 1631561233 found 1.3e-6 dB on a 95 dB deep
+					// target). The display step is 0.1 dB, four orders of magnitude coarser.
+					return a.every((v, k) => Math.abs(b[k]! - v - x) <= 1e-5);
+				}),
+				{numRuns: 200},
+			);
+		},
+	);
 
 	it('(iii) results are always realisable: sliders and master within their ranges (1e-9)', () => {
 		fc.assert(
@@ -293,30 +328,36 @@ describe('properties', () => {
 		);
 	});
 
-	it('(iv) a linear target with band-edge knots and loose bounds is fitted with ~0 error — ' +
-		'derived: a linear target is exactly a piecewise-linear curve with knots at the range edges', () => {
-		fc.assert(
-			fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, intercept) => {
-				const depths = grid(s.displayCm, 120);
-				const req = request(
-					depths,
-					(z) => intercept + s.slope * z,
-					bank(s.count, 'band-edges', s.ends, -200, 200),
-					{minDb: -200, maxDb: 200},
-					s.displayCm,
-					s.displayCm,
-				);
-				return fitSliders(req).residualDb <= 1e-6;
-			}),
-			{numRuns: 200},
-		);
-	});
+	it(
+		'(iv) a linear target with band-edge knots and loose bounds is fitted with ~0 error — ' +
+			'derived: a linear target is exactly a piecewise-linear curve with knots at the range edges',
+		() => {
+			fc.assert(
+				fc.property(scenario, fc.double({min: -20, max: 20, noNaN: true}), (s, intercept) => {
+					const depths = grid(s.displayCm, 120);
+					const req = request(
+						depths,
+						(z) => intercept + s.slope * z,
+						bank(s.count, 'band-edges', s.ends, -200, 200),
+						{minDb: -200, maxDb: 200},
+						s.displayCm,
+						s.displayCm,
+					);
+					return fitSliders(req).residualDb <= 1e-6;
+				}),
+				{numRuns: 200},
+			);
+		},
+	);
 
 	it('(iv′) … but with band-centre knots and flat ends it misses by slope·D/(4N) — derived (flat half bands at both ends)', () => {
 		fc.assert(
 			fc.property(scenario, (s) => {
 				const depths = grid(s.displayCm, 4 * s.count * 10);
-				const req = request(depths, (z) => s.slope * z, bank(s.count, 'band-centres', 'flat', -200, 200), {minDb: -200, maxDb: 200});
+				const req = request(depths, (z) => s.slope * z, bank(s.count, 'band-centres', 'flat', -200, 200), {
+					minDb: -200,
+					maxDb: 200,
+				});
 				const expected = (s.slope * s.displayCm) / (4 * s.count);
 				return Math.abs(fitSliders(req).residualDb - expected) <= 1e-6 * (1 + expected);
 			}),

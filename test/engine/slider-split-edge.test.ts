@@ -15,10 +15,13 @@ interface Case {
 	readonly boundDb: number;
 	readonly request: FitRequest;
 }
-const cases = JSON.parse(readFileSync(new URL('../fixtures/fit/split-edge-requests.json', import.meta.url), 'utf8')) as Case[];
+const cases = JSON.parse(
+	readFileSync(new URL('../fixtures/fit/split-edge-requests.json', import.meta.url), 'utf8'),
+) as Case[];
 
 describe('master/slider split at the edge of the slider range', () => {
-	it('has the four captured cases', () => expect(cases.map((c) => c.name).sort()).toEqual(['varied 10', 'varied 5', 'varied 57', 'varied 8']));
+	it('has the four captured cases', () =>
+		expect(cases.map((c) => c.name).sort()).toEqual(['varied 10', 'varied 5', 'varied 57', 'varied 8']));
 	for (const c of cases) {
 		it(`${c.name}: the fit reaches the independent optimum ${c.boundDb.toFixed(3)} dB and stays realisable`, () => {
 			const fit = fitSliders(c.request);

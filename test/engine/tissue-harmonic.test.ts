@@ -24,7 +24,13 @@ function pathTo(layers: readonly [Tissue, number][], z: number): BuildUpPath {
 		const len = Math.max(0, Math.min(z, top + thickness) - top);
 		if (len <= 0) break;
 		coefficients[exponents.indexOf(t.exponent)]! += t.alphaDbPerCmMhz * len;
-		segments.push({strength: buildUpStrength(t), lengthCm: len, alphaDbPerCmMhz: t.alphaDbPerCmMhz, exponent: t.exponent, bottom: [...coefficients]});
+		segments.push({
+			strength: buildUpStrength(t),
+			lengthCm: len,
+			alphaDbPerCmMhz: t.alphaDbPerCmMhz,
+			exponent: t.exponent,
+			bottom: [...coefficients],
+		});
 		top += thickness;
 	}
 	return {terms: {exponents, coefficients}, segments};
@@ -47,7 +53,11 @@ describe('worked example C47: 2.5 MHz in liver, α0 = 0.5 dB/cm/MHz^1.1 (shared 
 	// Speed 1540 so displayed depth is true depth; density and B/A cancel in one medium.
 	const liver = custom('liver, c = 1540', 1540, 1060, 0.5, 1.1);
 	const model = pathModelOf(harmonicPlan([{tissue: liver, thicknessCm: 40}], 2.5, 0, 20));
-	for (const [z, expected] of [[5, 9.12], [10, 31.95], [15, 57.28]] as const) {
+	for (const [z, expected] of [
+		[5, 9.12],
+		[10, 31.95],
+		[15, 57.28],
+	] as const) {
 		it(`with build-up, re 1 cm, at ${z} cm: ${expected} dB (±0.01)`, () => {
 			expect(model.at(z).attenuationDb).toBeCloseTo(expected, 1);
 			expect(Math.abs(model.at(z).attenuationDb - expected)).toBeLessThan(0.011);
@@ -57,42 +67,56 @@ describe('worked example C47: 2.5 MHz in liver, α0 = 0.5 dB/cm/MHz^1.1 (shared 
 	it('the old out-at-f0, back-at-2f0 model (now "scatterer-harmonic") gives 17.23 / 38.76 / 60.29 dB re 1 cm', () => {
 		const p = harmonicPlan([{tissue: liver, thicknessCm: 40}], 2.5, 0, 20);
 		const old = pathModelOf({...p, probe: {...p.probe, receive: 'scatterer-harmonic'}});
-		for (const [z, expected] of [[5, 17.23], [10, 38.76], [15, 60.29]] as const) {
+		for (const [z, expected] of [
+			[5, 17.23],
+			[10, 38.76],
+			[15, 60.29],
+		] as const) {
 			expect(old.at(z).attenuationDb - old.at(1).attenuationDb).toBeCloseTo(expected, 2);
 		}
 	});
 });
 
 describe('worked example C48: the harmonic pressure p2 itself (shared reference §7, derived)', () => {
-	it('(a) 2.5 MHz, liver ρ 1060, c 1540, B/A 6.8: p2 re lossless at 1 cm is 64.4/89.3 at 1 ' +
-		'cm; 87.2 / 34.1 / 10.0 kPa of 89.3 at 5 / 10 / 15 cm', () => {
-		const liver: Tissue = {...custom('liver', 1540, 1060, 0.5, 1.1), nonlinearityBA: 6.8};
-		const layers: [Tissue, number][] = [[liver, 40]];
-		// Lossless at 1 cm: p2 = β·ω·p0²·z/(2ρc³), i.e. D = strength × 1 cm with no attenuation.
-		const lossless1 = Math.log(buildUpStrength(liver) * 1);
-		const kPa = (z: number) => 89.3 * Math.exp(logP2(layers, z, 2.5) - lossless1);
-		expect(kPa(1)).toBeCloseTo(64.4, 1);
-		expect(kPa(5)).toBeCloseTo(87.2, 1);
-		expect(kPa(10)).toBeCloseTo(34.1, 1);
-		expect(kPa(15)).toBeCloseTo(10.0, 1);
-	});
+	it(
+		'(a) 2.5 MHz, liver ρ 1060, c 1540, B/A 6.8: p2 re lossless at 1 cm is 64.4/89.3 at 1 ' +
+			'cm; 87.2 / 34.1 / 10.0 kPa of 89.3 at 5 / 10 / 15 cm',
+		() => {
+			const liver: Tissue = {...custom('liver', 1540, 1060, 0.5, 1.1), nonlinearityBA: 6.8};
+			const layers: [Tissue, number][] = [[liver, 40]];
+			// Lossless at 1 cm: p2 = β·ω·p0²·z/(2ρc³), i.e. D = strength × 1 cm with no attenuation.
+			const lossless1 = Math.log(buildUpStrength(liver) * 1);
+			const kPa = (z: number) => 89.3 * Math.exp(logP2(layers, z, 2.5) - lossless1);
+			expect(kPa(1)).toBeCloseTo(64.4, 1);
+			expect(kPa(5)).toBeCloseTo(87.2, 1);
+			expect(kPa(10)).toBeCloseTo(34.1, 1);
+			expect(kPa(15)).toBeCloseTo(10.0, 1);
+		},
+	);
 
-	it('(b) 1.75 MHz through fat 6 cm (B/A 10), muscle 1 cm (7.4), liver (6.8): peak at 4.1 cm; ' +
-		'−10.7 / −1.8 / −4.7 / −16.5 dB at 0.5 / 2 / 8 / 16 cm', () => {
-		const fat: Tissue = {...custom('fat', 1440, 911, 0.6, 1), nonlinearityBA: 10};
-		const muscle: Tissue = {...custom('muscle', 1580, 1050, 0.96, 1), nonlinearityBA: 7.4};
-		const liver: Tissue = {...custom('liver', 1578, 1060, 0.5, 1.1), nonlinearityBA: 6.8};
-		const layers: [Tissue, number][] = [[fat, 6], [muscle, 1], [liver, 40]];
-		const depths = Array.from({length: 1600}, (_, i) => (i + 1) * 0.01);
-		const levels = depths.map((z) => logP2(layers, z, 1.75));
-		const top = Math.max(...levels);
-		expect(depths[levels.indexOf(top)]!).toBeCloseTo(4.1, 1);
-		const at = (z: number) => dB(logP2(layers, z, 1.75) - top);
-		expect(at(0.5)).toBeCloseTo(-10.7, 1);
-		expect(at(2)).toBeCloseTo(-1.8, 1);
-		expect(at(8)).toBeCloseTo(-4.7, 1);
-		expect(at(16)).toBeCloseTo(-16.5, 1);
-	});
+	it(
+		'(b) 1.75 MHz through fat 6 cm (B/A 10), muscle 1 cm (7.4), liver (6.8): peak at 4.1 cm; ' +
+			'−10.7 / −1.8 / −4.7 / −16.5 dB at 0.5 / 2 / 8 / 16 cm',
+		() => {
+			const fat: Tissue = {...custom('fat', 1440, 911, 0.6, 1), nonlinearityBA: 10};
+			const muscle: Tissue = {...custom('muscle', 1580, 1050, 0.96, 1), nonlinearityBA: 7.4};
+			const liver: Tissue = {...custom('liver', 1578, 1060, 0.5, 1.1), nonlinearityBA: 6.8};
+			const layers: [Tissue, number][] = [
+				[fat, 6],
+				[muscle, 1],
+				[liver, 40],
+			];
+			const depths = Array.from({length: 1600}, (_, i) => (i + 1) * 0.01);
+			const levels = depths.map((z) => logP2(layers, z, 1.75));
+			const top = Math.max(...levels);
+			expect(depths[levels.indexOf(top)]!).toBeCloseTo(4.1, 1);
+			const at = (z: number) => dB(logP2(layers, z, 1.75) - top);
+			expect(at(0.5)).toBeCloseTo(-10.7, 1);
+			expect(at(2)).toBeCloseTo(-1.8, 1);
+			expect(at(8)).toBeCloseTo(-4.7, 1);
+			expect(at(16)).toBeCloseTo(-16.5, 1);
+		},
+	);
 });
 
 describe('limits', () => {
@@ -105,7 +129,15 @@ describe('limits', () => {
 	it('B/A sets the growth term: in lossless layers the build-up adds β/(ρc³)·thickness per layer (Cobb 1983)', () => {
 		const a: Tissue = {...custom('A', 1540, 1060, 0, 1), nonlinearityBA: 10};
 		const b: Tissue = {...custom('B', 1540, 1060, 0, 1), nonlinearityBA: 5};
-		const m = pathModelOf(harmonicPlan([{tissue: a, thicknessCm: 2}, {tissue: b, thicknessCm: 40}], 3.5));
+		const m = pathModelOf(
+			harmonicPlan(
+				[
+					{tissue: a, thicknessCm: 2},
+					{tissue: b, thicknessCm: 40},
+				],
+				3.5,
+			),
+		);
 		const betaA = 1 + 10 / 2;
 		const betaB = 1 + 5 / 2;
 		// D(6 cm) / D(1 cm) = (2·βA + 4·βB) / βA.
@@ -122,7 +154,14 @@ describe('limits', () => {
 	});
 
 	it('the near field shows the build-up: the compensation falls from the skin to 1 cm, and the fit starts at 1 cm', () => {
-		const p = harmonicPlan([{tissue: tissue('fat'), thicknessCm: 2}, {tissue: tissue('liver'), thicknessCm: 30}], 2.5, 0.6);
+		const p = harmonicPlan(
+			[
+				{tissue: tissue('fat'), thicknessCm: 2},
+				{tissue: tissue('liver'), thicknessCm: 30},
+			],
+			2.5,
+			0.6,
+		);
 		const r = computeCurve(p);
 		const at = (d: number) => r.samples.find((s) => Math.abs(s.displayedDepthCm - d) < 1e-9)!.compensationDb;
 		expect(at(0.1)).toBeGreaterThan(at(0.5));

@@ -23,7 +23,9 @@ function attenuationCorners(t: Tissue): Tissue[] {
 	const [n0, n1] = t.spread?.exponent ?? [t.exponent, t.exponent];
 	const ns = [...new Set([n0, (n0 + n1) / 2, n1])];
 	const cs = t.spread?.speedMps ?? [t.speedMps, t.speedMps];
-	return as.flatMap((alphaDbPerCmMhz) => ns.flatMap((exponent) => cs.map((speedMps) => ({...t, alphaDbPerCmMhz, exponent, speedMps}))));
+	return as.flatMap((alphaDbPerCmMhz) =>
+		ns.flatMap((exponent) => cs.map((speedMps) => ({...t, alphaDbPerCmMhz, exponent, speedMps}))),
+	);
 }
 
 /** Every combination of the layers' corners. */
@@ -37,7 +39,10 @@ function layerCorners(layers: readonly Layer[]): Layer[][] {
 /** Brute-force attenuation envelope over all corners, dB, at each depth. */
 function bruteEnvelope(p: EnginePlan, depths: number[], points: number): {low: number[]; high: number[]} {
 	const runs = layerCorners(p.layers).map((layers) => bruteForceAttenuationDb({...p, layers}, depths, {points}));
-	return {low: depths.map((_, k) => Math.min(...runs.map((r) => r[k]!))), high: depths.map((_, k) => Math.max(...runs.map((r) => r[k]!)))};
+	return {
+		low: depths.map((_, k) => Math.min(...runs.map((r) => r[k]!))),
+		high: depths.map((_, k) => Math.max(...runs.map((r) => r[k]!))),
+	};
 }
 
 const sampleAt = (r: CurveResult, d: number) => r.samples.find((s) => Math.abs(s.displayedDepthCm - d) < 1e-9)!;
@@ -90,63 +95,90 @@ describe('harmonic receive: the band holds the brute-force envelope too', () => 
 		});
 	});
 
-	it('tissue harmonic, 0.8 MHz at 80 %: in the near field the build-up gains while ' +
-		'attenuation loses, both held (within the 0.02 dB of a coarse brute-force grid)', () => {
-		const depths = [2, 25];
-		const p = liverAlone(0.8, 0.8, 'tissue-harmonic');
-		const r = computeCurve(p, {stepCm: 0.5});
-		const env = bruteEnvelope(p, depths, 1000);
-		depths.forEach((d, k) => {
-			expect(sampleAt(r, d).lowDb).toBeLessThanOrEqual(env.low[k]! + 0.02);
-			expect(sampleAt(r, d).highDb).toBeGreaterThanOrEqual(env.high[k]! - 0.02);
-		});
-	});
+	it(
+		'tissue harmonic, 0.8 MHz at 80 %: in the near field the build-up gains while ' +
+			'attenuation loses, both held (within the 0.02 dB of a coarse brute-force grid)',
+		() => {
+			const depths = [2, 25];
+			const p = liverAlone(0.8, 0.8, 'tissue-harmonic');
+			const r = computeCurve(p, {stepCm: 0.5});
+			const env = bruteEnvelope(p, depths, 1000);
+			depths.forEach((d, k) => {
+				expect(sampleAt(r, d).lowDb).toBeLessThanOrEqual(env.low[k]! + 0.02);
+				expect(sampleAt(r, d).highDb).toBeGreaterThanOrEqual(env.high[k]! - 0.02);
+			});
+		},
+	);
 });
 
 describe('tissue harmonic near the skin: the band where the build-up bends the curve', () => {
 	// The build-up grows as z, so the loss goes as about -20·log10(z) (Cobb 1983, quasi-linear
 	// plane-wave solution, from memory): between 0.15 and 2.25 cm the build-up gains 23.5 dB, less
 	// the attenuation; the curve bends most near the skin. Samples between the old 0.5 cm points are where interpolation missed.
-	it('liver, 2.5 MHz at 60 %: at 0.05 cm samples over the first 2.5 cm the band holds the brute-force envelope over every corner (within 0.02 dB) and is no wider than it (0.05 dB)', () => {
-		const base = plan([{tissue: tissue('liver'), thicknessCm: 40}], {centerMhz: 2.5, bandwidthFraction: 0.6, depthCm: 6});
-		const p: EnginePlan = {...base, probe: {...base.probe, receive: 'tissue-harmonic'}};
-		const depths = [0.15, 0.25, 0.35, 0.45, 0.65, 0.85, 1.25, 1.75, 2.25];
-		const r = computeCurve(p, {stepCm: 0.05});
-		const env = bruteEnvelope(p, depths, 2000);
-		expect(env.high[0]! - env.high[8]!).toBeGreaterThan(8);
-		depths.forEach((d, k) => {
-			const s = sampleAt(r, d);
-			expect(s.lowDb).toBeLessThanOrEqual(env.low[k]! + 0.02);
-			expect(s.highDb).toBeGreaterThanOrEqual(env.high[k]! - 0.02);
-			expect(env.low[k]! - s.lowDb).toBeLessThan(0.05);
-			expect(s.highDb - env.high[k]!).toBeLessThan(0.05);
-		});
-	});
+	it(
+		'liver, 2.5 MHz at 60 %: at 0.05 cm samples over the first 2.5 cm the band holds the brute-force envelope over ' +
+			'every corner (within 0.02 dB) and is no wider than it (0.05 dB)',
+		() => {
+			const base = plan([{tissue: tissue('liver'), thicknessCm: 40}], {
+				centerMhz: 2.5,
+				bandwidthFraction: 0.6,
+				depthCm: 6,
+			});
+			const p: EnginePlan = {...base, probe: {...base.probe, receive: 'tissue-harmonic'}};
+			const depths = [0.15, 0.25, 0.35, 0.45, 0.65, 0.85, 1.25, 1.75, 2.25];
+			const r = computeCurve(p, {stepCm: 0.05});
+			const env = bruteEnvelope(p, depths, 2000);
+			expect(env.high[0]! - env.high[8]!).toBeGreaterThan(8);
+			depths.forEach((d, k) => {
+				const s = sampleAt(r, d);
+				expect(s.lowDb).toBeLessThanOrEqual(env.low[k]! + 0.02);
+				expect(s.highDb).toBeGreaterThanOrEqual(env.high[k]! - 0.02);
+				expect(env.low[k]! - s.lowDb).toBeLessThan(0.05);
+				expect(s.highDb - env.high[k]!).toBeLessThan(0.05);
+			});
+		},
+	);
 });
 
 describe('tissue harmonic over two layers: each layer at its own corner', () => {
-	it('fat 3 cm over liver, 2 MHz at 60 %, p = 4: holds the envelope over all 8 × 8 per-layer ' +
-		'corners, boundary range added below it (within 0.02 dB)', () => {
-		const layers: Layer[] = [
-			{tissue: tissue('fat'), thicknessCm: 3},
-			{tissue: tissue('liver'), thicknessCm: 30},
-		];
-		const base = plan(layers, {centerMhz: 2, bandwidthFraction: 0.6, depthCm: 16});
-		const p: EnginePlan = {...base, probe: {...base.probe, receive: 'tissue-harmonic', spectrumSteepness: 4}};
-		const depths = [0.5, 16];
-		const r = computeCurve(p, {stepCm: 0.5});
-		const ends = (t: Tissue) => attenuationCorners(t).filter((c) => c.exponent !== (t.spread!.exponent![0] + t.spread!.exponent![1]) / 2);
-		const runs = ends(layers[0]!.tissue).flatMap((a) =>
-			ends(layers[1]!.tissue).map((b) => bruteForceAttenuationDb({...p, layers: [{...layers[0]!, tissue: a}, {...layers[1]!, tissue: b}]}, depths, {points: 600})),
-		);
-		// Fat/liver boundary: 0.038–0.409 dB round trip (Kinsler et al. 2000; worked out below).
-		depths.forEach((d, k) => {
-			const below = d > 3.5;
-			const s = sampleAt(r, d);
-			expect(s.lowDb).toBeLessThanOrEqual(Math.min(...runs.map((x) => x[k]!)) + (below ? 0.038 : 0) + 0.02);
-			expect(s.highDb).toBeGreaterThanOrEqual(Math.max(...runs.map((x) => x[k]!)) + (below ? 0.409 : 0) - 0.02);
-		});
-	});
+	it(
+		'fat 3 cm over liver, 2 MHz at 60 %, p = 4: holds the envelope over all 8 × 8 per-layer ' +
+			'corners, boundary range added below it (within 0.02 dB)',
+		() => {
+			const layers: Layer[] = [
+				{tissue: tissue('fat'), thicknessCm: 3},
+				{tissue: tissue('liver'), thicknessCm: 30},
+			];
+			const base = plan(layers, {centerMhz: 2, bandwidthFraction: 0.6, depthCm: 16});
+			const p: EnginePlan = {...base, probe: {...base.probe, receive: 'tissue-harmonic', spectrumSteepness: 4}};
+			const depths = [0.5, 16];
+			const r = computeCurve(p, {stepCm: 0.5});
+			const ends = (t: Tissue) =>
+				attenuationCorners(t).filter((c) => c.exponent !== (t.spread!.exponent![0] + t.spread!.exponent![1]) / 2);
+			const runs = ends(layers[0]!.tissue).flatMap((a) =>
+				ends(layers[1]!.tissue).map((b) =>
+					bruteForceAttenuationDb(
+						{
+							...p,
+							layers: [
+								{...layers[0]!, tissue: a},
+								{...layers[1]!, tissue: b},
+							],
+						},
+						depths,
+						{points: 600},
+					),
+				),
+			);
+			// Fat/liver boundary: 0.038–0.409 dB round trip (Kinsler et al. 2000; worked out below).
+			depths.forEach((d, k) => {
+				const below = d > 3.5;
+				const s = sampleAt(r, d);
+				expect(s.lowDb).toBeLessThanOrEqual(Math.min(...runs.map((x) => x[k]!)) + (below ? 0.038 : 0) + 0.02);
+				expect(s.highDb).toBeGreaterThanOrEqual(Math.max(...runs.map((x) => x[k]!)) + (below ? 0.409 : 0) - 0.02);
+			});
+		},
+	);
 });
 
 describe('speed and density spreads reach the band through depth mapping and the boundary', () => {
@@ -167,7 +199,9 @@ describe('speed and density spreads reach the band through depth mapping and the
 			const rs = t.spread?.densityKgM3 ?? [t.densityKgM3, t.densityKgM3];
 			return cs.flatMap((c) => rs.map((rho) => c * rho));
 		};
-		const losses = zs(layers[0]!.tissue).flatMap((z1) => zs(layers[1]!.tissue).map((z2) => -20 * Math.log10((4 * z1 * z2) / (z1 + z2) ** 2)));
+		const losses = zs(layers[0]!.tissue).flatMap((z1) =>
+			zs(layers[1]!.tissue).map((z2) => -20 * Math.log10((4 * z1 * z2) / (z1 + z2) ** 2)),
+		);
 		return {low: Math.min(...losses), high: Math.max(...losses)};
 	})();
 
@@ -176,24 +210,30 @@ describe('speed and density spreads reach the band through depth mapping and the
 		expect(boundary.high).toBeCloseTo(0.409, 3);
 	});
 
-	it('above the boundary the band is the attenuation envelope; ' +
-		'below it, the envelope plus the boundary\'s own range (within 0.01 dB)', () => {
-		depths.forEach((d, k) => {
-			const s = sampleAt(r, d);
-			// The spread fat is drawn 3.6–3.9 cm thick (1412–1488 m/s): at 2 cm every corner is above the boundary.
-			const below = d > 4.5;
-			const low = env.low[k]! + (below ? boundary.low : 0);
-			const high = env.high[k]! + (below ? boundary.high : 0);
-			expect(s.lowDb).toBeLessThanOrEqual(low + 0.01);
-			expect(s.highDb).toBeGreaterThanOrEqual(high - 0.01);
-			expect(low - s.lowDb).toBeLessThan(0.05);
-			expect(s.highDb - high).toBeLessThan(0.05);
-		});
-	});
+	it(
+		'above the boundary the band is the attenuation envelope; ' +
+			"below it, the envelope plus the boundary's own range (within 0.01 dB)",
+		() => {
+			depths.forEach((d, k) => {
+				const s = sampleAt(r, d);
+				// The spread fat is drawn 3.6–3.9 cm thick (1412–1488 m/s): at 2 cm every corner is above the boundary.
+				const below = d > 4.5;
+				const low = env.low[k]! + (below ? boundary.low : 0);
+				const high = env.high[k]! + (below ? boundary.high : 0);
+				expect(s.lowDb).toBeLessThanOrEqual(low + 0.01);
+				expect(s.highDb).toBeGreaterThanOrEqual(high - 0.01);
+				expect(low - s.lowDb).toBeLessThan(0.05);
+				expect(s.highDb - high).toBeLessThan(0.05);
+			});
+		},
+	);
 
 	it('the speed spread alone widens the band: with each speed pinned the band is narrower at 16 cm', () => {
 		const pinned = plan(
-			layers.map((l) => ({...l, tissue: {...l.tissue, spread: {...l.tissue.spread, speedMps: undefined, densityKgM3: undefined}}})),
+			layers.map((l) => ({
+				...l,
+				tissue: {...l.tissue, spread: {...l.tissue.spread, speedMps: undefined, densityKgM3: undefined}},
+			})),
 			{centerMhz: 3.5, bandwidthFraction: 0.6, depthCm: 16},
 		);
 		const a = sampleAt(r, 16);
@@ -204,6 +244,15 @@ describe('speed and density spreads reach the band through depth mapping and the
 
 describe('what the band holds is said in one sentence', () => {
 	it('names the spreads it includes and what it leaves out', () => {
-		for (const word of ['attenuation', 'speed', 'density', 'centre frequency', 'not included', 'thickness', 'beam angle']) expect(bandScopeNote).toContain(word);
+		for (const word of [
+			'attenuation',
+			'speed',
+			'density',
+			'centre frequency',
+			'not included',
+			'thickness',
+			'beam angle',
+		])
+			expect(bandScopeNote).toContain(word);
 	});
 });

@@ -4,7 +4,16 @@
  * leaving no temporary file behind.
  */
 import {execFileSync} from 'node:child_process';
-import {chmodSync, lstatSync, mkdirSync, readdirSync, readFileSync, statSync, symlinkSync, writeFileSync} from 'node:fs';
+import {
+	chmodSync,
+	lstatSync,
+	mkdirSync,
+	readdirSync,
+	readFileSync,
+	statSync,
+	symlinkSync,
+	writeFileSync,
+} from 'node:fs';
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
 import {commitStaged, isTempName, stageFile, tempPathFor, writeFileAtomic} from '../../src/files/atomic-write.js';

@@ -53,7 +53,9 @@ describe('readRegularFile', () => {
 		writeFileSync(join(dir, 'real.json'), '{}');
 		symlinkSync(join(dir, 'real.json'), join(dir, 'link.json'));
 		expect(readRegularFile(join(dir, 'link.json'), {maxBytes: 10}).bytes.toString()).toBe('{}');
-		expect(refusal(() => readRegularFile(join(dir, 'link.json'), {maxBytes: 10, followLinks: false})).code).toBe('symbolic-link');
+		expect(refusal(() => readRegularFile(join(dir, 'link.json'), {maxBytes: 10, followLinks: false})).code).toBe(
+			'symbolic-link',
+		);
 	});
 
 	it('a missing file says so, printably', () => {

@@ -19,7 +19,11 @@ cleanTempHomes();
 /** Runs the crash fixture and resolves with how it ended (a timeout fails the test, never hangs it). */
 function crashAfter(dir: string, index: number): Promise<NodeJS.Signals | null> {
 	return new Promise((resolve, reject) => {
-		const child = spawn(process.execPath, [join(repoRoot, 'test', 'fixtures', 'files', 'crash-batch.mjs'), dir, String(index)], {stdio: 'ignore', timeout: 15_000});
+		const child = spawn(
+			process.execPath,
+			[join(repoRoot, 'test', 'fixtures', 'files', 'crash-batch.mjs'), dir, String(index)],
+			{stdio: 'ignore', timeout: 15_000},
+		);
 		child.on('error', reject);
 		child.on('exit', (_code, signal) => resolve(signal));
 	});
@@ -40,7 +44,11 @@ describe('a batch write killed half way', () => {
 		expect(readdirSync(dir)).toEqual(['a.json']);
 		expect(readFileSync(join(dir, 'a.json'), 'utf8')).toBe('old a\n');
 
-		commitBatch(dir, ['a.json', 'b.json', 'c.json'].map((name) => ({name, data: `retry ${name}`})), {replace: true});
+		commitBatch(
+			dir,
+			['a.json', 'b.json', 'c.json'].map((name) => ({name, data: `retry ${name}`})),
+			{replace: true},
+		);
 		expect(readdirSync(dir).sort()).toEqual(['a.json', 'b.json', 'c.json']);
 		expect(readFileSync(join(dir, 'a.json'), 'utf8')).toBe('retry a.json');
 	});
@@ -49,12 +57,19 @@ describe('a batch write killed half way', () => {
 		const dir = tempHome();
 		writeFileSync(join(dir, 'a.json'), 'old a\n');
 		expect(() =>
-			commitBatch(dir, [{name: 'a.json', data: 'x'}, {name: 'b.json', data: 'y'}], {
-				replace: true,
-				pause: (_point, index) => {
-					if (index === 1) throw new Error('simulated failure');
+			commitBatch(
+				dir,
+				[
+					{name: 'a.json', data: 'x'},
+					{name: 'b.json', data: 'y'},
+				],
+				{
+					replace: true,
+					pause: (_point, index) => {
+						if (index === 1) throw new Error('simulated failure');
+					},
 				},
-			}),
+			),
 		).toThrow();
 		expect(readdirSync(dir)).toEqual(['a.json']);
 		expect(readFileSync(join(dir, 'a.json'), 'utf8')).toBe('old a\n');
@@ -63,14 +78,26 @@ describe('a batch write killed half way', () => {
 	it('without leave to replace, a taken name refuses the whole batch and touches nothing', () => {
 		const dir = tempHome();
 		writeFileSync(join(dir, 'b.json'), 'mine\n');
-		expect(() => commitBatch(dir, [{name: 'a.json', data: 'x'}, {name: 'b.json', data: 'y'}], {replace: false})).toThrow(/already exists/);
+		expect(() =>
+			commitBatch(
+				dir,
+				[
+					{name: 'a.json', data: 'x'},
+					{name: 'b.json', data: 'y'},
+				],
+				{replace: false},
+			),
+		).toThrow(/already exists/);
 		expect(readdirSync(dir)).toEqual(['b.json']);
 		expect(readFileSync(join(dir, 'b.json'), 'utf8')).toBe('mine\n');
 	});
 
 	it('the journal of a live process is left alone', () => {
 		const dir = tempHome();
-		writeFileSync(join(dir, '.batch.000000000000000000000000.journal'), JSON.stringify({pid: process.pid, host: hostname(), state: 'placing', items: []}));
+		writeFileSync(
+			join(dir, '.batch.000000000000000000000000.journal'),
+			JSON.stringify({pid: process.pid, host: hostname(), state: 'placing', items: []}),
+		);
 		expect(recoverBatches(dir)).toEqual([]);
 		expect(readdirSync(dir)).toHaveLength(1);
 	});

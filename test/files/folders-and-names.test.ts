@@ -14,7 +14,7 @@ describe('checkOwnedFolder', () => {
 		expect(statSync(dir).mode & 0o777).toBe(0o700);
 	});
 
-	it('a symbolic link in the folder\'s place is refused, not followed', () => {
+	it("a symbolic link in the folder's place is refused, not followed", () => {
 		const root = tempHome();
 		const elsewhere = join(tempHome(), 'elsewhere');
 		mkdirSync(elsewhere);
@@ -23,7 +23,7 @@ describe('checkOwnedFolder', () => {
 		expect(readdirSync(elsewhere)).toEqual([]);
 	});
 
-	it('a file in the folder\'s place is refused', () => {
+	it("a file in the folder's place is refused", () => {
 		const root = tempHome();
 		writeFileSync(join(root, 'presets'), '');
 		expect(() => checkOwnedFolder(join(root, 'presets'), {create: false})).toThrow(/a regular file, not a real folder/);

@@ -21,7 +21,11 @@ describe('decodeText', () => {
 		const le = Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from('{"a":1}', 'utf16le')]);
 		const bare = Buffer.from('{"a":1}', 'utf16le');
 		const be = Buffer.from([0xfe, 0xff, 0, 0x7b]);
-		for (const [bytes, name] of [[le, 'UTF-16 (little-endian)'], [bare, 'UTF-16 (little-endian, no byte-order mark)'], [be, 'UTF-16 (big-endian)']] as const) {
+		for (const [bytes, name] of [
+			[le, 'UTF-16 (little-endian)'],
+			[bare, 'UTF-16 (little-endian, no byte-order mark)'],
+			[be, 'UTF-16 (big-endian)'],
+		] as const) {
 			const r = decodeText(bytes);
 			expect(r.ok).toBe(false);
 			if (!r.ok) {
@@ -40,7 +44,11 @@ describe('decodeText', () => {
 describe('parseStrictJson', () => {
 	it('a key given twice is refused with the key and where it is', () => {
 		const r = parseStrictJson('{"probe": {"centerMhz": 3, "centerMhz": 5}}');
-		expect(r).toEqual({ok: false, kind: 'refused', problem: 'probe: the key "centerMhz" appears more than once; keep one'});
+		expect(r).toEqual({
+			ok: false,
+			kind: 'refused',
+			problem: 'probe: the key "centerMhz" appears more than once; keep one',
+		});
 		const top = parseStrictJson('{"name": "a", "layers": [], "name": "b"}');
 		expect(top.ok || top.problem).toBe('(top): the key "name" appears more than once; keep one');
 	});
@@ -57,7 +65,10 @@ describe('parseStrictJson', () => {
 
 	it('prototype keys, deep nesting and control characters are refused; the path is named', () => {
 		expect(parseStrictJson('{"__proto__": {}}')).toMatchObject({ok: false, kind: 'refused'});
-		expect(parseStrictJson(`${'['.repeat(40)}${']'.repeat(40)}`)).toMatchObject({ok: false, problem: expect.stringContaining('nested deeper')});
+		expect(parseStrictJson(`${'['.repeat(40)}${']'.repeat(40)}`)).toMatchObject({
+			ok: false,
+			problem: expect.stringContaining('nested deeper'),
+		});
 		const r = parseStrictJson('{"layers": [{"tissue": "fat\\u001b[2J"}]}');
 		expect(r).toMatchObject({ok: false, kind: 'refused'});
 		if (!r.ok) expect(r.problem).toMatch(/^layers\.0\.tissue: contains a control .*U\+001B at character 4/);
@@ -87,7 +98,9 @@ describe('the text-field rule', () => {
 		expect(name.safeParse('Liver, thin').success).toBe(true);
 		const bad = name.safeParse('x\u009b31m');
 		expect(bad.success).toBe(false);
-		expect(bad.error?.issues[0]?.message).toBe('must be one line without control or invisible formatting characters (found U+009B at character 2)');
+		expect(bad.error?.issues[0]?.message).toBe(
+			'must be one line without control or invisible formatting characters (found U+009B at character 2)',
+		);
 	});
 });
 

@@ -57,7 +57,9 @@ export function readSourceFiles(root = srcRoot): SourceFile[] {
 				path,
 				folder: dirname(path),
 				packages: specs.filter((s) => !s.startsWith('.')),
-				locals: specs.filter((s) => s.startsWith('.')).map((s) => relative(root, resolveLocal(file, s)).split('\\').join('/')),
+				locals: specs
+					.filter((s) => s.startsWith('.'))
+					.map((s) => relative(root, resolveLocal(file, s)).split('\\').join('/')),
 				text,
 			};
 		});

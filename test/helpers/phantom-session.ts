@@ -12,7 +12,12 @@ import {makeSeries, type Series, type SeriesOptions} from './phantom-speckle.js'
 const border = {left: 20, top: 30, right: 20, bottom: 10};
 
 /** Grey image (w × h) inside a frame with a border and coloured "text" above the region; RGB when asked. */
-function framed(grey: Uint8Array, w: number, h: number, rgb: boolean): {data: Uint8Array; width: number; height: number} {
+function framed(
+	grey: Uint8Array,
+	w: number,
+	h: number,
+	rgb: boolean,
+): {data: Uint8Array; width: number; height: number} {
 	const width = w + border.left + border.right;
 	const height = h + border.top + border.bottom;
 	const channels = rgb ? 3 : 1;
@@ -35,7 +40,8 @@ function framed(grey: Uint8Array, w: number, h: number, rgb: boolean): {data: Ui
 	// A coloured depth marker inside the measured columns (RGB only): masked by the colour rule.
 	if (rgb) {
 		for (let y = border.top + 100; y < border.top + 130; y++) {
-			for (let x = border.left + w / 2 - 3; x < border.left + w / 2 + 3; x++) data.set([0, 200, 255], (y * width + x) * 3);
+			for (let x = border.left + w / 2 - 3; x < border.left + w / 2 + 3; x++)
+				data.set([0, 200, 255], (y * width + x) * 3);
 		}
 	}
 	return {data, width, height};
@@ -48,7 +54,12 @@ export interface WrittenSession {
 	readonly session: Record<string, unknown>;
 }
 
-export function writeSession(dir: string, format: 'dicom' | 'png', options: SeriesOptions, edit?: (session: Record<string, unknown>) => void): WrittenSession {
+export function writeSession(
+	dir: string,
+	format: 'dicom' | 'png',
+	options: SeriesOptions,
+	edit?: (session: Record<string, unknown>) => void,
+): WrittenSession {
 	mkdirSync(dir, {recursive: true});
 	const series = makeSeries(options);
 	const {width: w, height: h, depthCm} = series;
@@ -59,18 +70,49 @@ export function writeSession(dir: string, format: 'dicom' | 'png', options: Seri
 		const f = framed(grey, w, h, rgb);
 		if (format === 'png') {
 			const name = `${stem}.png`;
-			writeFileSync(join(dir, name), encode({width: f.width, height: f.height, data: f.data, channels: rgb ? 3 : 1, depth: 8}));
+			writeFileSync(
+				join(dir, name),
+				encode({width: f.width, height: f.height, data: f.data, channels: rgb ? 3 : 1, depth: 8}),
+			);
 			return name;
 		}
 		const name = `${stem}.dcm`;
-		const region = {minX0: border.left, minY0: border.top, maxX1: border.left + w - 1, maxY1: border.top + h - 1, refValueY: cmPerRow / 2, deltaY: cmPerRow};
-		writeFileSync(join(dir, name), writeDicom({rows: f.height, columns: f.width, pixels: f.data, photometric: rgb ? 'RGB' : 'MONOCHROME2', samples: rgb ? 3 : 1, ...(rgb ? {planar: 0 as const} : {}), regions: [region]}));
+		const region = {
+			minX0: border.left,
+			minY0: border.top,
+			maxX1: border.left + w - 1,
+			maxY1: border.top + h - 1,
+			refValueY: cmPerRow / 2,
+			deltaY: cmPerRow,
+		};
+		writeFileSync(
+			join(dir, name),
+			writeDicom({
+				rows: f.height,
+				columns: f.width,
+				pixels: f.data,
+				photometric: rgb ? 'RGB' : 'MONOCHROME2',
+				samples: rgb ? 3 : 1,
+				...(rgb ? {planar: 0 as const} : {}),
+				regions: [region],
+			}),
+		);
 		return name;
 	};
-	const gainSteps = series.gainSteps.map((g) => ({image: write(g.grey, `gain-${g.masterGainDb}`), masterGainDb: g.masterGainDb}));
+	const gainSteps = series.gainSteps.map((g) => ({
+		image: write(g.grey, `gain-${g.masterGainDb}`),
+		masterGainDb: g.masterGainDb,
+	}));
 	const probeInAir = {image: write(series.probeInAir.grey, 'in-air'), masterGainDb: series.probeInAir.masterGainDb};
 	const s = series.sliderStep;
-	const sliderSteps = [{image: write(s.grey, `slider-${s.slider}-up`), slider: s.slider, position: s.position, masterGainDb: s.masterGainDb}];
+	const sliderSteps = [
+		{
+			image: write(s.grey, `slider-${s.slider}-up`),
+			slider: s.slider,
+			position: s.position,
+			masterGainDb: s.masterGainDb,
+		},
+	];
 	const session: Record<string, unknown> = {
 		format: 'evenecho-scanner-session/1',
 		label: 'Cart B, curved array, abdomen (simulated)',

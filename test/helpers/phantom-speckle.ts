@@ -109,8 +109,14 @@ export function makeSeries(o: SeriesOptions): Series {
 	const speckle = speckleField(width, height, rand);
 	const cmPerRow = depthCm / height;
 	const depthAt = (y: number) => (y + 0.5) * cmPerRow;
-	const knots = knotDepths({count: sliderCount, knots: 'band-centres', ends: 'flat', minDb: -1, maxDb: 1, rampDbPerCmMhz: 0}, depthCm);
-	const rowEcho = Array.from({length: height}, (_, y) => trueDepthResponseDb(depthAt(y)) - phantomLossDb(testPhantom, testProbe, depthAt(y)));
+	const knots = knotDepths(
+		{count: sliderCount, knots: 'band-centres', ends: 'flat', minDb: -1, maxDb: 1, rampDbPerCmMhz: 0},
+		depthCm,
+	);
+	const rowEcho = Array.from(
+		{length: height},
+		(_, y) => trueDepthResponseDb(depthAt(y)) - phantomLossDb(testPhantom, testProbe, depthAt(y)),
+	);
 	const rowNoise = Array.from({length: height}, (_, y) => trueDepthResponseDb(depthAt(y)) - budget);
 	const gammaMap = (db: number) => 255 * Math.min(1, Math.max(0, (db - (top - dr)) / dr)) ** gamma;
 

@@ -24,7 +24,13 @@ export function tissue(id: string): Tissue {
 	return t;
 }
 
-export function custom(label: string, speedMps: number, densityKgM3: number, alphaDbPerCmMhz: number, exponent = 1): Tissue {
+export function custom(
+	label: string,
+	speedMps: number,
+	densityKgM3: number,
+	alphaDbPerCmMhz: number,
+	exponent = 1,
+): Tissue {
 	return {label, speedMps, densityKgM3, alphaDbPerCmMhz, exponent};
 }
 
@@ -38,7 +44,10 @@ export function bandwidthForSigma(centerMhz: number, sigmaMhz: number): number {
 	return (sigmaMhz * 2 * Math.sqrt(1.2 * Math.log(10))) / centerMhz;
 }
 
-export function plan(layers: Layer[], overrides: Partial<EnginePlan> & {centerMhz?: number; bandwidthFraction?: number; depthCm?: number} = {}): EnginePlan {
+export function plan(
+	layers: Layer[],
+	overrides: Partial<EnginePlan> & {centerMhz?: number; bandwidthFraction?: number; depthCm?: number} = {},
+): EnginePlan {
 	const {centerMhz = 3.5, bandwidthFraction = 0, depthCm = 16, ...rest} = overrides;
 	return {
 		name: 'test plan',

@@ -22,7 +22,11 @@ export function frame(app: Rendered): string {
  * first frame; a key written before is lost).
  */
 export async function ready(app: Rendered): Promise<void> {
-	await waitUntil(() => app.lastFrame() !== undefined && app.stdin.listenerCount('readable') > 0, 'the first frame and the input listener', 5000);
+	await waitUntil(
+		() => app.lastFrame() !== undefined && app.stdin.listenerCount('readable') > 0,
+		'the first frame and the input listener',
+		5000,
+	);
 }
 
 /** Waits until written keys have been handled: event-loop turns until two pass with no new frame. */

@@ -11,7 +11,10 @@ export interface CliRun {
 	readonly stderr: string;
 }
 
-export function runCli(args: readonly string[], options: {input?: string; env?: Record<string, string>; cwd?: string} = {}): CliRun {
+export function runCli(
+	args: readonly string[],
+	options: {input?: string; env?: Record<string, string>; cwd?: string} = {},
+): CliRun {
 	const r = spawnSync(process.execPath, [cliPath, ...args], {
 		input: options.input ?? '',
 		encoding: 'utf8',

@@ -20,10 +20,17 @@ export interface Running {
 	readonly ended: Promise<Ended>;
 }
 
-export function spawnCli(args: readonly string[], options: {env?: Record<string, string>; stdin?: 'pipe' | 'ignore' | number; timeoutMs?: number; cwd?: string} = {}): Running {
+export function spawnCli(
+	args: readonly string[],
+	options: {env?: Record<string, string>; stdin?: 'pipe' | 'ignore' | number; timeoutMs?: number; cwd?: string} = {},
+): Running {
 	const env: NodeJS.ProcessEnv = {...process.env, ...options.env};
 	delete env['EVENECHO_DEBUG'];
-	const child = spawn(process.execPath, [cliPath, ...args], {env, cwd: options.cwd, stdio: [options.stdin ?? 'pipe', 'pipe', 'pipe']});
+	const child = spawn(process.execPath, [cliPath, ...args], {
+		env,
+		cwd: options.cwd,
+		stdio: [options.stdin ?? 'pipe', 'pipe', 'pipe'],
+	});
 	let stdout = '';
 	let stderr = '';
 	child.stdout!.setEncoding('utf8').on('data', (d: string) => (stdout += d));

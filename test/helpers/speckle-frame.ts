@@ -27,7 +27,13 @@ export interface FrameOptions {
 	/** An anechoic disc: centre depth, centre column fraction, radius (cm). */
 	readonly cyst?: {readonly depthCm: number; readonly x: number; readonly radiusCm: number};
 	/** A bright specular line: depth, column fractions, thickness px, dB above tissue. */
-	readonly line?: {readonly depthCm: number; readonly from: number; readonly to: number; readonly px: number; readonly db: number};
+	readonly line?: {
+		readonly depthCm: number;
+		readonly from: number;
+		readonly to: number;
+		readonly px: number;
+		readonly db: number;
+	};
 	/** No scatterers at all (noise only). */
 	readonly anechoic?: boolean;
 }

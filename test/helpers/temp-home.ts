@@ -53,7 +53,19 @@ export function snapshotDir(dir: string): Record<string, string> {
 
 /** Fails early, with a clear message, when the built files are missing or older than the sources. */
 export function assertBuilt(): void {
-	const pairs = ['store/preset-store', 'store/templates', 'store/preset-record', 'store/preset-bundle', 'store/safe-name', 'store/settings-file', 'store/record-folder', 'store/scanner-profile-store', 'files/atomic-write', 'files/bounded-read', 'cli/presets-command'];
+	const pairs = [
+		'store/preset-store',
+		'store/templates',
+		'store/preset-record',
+		'store/preset-bundle',
+		'store/safe-name',
+		'store/settings-file',
+		'store/record-folder',
+		'store/scanner-profile-store',
+		'files/atomic-write',
+		'files/bounded-read',
+		'cli/presets-command',
+	];
 	for (const p of pairs) {
 		const src = join(repoRoot, 'src', `${p}.ts`);
 		const out = join(repoRoot, 'dist', 'src', `${p}.js`);
@@ -65,7 +77,10 @@ export function assertBuilt(): void {
 		}
 		// An incremental build leaves a file alone when its output would not change, so a source newer than
 		// its output is stale only if no build has run since (the build info is rewritten on every build).
-		const lastBuild = Math.max(built, statSync(join(repoRoot, 'dist', '.tsbuildinfo'), {throwIfNoEntry: false})?.mtimeMs ?? 0);
+		const lastBuild = Math.max(
+			built,
+			statSync(join(repoRoot, 'dist', '.tsbuildinfo'), {throwIfNoEntry: false})?.mtimeMs ?? 0,
+		);
 		if (statSync(src).mtimeMs > lastBuild + 1) {
 			throw new Error(`${out} is older than ${src}: run "npm run build" first (npm test does)`);
 		}
@@ -82,6 +97,11 @@ export interface CliRun {
 export function runCli(args: readonly string[], home: string, input?: string): CliRun {
 	const env: NodeJS.ProcessEnv = {...process.env, EVENECHO_HOME: home};
 	delete env['EVENECHO_DEBUG'];
-	const r = spawnSync(process.execPath, [distCli, ...args], {env, encoding: 'utf8', ...(input !== undefined ? {input} : {}), timeout: 20_000});
+	const r = spawnSync(process.execPath, [distCli, ...args], {
+		env,
+		encoding: 'utf8',
+		...(input !== undefined ? {input} : {}),
+		timeout: 20_000,
+	});
 	return {status: r.status, stdout: r.stdout, stderr: r.stderr};
 }

@@ -34,13 +34,20 @@ describe('DICOM ultrasound region → displayed depth', () => {
 		// Independently: the attributes as dicom-parser reads them, through the PS3.3 formula.
 		const ds = dicomParser.parseDicom(file);
 		const item = ds.elements['x00186011']!.items![0]!.dataSet!;
-		const depth = item.double('x0018602a')! + (120 - item.uint32('x0018601a')! - item.int32('x00186022')!) * item.double('x0018602e')!;
+		const depth =
+			item.double('x0018602a')! +
+			(120 - item.uint32('x0018601a')! - item.int32('x00186022')!) * item.double('x0018602e')!;
 		expect(depth).toBeCloseTo(5.0, 10);
 		expect(image.grey[120 * columns + 10]).toBe(120);
 	});
 
 	it('reads the same region from a sequence of defined length', () => {
-		const undefinedLength = writeDicom({rows, columns, pixels: grey, regions: [{...c42, refPixelY0: 10, refValueY: 0.5}]});
+		const undefinedLength = writeDicom({
+			rows,
+			columns,
+			pixels: grey,
+			regions: [{...c42, refPixelY0: 10, refValueY: 0.5}],
+		});
 		const defined = withDefinedLengthRegions(undefinedLength);
 		expect(dicomParser.parseDicom(defined).elements['x00186011']!.hadUndefinedLength).toBeFalsy();
 		const a = decodeImage(undefinedLength);
@@ -55,7 +62,11 @@ describe('DICOM ultrasound region → displayed depth', () => {
 			rows,
 			columns,
 			pixels: grey,
-			regions: [{minX0: 0, minY0: 0, maxX1: 63, maxY1: 10, deltaY: 0.1, dataType: 2}, c42, {minX0: 0, minY0: 152, maxX1: 10, maxY1: 159, deltaY: 0.05}],
+			regions: [
+				{minX0: 0, minY0: 0, maxX1: 63, maxY1: 10, deltaY: 0.1, dataType: 2},
+				c42,
+				{minX0: 0, minY0: 152, maxX1: 10, maxY1: 159, deltaY: 0.05},
+			],
 		});
 		const image = decodeImage(file);
 		expect(image.region.y0).toBe(20);
@@ -70,14 +81,22 @@ describe('DICOM ultrasound region → displayed depth', () => {
 	});
 
 	it('refuses a region in other units or with non-square pixels, and one with no tissue region', () => {
-		expect(refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, unitsY: 4}]}))).message).toContain('Physical Units Y Direction');
-		expect(refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, deltaX: 0.08}]}))).message).toContain('Physical Delta X');
-		expect(refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, dataType: 3}]}))).message).toContain('no 2-D tissue region');
+		expect(
+			refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, unitsY: 4}]}))).message,
+		).toContain('Physical Units Y Direction');
+		expect(
+			refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, deltaX: 0.08}]}))).message,
+		).toContain('Physical Delta X');
+		expect(
+			refusal(() => decodeImage(writeDicom({rows, columns, pixels: grey, regions: [{...c42, dataType: 3}]}))).message,
+		).toContain('no 2-D tissue region');
 	});
 
 	it('with no regions: refused without pixelScale, measured whole with it', () => {
 		const file = writeDicom({rows, columns, pixels: grey});
-		expect(refusal(() => decodeImage(file, {label: 'bare.dcm'})).message).toMatch(/bare\.dcm: \(0018,6011\).*pixelScale/);
+		expect(refusal(() => decodeImage(file, {label: 'bare.dcm'})).message).toMatch(
+			/bare\.dcm: \(0018,6011\).*pixelScale/,
+		);
 		const image = decodeImage(file, {pixelScale: {cmPerPixel: 0.1, topRowCm: 1}});
 		expect(image.region).toEqual({x0: 0, y0: 0, x1: columns - 1, y1: rows - 1});
 		expect(rowDepthCm(image, 0)).toBeCloseTo(1.05, 10);
@@ -88,14 +107,18 @@ describe('DICOM pixel data', () => {
 	it('MONOCHROME1 is inverted; implicit VR little endian reads the same', () => {
 		const m1 = decodeImage(writeDicom({rows, columns, pixels: grey, photometric: 'MONOCHROME1', regions: [c42]}));
 		expect(m1.grey[120 * columns]).toBe(255 - 120);
-		const implicit = decodeImage(writeDicom({rows, columns, pixels: grey, regions: [c42], syntax: syntaxes.implicitLittle}));
+		const implicit = decodeImage(
+			writeDicom({rows, columns, pixels: grey, regions: [c42], syntax: syntaxes.implicitLittle}),
+		);
 		expect(implicit.grey[77 * columns + 3]).toBe(77);
 		expect(rowDepthCm(implicit, 120)).toBeCloseTo(5.0, 10);
 	});
 
 	it('16-bit MONOCHROME2 is scaled to 0–255', () => {
 		const words = new Uint16Array(rows * columns).map((_, i) => (i % 2 ? 65535 : 0));
-		const image = decodeImage(writeDicom({rows, columns, pixels: new Uint8Array(words.buffer), bitsAllocated: 16, regions: [c42]}));
+		const image = decodeImage(
+			writeDicom({rows, columns, pixels: new Uint8Array(words.buffer), bitsAllocated: 16, regions: [c42]}),
+		);
 		expect(image.grey[0]).toBe(0);
 		expect(image.grey[1]).toBeCloseTo(255, 6);
 	});
@@ -116,8 +139,13 @@ describe('DICOM pixel data', () => {
 				planar[c * n + i] = p[c]!;
 			}
 		}
-		for (const [pixels, pc] of [[interleaved, 0], [planar, 1]] as const) {
-			const image = decodeImage(writeDicom({rows, columns, pixels, photometric: 'RGB', samples: 3, planar: pc, regions: [c42]}));
+		for (const [pixels, pc] of [
+			[interleaved, 0],
+			[planar, 1],
+		] as const) {
+			const image = decodeImage(
+				writeDicom({rows, columns, pixels, photometric: 'RGB', samples: 3, planar: pc, regions: [c42]}),
+			);
 			expect(image.grey[100 * columns + 5]).toBeCloseTo(100, 4);
 			expect(image.grey[61 * columns + 31]).toBeCloseTo(0.299 * 250 + 0.587 * 20 + 0.114 * 20, 3);
 			expect(image.mask[61 * columns + 31]).toBe(1);
@@ -131,14 +159,18 @@ describe('DICOM pixel data', () => {
 		const n = rows * columns;
 		const full = new Uint8Array(3 * n);
 		for (let i = 0; i < n; i++) full.set([Math.floor(i / columns) % 256, 128, 128], 3 * i);
-		const a = decodeImage(writeDicom({rows, columns, pixels: full, photometric: 'YBR_FULL', samples: 3, planar: 0, regions: [c42]}));
+		const a = decodeImage(
+			writeDicom({rows, columns, pixels: full, photometric: 'YBR_FULL', samples: 3, planar: 0, regions: [c42]}),
+		);
 		expect(a.grey[90 * columns + 7]).toBeCloseTo(90, 3);
 		const half = new Uint8Array(2 * n);
 		for (let p = 0; p < n / 2; p++) {
 			const y = Math.floor((2 * p) / columns) % 256;
 			half.set([y, y, 128, 128], 4 * p);
 		}
-		const b = decodeImage(writeDicom({rows, columns, pixels: half, photometric: 'YBR_FULL_422', samples: 3, planar: 0, regions: [c42]}));
+		const b = decodeImage(
+			writeDicom({rows, columns, pixels: half, photometric: 'YBR_FULL_422', samples: 3, planar: 0, regions: [c42]}),
+		);
 		expect(b.grey[90 * columns + 7]).toBeCloseTo(90, 3);
 		expect(b.mask.every((m) => m === 0)).toBe(true);
 	});
@@ -154,7 +186,11 @@ describe('DICOM pixel data', () => {
 				pixels: grey,
 				photometric: 'PALETTE COLOR',
 				regions: [c42],
-				vrMap: {RedPaletteColorLookupTableDescriptor: 'US', GreenPaletteColorLookupTableDescriptor: 'US', BluePaletteColorLookupTableDescriptor: 'US'},
+				vrMap: {
+					RedPaletteColorLookupTableDescriptor: 'US',
+					GreenPaletteColorLookupTableDescriptor: 'US',
+					BluePaletteColorLookupTableDescriptor: 'US',
+				},
 				extra: {
 					RedPaletteColorLookupTableDescriptor: [entries, 0, 16],
 					GreenPaletteColorLookupTableDescriptor: [entries, 0, 16],
@@ -181,11 +217,21 @@ describe('DICOM pixel data', () => {
 		// 8 × 8 blocks of scattered levels, aligned with JPEG's blocks: large enough for several fragments.
 		const w = 512;
 		const h = 400;
-		const level = (i: number) => 40 + ((Math.floor((i % w) / 8) * 37 + Math.floor(i / w / 8) * 91) % 150) + ((i * 2654435761) >>> 28);
+		const level = (i: number) =>
+			40 + ((Math.floor((i % w) / 8) * 37 + Math.floor(i / w / 8) * 91) % 150) + ((i * 2654435761) >>> 28);
 		const rgba = new Uint8Array(w * h * 4);
 		for (let i = 0; i < w * h; i++) rgba.set([level(i), level(i), level(i), 255], 4 * i);
 		const stream = new Uint8Array(jpeg.encode({width: w, height: h, data: rgba}, 95).data);
-		const file = writeDicom({rows: h, columns: w, pixels: [stream], photometric: 'YBR_FULL_422', samples: 3, planar: 0, syntax: syntaxes.jpegBaseline, regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: h - 1, deltaY: 0.05}]});
+		const file = writeDicom({
+			rows: h,
+			columns: w,
+			pixels: [stream],
+			photometric: 'YBR_FULL_422',
+			samples: 3,
+			planar: 0,
+			syntax: syntaxes.jpegBaseline,
+			regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: h - 1, deltaY: 0.05}],
+		});
 		const el = dicomParser.parseDicom(file).elements['x7fe00010']!;
 		expect(el.fragments!.length).toBeGreaterThan(1);
 		const image = decodeImage(file);
@@ -204,10 +250,24 @@ describe('DICOM pixel data', () => {
 		for (let i = 0; i < w * h; i++) {
 			const v = 100 + (i % 56);
 			const c = v - 128;
-			rgba.set([v + 1.402 * c, v - 0.344136 * c - 0.714136 * c, v + 1.772 * c, 255].map((x) => Math.max(0, Math.min(255, Math.round(x)))), 4 * i);
+			rgba.set(
+				[v + 1.402 * c, v - 0.344136 * c - 0.714136 * c, v + 1.772 * c, 255].map((x) =>
+					Math.max(0, Math.min(255, Math.round(x))),
+				),
+				4 * i,
+			);
 		}
 		const stream = new Uint8Array(jpeg.encode({width: w, height: h, data: rgba}, 100).data);
-		const file = writeDicom({rows: h, columns: w, pixels: [stream], photometric: 'RGB', samples: 3, planar: 0, syntax: syntaxes.jpegBaseline, regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: h - 1, deltaY: 0.05}]});
+		const file = writeDicom({
+			rows: h,
+			columns: w,
+			pixels: [stream],
+			photometric: 'RGB',
+			samples: 3,
+			planar: 0,
+			syntax: syntaxes.jpegBaseline,
+			regions: [{minX0: 0, minY0: 0, maxX1: w - 1, maxY1: h - 1, deltaY: 0.05}],
+		});
 		const image = decodeImage(file);
 		let masked = 0;
 		let err = 0;
@@ -228,16 +288,28 @@ describe('DICOM refusals name the attribute', () => {
 	});
 
 	it('an unsupported transfer syntax, said by UID and name', () => {
-		const file = writeDicom({rows, columns, pixels: [new Uint8Array([0xff, 0x4f, 0xff, 0x51])], syntax: syntaxes.jpeg2000, regions: [c42]});
-		expect(refusal(() => decodeImage(file)).message).toContain('(0002,0010) Transfer Syntax UID: is 1.2.840.10008.1.2.4.91 (JPEG 2000)');
+		const file = writeDicom({
+			rows,
+			columns,
+			pixels: [new Uint8Array([0xff, 0x4f, 0xff, 0x51])],
+			syntax: syntaxes.jpeg2000,
+			regions: [c42],
+		});
+		expect(refusal(() => decodeImage(file)).message).toContain(
+			'(0002,0010) Transfer Syntax UID: is 1.2.840.10008.1.2.4.91 (JPEG 2000)',
+		);
 	});
 
 	it('a size claim over 8192 px a side, before any pixel is decoded', () => {
 		const file = writeDicom({rows: 9000, columns: 16, pixels: new Uint8Array(16), regions: [c42]});
-		expect(refusal(() => decodeImage(file)).message).toContain('(0028,0010) Rows: is 9000; images up to 8192 pixels a side');
+		expect(refusal(() => decodeImage(file)).message).toContain(
+			'(0028,0010) Rows: is 9000; images up to 8192 pixels a side',
+		);
 	});
 
 	it('not DICOM and not PNG', () => {
-		expect(refusal(() => decodeImage(new TextEncoder().encode('hello'), {label: 'note.txt'})).message).toContain('note.txt: is neither');
+		expect(refusal(() => decodeImage(new TextEncoder().encode('hello'), {label: 'note.txt'})).message).toContain(
+			'note.txt: is neither',
+		);
 	});
 });

@@ -28,7 +28,9 @@ describe('PNG', () => {
 
 	it('16-bit grey and RGBA with a coloured label masked', () => {
 		const words = Uint16Array.from({length: 8 * 8}, () => 65535);
-		expect(decodeImage(encode({width: 8, height: 8, data: words, channels: 1, depth: 16}), {pixelScale: scale}).grey[5]).toBeCloseTo(255, 4);
+		expect(
+			decodeImage(encode({width: 8, height: 8, data: words, channels: 1, depth: 16}), {pixelScale: scale}).grey[5],
+		).toBeCloseTo(255, 4);
 		const rgba = new Uint8Array(20 * 20 * 4);
 		for (let i = 0; i < 400; i++) rgba.set(i === 210 ? [255, 255, 0, 255] : [90, 90, 90, 255], 4 * i);
 		const image = decodeImage(encode({width: 20, height: 20, data: rgba, channels: 4, depth: 8}), {pixelScale: scale});
@@ -40,7 +42,9 @@ describe('PNG', () => {
 
 	it('needs pixelScale, and refuses a size claim over 8192 px from the header alone', () => {
 		const png = encode({width: 4, height: 4, data: new Uint8Array(16), channels: 1, depth: 8});
-		expect(refusal(() => decodeImage(png, {label: 'a.png'}))).toContain('pixelScale: is needed for the PNG image a.png');
+		expect(refusal(() => decodeImage(png, {label: 'a.png'}))).toContain(
+			'pixelScale: is needed for the PNG image a.png',
+		);
 		const huge = png.slice();
 		new DataView(huge.buffer).setUint32(16, 9000); // IHDR width; CRC no longer matters, nothing is inflated
 		expect(refusal(() => decodeImage(huge, {pixelScale: scale, label: 'big.png'}))).toContain('claims 9000 × 4 pixels');

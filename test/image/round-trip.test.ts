@@ -20,7 +20,10 @@ const cmPerPixel = plan.display.depthCm / 80;
 
 describe('PNG round trip (fast-png decoder)', () => {
 	it('8-bit grey: same size, same bytes, the illustration label in a tEXt chunk', () => {
-		const bytes = encodePng({width: frame.width, height: frame.height, channels: 1, data: frame.grey}, {Description: 'Simulated illustration'});
+		const bytes = encodePng(
+			{width: frame.width, height: frame.height, channels: 1, data: frame.grey},
+			{Description: 'Simulated illustration'},
+		);
 		const back = decode(bytes);
 		expect([back.width, back.height, back.channels, back.depth]).toEqual([frame.width, frame.height, 1, 8]);
 		expect(Buffer.from(back.data as Uint8Array).equals(Buffer.from(frame.grey))).toBe(true);
@@ -70,12 +73,18 @@ describe('DICOM round trip (written by dcmjs, read by dicom-parser)', () => {
 			const r = regions[0]!.dataSet!;
 			expect(r.uint16('x00186012')).toBe(1); // 2-D
 			expect(r.uint16('x00186014')).toBe(1); // tissue
-			expect([r.uint32('x00186018'), r.uint32('x0018601a'), r.uint32('x0018601c'), r.uint32('x0018601e')]).toEqual([frame.region.x0, frame.region.y0, frame.region.x1, frame.region.y1]);
+			expect([r.uint32('x00186018'), r.uint32('x0018601a'), r.uint32('x0018601c'), r.uint32('x0018601e')]).toEqual([
+				frame.region.x0,
+				frame.region.y0,
+				frame.region.x1,
+				frame.region.y1,
+			]);
 			expect([r.uint16('x00186024'), r.uint16('x00186026')]).toEqual([3, 3]); // cm
 			expect(r.double('x0018602e')).toBeCloseTo(cmPerPixel, 12);
 			expect(r.double('x0018602c')).toBeCloseTo(cmPerPixel, 12);
 			// C.8.5.5 arithmetic: the region's top row is the skin, its last row the display depth less one pixel.
-			const depthOfRow = (y: number) => r.double('x0018602a')! + (y - r.uint32('x0018601a')! - r.int32('x00186022')!) * r.double('x0018602e')!;
+			const depthOfRow = (y: number) =>
+				r.double('x0018602a')! + (y - r.uint32('x0018601a')! - r.int32('x00186022')!) * r.double('x0018602e')!;
 			expect(depthOfRow(frame.region.y0)).toBeCloseTo(0, 12);
 			expect(depthOfRow(frame.region.y1 + 1)).toBeCloseTo(plan.display.depthCm, 9);
 			// And it agrees with the simulator's own row → depth map of the whole picture.
@@ -84,7 +93,17 @@ describe('DICOM round trip (written by dcmjs, read by dicom-parser)', () => {
 	}
 
 	it('same inputs, same bytes (derived UIDs, fixed dates)', () => {
-		const make = () => encodeUltrasoundDicom({image: {width: 4, height: 3, channels: 1, data: new Uint8Array(12).fill(9)}, region: {x0: 0, y0: 0, x1: 3, y1: 2, cmPerPixel: 0.1, centerMhz: 5}, studyUid: derivedUid('a'), seriesUid: derivedUid('b'), instanceUid: derivedUid('c'), instanceNumber: 1, seriesDescription: 's', comments: 'c'});
+		const make = () =>
+			encodeUltrasoundDicom({
+				image: {width: 4, height: 3, channels: 1, data: new Uint8Array(12).fill(9)},
+				region: {x0: 0, y0: 0, x1: 3, y1: 2, cmPerPixel: 0.1, centerMhz: 5},
+				studyUid: derivedUid('a'),
+				seriesUid: derivedUid('b'),
+				instanceUid: derivedUid('c'),
+				instanceNumber: 1,
+				seriesDescription: 's',
+				comments: 'c',
+			});
 		expect(Buffer.from(make()).equals(Buffer.from(make()))).toBe(true);
 		expect(derivedUid('x')).toMatch(/^2\.25\.\d{1,39}$/);
 	});

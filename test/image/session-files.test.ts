@@ -20,7 +20,10 @@ function worstAfterOffset(pairs: Array<[number, number]>): number {
 }
 
 describe.each(['dicom', 'png'] as const)('a %s session', (format) => {
-	it.each([{seed: 5, gamma: 1, smoothPx: 0}, {seed: 73, gamma: 0.7, smoothPx: 1}])('seed $seed, γ $gamma, smoothing $smoothPx: within tolerance', (options) => {
+	it.each([
+		{seed: 5, gamma: 1, smoothPx: 0},
+		{seed: 73, gamma: 0.7, smoothPx: 1},
+	])('seed $seed, γ $gamma, smoothing $smoothPx: within tolerance', (options) => {
 		const written = writeSession(join(root, `${format}-${options.seed}`), format, options);
 		const loaded = loadSession(written.sessionPath);
 		const first = loaded.input.gainSteps[0]!.image;
@@ -31,9 +34,11 @@ describe.each(['dicom', 'png'] as const)('a %s session', (format) => {
 		const grey = cal.greyMap.filter((p) => p.grey >= 30 && p.grey <= 220);
 		const greyErr = worstAfterOffset(grey.map((p) => [p.levelDb, t.levelAtMeanGrey(p.grey)]));
 		const depthErr = worstAfterOffset(cal.depthResponse.map((p) => [p.gainDb, t.depthResponse(p.depthCm)]));
-		console.log(`${format} seed ${options.seed} γ ${options.gamma}: grey ${greyErr.toFixed(2)} dB, depth ` +
-			`${depthErr.toFixed(2)} dB, travel ${cal.sliderTravelDb!.toFixed(2)}/${t.sliderTravelDb}, ` +
-			`penetration ${cal.penetrationCm!.toFixed(2)}/${t.penetrationCm.toFixed(2)} cm`);
+		console.log(
+			`${format} seed ${options.seed} γ ${options.gamma}: grey ${greyErr.toFixed(2)} dB, depth ` +
+				`${depthErr.toFixed(2)} dB, travel ${cal.sliderTravelDb!.toFixed(2)}/${t.sliderTravelDb}, ` +
+				`penetration ${cal.penetrationCm!.toFixed(2)}/${t.penetrationCm.toFixed(2)} cm`,
+		);
 		expect(greyErr).toBeLessThanOrEqual(1.5);
 		expect(depthErr).toBeLessThanOrEqual(1.5);
 		expect(Math.abs(cal.sliderTravelDb! - t.sliderTravelDb)).toBeLessThanOrEqual(1.5);

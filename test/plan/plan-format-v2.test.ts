@@ -37,7 +37,9 @@ function parsed(input: unknown) {
 
 describe('migration from evenecho-plan/1', () => {
 	it('is one function that marks every thickness as true and changes nothing else', () => {
-		const m = migratePlanV1(v1) as Omit<typeof v1, 'layers'> & {layers: {tissue: string; thicknessCm: number; thicknessAs: string}[]};
+		const m = migratePlanV1(v1) as Omit<typeof v1, 'layers'> & {
+			layers: {tissue: string; thicknessCm: number; thicknessAs: string}[];
+		};
 		expect(m.format).toBe('evenecho-plan/2');
 		expect(m.layers.map((l) => l.thicknessAs)).toEqual(['true', 'true', 'true', 'true']);
 		expect({...m, format: v1.format, layers: m.layers.map(({thicknessAs: _, ...l}) => l)}).toEqual(v1);
@@ -62,12 +64,24 @@ describe('thickness measured on the screen', () => {
 	});
 
 	it('converts through the plan assumed speed', () => {
-		const doc = parsed({...v1, format: planFormat, display: {depthCm: 20, assumedSpeedMps: 1600}, layers: [{tissue: 'fat', thicknessCm: 4, thicknessAs: 'displayed'}, {tissue: 'liver', thicknessCm: 5}]});
+		const doc = parsed({
+			...v1,
+			format: planFormat,
+			display: {depthCm: 20, assumedSpeedMps: 1600},
+			layers: [
+				{tissue: 'fat', thicknessCm: 4, thicknessAs: 'displayed'},
+				{tissue: 'liver', thicknessCm: 5},
+			],
+		});
 		expect(resolvePlan(doc).layers[0]!.thicknessCm).toBeCloseTo((4 * 1440) / 1600, 9);
 	});
 
 	it('refuses an unknown mode, naming the field and the choices', () => {
-		const r = parsePlanDocument({...v1, format: planFormat, layers: [{tissue: 'fat', thicknessCm: 2, thicknessAs: 'screen'}]});
+		const r = parsePlanDocument({
+			...v1,
+			format: planFormat,
+			layers: [{tissue: 'fat', thicknessCm: 2, thicknessAs: 'screen'}],
+		});
 		expect(r.ok).toBe(false);
 		if (!r.ok) expect(r.errors).toContain('layers.0.thicknessAs: must be "true" or "displayed"');
 	});
@@ -97,16 +111,24 @@ describe('a target that follows a layer', () => {
 	it('refuses a layer the plan does not have, and both kinds of target at once', () => {
 		const bad = parsePlanDocument({...rel, targetBelowLayer: {layer: 9, depthCm: 1}});
 		expect(bad.ok).toBe(false);
-		if (!bad.ok) expect(bad.errors).toContain("targetBelowLayer.layer: must name one of the plan's layers (1 = just under the skin)");
+		if (!bad.ok)
+			expect(bad.errors).toContain(
+				"targetBelowLayer.layer: must name one of the plan's layers (1 = just under the skin)",
+			);
 		const both = parsePlanDocument({...rel, targetDepthCm: 12});
 		expect(both.ok).toBe(false);
-		if (!both.ok) expect(both.errors).toContain('targetBelowLayer: give either targetDepthCm or targetBelowLayer, not both');
+		if (!both.ok)
+			expect(both.errors).toContain('targetBelowLayer: give either targetDepthCm or targetBelowLayer, not both');
 	});
 });
 
 describe('α0 measured for this patient', () => {
 	const measured = {alphaDbPerCmMhz: 0.82, lowDbPerCmMhz: 0.74, highDbPerCmMhz: 0.9};
-	const doc = parsed({...v1, format: planFormat, layers: v1.layers.map((l, i) => (i === 3 ? {...l, measuredAlpha: measured} : l))});
+	const doc = parsed({
+		...v1,
+		format: planFormat,
+		layers: v1.layers.map((l, i) => (i === 3 ? {...l, measuredAlpha: measured} : l)),
+	});
 
 	it('replaces the library value and spread, keeps n, and says so in the source line', () => {
 		const liver = resolvePlan(doc).layers[3]!.tissue;
@@ -118,9 +140,15 @@ describe('α0 measured for this patient', () => {
 	});
 
 	it('refuses an interval that does not hold the value', () => {
-		const r = parsePlanDocument({...v1, layers: [{tissue: 'liver', thicknessCm: 2, measuredAlpha: {alphaDbPerCmMhz: 1, lowDbPerCmMhz: 0.5, highDbPerCmMhz: 0.8}}]});
+		const r = parsePlanDocument({
+			...v1,
+			layers: [
+				{tissue: 'liver', thicknessCm: 2, measuredAlpha: {alphaDbPerCmMhz: 1, lowDbPerCmMhz: 0.5, highDbPerCmMhz: 0.8}},
+			],
+		});
 		expect(r.ok).toBe(false);
-		if (!r.ok) expect(r.errors[0]).toMatch(/^layers\.0\.measuredAlpha\.alphaDbPerCmMhz: the interval must hold the value/);
+		if (!r.ok)
+			expect(r.errors[0]).toMatch(/^layers\.0\.measuredAlpha\.alphaDbPerCmMhz: the interval must hold the value/);
 	});
 
 	it('a swapped-in tissue in a table does not inherit the measurement', () => {

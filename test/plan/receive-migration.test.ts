@@ -4,7 +4,10 @@ import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {migrateHarmonicFlag} from '../../src/plan/plan-migration.js';
 import {parsePlan} from '../../src/plan/resolve-plan.js';
 
-const layers = [{tissue: 'fat', thicknessCm: 2}, {tissue: 'liver', thicknessCm: 20}];
+const layers = [
+	{tissue: 'fat', thicknessCm: 2},
+	{tissue: 'liver', thicknessCm: 20},
+];
 
 describe('the old harmonic flag', () => {
 	it('true becomes tissue-harmonic receive, and a budget or phantom given with it is marked as harmonic', () => {
@@ -15,7 +18,9 @@ describe('the old harmonic flag', () => {
 			noiseBudgetReceive: 'tissue-harmonic',
 		});
 		const cal = {centerMhz: 2.5, depthCm: 14, alphaDbPerCmMhz: 0.5};
-		expect(migrateHarmonicFlag({layers, probe: {centerMhz: 2.5, harmonic: true}, phantomCalibration: cal})).toMatchObject({
+		expect(
+			migrateHarmonicFlag({layers, probe: {centerMhz: 2.5, harmonic: true}, phantomCalibration: cal}),
+		).toMatchObject({
 			phantomCalibration: {...cal, receive: 'tissue-harmonic'},
 		});
 	});
@@ -27,7 +32,12 @@ describe('the old harmonic flag', () => {
 	});
 
 	it('a plan file with the old flag parses, with the mode carried into the engine plan', () => {
-		const r = parsePlan({format: 'evenecho-plan/1', layers, probe: {centerMhz: 2.5, harmonic: true}, noiseBudgetDb: 70});
+		const r = parsePlan({
+			format: 'evenecho-plan/1',
+			layers,
+			probe: {centerMhz: 2.5, harmonic: true},
+			noiseBudgetDb: 70,
+		});
 		expect(r.ok).toBe(true);
 		if (!r.ok) return;
 		expect(r.value.plan.probe.receive).toBe('tissue-harmonic');
@@ -39,7 +49,9 @@ describe('the old harmonic flag', () => {
 		const r = parsePlan({layers, probe: {centerMhz: 2.5, receive: 'loud'}});
 		expect(r.ok).toBe(false);
 		if (r.ok) return;
-		expect(r.errors.join('\n')).toMatch(/probe\.receive: must be "fundamental", "tissue-harmonic" or "scatterer-harmonic"/);
+		expect(r.errors.join('\n')).toMatch(
+			/probe\.receive: must be "fundamental", "tissue-harmonic" or "scatterer-harmonic"/,
+		);
 	});
 });
 
@@ -54,7 +66,11 @@ describe('noise budgets carry their receive mode', () => {
 
 	it('a phantom reach measured in tissue-harmonic mode is worked out in that mode and raises no mismatch', () => {
 		const cal = {centerMhz: 2.5, depthCm: 12, alphaDbPerCmMhz: 0.5};
-		const harm = parsePlan({layers, probe: {centerMhz: 2.5, receive: 'tissue-harmonic'}, phantomCalibration: {...cal, receive: 'tissue-harmonic'}});
+		const harm = parsePlan({
+			layers,
+			probe: {centerMhz: 2.5, receive: 'tissue-harmonic'},
+			phantomCalibration: {...cal, receive: 'tissue-harmonic'},
+		});
 		const fund = parsePlan({layers, probe: {centerMhz: 2.5, receive: 'tissue-harmonic'}, phantomCalibration: cal});
 		expect(harm.ok && fund.ok).toBe(true);
 		if (!harm.ok || !fund.ok) return;

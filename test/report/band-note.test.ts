@@ -16,11 +16,11 @@ describe('the band sentence', () => {
 		expect(curveSummary(curve)).toContain(bandScopeNote);
 	});
 
-	it('is the JSON document\'s `band` field', () => {
+	it("is the JSON document's `band` field", () => {
 		expect(curveJson(curve).band).toBe(bandScopeNote);
 	});
 
-	it('is in the console\'s warnings-in-full view (w), wrapped to the width', () => {
+	it("is in the console's warnings-in-full view (w), wrapped to the width", () => {
 		const text = warningsViewLines(curve, 96, 60)
 			.map((l) => l.text.trim())
 			.join(' ');

@@ -33,7 +33,8 @@ function bandMean(grey: Uint8Array, width: number, from: number, to: number): nu
 function cropRegion(f: SimulatedFrame): Uint8Array {
 	const w = f.region.x1 - f.region.x0 + 1;
 	const out = new Uint8Array(w * (f.region.y1 - f.region.y0 + 1));
-	for (let y = f.region.y0; y <= f.region.y1; y++) out.set(f.grey.subarray(y * f.width + f.region.x0, y * f.width + f.region.x1 + 1), (y - f.region.y0) * w);
+	for (let y = f.region.y0; y <= f.region.y1; y++)
+		out.set(f.grey.subarray(y * f.width + f.region.x0, y * f.width + f.region.x1 + 1), (y - f.region.y0) * w);
 	return out;
 }
 
@@ -41,29 +42,36 @@ const width = 300;
 const height = 320;
 
 describe('band means follow the model', () => {
-	it('uniform speckle at 0 dB on a 60 dB map, top 28 dB: mean grey 125.3, SD 23.7 (shared ' +
-		'derivation C45: 255·(L − 2.507 − top + DR)/DR and 5.57·255/DR, Kaplan & Ma 1994)', () => {
-		const p = plan([{tissue: matched('lossless scatterer', 1540, 0), thicknessCm: 100}], {bandwidthFraction: 0.6});
-		const f = simulateFrame({plan: p, width: 600, height: 480, seed: 5});
-		let s = 0;
-		let s2 = 0;
-		for (const g of f.grey) {
-			s += g;
-			s2 += g * g;
-		}
-		const mean = s / f.grey.length;
-		const sd = Math.sqrt(s2 / f.grey.length - mean * mean);
-		expect(mean).toBeCloseTo(125.3, 0);
-		expect(Math.abs(sd - 23.7)).toBeLessThan(0.4);
-	});
+	it(
+		'uniform speckle at 0 dB on a 60 dB map, top 28 dB: mean grey 125.3, SD 23.7 (shared ' +
+			'derivation C45: 255·(L − 2.507 − top + DR)/DR and 5.57·255/DR, Kaplan & Ma 1994)',
+		() => {
+			const p = plan([{tissue: matched('lossless scatterer', 1540, 0), thicknessCm: 100}], {bandwidthFraction: 0.6});
+			const f = simulateFrame({plan: p, width: 600, height: 480, seed: 5});
+			let s = 0;
+			let s2 = 0;
+			for (const g of f.grey) {
+				s += g;
+				s2 += g * g;
+			}
+			const mean = s / f.grey.length;
+			const sd = Math.sqrt(s2 / f.grey.length - mean * mean);
+			expect(mean).toBeCloseTo(125.3, 0);
+			expect(Math.abs(sd - 23.7)).toBeLessThan(0.4);
+		},
+	);
 
-	it('each 1 cm band\'s mean grey is the display map of its true mean level (plain and realistic scanner)', () => {
+	it("each 1 cm band's mean grey is the display map of its true mean level (plain and realistic scanner)", () => {
 		const p = engineOf(demoPlanJson);
 		const realistic = realisticScanner(p);
 		const framed = simulateFrame({plan: p, width, height, seed: 9, scanner: realistic});
 		for (const [scannerKind, scanner, f] of [
 			['plain', plainScanner(p), simulateFrame({plan: p, width, height, seed: 9})],
-			['plain, plan settings', plainScanner(p), simulateFrame({plan: p, width, height, seed: 9, settings: settingsOfFit(computeCurve(p).fit)})],
+			[
+				'plain, plan settings',
+				plainScanner(p),
+				simulateFrame({plan: p, width, height, seed: 9, settings: settingsOfFit(computeCurve(p).fit)}),
+			],
 			['realistic (non-log map, smoothed)', realistic, {...framed, grey: cropRegion(framed)}],
 		] as const) {
 			const rowsPerCm = height / p.display.depthCm;
@@ -74,18 +82,22 @@ describe('band means follow the model', () => {
 				for (let r = from; r < to; r++) expected += meanGreyOfSpeckle(scanner.display, f.truth.meanLevelDb[r]!);
 				expected /= to - from;
 				// SD of a band mean: 23.7 grey / √(cells); a band here holds > 1,000 cells → 0.75 grey; ~4 SE.
-				expect(Math.abs(bandMean(f.grey, width, from, to) - expected), `${scannerKind}, ${cm}–${cm + 1} cm`).toBeLessThan(3);
+				expect(
+					Math.abs(bandMean(f.grey, width, from, to) - expected),
+					`${scannerKind}, ${cm}–${cm + 1} cm`,
+				).toBeLessThan(3);
 			}
 		}
 	});
 
-	it('with the plan\'s sliders a thick-fat deep plan shows flatter band means than with the built-in ramp alone', () => {
+	it("with the plan's sliders a thick-fat deep plan shows flatter band means than with the built-in ramp alone", () => {
 		const result = computeCurve(engineOf(demoPlanJson));
 		const pics = createPictureCache(3).pictures(result, width, height);
 		const rowsPerCm = height / result.plan.display.depthCm;
 		const spread = (grey: Uint8Array) => {
 			const means: number[] = [];
-			for (let cm = 1; cm < Math.floor(result.usableDepthCm); cm++) means.push(bandMean(grey, width, Math.round(cm * rowsPerCm), Math.round((cm + 1) * rowsPerCm)));
+			for (let cm = 1; cm < Math.floor(result.usableDepthCm); cm++)
+				means.push(bandMean(grey, width, Math.round(cm * rowsPerCm), Math.round((cm + 1) * rowsPerCm)));
 			return Math.max(...means) - Math.min(...means);
 		};
 		expect(spread(pics.plan)).toBeLessThan(spread(pics.ramp) / 2);
@@ -134,7 +146,14 @@ describe('determinism', () => {
 	});
 
 	it('a realistic frame keeps burned-in graphics outside the image region and maps its rows to depth', () => {
-		const f = simulateFrame({plan: p, scanner: realisticScanner(p), width: 200, height: 160, seed: 1, caption: 'TEST 30 DB'});
+		const f = simulateFrame({
+			plan: p,
+			scanner: realisticScanner(p),
+			width: 200,
+			height: 160,
+			seed: 1,
+			caption: 'TEST 30 DB',
+		});
 		expect(f.overlay).not.toBeNull();
 		let inside = 0;
 		let outside = 0;

@@ -54,14 +54,14 @@ describe('speckle statistics (published constants)', () => {
 		it(`Rayleigh amplitude mean/SD = 1.913 (Wagner, Smith, Sandrik & Lopez 1983), seed ${seed}`, () => {
 			const {mean, sd} = moments(amplitude);
 			// SE of the ratio ≈ ratio·√((1/SNR² + CV of the SD²)/N) < 0.7·√(1/N) for Rayleigh; 5 SE.
-			const tolerance = 5 * 0.7 * 1.913 / Math.sqrt(cells);
+			const tolerance = (5 * 0.7 * 1.913) / Math.sqrt(cells);
 			expect(Math.abs(mean / sd - 1.913)).toBeLessThan(tolerance);
 		});
 
 		it(`intensity is exponential with unit mean: mean/SD = 1 (Goodman, from memory), seed ${seed}`, () => {
 			const {mean, sd} = moments(intensity);
 			expect(Math.abs(mean - 1)).toBeLessThan(5 / Math.sqrt(cells));
-			expect(Math.abs(mean / sd - 1)).toBeLessThan(5 * 1.2 / Math.sqrt(cells));
+			expect(Math.abs(mean / sd - 1)).toBeLessThan((5 * 1.2) / Math.sqrt(cells));
 		});
 
 		it(`SD of 20·log10 A = 5.57 dB (Kaplan & Ma 1994), seed ${seed}`, () => {
@@ -74,8 +74,8 @@ describe('speckle statistics (published constants)', () => {
 		it(`mean of dB − dB of mean intensity = −10γ/ln 10 = −2.507 dB (derived from Kaplan & Ma 1994), seed ${seed}`, () => {
 			const bias = moments(db).mean - 10 * Math.log10(moments(intensity).mean);
 			// SE of the mean dB 5.57/√N plus that of the mean intensity 4.34/√N, added in the worst way.
-			const tolerance = 5 * (5.57 + 4.34) / Math.sqrt(cells);
-			expect(Math.abs(bias - -10 * 0.5772156649 / Math.LN10)).toBeLessThan(tolerance);
+			const tolerance = (5 * (5.57 + 4.34)) / Math.sqrt(cells);
+			expect(Math.abs(bias - (-10 * 0.5772156649) / Math.LN10)).toBeLessThan(tolerance);
 		});
 	}
 });

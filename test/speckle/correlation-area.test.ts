@@ -12,7 +12,10 @@ import {mulberry32} from '../../src/simulate/seeded-random.js';
 /** Gaussian noise averaged over `lx` columns and `ly` rows (moving windows), plus `trendPerRow` grey per row. */
 function smoothedNoise(width: number, height: number, lx: number, ly: number, trendPerRow: number): Float64Array {
 	const next = mulberry32(7);
-	const raw = Float64Array.from({length: (width + lx) * (height + ly)}, () => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next()));
+	const raw = Float64Array.from(
+		{length: (width + lx) * (height + ly)},
+		() => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next()),
+	);
 	const out = new Float64Array(width * height);
 	for (let r = 0; r < height; r++) {
 		for (let c = 0; c < width; c++) {
@@ -35,7 +38,7 @@ describe('the correlation area of a window', () => {
 		expect(Math.abs(s / 12 - 1)).toBeLessThan(0.15);
 	});
 
-	it('taken about each row\'s mean, a steady trend down the rows leaves it unchanged; about one mean it does not', () => {
+	it("taken about each row's mean, a steady trend down the rows leaves it unchanged; about one mean it does not", () => {
 		const flat = windowStatistics({...window, grey: smoothedNoise(width, height, 4, 3, 0), rowMeans: true}).cellAreaPx;
 		const trend = smoothedNoise(width, height, 4, 3, 1);
 		const perRow = windowStatistics({...window, grey: trend, rowMeans: true}).cellAreaPx;

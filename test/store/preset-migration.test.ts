@@ -93,7 +93,7 @@ describe('migration in the store', () => {
 	function storeWithV1() {
 		const home = tempHome();
 		const store = openPresetStore({home});
-		store.save('Placeholder', (store.get('neck-superficial')).plan);
+		store.save('Placeholder', store.get('neck-superficial').plan);
 		const file = join(store.presetsDir, 'old-thyroid.json');
 		const text = JSON.stringify(v1Record, null, 2);
 		writeFileSync(file, text);

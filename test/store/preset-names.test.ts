@@ -36,7 +36,9 @@ describe('preset names', () => {
 	});
 
 	it('refuses what is not text, naming the field', () => {
-		expect(() => checkPresetName(7, 'presets.2.name')).toThrow(/^presets\.2\.name: must be a preset name of 1 to 60 characters/);
+		expect(() => checkPresetName(7, 'presets.2.name')).toThrow(
+			/^presets\.2\.name: must be a preset name of 1 to 60 characters/,
+		);
 	});
 
 	it('any accepted name gives a file-safe slug and an id that maps back to it', () => {
@@ -62,7 +64,9 @@ describe('preset names', () => {
 	});
 
 	it('names that differ only in case, accents, spaces or punctuation are the same preset', () => {
-		const slugs = ['Liver A', 'liver-a', 'LIVER  A', 'Lïver, A', 'Liver (A)'].map((n) => presetSlug(checkPresetName(n)));
+		const slugs = ['Liver A', 'liver-a', 'LIVER  A', 'Lïver, A', 'Liver (A)'].map((n) =>
+			presetSlug(checkPresetName(n)),
+		);
 		expect(new Set(slugs)).toEqual(new Set(['liver-a']));
 	});
 

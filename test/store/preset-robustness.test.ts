@@ -33,7 +33,9 @@ describe('a damaged store file', () => {
 		const backups = readdirSync(again.presetsDir).filter((f) => f.startsWith('broken.json.damaged-'));
 		expect(backups).toHaveLength(1);
 		expect(readFileSync(join(again.presetsDir, backups[0]!), 'utf8')).toBe(garbage);
-		expect(again.notices.join('\n')).toMatch(/broken\.json was damaged \(not valid JSON.*\); kept it as .*broken\.json\.damaged-/);
+		expect(again.notices.join('\n')).toMatch(
+			/broken\.json was damaged \(not valid JSON.*\); kept it as .*broken\.json\.damaged-/,
+		);
 		// The user goes on: saving works, and the next listing is quiet.
 		again.save('After the damage', demoPlan());
 		const third = openPresetStore({home});
@@ -58,7 +60,9 @@ describe('a damaged store file', () => {
 		const garbage = 'this is {not json';
 		writeFileSync(join(home, 'config.json'), garbage);
 		const store = openPresetStore({home});
-		expect(store.notices.join()).toMatch(/settings file .*config\.json was damaged .*kept it as .*config\.json\.damaged-.*presets are not affected/);
+		expect(store.notices.join()).toMatch(
+			/settings file .*config\.json was damaged .*kept it as .*config\.json\.damaged-.*presets are not affected/,
+		);
 		const backup = readdirSync(home).find((f) => f.startsWith('config.json.damaged-'));
 		expect(backup).toBeDefined();
 		expect(readFileSync(join(home, backup!), 'utf8')).toBe(garbage);
@@ -158,18 +162,28 @@ describe('hostile import files leave the store unchanged', () => {
 	it('refuses a file over the size cap without parsing it', () => {
 		const {error, text} = importing(Buffer.alloc(maxPresetFileBytes + 10, 0x20));
 		expect(error).toBeInstanceOf(PresetImportError);
-		expect(text).toMatch(new RegExp(`${(maxPresetFileBytes + 10).toLocaleString('en-US')} bytes; over the limit of ${maxPresetFileBytes.toLocaleString('en-US')} bytes`));
+		expect(text).toMatch(
+			new RegExp(
+				`${(maxPresetFileBytes + 10).toLocaleString('en-US')} bytes; over the limit of ${maxPresetFileBytes.toLocaleString('en-US')} bytes`,
+			),
+		);
 	});
 
 	it('refuses a __proto__ key anywhere, naming where', () => {
-		const json = JSON.stringify({...good(), probe: {centerMhz: 3.5}}).replace('"probe":{', '"probe":{"__proto__":{"polluted":true},');
+		const json = JSON.stringify({...good(), probe: {centerMhz: 3.5}}).replace(
+			'"probe":{',
+			'"probe":{"__proto__":{"polluted":true},',
+		);
 		const {text} = importing(json);
 		expect(text).toMatch(/probe\.__proto__: the key "__proto__" is not allowed/);
 		expect(({} as Record<string, unknown>)['polluted']).toBeUndefined();
 	});
 
 	it('refuses a constructor key inside a bundle entry', () => {
-		const bundle = JSON.stringify({format: 'evenecho-presets/1', presets: [good()]}).replace('"layers":[{', '"layers":[{"constructor":{"prototype":{"x":1}},');
+		const bundle = JSON.stringify({format: 'evenecho-presets/1', presets: [good()]}).replace(
+			'"layers":[{',
+			'"layers":[{"constructor":{"prototype":{"x":1}},',
+		);
 		expect(importing(bundle).text).toMatch(/presets\.0\.layers\.0\.constructor: the key "constructor" is not allowed/);
 	});
 
@@ -198,8 +212,12 @@ describe('hostile import files leave the store unchanged', () => {
 	});
 
 	it('refuses terminal control sequences hidden in other text fields (region, note)', () => {
-		expect(importing(JSON.stringify({...good(), region: 'x\u001b]0;owned\u0007'})).text).toMatch(/region: contains a control or invisible formatting character/);
-		expect(importing(JSON.stringify({...good(), note: 'fine\u202eenil'})).text).toMatch(/note: contains a control or invisible formatting character/);
+		expect(importing(JSON.stringify({...good(), region: 'x\u001b]0;owned\u0007'})).text).toMatch(
+			/region: contains a control or invisible formatting character/,
+		);
+		expect(importing(JSON.stringify({...good(), note: 'fine\u202eenil'})).text).toMatch(
+			/note: contains a control or invisible formatting character/,
+		);
 	});
 
 	it('refuses a plan without a name (import takes the name from the file)', () => {
@@ -209,22 +227,37 @@ describe('hostile import files leave the store unchanged', () => {
 
 	it('refuses the wrong schema: unknown fields, values out of range, another format', () => {
 		expect(importing(JSON.stringify({...good(), gainKnob: 3})).text).toMatch(/unknown field "gainKnob"/);
-		expect(importing(JSON.stringify({...good(), probe: {centerMhz: 500}})).text).toMatch(/probe\.centerMhz: must be a number above 0 and up to 50 MHz/);
-		expect(importing(JSON.stringify({format: 'someone-elses/3', presets: []})).text).toMatch(/format: must be "evenecho-presets\/1" .* or "evenecho-plan\/2"/);
+		expect(importing(JSON.stringify({...good(), probe: {centerMhz: 500}})).text).toMatch(
+			/probe\.centerMhz: must be a number above 0 and up to 50 MHz/,
+		);
+		expect(importing(JSON.stringify({format: 'someone-elses/3', presets: []})).text).toMatch(
+			/format: must be "evenecho-presets\/1" .* or "evenecho-plan\/2"/,
+		);
 		expect(importing('[1, 2, 3]').text).toMatch(/must be a plan object/);
 		expect(importing('not json at all').text).toMatch(/not valid JSON/);
 	});
 
 	it('refuses a whole bundle when one entry is bad, listing each problem', () => {
-		const bundle = {format: 'evenecho-presets/1', presets: [good(), {...good(), name: 'Second', layers: [{tissue: 'unobtainium', thicknessCm: 1}]}, {...good(), name: 'fine NAME'}]};
+		const bundle = {
+			format: 'evenecho-presets/1',
+			presets: [
+				good(),
+				{...good(), name: 'Second', layers: [{tissue: 'unobtainium', thicknessCm: 1}]},
+				{...good(), name: 'fine NAME'},
+			],
+		};
 		const {text} = importing(JSON.stringify(bundle));
 		expect(text).toMatch(/presets\.1\.layers\.0\.tissue: unknown tissue id "unobtainium"/);
 		expect(text).toMatch(/presets\.2\.name: "fine NAME" is the same preset name as presets\.0/);
 	});
 
 	it('refuses a bundle with unknown top-level fields or no presets', () => {
-		expect(importing(JSON.stringify({format: 'evenecho-presets/1', presets: [good()], run: 'rm -rf /'})).text).toMatch(/unknown field "run"/);
-		expect(importing(JSON.stringify({format: 'evenecho-presets/1', presets: []})).text).toMatch(/presets: must be a list of 1 to 500 plans/);
+		expect(importing(JSON.stringify({format: 'evenecho-presets/1', presets: [good()], run: 'rm -rf /'})).text).toMatch(
+			/unknown field "run"/,
+		);
+		expect(importing(JSON.stringify({format: 'evenecho-presets/1', presets: []})).text).toMatch(
+			/presets: must be a list of 1 to 500 plans/,
+		);
 	});
 
 	it('a name clash refuses the whole import, even with other new names in it', () => {
@@ -238,13 +271,18 @@ describe('hostile import files leave the store unchanged', () => {
 });
 
 /** Runs a fixture script; resolves with its exit code and output. */
-function run(script: string, args: string[]): {done: Promise<{code: number | null; stdout: string; stderr: string}>; kill: () => void; stdout: () => string} {
+function run(
+	script: string,
+	args: string[],
+): {done: Promise<{code: number | null; stdout: string; stderr: string}>; kill: () => void; stdout: () => string} {
 	const child = spawn(process.execPath, [fixture(script), ...args], {stdio: ['ignore', 'pipe', 'pipe']});
 	let stdout = '';
 	let stderr = '';
 	child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
 	child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
-	const done = new Promise<{code: number | null; stdout: string; stderr: string}>((resolve) => child.on('close', (code) => resolve({code, stdout, stderr})));
+	const done = new Promise<{code: number | null; stdout: string; stderr: string}>((resolve) =>
+		child.on('close', (code) => resolve({code, stdout, stderr})),
+	);
 	return {done, kill: () => child.kill('SIGKILL'), stdout: () => stdout};
 }
 

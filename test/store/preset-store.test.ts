@@ -8,7 +8,14 @@ import {afterEach, describe, expect, it, vi} from 'vitest';
 import {UsageError} from '../../src/errors/usage-error.js';
 import {demoPlan} from '../../src/plan/demo-plan.js';
 import {openPresetStore} from '../../src/store/preset-store.js';
-import {PresetExistsError, PresetImportError, PresetInvalidError, PresetNameError, PresetNotFoundError, TemplateReadOnlyError} from '../../src/store/store-errors.js';
+import {
+	PresetExistsError,
+	PresetImportError,
+	PresetInvalidError,
+	PresetNameError,
+	PresetNotFoundError,
+	TemplateReadOnlyError,
+} from '../../src/store/store-errors.js';
 import {cleanTempHomes, snapshotDir, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
@@ -41,7 +48,10 @@ describe('where the store lives', () => {
 	it('records its layout and record version in the settings file', () => {
 		const home = tempHome();
 		openPresetStore({home});
-		expect(JSON.parse(readFileSync(join(home, 'config.json'), 'utf8'))).toEqual({layout: 'one-file-per-preset', recordVersion: 2});
+		expect(JSON.parse(readFileSync(join(home, 'config.json'), 'utf8'))).toEqual({
+			layout: 'one-file-per-preset',
+			recordVersion: 2,
+		});
 	});
 
 	it('a store folder that cannot be used still lists the templates and refuses writes clearly', () => {
@@ -64,13 +74,21 @@ describe('save, find and list', () => {
 	it('saves a preset under user:<slug> and finds it by id and by name in any case or spacing', () => {
 		const store = openPresetStore({home: tempHome()});
 		const saved = store.save('  Bed 7 – deep liver ', plan());
-		expect(saved).toMatchObject({id: 'user:bed-7-deep-liver', name: 'Bed 7 – deep liver', isTemplate: false, region: 'upper-abdomen'});
+		expect(saved).toMatchObject({
+			id: 'user:bed-7-deep-liver',
+			name: 'Bed 7 – deep liver',
+			isTemplate: false,
+			region: 'upper-abdomen',
+		});
 		expect(saved.plan.name).toBe('Bed 7 – deep liver');
-		for (const q of ['user:bed-7-deep-liver', 'Bed 7 – deep liver', 'BED 7 - DEEP LIVER', 'bed-7-deep-liver']) expect(store.find(q)?.id).toBe(saved.id);
+		for (const q of ['user:bed-7-deep-liver', 'Bed 7 – deep liver', 'BED 7 - DEEP LIVER', 'bed-7-deep-liver'])
+			expect(store.find(q)?.id).toBe(saved.id);
 		expect(store.find('no such preset')).toBeUndefined();
 		expect(() => store.get('no such preset')).toThrow(PresetNotFoundError);
 		const listed = store.list().presets.filter((p) => !p.isTemplate);
-		expect(listed).toEqual([{id: 'user:bed-7-deep-liver', name: 'Bed 7 – deep liver', region: 'upper-abdomen', isTemplate: false}]);
+		expect(listed).toEqual([
+			{id: 'user:bed-7-deep-liver', name: 'Bed 7 – deep liver', region: 'upper-abdomen', isTemplate: false},
+		]);
 	});
 
 	it('stores the plan with its defaults filled in and the record version', () => {
@@ -112,7 +130,17 @@ describe('save, find and list', () => {
 		const home = tempHome();
 		const store = openPresetStore({home});
 		const before = snapshotDir(home);
-		for (const bad of ['', ' ', '../../etc/passwd', 'a/b', '.hidden', 'x'.repeat(61), 'tab\tname', 'CON', 'semi;colon']) {
+		for (const bad of [
+			'',
+			' ',
+			'../../etc/passwd',
+			'a/b',
+			'.hidden',
+			'x'.repeat(61),
+			'tab\tname',
+			'CON',
+			'semi;colon',
+		]) {
 			expect(() => store.save(bad, plan()), bad).toThrow(PresetNameError);
 		}
 		expect(() => store.save('Bad plan', {...plan(), layers: []})).toThrow(PresetImportError);
@@ -151,7 +179,12 @@ describe('rename, copy, remove', () => {
 		expect(() => store.rename('A', 'B')).toThrow(PresetExistsError);
 		expect(snapshotDir(home)).toEqual(before);
 		store.rename('A', 'B', {overwrite: true});
-		expect(store.list().presets.filter((p) => !p.isTemplate).map((p) => p.id)).toEqual(['user:b']);
+		expect(
+			store
+				.list()
+				.presets.filter((p) => !p.isTemplate)
+				.map((p) => p.id),
+		).toEqual(['user:b']);
 		expect(store.get('B').plan.note).toBe(plan().note);
 	});
 
@@ -179,7 +212,10 @@ describe('presets that no longer validate', () => {
 		const home = tempHome();
 		const store = openPresetStore({home});
 		const good = store.save('Still good', plan());
-		const record = JSON.parse(readFileSync(good.file, 'utf8')) as {name: string; plan: {layers: Array<{tissue: unknown}>}};
+		const record = JSON.parse(readFileSync(good.file, 'utf8')) as {
+			name: string;
+			plan: {layers: Array<{tissue: unknown}>};
+		};
 		record.name = 'Gone tissue';
 		record.plan.layers[1]!.tissue = 'tissue-since-removed';
 		const staleFile = join(store.presetsDir, 'gone-tissue.json');
@@ -212,7 +248,13 @@ describe('presets that no longer validate', () => {
 		const store = openPresetStore({home});
 		const file = join(store.presetsDir, 'from-the-future.json');
 		store.save('Placeholder', plan());
-		const text = JSON.stringify({record: 'evenecho-preset', version: 3, name: 'From the future', plan: {}, extra: true});
+		const text = JSON.stringify({
+			record: 'evenecho-preset',
+			version: 3,
+			name: 'From the future',
+			plan: {},
+			extra: true,
+		});
 		writeFileSync(file, text);
 		expect(store.list().problems.join()).toMatch(/newer evenecho \(record version 3/);
 		expect(readFileSync(file, 'utf8')).toBe(text);

@@ -29,7 +29,8 @@ describe('template files', () => {
 	it('has at least seven, covering the regions the issue asks for', () => {
 		expect(files.length).toBeGreaterThanOrEqual(7);
 		const regions = files.map((f) => plan(f).region);
-		for (const region of ['upper-abdomen', 'kidney', 'pelvis', 'neck', 'obstetric', 'shoulder', 'breast']) expect(regions).toContain(region);
+		for (const region of ['upper-abdomen', 'kidney', 'pelvis', 'neck', 'obstetric', 'shoulder', 'breast'])
+			expect(regions).toContain(region);
 	});
 
 	it.each(files)('%s validates strictly, with an id-shaped file name', (file) => {
@@ -41,7 +42,12 @@ describe('template files', () => {
 	});
 
 	it.each(files)('%s uses library tissues only, names probe, bandwidth, depth and sliders explicitly', (file) => {
-		const raw = JSON.parse(readFileSync(join(dir, file), 'utf8')) as {layers: Array<{tissue: unknown}>; probe: object; display: object; sliders: object};
+		const raw = JSON.parse(readFileSync(join(dir, file), 'utf8')) as {
+			layers: Array<{tissue: unknown}>;
+			probe: object;
+			display: object;
+			sliders: object;
+		};
 		for (const l of raw.layers) {
 			expect(typeof l.tissue).toBe('string');
 			expect(libraryTissue(l.tissue as string)).toBeDefined();
@@ -145,7 +151,13 @@ describe('templates through the store', () => {
 		expect(store.get('upper-abdomen').plan.display.depthCm).toBe(16);
 		expect(store.get(template.name).id).toBe(copy.id);
 		expect(store.get(template.name).plan.display.depthCm).toBe(18);
-		expect(store.list().presets.filter((p) => p.name === template.name).map((p) => p.isTemplate).sort()).toEqual([false, true]);
+		expect(
+			store
+				.list()
+				.presets.filter((p) => p.name === template.name)
+				.map((p) => p.isTemplate)
+				.sort(),
+		).toEqual([false, true]);
 	});
 
 	it('refuses to rename or delete a template', () => {

@@ -10,7 +10,12 @@ import {existsSync, readdirSync, readFileSync, symlinkSync, writeFileSync} from 
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
 import {profileFormat, type ScannerProfile} from '../../src/calibration/profile-document.js';
-import {ScannerProfileStore, ScannerStoreError, openScannerProfileStore, profileBundleFormat} from '../../src/store/scanner-profile-store.js';
+import {
+	ScannerProfileStore,
+	ScannerStoreError,
+	openScannerProfileStore,
+	profileBundleFormat,
+} from '../../src/store/scanner-profile-store.js';
 import {assertBuilt, cleanTempHomes, repoRoot, tempHome} from '../helpers/temp-home.js';
 
 cleanTempHomes();
@@ -59,7 +64,9 @@ describe('the scanner-profile store', () => {
 		expect(store.list()).toEqual({profiles: [], problems: []});
 		store.save(profile('Cart A', 'cart-a'), {replace: false});
 		expect(store.get('CART a').label).toBe('Invented cart, abdomen');
-		expect(() => store.save(profile('Cart A', 'cart-a', 'other'), {replace: false})).toThrow(/already exists; use --force/);
+		expect(() => store.save(profile('Cart A', 'cart-a', 'other'), {replace: false})).toThrow(
+			/already exists; use --force/,
+		);
 		expect(store.get('cart-a').label).toBe('Invented cart, abdomen');
 		store.save(profile('Cart A', 'cart-a', 'replaced'), {replace: true});
 		expect(store.get('cart-a').label).toBe('replaced');
@@ -87,8 +94,12 @@ describe('the scanner-profile store', () => {
 		writeFileSync(join(folderOf(home), 'stale.json'), stale);
 		const listing = new ScannerProfileStore(home).list();
 		expect(listing.profiles.map((p) => p.id)).toEqual(['good']);
-		expect(listing.problems.join('\n')).toMatch(/scanner profile file .*broken\.json was damaged .*kept it as .*broken\.json\.damaged-/);
-		expect(listing.problems.join('\n')).toMatch(/stale\.json: no longer a valid profile \(penetrationCm: .*\); left untouched/);
+		expect(listing.problems.join('\n')).toMatch(
+			/scanner profile file .*broken\.json was damaged .*kept it as .*broken\.json\.damaged-/,
+		);
+		expect(listing.problems.join('\n')).toMatch(
+			/stale\.json: no longer a valid profile \(penetrationCm: .*\); left untouched/,
+		);
 		expect(readFileSync(join(folderOf(home), 'stale.json'), 'utf8')).toBe(stale);
 		expect(files(home).some((f) => f.startsWith('broken.json.damaged-'))).toBe(true);
 	});
@@ -107,7 +118,10 @@ describe('the scanner-profile store', () => {
 		const home = tempHome();
 		const rival = new ScannerProfileStore(home);
 		rival.save(profile('Cart A', 'cart-a'), {replace: false});
-		const store = new ScannerProfileStore(home, {guarded: (point) => point === 'before-take' && void rival.save(profile('Cart A', 'cart-a', 'newer'), {replace: true})});
+		const store = new ScannerProfileStore(home, {
+			guarded: (point) =>
+				point === 'before-take' && void rival.save(profile('Cart A', 'cart-a', 'newer'), {replace: true}),
+		});
 		expect(() => store.delete('cart-a')).toThrow(/changed while being deleted .*nothing was deleted/);
 		expect(rival.get('cart-a').label).toBe('newer');
 	});
@@ -116,7 +130,10 @@ describe('the scanner-profile store', () => {
 		const home = tempHome();
 		const rival = new ScannerProfileStore(home);
 		rival.save(profile('Cart A', 'cart-a'), {replace: false});
-		const store = new ScannerProfileStore(home, {guarded: (point) => point === 'before-take' && void rival.save(profile('Cart A', 'cart-a', 'newer'), {replace: true})});
+		const store = new ScannerProfileStore(home, {
+			guarded: (point) =>
+				point === 'before-take' && void rival.save(profile('Cart A', 'cart-a', 'newer'), {replace: true}),
+		});
 		store.rename('cart-a', 'Cart B', {replace: false});
 		expect(files(home)).toEqual(['cart-a.json', 'cart-b.json']);
 		expect(rival.get('cart-a').label).toBe('newer');
@@ -129,10 +146,16 @@ describe('the scanner-profile store', () => {
 		store.save(profile('Cart B', 'cart-b'), {replace: false});
 		const before = files(home);
 		const taken = bundleOf(profile('Cart A', 'cart-a'), profile('Cart B', 'cart-b', 'imported'));
-		expect(() => store.importText(taken, 'bundle.json', {replace: false})).toThrow(/"cart-b" already exists; use --force to replace; nothing was imported/);
+		expect(() => store.importText(taken, 'bundle.json', {replace: false})).toThrow(
+			/"cart-b" already exists; use --force to replace; nothing was imported/,
+		);
 		const bad = bundleOf(profile('Cart A', 'cart-a'), {...profile('Cart C', 'cart-c'), greyMap: []} as ScannerProfile);
-		expect(() => store.importText(bad, 'bundle.json', {replace: false})).toThrow(/not valid scanner profiles; nothing was imported/);
-		expect(() => store.importText(bundleOf(profile('Cart A', 'cart-a'), profile('Cart A', 'cart-a')), 'b.json', {replace: false})).toThrow(/appears twice/);
+		expect(() => store.importText(bad, 'bundle.json', {replace: false})).toThrow(
+			/not valid scanner profiles; nothing was imported/,
+		);
+		expect(() =>
+			store.importText(bundleOf(profile('Cart A', 'cart-a'), profile('Cart A', 'cart-a')), 'b.json', {replace: false}),
+		).toThrow(/appears twice/);
 		expect(files(home)).toEqual(before);
 		expect(store.importText(taken, 'bundle.json', {replace: true}).map((p) => p.id)).toEqual(['cart-a', 'cart-b']);
 		expect(store.get('cart-b').label).toBe('imported');
@@ -143,9 +166,20 @@ describe('the scanner-profile store', () => {
 		const home = tempHome();
 		new ScannerProfileStore(home).save(profile('Cart A', 'cart-a', 'the original'), {replace: false});
 		const bundle = join(tempHome(), 'bundle.json');
-		writeFileSync(bundle, bundleOf(profile('Cart A', 'cart-a', 'imported'), profile('Cart B', 'cart-b', 'imported'), profile('Cart C', 'cart-c', 'imported')));
+		writeFileSync(
+			bundle,
+			bundleOf(
+				profile('Cart A', 'cart-a', 'imported'),
+				profile('Cart B', 'cart-b', 'imported'),
+				profile('Cart C', 'cart-c', 'imported'),
+			),
+		);
 		const signal = await new Promise<NodeJS.Signals | null>((resolve, reject) => {
-			const child = spawn(process.execPath, [join(repoRoot, 'test', 'fixtures', 'scanner', 'killed-import.mjs'), home, bundle, '1'], {stdio: 'ignore', timeout: 20_000});
+			const child = spawn(
+				process.execPath,
+				[join(repoRoot, 'test', 'fixtures', 'scanner', 'killed-import.mjs'), home, bundle, '1'],
+				{stdio: 'ignore', timeout: 20_000},
+			);
 			child.on('error', reject);
 			child.on('exit', (_code, sig) => resolve(sig));
 		});

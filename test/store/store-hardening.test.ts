@@ -4,7 +4,16 @@
  * an import killed half way, and text that could not be loaded back.
  */
 import {execFileSync, spawn} from 'node:child_process';
-import {chmodSync, lstatSync, mkdirSync, readdirSync, readFileSync, statSync, symlinkSync, writeFileSync} from 'node:fs';
+import {
+	chmodSync,
+	lstatSync,
+	mkdirSync,
+	readdirSync,
+	readFileSync,
+	statSync,
+	symlinkSync,
+	writeFileSync,
+} from 'node:fs';
 import {join} from 'node:path';
 import {describe, expect, it} from 'vitest';
 import {writeFileAtomic} from '../../src/files/atomic-write.js';
@@ -74,7 +83,11 @@ describe('links and special files in the store', () => {
 		writeFileSync(victim, 'keep');
 		execFileSync('mkfifo', [join(out, 'bundle.json')]);
 		symlinkSync(victim, join(out, 'linked.json'));
-		for (const [target, kind] of [[join(out, 'bundle.json'), 'a named pipe (FIFO)'], [join(out, 'linked.json'), 'a symbolic link'], ['/dev/null', 'a character device']] as const) {
+		for (const [target, kind] of [
+			[join(out, 'bundle.json'), 'a named pipe (FIFO)'],
+			[join(out, 'linked.json'), 'a symbolic link'],
+			['/dev/null', 'a character device'],
+		] as const) {
 			const r = runCli(['presets', 'export', '--force', target, 'breast'], home);
 			expect(r.status).toBe(2);
 			expect(r.stderr).toContain(`is ${kind}, not a regular file; refusing to replace it`);
@@ -96,7 +109,8 @@ describe('a save racing a rename or a delete is never lost', () => {
 			pauseAt: {
 				guarded: (point) => {
 					// Another process saves the old name again, exactly inside the window.
-					if (point === 'before-take') rival.save('Liver thin', {...demoPlan(), note: 'saved meanwhile'}, {overwrite: true});
+					if (point === 'before-take')
+						rival.save('Liver thin', {...demoPlan(), note: 'saved meanwhile'}, {overwrite: true});
 				},
 			},
 		});
@@ -113,8 +127,17 @@ describe('a save racing a rename or a delete is never lost', () => {
 		const home = tempHome();
 		openPresetStore({home}).save('Liver thin', demoPlan());
 		const rival = openPresetStore({home});
-		const store = openPresetStore({home, pauseAt: {guarded: (point) => point === 'before-take' && void rival.save('Liver thin', {...demoPlan(), note: 'saved meanwhile'}, {overwrite: true})}});
-		expect(() => store.rename('Liver thin', 'LIVER THIN')).toThrow(/changed by another process after it was read; nothing was renamed/);
+		const store = openPresetStore({
+			home,
+			pauseAt: {
+				guarded: (point) =>
+					point === 'before-take' &&
+					void rival.save('Liver thin', {...demoPlan(), note: 'saved meanwhile'}, {overwrite: true}),
+			},
+		});
+		expect(() => store.rename('Liver thin', 'LIVER THIN')).toThrow(
+			/changed by another process after it was read; nothing was renamed/,
+		);
 		expect(openPresetStore({home}).get('user:liver-thin').plan.note).toBe('saved meanwhile');
 	});
 
@@ -122,8 +145,16 @@ describe('a save racing a rename or a delete is never lost', () => {
 		const home = tempHome();
 		openPresetStore({home}).save('Kidney', demoPlan());
 		const rival = openPresetStore({home});
-		const store = openPresetStore({home, pauseAt: {guarded: (point) => point === 'before-take' && void rival.save('Kidney', {...demoPlan(), note: 'newer'}, {overwrite: true})}});
-		expect(() => store.remove('Kidney')).toThrow(/saved again by another process after it was read; nothing was deleted/);
+		const store = openPresetStore({
+			home,
+			pauseAt: {
+				guarded: (point) =>
+					point === 'before-take' && void rival.save('Kidney', {...demoPlan(), note: 'newer'}, {overwrite: true}),
+			},
+		});
+		expect(() => store.remove('Kidney')).toThrow(
+			/saved again by another process after it was read; nothing was deleted/,
+		);
 		expect(openPresetStore({home}).get('Kidney').plan.note).toBe('newer');
 	});
 });
@@ -131,7 +162,11 @@ describe('a save racing a rename or a delete is never lost', () => {
 describe('an import killed half way', () => {
 	function killedImport(home: string, bundle: string, after: number): Promise<NodeJS.Signals | null> {
 		return new Promise((resolve, reject) => {
-			const child = spawn(process.execPath, [join(repoRoot, 'test', 'fixtures', 'presets', 'killed-import.mjs'), home, bundle, String(after)], {stdio: 'ignore', timeout: 20_000});
+			const child = spawn(
+				process.execPath,
+				[join(repoRoot, 'test', 'fixtures', 'presets', 'killed-import.mjs'), home, bundle, String(after)],
+				{stdio: 'ignore', timeout: 20_000},
+			);
 			child.on('error', reject);
 			child.on('exit', (_code, signal) => resolve(signal));
 		});
@@ -172,7 +207,11 @@ describe('what is saved can be loaded back', () => {
 		const home = tempHome();
 		const store = openPresetStore({home});
 		store.save('Good', demoPlan());
-		writeFileAtomic(join(store.presetsDir, 'edited.json'), encodeRecord('Edited', demoPlan()).replace('"region": "', '"region": "\\u001b]0;owned\\u0007'), {replace: false});
+		writeFileAtomic(
+			join(store.presetsDir, 'edited.json'),
+			encodeRecord('Edited', demoPlan()).replace('"region": "', '"region": "\\u001b]0;owned\\u0007'),
+			{replace: false},
+		);
 		writeFileSync(join(store.presetsDir, 'broken.json'), '{"name": "\u001b[2J');
 		mkdirSync(join(store.presetsDir, 'sub.json'));
 		const r = runCli(['presets', 'list'], home);

@@ -36,7 +36,9 @@ describe('rows shared out to worker threads', () => {
 		for (const workers of [2, 3, 5]) {
 			const keysOf = Array.from({length: workers}, () => new Set<string>());
 			for (const row of table.rows) {
-				const owners = Array.from({length: workers}, (_, w) => w).filter((w) => isWorkersRow(sweep, row.index, w, workers));
+				const owners = Array.from({length: workers}, (_, w) => w).filter((w) =>
+					isWorkersRow(sweep, row.index, w, workers),
+				);
 				expect(owners).toHaveLength(1);
 				keysOf[owners[0]!]!.add(ladderKey(row.plan, row.targetDepthCm));
 			}
@@ -48,7 +50,9 @@ describe('rows shared out to worker threads', () => {
 
 	it('the built runner on two threads gives the same rows, in order, as one thread', async () => {
 		// The worker file exists only in the build (dist), so the built module is the one to run.
-		const built = (await import(new URL('../../dist/src/table/sweep-parallel.js', import.meta.url).href)) as typeof import('../../src/table/sweep-parallel.js');
+		const built = (await import(
+			new URL('../../dist/src/table/sweep-parallel.js', import.meta.url).href
+		)) as typeof import('../../src/table/sweep-parallel.js');
 		const sweep = resolveSweep(abdomenPlan(), spec);
 		const seen: number[] = [];
 		const parallel = await built.runSweepInParallel(sweep, {threads: 2, onProgress: (done) => seen.push(done)});

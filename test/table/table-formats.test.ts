@@ -21,7 +21,14 @@ import {checkSvgSweep, tableSvg, xmlText} from '../../src/table/table-svg.js';
 const template = (): PlanDocument => abdomenPlan({name: 'Test template | upper abdomen <adult> & co'});
 
 /** A custom tissue whose label needs quoting in every format. */
-const oddTissue = {label: 'Cyst, "simple" | <odd> & \'x\'', speedMps: 1550, densityKgM3: 1010, alphaDbPerCmMhz: 0.01, exponent: 2, source: 'invented test tissue'};
+const oddTissue = {
+	label: 'Cyst, "simple" | <odd> & \'x\'',
+	speedMps: 1550,
+	densityKgM3: 1010,
+	alphaDbPerCmMhz: 0.01,
+	exponent: 2,
+	source: 'invented test tissue',
+};
 
 const spec: SweepSpec = {
 	fatCm: [1, 4, 8],
@@ -72,7 +79,9 @@ describe('CSV', () => {
 			expect(Number(r['residual_db'])).toBe(j.residualDb);
 			// Nothing is left empty for a meaning: "beyond display" and "none" are written out.
 			expect(r['penetration_cm'] === 'beyond display' ? null : Number(r['penetration_cm'])).toBe(j.penetrationDepthCm);
-			expect(r['highest_reaching_mhz'] === 'none' ? null : Number(r['highest_reaching_mhz'])).toBe(j.highestReachingMhz);
+			expect(r['highest_reaching_mhz'] === 'none' ? null : Number(r['highest_reaching_mhz'])).toBe(
+				j.highestReachingMhz,
+			);
 			expect(r['penetration_cm']).not.toBe('');
 			expect(r['warnings']).toBe([...new Set(j.warnings.map((w) => w.code))].join(' '));
 		});
@@ -82,7 +91,9 @@ describe('CSV', () => {
 	it('with --delta the slider columns are deltas and the master delta comes before the absolute master', () => {
 		const t = buildTable(template(), {fatCm: [2, 6], delta: true});
 		const rows = parse(tableCsv(t), {columns: true}) as Record<string, string>[];
-		expect(Object.keys(rows[0]!)).toEqual(expect.arrayContaining(['slider1_delta_db', 'master_delta_db', 'master_gain_db']));
+		expect(Object.keys(rows[0]!)).toEqual(
+			expect.arrayContaining(['slider1_delta_db', 'master_delta_db', 'master_gain_db']),
+		);
 		expect(Object.keys(rows[0]!)).not.toContain('slider1_db');
 		expect(rows[0]!['slider1_delta_db']).toBe('0');
 		expect(rows[0]!['master_delta_db']).toBe('0');
@@ -109,9 +120,19 @@ describe('JSON', () => {
 			targetDepthCm: 16,
 		});
 		// The swapped layer is listed once per tissue it takes, not also with the plan's own tissue.
-		expect(doc.tissues.map((t) => t.where)).toEqual(['layer 1', 'layer 2', 'layer 3', 'layer 4 (swap)', 'layer 4 (swap)']);
+		expect(doc.tissues.map((t) => t.where)).toEqual([
+			'layer 1',
+			'layer 2',
+			'layer 3',
+			'layer 4 (swap)',
+			'layer 4 (swap)',
+		]);
 		expect(doc.tissues.find((t) => t.id === 'fat')!.source).toMatch(/Breast USCT 2016 Table I/);
-		expect(doc.tissues.at(-1)).toMatchObject({label: oddTissue.label, source: 'invented test tissue', from: 'layer 2 of preset "test-pelvis"'});
+		expect(doc.tissues.at(-1)).toMatchObject({
+			label: oddTissue.label,
+			source: 'invented test tissue',
+			from: 'layer 2 of preset "test-pelvis"',
+		});
 		expect(doc.notes).toEqual([harmonicSimplification, ladderSimplification]);
 		expect(doc.rows).toHaveLength(24);
 		expect(doc.generatedAt).toBeUndefined();
@@ -144,9 +165,13 @@ describe('SVG', () => {
 	const parser = new XMLParser({ignoreAttributes: false, attributeNamePrefix: '@'});
 
 	/** The small charts: one `<g>` with a frame (`rect`) per row. */
-	const cells = (svg: {g: unknown}) => [svg.g].flat().filter((g) => (g as Record<string, unknown>)['rect'] !== undefined) as Record<string, unknown>[];
+	const cells = (svg: {g: unknown}) =>
+		[svg.g].flat().filter((g) => (g as Record<string, unknown>)['rect'] !== undefined) as Record<string, unknown>[];
 	const textsOf = (node: unknown): string[] =>
-		[node].flat().filter((t) => t !== undefined).map((t) => String(typeof t === 'object' && t !== null ? (t as Record<string, unknown>)['#text'] : t));
+		[node]
+			.flat()
+			.filter((t) => t !== undefined)
+			.map((t) => String(typeof t === 'object' && t !== null ? (t as Record<string, unknown>)['#text'] : t));
 
 	it('is well-formed XML with one small chart per row, each curve sampled down the display', () => {
 		expect(XMLValidator.validate(text)).toBe(true);
@@ -171,7 +196,11 @@ describe('SVG', () => {
 		table.rows.forEach((r, i) => {
 			const words = textsOf(charts[i]!['text']).join('\n');
 			expect(words).toContain(`Fat (subcutaneous) ${r.layerCm} cm`);
-			expect(words).toMatch(r.highestReachingMhz === null ? /no listed MHz reaches/ : new RegExp(`highest reaching ${r.highestReachingMhz} MHz`));
+			expect(words).toMatch(
+				r.highestReachingMhz === null
+					? /no listed MHz reaches/
+					: new RegExp(`highest reaching ${r.highestReachingMhz} MHz`),
+			);
 			expect(words).toContain(`master ${r.masterGainDb.toFixed(1)} dB`);
 			for (let k = 1; k <= 8; k++) expect(words).toMatch(new RegExp(`S${k} [+-]\\d+\\.\\d`));
 			expect([charts[i]!['circle']].flat()).toHaveLength(8);
@@ -209,7 +238,9 @@ describe('SVG', () => {
 		expect(b).not.toBe(a);
 		expect(b).toContain('minus the standard habitus');
 		const first = cells(parser.parse(b).svg)[0]!;
-		const xs = ([first['polyline']].flat() as {'@points': string}[]).flatMap((p) => p['@points'].split(' ').map((pt) => pt.split(',')[0]));
+		const xs = ([first['polyline']].flat() as {'@points': string}[]).flatMap((p) =>
+			p['@points'].split(' ').map((pt) => pt.split(',')[0]),
+		);
 		expect(new Set(xs).size).toBe(1);
 		expect(textsOf(first['text']).join('\n')).toContain('Δ master +0.0 dB');
 	});
@@ -224,7 +255,9 @@ describe('SVG', () => {
 		expect(() => checkSvgSweep(resolveSweep(template(), {fatCm: many}))).toThrow(/at most 16 \(got 17\)/);
 		const freqs = Array.from({length: 25}, (_, i) => 1 + i / 4);
 		expect(() => checkSvgSweep(resolveSweep(template(), {freqMhz: freqs}))).toThrow(/at most 24 \(got 25\)/);
-		expect(() => checkSvgSweep(resolveSweep(template(), {fatCm: many.slice(0, 16), freqMhz: freqs.slice(0, 24)}))).not.toThrow();
+		expect(() =>
+			checkSvgSweep(resolveSweep(template(), {fatCm: many.slice(0, 16), freqMhz: freqs.slice(0, 24)})),
+		).not.toThrow();
 	});
 });
 
@@ -240,7 +273,9 @@ describe('Markdown', () => {
 		expect(text).toContain('- **Probe:** 2.5, 5 MHz');
 		expect(text).toContain(`- **Model:** ${markdownText(modelVersion)}`);
 		expect(text).toContain('## Tissues used');
-		expect(text).toMatch(/\| layer 2 \| Fat \(subcutaneous\) \| swept \| 1440 \| 911 \| 0\.6 \| 1 \| c: in-vivo breast fat via Park 2023 Table 7/);
+		expect(text).toMatch(
+			/\| layer 2 \| Fat \(subcutaneous\) \| swept \| 1440 \| 911 \| 0\.6 \| 1 \| c: in-vivo breast fat via Park 2023 Table 7/,
+		);
 		expect(text).toContain('taken from layer 2 of preset "test-pelvis"');
 		expect(text).toContain('builds up along the way down');
 	});
@@ -264,7 +299,10 @@ describe('Markdown', () => {
 	});
 
 	it('with a swapped layer above the swept one, names the swept layer and each thickness by layer, not by list position', () => {
-		const swappedAbove = buildTable(template(), {fatCm: [1, 3], swaps: [{layer: 1, choices: [{tissue: 'skin'}, {tissue: 'fat'}]}]});
+		const swappedAbove = buildTable(template(), {
+			fatCm: [1, 3],
+			swaps: [{layer: 1, choices: [{tissue: 'skin'}, {tissue: 'fat'}]}],
+		});
 		const md = tableMarkdown(swappedAbove, options);
 		expect(md).toContain('| # | Fat (subcutaneous) cm |');
 		expect(md).toMatch(/\| layer 2 \| Fat \(subcutaneous\) \| swept \|/);
@@ -275,7 +313,8 @@ describe('Markdown', () => {
 	});
 
 	it('explains the warning codes it uses', () => {
-		for (const code of new Set(table.rows.flatMap((r) => r.warnings.map((w) => w.code)))) expect(text).toContain(`- \`${code}\`: `);
+		for (const code of new Set(table.rows.flatMap((r) => r.warnings.map((w) => w.code))))
+			expect(text).toContain(`- \`${code}\`: `);
 	});
 });
 
@@ -289,9 +328,16 @@ describe('determinism', () => {
 	});
 
 	it('no output carries a time unless asked', () => {
-		for (const out of [tableCsv(table), tableJsonText(table, options), tableMarkdown(table, options), tableSvg(table, options)]) {
+		for (const out of [
+			tableCsv(table),
+			tableJsonText(table, options),
+			tableMarkdown(table, options),
+			tableSvg(table, options),
+		]) {
 			expect(out).not.toMatch(/\d{4}-\d\d-\d\dT\d\d:\d\d/);
 		}
-		expect(tableMarkdown(table, {generatedAt: '2030-01-02T03:04:05.000Z'})).toContain('- **Generated:** 2030-01-02T03:04:05.000Z');
+		expect(tableMarkdown(table, {generatedAt: '2030-01-02T03:04:05.000Z'})).toContain(
+			'- **Generated:** 2030-01-02T03:04:05.000Z',
+		);
 	});
 });

@@ -48,7 +48,12 @@ describe('sweep definition', () => {
 	});
 
 	it('multiplies the sweeps: frequency, then receive mode, then swaps, with the habitus innermost', () => {
-		const t = buildTable(template(), {fatCm: [1, 4, 8], freqMhz: [2.5, 5], receive: ['fundamental', 'tissue-harmonic'], swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]}]});
+		const t = buildTable(template(), {
+			fatCm: [1, 4, 8],
+			freqMhz: [2.5, 5],
+			receive: ['fundamental', 'tissue-harmonic'],
+			swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]}],
+		});
 		expect(t.rows).toHaveLength(3 * 2 * 2 * 2);
 		expect(t.sweep.rowCount).toBe(24);
 		const key = (r: (typeof t.rows)[number]) => `${r.centerMhz}/${r.receive}/${r.swapLabels[0]}/${r.layerCm}`;
@@ -67,7 +72,12 @@ describe('sweep definition', () => {
 	it('each variant changes only the swept layer thickness, the probe frequency, the receive mode and the swapped tissue', () => {
 		const doc = template();
 		const before = structuredClone(doc);
-		const t = buildTable(doc, {fatCm: [6], freqMhz: [5], receive: ['tissue-harmonic'], swaps: [{layer: 3, choices: [{tissue: 'muscle-along'}]}]});
+		const t = buildTable(doc, {
+			fatCm: [6],
+			freqMhz: [5],
+			receive: ['tissue-harmonic'],
+			swaps: [{layer: 3, choices: [{tissue: 'muscle-along'}]}],
+		});
 		expect(doc).toEqual(before);
 		const v = t.rows[0]!.doc;
 		expect(v.layers.map((l) => [l.tissue, l.thicknessCm])).toEqual([
@@ -100,29 +110,63 @@ describe('sweep definition', () => {
 		const t = buildTable(template(), {fatCm: [0.5, 2.5], layer: 3});
 		expect(t.rows.map((r) => r.doc.layers[2]!.thicknessCm)).toEqual([0.5, 2.5]);
 		expect(t.rows.map((r) => r.doc.layers[1]!.thicknessCm)).toEqual([2, 2]);
-		const noFat = template({layers: [{tissue: 'skin', thicknessCm: 0.2}, {tissue: 'muscle', thicknessCm: 2}, {tissue: 'liver', thicknessCm: 20}]});
-		expect(sweepError(() => resolveSweep(noFat, {fatCm: [1]})).message).toMatch(/--fat: the plan has no layer of tissue "fat".*--layer N \(from 1 to 3\)/);
+		const noFat = template({
+			layers: [
+				{tissue: 'skin', thicknessCm: 0.2},
+				{tissue: 'muscle', thicknessCm: 2},
+				{tissue: 'liver', thicknessCm: 20},
+			],
+		});
+		expect(sweepError(() => resolveSweep(noFat, {fatCm: [1]})).message).toMatch(
+			/--fat: the plan has no layer of tissue "fat".*--layer N \(from 1 to 3\)/,
+		);
 		expect(resolveSweep(noFat).layerIndex).toBeNull();
 		expect(buildTable(noFat).rows[0]!.layerCm).toBeNull();
 	});
 
 	it('refuses to sweep the deepest layer (it extends as far as needed) and layer numbers outside the plan', () => {
-		expect(sweepError(() => resolveSweep(template(), {fatCm: [1], layer: 4})).message).toMatch(/deepest layer.*from 1 to 3/);
-		expect(sweepError(() => resolveSweep(template(), {fatCm: [1], layer: 5})).message).toMatch(/--layer: must be a whole number from 1 to 4/);
+		expect(sweepError(() => resolveSweep(template(), {fatCm: [1], layer: 4})).message).toMatch(
+			/deepest layer.*from 1 to 3/,
+		);
+		expect(sweepError(() => resolveSweep(template(), {fatCm: [1], layer: 5})).message).toMatch(
+			/--layer: must be a whole number from 1 to 4/,
+		);
 		expect(sweepError(() => resolveSweep(template(), {fatCm: [1], layer: 0})).option).toBe('layer');
-		expect(sweepError(() => resolveSweep(template(), {layer: 4})).message).toMatch(/^--layer: layer 4 is the deepest layer/);
+		expect(sweepError(() => resolveSweep(template(), {layer: 4})).message).toMatch(
+			/^--layer: layer 4 is the deepest layer/,
+		);
 		// A plan whose only fat layer is the deepest shows no habitus column rather than a meaningless one.
-		const fatOnly = template({layers: [{tissue: 'skin', thicknessCm: 0.2}, {tissue: 'fat', thicknessCm: 10}]});
+		const fatOnly = template({
+			layers: [
+				{tissue: 'skin', thicknessCm: 0.2},
+				{tissue: 'fat', thicknessCm: 10},
+			],
+		});
 		expect(resolveSweep(fatOnly).layerIndex).toBeNull();
-		expect(sweepError(() => resolveSweep(fatOnly, {fatCm: [1]})).message).toMatch(/^--fat: layer 2 is the deepest layer/);
+		expect(sweepError(() => resolveSweep(fatOnly, {fatCm: [1]})).message).toMatch(
+			/^--fat: layer 2 is the deepest layer/,
+		);
 	});
 
 	it('swaps a tissue from another plan (a custom record) and records where it came from', () => {
-		const cyst = {label: 'Cyst, "simple" <test>', speedMps: 1550, densityKgM3: 1010, alphaDbPerCmMhz: 0.01, exponent: 2, source: 'invented test tissue'};
-		const t = buildTable(template(), {swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: cyst, from: 'layer 2 of preset "pelvis-test"'}]}]});
+		const cyst = {
+			label: 'Cyst, "simple" <test>',
+			speedMps: 1550,
+			densityKgM3: 1010,
+			alphaDbPerCmMhz: 0.01,
+			exponent: 2,
+			source: 'invented test tissue',
+		};
+		const t = buildTable(template(), {
+			swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: cyst, from: 'layer 2 of preset "pelvis-test"'}]}],
+		});
 		expect(t.rows.map((r) => r.swapLabels[0])).toEqual(['Liver', cyst.label]);
 		expect(t.rows[1]!.doc.layers[3]!.tissue).toEqual(cyst);
-		expect(t.tissues.at(-1)).toMatchObject({where: 'layer 4 (swap)', from: 'layer 2 of preset "pelvis-test"', tissue: {label: cyst.label, source: 'invented test tissue'}});
+		expect(t.tissues.at(-1)).toMatchObject({
+			where: 'layer 4 (swap)',
+			from: 'layer 2 of preset "pelvis-test"',
+			tissue: {label: cyst.label, source: 'invented test tissue'},
+		});
 	});
 });
 
@@ -177,26 +221,35 @@ describe('highest reaching frequency', () => {
 });
 
 describe('physics seen through the table', () => {
-	it('a higher centre frequency meets the noise floor no deeper (attenuation rises with ' +
-		'frequency, α = α0·f^n: Szabo 2004, ch. 4, from memory)', () => {
-		const t = buildTable(template({display: {depthCm: 30, assumedSpeedMps: 1540}}), {freqMhz: [2, 3.5, 5, 7.5]});
-		const depth = (r: (typeof t.rows)[number]) => r.penetrationDepthCm ?? Infinity;
-		for (let i = 1; i < t.rows.length; i++) expect(depth(t.rows[i]!)).toBeLessThanOrEqual(depth(t.rows[i - 1]!));
-		expect(t.rows.at(-1)!.penetrationDepthCm).not.toBeNull();
-	});
+	it(
+		'a higher centre frequency meets the noise floor no deeper (attenuation rises with ' +
+			'frequency, α = α0·f^n: Szabo 2004, ch. 4, from memory)',
+		() => {
+			const t = buildTable(template({display: {depthCm: 30, assumedSpeedMps: 1540}}), {freqMhz: [2, 3.5, 5, 7.5]});
+			const depth = (r: (typeof t.rows)[number]) => r.penetrationDepthCm ?? Infinity;
+			for (let i = 1; i < t.rows.length; i++) expect(depth(t.rows[i]!)).toBeLessThanOrEqual(depth(t.rows[i - 1]!));
+			expect(t.rows.at(-1)!.penetrationDepthCm).not.toBeNull();
+		},
+	);
 
-	it('tissue-harmonic receive at the same f0 meets the noise floor sooner: the way down costs ' +
-		'2·α(f0), the way back α(2·f0) (Cobb 1983 plane-wave build-up, formula via a textbook ' +
-		'excerpt)', () => {
-		const doc = template({display: {depthCm: 30, assumedSpeedMps: 1540}});
-		// A steep spectrum (the README's pick for 60 %): a Gaussian's low tail would flatten the deep harmonic loss.
-		const t = buildTable({...doc, probe: {...doc.probe, spectrumSteepness: 4}}, {receive: ['fundamental', 'tissue-harmonic']});
-		const [fund, harm] = t.rows;
-		expect(harm!.penetrationDepthCm).not.toBeNull();
-		expect(harm!.penetrationDepthCm!).toBeLessThan(fund!.penetrationDepthCm ?? Infinity);
-		expect(t.notes).toContain(harmonicSimplification);
-		expect(buildTable(template()).notes).not.toContain(harmonicSimplification);
-	});
+	it(
+		'tissue-harmonic receive at the same f0 meets the noise floor sooner: the way down costs ' +
+			'2·α(f0), the way back α(2·f0) (Cobb 1983 plane-wave build-up, formula via a textbook ' +
+			'excerpt)',
+		() => {
+			const doc = template({display: {depthCm: 30, assumedSpeedMps: 1540}});
+			// A steep spectrum (the README's pick for 60 %): a Gaussian's low tail would flatten the deep harmonic loss.
+			const t = buildTable(
+				{...doc, probe: {...doc.probe, spectrumSteepness: 4}},
+				{receive: ['fundamental', 'tissue-harmonic']},
+			);
+			const [fund, harm] = t.rows;
+			expect(harm!.penetrationDepthCm).not.toBeNull();
+			expect(harm!.penetrationDepthCm!).toBeLessThan(fund!.penetrationDepthCm ?? Infinity);
+			expect(t.notes).toContain(harmonicSimplification);
+			expect(buildTable(template()).notes).not.toContain(harmonicSimplification);
+		},
+	);
 });
 
 describe('bad sweeps', () => {
@@ -210,10 +263,35 @@ describe('bad sweeps', () => {
 		['a zero frequency', {freqMhz: [0]}, 'freq', /--freq: 0 is out of range.*above 0 and up to 50 MHz/],
 		['a frequency beyond range', {freqMhz: [3, 80]}, 'freq', /--freq: 80 is out of range/],
 		['a negative margin', {marginDb: -1}, 'margin', /--margin: must be a number from 0 to 100 dB/],
-		['an unknown swap tissue', {swaps: [{layer: 4, choices: [{tissue: 'unobtainium'}]}]}, 'swap', /--swap: unknown tissue "unobtainium" for layer 4; known tissues: water/],
-		['a swap outside the plan', {swaps: [{layer: 7, choices: [{tissue: 'liver'}]}]}, 'swap', /--swap: the layer number must be a whole number from 1 to 4/],
-		['the same layer swapped twice', {swaps: [{layer: 4, choices: [{tissue: 'liver'}]}, {layer: 4, choices: [{tissue: 'spleen'}]}]}, 'swap', /layer 4 is swapped twice/],
-		['the same tissue twice in a swap', {swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'liver'}]}]}, 'swap', /same tissue twice/],
+		[
+			'an unknown swap tissue',
+			{swaps: [{layer: 4, choices: [{tissue: 'unobtainium'}]}]},
+			'swap',
+			/--swap: unknown tissue "unobtainium" for layer 4; known tissues: water/,
+		],
+		[
+			'a swap outside the plan',
+			{swaps: [{layer: 7, choices: [{tissue: 'liver'}]}]},
+			'swap',
+			/--swap: the layer number must be a whole number from 1 to 4/,
+		],
+		[
+			'the same layer swapped twice',
+			{
+				swaps: [
+					{layer: 4, choices: [{tissue: 'liver'}]},
+					{layer: 4, choices: [{tissue: 'spleen'}]},
+				],
+			},
+			'swap',
+			/layer 4 is swapped twice/,
+		],
+		[
+			'the same tissue twice in a swap',
+			{swaps: [{layer: 4, choices: [{tissue: 'liver'}, {tissue: 'liver'}]}]},
+			'swap',
+			/same tissue twice/,
+		],
 		['a bad sample step', {stepCm: 0}, 'step', /--step: must be a number from 0.01 to 5 cm/],
 	];
 	for (const [what, spec, option, message] of cases) {
@@ -274,8 +352,12 @@ describe('parsing typed options', () => {
 			'--receive: must be fundamental, tissue-harmonic (or harmonic), scatterer-harmonic or both (got "on")',
 		);
 		expect(parseSwap('4=liver, spleen')).toEqual({layer: 4, choices: [{tissue: 'liver'}, {tissue: 'spleen'}]});
-		const lookup = (preset: string, m: number) => (preset === 'user:my-pelvis' ? {tissue: 'urine' as const, from: `layer ${m} of preset "${preset}"`} : undefined);
-		expect(parseSwap('3=user:my-pelvis:2', lookup)).toEqual({layer: 3, choices: [{tissue: 'urine', from: 'layer 2 of preset "user:my-pelvis"'}]});
+		const lookup = (preset: string, m: number) =>
+			preset === 'user:my-pelvis' ? {tissue: 'urine' as const, from: `layer ${m} of preset "${preset}"`} : undefined;
+		expect(parseSwap('3=user:my-pelvis:2', lookup)).toEqual({
+			layer: 3,
+			choices: [{tissue: 'urine', from: 'layer 2 of preset "user:my-pelvis"'}],
+		});
 		expect(sweepError(() => parseSwap('3=nowhere:2', lookup)).message).toMatch(/no preset or template "nowhere"/);
 		expect(sweepError(() => parseSwap('liver')).message).toMatch(/has no "="/);
 		expect(sweepError(() => parseSwap('x=liver')).message).toMatch(/"x" is not a layer number/);
@@ -285,7 +367,19 @@ describe('parsing typed options', () => {
 
 	it('parseSweepText leaves what was not typed to the defaults', () => {
 		expect(parseSweepText({})).toEqual({});
-		expect(parseSweepText({fat: '1,2', freq: '3', receive: 'both', delta: true, margin: '3', step: '0.2', swap: ['4=spleen'], layer: '2', ladder: '2:4:1'})).toEqual({
+		expect(
+			parseSweepText({
+				fat: '1,2',
+				freq: '3',
+				receive: 'both',
+				delta: true,
+				margin: '3',
+				step: '0.2',
+				swap: ['4=spleen'],
+				layer: '2',
+				ladder: '2:4:1',
+			}),
+		).toEqual({
 			fatCm: [1, 2],
 			freqMhz: [3],
 			receive: ['fundamental', 'tissue-harmonic'],

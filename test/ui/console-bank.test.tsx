@@ -44,7 +44,10 @@ describe('slider bank', () => {
 			expect(row).toHaveLength(23);
 			expect(row.indexOf(k === 2 ? '@' : 'o') - 1).toBe(knobAt(s.gainDb, -15, 15, 21));
 		});
-		const withTravel = {...curve, plan: {...curve.plan, scanner: {id: 'x', label: 'invented scanner', sliderTravelDb: 10} as never}};
+		const withTravel = {
+			...curve,
+			plan: {...curve.plan, scanner: {id: 'x', label: 'invented scanner', sliderTravelDb: 10} as never},
+		};
 		const travel = sliderBank(withTravel, 21);
 		expect(travel.header).toMatch(/^-1 +\+1 travel$/);
 		expect(travel.rows[7]!.indexOf('o') - 1).toBe(knobAt(curve.fit.sliders[7]!.gainDb / 10, -1, 1, 21));
@@ -63,6 +66,10 @@ describe('slider bank', () => {
 		expect(tracks).toHaveLength(8);
 		expect(tracks[0]).toMatch(/^>.*\[[.|o]*@[.|o]*\]/);
 		await press(app, keys.down);
-		expect(frame(app).split('\n').filter((l) => /\[[.|o]*@[.|o]*\]/.test(l))[0]).toMatch(/^> +2 /);
+		expect(
+			frame(app)
+				.split('\n')
+				.filter((l) => /\[[.|o]*@[.|o]*\]/.test(l))[0],
+		).toMatch(/^> +2 /);
 	});
 });

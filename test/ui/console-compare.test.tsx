@@ -29,7 +29,9 @@ describe('two plans side by side', () => {
 		it(`8 cm of fat beside the upper-abdomen template at ${columns}×${rows}`, async () => {
 			const home = mkdtempSync(join(tmpdir(), 'evenecho-compare-'));
 			dirs.push(home);
-			const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />);
+			const app = render(
+				<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />,
+			);
 			apps.push(app);
 			await ready(app);
 			await moveTo(app, keys.down, 'Upper abdomen – liver');
@@ -51,7 +53,9 @@ describe('two plans side by side', () => {
 			for (const line of f.split('\n')) expect(line.length).toBeLessThanOrEqual(columns);
 			// Both tables whole: each header once per side, every slider row on both sides.
 			expect(f.split('\n').filter((l) => (l.match(/# depth slider/g) ?? []).length === 2)).toHaveLength(1);
-			expect(f.split('\n').filter((l) => /^\s+8\s+\d+\.\d\s+[+-]\d+\.\d.*\s8\s+\d+\.\d\s+[+-]\d+\.\d/.test(l))).toHaveLength(1);
+			expect(
+				f.split('\n').filter((l) => /^\s+8\s+\d+\.\d\s+[+-]\d+\.\d.*\s8\s+\d+\.\d\s+[+-]\d+\.\d/.test(l)),
+			).toHaveLength(1);
 			await press(app, keys.escape);
 			expect(frame(app)).not.toContain('Starting plan (←→)');
 		});

@@ -25,13 +25,18 @@ afterEach(() => {
 async function open(columns = 100, rows = 30) {
 	const home = mkdtempSync(join(tmpdir(), 'evenecho-typing-'));
 	dirs.push(home);
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;
 }
 
-const listed = (app: Rendered) => frame(app).split('\n').filter((l) => /^[> ] \S.* +\d+(\.\d+)? +\d+(\.\d+)? +\d+ +\d+$/.test(l));
+const listed = (app: Rendered) =>
+	frame(app)
+		.split('\n')
+		.filter((l) => /^[> ] \S.* +\d+(\.\d+)? +\d+(\.\d+)? +\d+ +\d+$/.test(l));
 
 describe('tissue picker', () => {
 	it('narrows the list as letters are typed (j and k included), Backspace widens it, Enter picks the row', async () => {

@@ -4,7 +4,16 @@
  * special file under the name is refused with nothing written. Behaviour of the file layer's
  * rules (atomic, all or nothing, regular files only); no physics is asserted.
  */
-import {lstatSync, mkdirSync, mkdtempSync, readFileSync, readlinkSync, rmSync, symlinkSync, writeFileSync} from 'node:fs';
+import {
+	lstatSync,
+	mkdirSync,
+	mkdtempSync,
+	readFileSync,
+	readlinkSync,
+	rmSync,
+	symlinkSync,
+	writeFileSync,
+} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {render} from 'ink-testing-library';
@@ -27,7 +36,9 @@ const stem = 'demo-deep-liver-through-thick-fat';
 async function open(exportDir: string) {
 	const home = mkdtempSync(join(tmpdir(), 'evenecho-export-home-'));
 	dirs.push(home);
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={exportDir} columns={120} rows={30} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} exportDir={exportDir} columns={120} rows={30} />,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;
@@ -45,7 +56,9 @@ describe('export asks where, and before replacing', () => {
 		await press(app, keys.enter);
 		await waitForText(app, 'Wrote ');
 		expect(frame(app)).toContain(`Wrote ${join(base, 'protocols', `${stem}.plan.json`)} and .summary.txt`);
-		expect(JSON.parse(readFileSync(join(base, 'protocols', `${stem}.plan.json`), 'utf8')).format).toBe('evenecho-plan/2');
+		expect(JSON.parse(readFileSync(join(base, 'protocols', `${stem}.plan.json`), 'utf8')).format).toBe(
+			'evenecho-plan/2',
+		);
 	});
 
 	it('asks before replacing; n leaves the files, y replaces them', async () => {

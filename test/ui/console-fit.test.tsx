@@ -25,13 +25,25 @@ afterEach(() => {
 async function open(columns: number, rows: number, plan = planDocument(structuredClone(boneAndNoisePlanJson))) {
 	const home = mkdtempSync(join(tmpdir(), 'evenecho-fit-'));
 	dirs.push(home);
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} initialPlan={plan} columns={columns} rows={rows} />);
+	const app = render(
+		<App
+			shelf={openShelf({home})}
+			theme={plainTheme}
+			exportDir={home}
+			initialPlan={plan}
+			columns={columns}
+			rows={rows}
+		/>,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;
 }
 
-const lineWith = (app: Rendered, start: string) => frame(app).split('\n').find((l) => l.startsWith(start)) ?? '';
+const lineWith = (app: Rendered, start: string) =>
+	frame(app)
+		.split('\n')
+		.find((l) => l.startsWith(start)) ?? '';
 
 describe('the 80-column live line', () => {
 	it('keeps the noise floor and the barrier whole, dropping the fit and the Tab hint first', async () => {
@@ -56,7 +68,10 @@ describe('120×40', () => {
 			expect(text, `${columns}×${rows}`).toMatch(/4 Liver +20\.0 cm true \+ +a0 0\.5 n 1\.1/);
 			expect(text, `${columns}×${rows}`).toMatch(/3 Sk(eletal|\.) muscle, across +1\.2 cm true +a0 0\.96 n 1/);
 			// a0 stands in one column on every layer row.
-			const columnsOfA0 = text.split('\n').filter((l) => /^[> ] \d /.test(l)).map((l) => l.indexOf(' a0 '));
+			const columnsOfA0 = text
+				.split('\n')
+				.filter((l) => /^[> ] \d /.test(l))
+				.map((l) => l.indexOf(' a0 '));
 			expect(new Set(columnsOfA0).size, `${columns}×${rows}`).toBe(1);
 		}
 	});

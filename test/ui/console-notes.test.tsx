@@ -58,7 +58,9 @@ describe('template notes follow the values', () => {
 		await press(app, 'e', keys.enter);
 		await waitForText(app, 'bed-7-fat');
 		const after = exportedPlan(out, 'bed-7-fat');
-		expect(after.note).toMatch(/^\[Note written for "Upper abdomen – liver", before your changes; this plan now has: .*Fat \(subcutaneous\) 8 cm on screen/);
+		expect(after.note).toMatch(
+			/^\[Note written for "Upper abdomen – liver", before your changes; this plan now has: .*Fat \(subcutaneous\) 8 cm on screen/,
+		);
 		expect(after.note).toContain('subcutaneous fat 2 cm and abdominal-wall muscle 1 cm');
 		expect(unmarkedNote(after.note!)).toBe(before.note);
 	});

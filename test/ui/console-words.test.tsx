@@ -45,7 +45,8 @@ describe('one vocabulary for the slider bank', () => {
 	});
 
 	it('every option starts with its value in the plan file, and the README names the same values', () => {
-		for (const field of [choiceFields.knots, choiceFields.ends]) for (const o of field.options) expect(o.text.startsWith(o.value)).toBe(true);
+		for (const field of [choiceFields.knots, choiceFields.ends])
+			for (const o of field.options) expect(o.text.startsWith(o.value)).toBe(true);
 		const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
 		for (const word of ['`band-centres`', '`band-edges`', '`flat`', '`extrapolate`']) expect(readme).toContain(word);
 	});

@@ -44,7 +44,10 @@ describe('slider bank at 80 columns', () => {
 		const bank = sliderBank(curve, 31, 0);
 		curve.fit.sliders.forEach((s, k) => {
 			const row = `${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${bank.rows[k]}`;
-			expect(lines.some((l) => l.startsWith(row)), row).toBe(true);
+			expect(
+				lines.some((l) => l.startsWith(row)),
+				row,
+			).toBe(true);
 		});
 		expect(f).toContain('# depth slider');
 		expect(f).toContain('Starting point only, not a diagnosis');

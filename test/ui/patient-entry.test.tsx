@@ -28,7 +28,9 @@ afterEach(() => {
 async function open(columns = 100, rows = 30) {
 	const home = mkdtempSync(join(tmpdir(), 'evenecho-entry-'));
 	dirs.push(home);
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;

@@ -40,7 +40,14 @@ const ansi = /\u001B\[/;
 
 async function open(columns: number, rows: number, plain = false) {
 	const {render, App, openShelf, theme, press} = lib;
-	const app = render(<App shelf={openShelf({home})} theme={plain ? theme.plainTheme : theme.colourTheme} columns={columns} rows={rows} />);
+	const app = render(
+		<App
+			shelf={openShelf({home})}
+			theme={plain ? theme.plainTheme : theme.colourTheme}
+			columns={columns}
+			rows={rows}
+		/>,
+	);
 	await press.ready(app);
 	return app;
 }

@@ -14,7 +14,8 @@ import {rowText} from '../../src/ui/state/row-text.js';
 import {demoPoint} from '../../src/ui/state/starting-point.js';
 import {currentRow, rowsOf} from '../../src/ui/state/step-rows.js';
 
-const start = () => createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint], isWide: true});
+const start = () =>
+	createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint], isWide: true});
 
 function keysIn(s: ConsoleState, ...presses: (string | Partial<KeyFlags>)[]): ConsoleState {
 	return presses.reduce<ConsoleState>((state, p) => {
@@ -39,7 +40,7 @@ function onRow(s: ConsoleState, id: string): ConsoleState {
 const valid = (s: ConsoleState) => parsePlanDocument(JSON.parse(JSON.stringify(s.doc))).ok;
 
 describe('probe step rows for the spectrum, the angle and the receive mode', () => {
-	it('lists steepness and angle beside the probe, and the budget\'s mode under the budget', () => {
+	it("lists steepness and angle beside the probe, and the budget's mode under the budget", () => {
 		const ids = rowsOf(keysIn(start(), '3')).map((r) => r.id);
 		expect(ids.indexOf('n:spectrumSteepness:0')).toBe(ids.indexOf('n:bandwidthFraction:0') + 1);
 		expect(ids).toContain('n:angleDeg:0');
@@ -47,10 +48,14 @@ describe('probe step rows for the spectrum, the angle and the receive mode', () 
 		expect(ids.indexOf('c:budgetReceive')).toBe(ids.indexOf('n:noiseBudgetDb:0') + 1);
 	});
 
-	it('uses the plan format\'s limits', () => {
+	it("uses the plan format's limits", () => {
 		expect(numberFields.spectrumSteepness.spec.limit).toEqual(limits.spectrumSteepness);
 		expect(numberFields.angleDeg.spec.limit).toEqual(limits.angleDeg);
-		expect(choiceFields.harmonic.options.map((o) => o.value)).toEqual(['fundamental', 'tissue-harmonic', 'scatterer-harmonic']);
+		expect(choiceFields.harmonic.options.map((o) => o.value)).toEqual([
+			'fundamental',
+			'tissue-harmonic',
+			'scatterer-harmonic',
+		]);
 	});
 
 	it('steepness: shows 2 (the Gaussian) for an older plan, takes 5 typed, nudges by 0.5, refuses 11 and 0.5 naming 1 to 10', () => {
@@ -80,12 +85,14 @@ describe('probe step rows for the spectrum, the angle and the receive mode', () 
 });
 
 describe('the noise budget says which receive mode it is for', () => {
-	it('switching to tissue harmonic with a fundamental budget says so; setting the budget\'s mode settles it', () => {
+	it("switching to tissue harmonic with a fundamental budget says so; setting the budget's mode settles it", () => {
 		let s = onRow(start(), 'c:harmonic');
 		s = keysIn(s, enter);
 		expect(s.doc.probe.receive).toBe('tissue-harmonic');
 		expect(s.notice?.tone).toBe('warning');
-		expect(s.notice?.text).toBe('Noise budget is for fundamental, not tissue harmonic: reach uncalibrated; measure it in this mode.');
+		expect(s.notice?.text).toBe(
+			'Noise budget is for fundamental, not tissue harmonic: reach uncalibrated; measure it in this mode.',
+		);
 		s = onRow(s, 'c:budgetReceive');
 		expect(rowText(s, currentRow(s)!)).toEqual({label: 'Budget measured in', value: 'fundamental'});
 		s = keysIn(s, enter);
@@ -102,7 +109,9 @@ describe('the noise budget says which receive mode it is for', () => {
 		s = onRow(s, 'c:budgetReceive');
 		s = keysIn(s, enter);
 		expect(s.doc.phantomCalibration?.receive).toBe('tissue-harmonic');
-		expect(s.notice?.text).toBe('Phantom reach is for tissue harmonic, not fundamental: reach uncalibrated; measure it in this mode.');
+		expect(s.notice?.text).toBe(
+			'Phantom reach is for tissue harmonic, not fundamental: reach uncalibrated; measure it in this mode.',
+		);
 		expect(valid(s)).toBe(true);
 		s = onRow(s, 'c:noiseSource');
 		s = keysIn(s, enter);

@@ -27,7 +27,9 @@ afterEach(() => {
 async function open(columns: number, rows: number) {
 	const home = mkdtempSync(join(tmpdir(), 'evenecho-labels-'));
 	dirs.push(home);
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} exportDir={home} columns={columns} rows={rows} />,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;
@@ -92,8 +94,17 @@ describe('every row label is whole', () => {
 
 			for (const label of labels) expect(label, `a cut label at ${columns} columns`).not.toContain('…');
 			// A label filling its column exactly is followed by one blank, then the value.
-			for (const whole of ['Target layer (0 = fixed)', 'Target below layer 4 top', 'Target depth (= display)', 'a0 measured (0 = none)', '[ Refine from an image ]']) {
-				expect(labels.some((l) => l === whole || l.startsWith(`${whole} `)), whole).toBe(true);
+			for (const whole of [
+				'Target layer (0 = fixed)',
+				'Target below layer 4 top',
+				'Target depth (= display)',
+				'a0 measured (0 = none)',
+				'[ Refine from an image ]',
+			]) {
+				expect(
+					labels.some((l) => l === whole || l.startsWith(`${whole} `)),
+					whole,
+				).toBe(true);
 			}
 			expect(labels.length).toBeGreaterThan(40);
 		}, 60_000);

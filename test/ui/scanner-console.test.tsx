@@ -44,7 +44,9 @@ beforeAll(async () => {
 async function open(home: string, columns = 100, rows = 30) {
 	const {render, App, openShelf, services, store, theme, press} = lib;
 	const scanners = services.scannerServicesOver(() => store.openScannerProfileStore(home));
-	const app = render(<App shelf={openShelf({home})} scanners={scanners} theme={theme.plainTheme} columns={columns} rows={rows} />);
+	const app = render(
+		<App shelf={openShelf({home})} scanners={scanners} theme={theme.plainTheme} columns={columns} rows={rows} />,
+	);
 	await press.ready(app);
 	return app;
 }
@@ -122,10 +124,15 @@ describe('the measured-scanner panel', () => {
 		app.unmount();
 	}, 120_000);
 
-	it('builds a session from a folder of DICOM images, one typed line per image, and measures it (truth within the issue tolerances)', async () => {
+	it('builds a session from a folder of DICOM images, one typed line per image, and measures it (truth within the issue ' +
+		'tolerances)', async () => {
 		const {press, frame, type, waitForText, selectedLine, moveTo} = lib.press;
 		const written = writeSession(join(root, 'folder'), 'dicom', {seed: 9, width: 200, height: 200});
-		const session = written.session as {gainSteps: {image: string; masterGainDb: number}[]; probeInAir: {image: string; masterGainDb: number}; sliderSteps: {image: string; slider: number; position: number; masterGainDb: number}[]};
+		const session = written.session as {
+			gainSteps: {image: string; masterGainDb: number}[];
+			probeInAir: {image: string; masterGainDb: number};
+			sliderSteps: {image: string; slider: number; position: number; masterGainDb: number}[];
+		};
 		const lineFor = new Map<string, string>([
 			...session.gainSteps.map((g) => [g.image, String(g.masterGainDb)] as const),
 			[session.probeInAir.image, `air ${session.probeInAir.masterGainDb}`],

@@ -46,7 +46,13 @@ describe('keeping a measured scanner under a typed name', () => {
 		const home = mkdtempSync(join(root, 'home-'));
 		const profiles = () => store.openScannerProfileStore(home).list().profiles;
 		const app = render(
-			<App shelf={openShelf({home})} scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))} theme={theme.plainTheme} columns={100} rows={30} />,
+			<App
+				shelf={openShelf({home})}
+				scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))}
+				theme={theme.plainTheme}
+				columns={100}
+				rows={30}
+			/>,
 		);
 		await ready(app);
 		await press(app, 'g');

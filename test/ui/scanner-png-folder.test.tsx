@@ -39,7 +39,19 @@ let lib: {
 beforeAll(async () => {
 	const planPath = join(root, 'plan.json');
 	writeFileSync(planPath, JSON.stringify(demoPlan()));
-	execFileSync(process.execPath, ['dist/bundle/main.js', 'simulate', planPath, '--kind', 'phantom-series', '--format', 'png', '--seed', '5', '--out', folder]);
+	execFileSync(process.execPath, [
+		'dist/bundle/main.js',
+		'simulate',
+		planPath,
+		'--kind',
+		'phantom-series',
+		'--format',
+		'png',
+		'--seed',
+		'5',
+		'--out',
+		folder,
+	]);
 	session = JSON.parse(readFileSync(join(folder, 'session.json'), 'utf8')) as Session;
 	lib = {
 		render: (await import('ink-testing-library')).render,
@@ -53,17 +65,25 @@ beforeAll(async () => {
 }, 60_000);
 
 describe('a folder of PNG images in the session builder', () => {
-	it('asks for the depth scale once, refuses one outside the format\'s limits, and measures with it', async () => {
+	it("asks for the depth scale once, refuses one outside the format's limits, and measures with it", async () => {
 		const {render, App, openShelf, services, store, theme} = lib;
 		const {press, frame, type, waitForText, selectedLine, moveTo, ready} = lib.press;
 		const lineFor = new Map<string, string>([
 			...session.gainSteps.map((g) => [g.image, String(g.masterGainDb)] as const),
 			...(session.probeInAir ? [[session.probeInAir.image, `air ${session.probeInAir.masterGainDb}`] as const] : []),
-			...(session.sliderSteps ?? []).map((t) => [t.image, `s${t.slider} ${t.position > 0 ? '+' : ''}${t.position} ${t.masterGainDb}`] as const),
+			...(session.sliderSteps ?? []).map(
+				(t) => [t.image, `s${t.slider} ${t.position > 0 ? '+' : ''}${t.position} ${t.masterGainDb}`] as const,
+			),
 		]);
 		const home = mkdtempSync(join(root, 'home-'));
 		const app = render(
-			<App shelf={openShelf({home})} scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))} theme={theme.plainTheme} columns={100} rows={30} />,
+			<App
+				shelf={openShelf({home})}
+				scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))}
+				theme={theme.plainTheme}
+				columns={100}
+				rows={30}
+			/>,
 		);
 		await ready(app);
 		await press(app, 'g');

@@ -13,7 +13,8 @@ import {noFlags, resolveIntent, type KeyFlags} from '../../src/ui/state/key-inte
 import type {ScannerOverlay} from '../../src/ui/state/scanner-state.js';
 import {demoPoint} from '../../src/ui/state/starting-point.js';
 
-const start = () => createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint], isWide: true});
+const start = () =>
+	createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint], isWide: true});
 
 function keysIn(s: ConsoleState, ...presses: (string | Partial<KeyFlags>)[]): ConsoleState {
 	return presses.reduce<ConsoleState>((state, p) => {

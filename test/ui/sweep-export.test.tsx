@@ -6,7 +6,17 @@
  * folder. Behaviour of the file layer's rules (atomic, all or nothing, regular files only) and of
  * the screen; no physics is asserted.
  */
-import {existsSync, lstatSync, mkdirSync, mkdtempSync, readFileSync, readlinkSync, rmSync, symlinkSync, writeFileSync} from 'node:fs';
+import {
+	existsSync,
+	lstatSync,
+	mkdirSync,
+	mkdtempSync,
+	readFileSync,
+	readlinkSync,
+	rmSync,
+	symlinkSync,
+	writeFileSync,
+} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {render} from 'ink-testing-library';
@@ -37,7 +47,9 @@ function tempDir(prefix: string): string {
 
 async function openSweep(exportDir: string, columns = 80, rows = 24) {
 	const home = tempDir('evenecho-sweep-home-');
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} exportDir={exportDir} columns={columns} rows={rows} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} exportDir={exportDir} columns={columns} rows={rows} />,
+	);
 	apps.push(app);
 	await ready(app);
 	await press(app, 'f');

@@ -28,7 +28,9 @@ function tempDir(): string {
 	return d;
 }
 
-async function open(options: {columns?: number; rows?: number; onExit?: (s: {readonly isDirty: boolean}) => void} = {}) {
+async function open(
+	options: {columns?: number; rows?: number; onExit?: (s: {readonly isDirty: boolean}) => void} = {},
+) {
 	const home = tempDir();
 	const exportDir = tempDir();
 	const app = render(
@@ -293,10 +295,14 @@ describe('console: step 5, curve, save and export', () => {
 		const {app, exportDir} = await open();
 		await press(app, 'e', keys.enter);
 		await waitForText(app, 'Wrote ');
-		expect(frame(app)).toContain(`Wrote ${join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json')} and .summary.txt`);
+		expect(frame(app)).toContain(
+			`Wrote ${join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json')} and .summary.txt`,
+		);
 		const json = JSON.parse(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.plan.json'), 'utf8'));
 		expect(json.format).toBe('evenecho-plan/2');
-		expect(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.summary.txt'), 'utf8')).toContain('Cautions');
+		expect(readFileSync(join(exportDir, 'demo-deep-liver-through-thick-fat.summary.txt'), 'utf8')).toContain(
+			'Cautions',
+		);
 	});
 
 	it('shows every warning in full with w', async () => {

@@ -3,13 +3,35 @@ import fc from 'fast-check';
 import {describe, expect, it} from 'vitest';
 import {limits, parsePlanDocument} from '../../src/plan/plan-schema.js';
 import {demoPlan} from '../../src/plan/demo-plan.js';
-import {formatNumber, isInRange, nudge, parseEntry, rangeMessage, type NumberSpec} from '../../src/ui/state/number-field.js';
+import {
+	formatNumber,
+	isInRange,
+	nudge,
+	parseEntry,
+	rangeMessage,
+	type NumberSpec,
+} from '../../src/ui/state/number-field.js';
 import {fatLayerIndex} from '../../src/plan/fat-layer.js';
 import {moveLayer, resizeReference, setFatThickness, standardReference} from '../../src/plan/plan-edits.js';
 import {choiceFields, cycleChoice, derivedNoiseBudgetDb, numberFields} from '../../src/ui/state/plan-fields.js';
 
-const mhz: NumberSpec = {label: 'Centre frequency', unit: 'MHz', limit: limits.centerMhz, step: 0.5, coarse: 2, decimals: 2};
-const count: NumberSpec = {label: 'Slider count', unit: '', limit: limits.sliderCount, step: 1, coarse: 4, decimals: 0, integer: true};
+const mhz: NumberSpec = {
+	label: 'Centre frequency',
+	unit: 'MHz',
+	limit: limits.centerMhz,
+	step: 0.5,
+	coarse: 2,
+	decimals: 2,
+};
+const count: NumberSpec = {
+	label: 'Slider count',
+	unit: '',
+	limit: limits.sliderCount,
+	step: 1,
+	coarse: 4,
+	decimals: 0,
+	integer: true,
+};
 
 describe('number fields', () => {
 	it('read what was typed, with a comma as a decimal point', () => {
@@ -21,7 +43,10 @@ describe('number fields', () => {
 	it('refuse out-of-range, empty, non-numeric and fractional-count entries, naming the range', () => {
 		expect(parseEntry('99', mhz)).toEqual({ok: false, message: 'must be a number above 0 and up to 50 MHz'});
 		expect(parseEntry('0', mhz)).toEqual({ok: false, message: 'must be a number above 0 and up to 50 MHz'});
-		expect(parseEntry('', mhz)).toEqual({ok: false, message: 'type a value: must be a number above 0 and up to 50 MHz'});
+		expect(parseEntry('', mhz)).toEqual({
+			ok: false,
+			message: 'type a value: must be a number above 0 and up to 50 MHz',
+		});
 		expect(parseEntry('3..5', mhz).ok).toBe(false);
 		expect(parseEntry('1e3', mhz).ok).toBe(false);
 		expect(parseEntry('2.5', count)).toEqual({ok: false, message: 'must be a whole number from 1 to 16'});
@@ -107,6 +132,12 @@ describe('plan fields', () => {
 	it('usual gains follow a slider count change', () => {
 		const r = resizeReference({masterGainDb: 30, slidersDb: [0, 2, 4, 6]}, 7);
 		expect(r.slidersDb).toEqual([0, 1, 2, 3, 4, 5, 6]);
-		expect(numberFields.sliderCount.set({...demoPlan(), reference: {masterGainDb: 30, slidersDb: [0, 2, 4, 6, 8, 10, 12, 14]}}, 0, 4).reference?.slidersDb).toHaveLength(4);
+		expect(
+			numberFields.sliderCount.set(
+				{...demoPlan(), reference: {masterGainDb: 30, slidersDb: [0, 2, 4, 6, 8, 10, 12, 14]}},
+				0,
+				4,
+			).reference?.slidersDb,
+		).toHaveLength(4);
 	});
 });

@@ -63,7 +63,9 @@ describe('NO_COLOR', () => {
 		const {render, App, openShelf, theme, press} = lib;
 		const saved = process.env['NO_COLOR'];
 		process.env['NO_COLOR'] = '1';
-		const app = render(<App shelf={openShelf({home})} theme={theme.themeFromEnv()} initialPlan={plan()} columns={100} rows={30} />);
+		const app = render(
+			<App shelf={openShelf({home})} theme={theme.themeFromEnv()} initialPlan={plan()} columns={100} rows={30} />,
+		);
 		await press.ready(app);
 		await press.press(app, '5');
 		const f = press.frame(app);

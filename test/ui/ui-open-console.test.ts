@@ -16,7 +16,12 @@ afterAll(() => rmSync(home, {recursive: true, force: true}));
 
 function run(env: Record<string, string>) {
 	const {CI: _ci, ...rest} = process.env;
-	return spawnSync(process.execPath, [cli], {encoding: 'utf8', input: '', env: {...rest, EVENECHO_HOME: home, ...env}, timeout: 20_000});
+	return spawnSync(process.execPath, [cli], {
+		encoding: 'utf8',
+		input: '',
+		env: {...rest, EVENECHO_HOME: home, ...env},
+		timeout: 20_000,
+	});
 }
 
 describe('evenecho piped', () => {

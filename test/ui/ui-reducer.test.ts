@@ -9,7 +9,15 @@ import {applyDoc} from '../../src/ui/state/state-helpers.js';
 import {currentRow} from '../../src/ui/state/step-rows.js';
 
 const start = (isWide = true) =>
-	createInitialState({doc: demoPlan(), originName: demoPoint.name, startingPoints: [demoPoint, {id: 'upper-abdomen', name: 'Upper abdomen', region: 'upper-abdomen', kind: 'template'}], isWide});
+	createInitialState({
+		doc: demoPlan(),
+		originName: demoPoint.name,
+		startingPoints: [
+			demoPoint,
+			{id: 'upper-abdomen', name: 'Upper abdomen', region: 'upper-abdomen', kind: 'template'},
+		],
+		isWide,
+	});
 
 function keysIn(s: ConsoleState, ...presses: (string | Partial<KeyFlags>)[]): ConsoleState {
 	return presses.reduce<ConsoleState>((state, p) => {
@@ -106,7 +114,13 @@ describe('console reducer', () => {
 
 	it('tissue stack: add, move, remove, and the last layer stays', () => {
 		let s = keysIn(start(), '2', down, 'a');
-		expect(s.doc.layers.map((l) => (typeof l.tissue === 'string' ? l.tissue : 'pad'))).toEqual(['pad', 'soft-tissue', 'fat', 'muscle', 'liver']);
+		expect(s.doc.layers.map((l) => (typeof l.tissue === 'string' ? l.tissue : 'pad'))).toEqual([
+			'pad',
+			'soft-tissue',
+			'fat',
+			'muscle',
+			'liver',
+		]);
 		expect(currentRow(s)).toMatchObject({kind: 'layer', index: 1});
 		s = keysIn(s, 'J');
 		expect(s.doc.layers[2]!.tissue).toBe('soft-tissue');
@@ -139,7 +153,7 @@ describe('console reducer', () => {
 		expect(keysIn(narrow, {tab: true}).step).toBe('probe');
 	});
 
-	it('usual gains: switching on fills them from the starting plan\'s standard layers', () => {
+	it("usual gains: switching on fills them from the starting plan's standard layers", () => {
 		const s = keysIn(start(), '4', enter);
 		expect(s.doc.reference?.slidersDb).toHaveLength(8);
 		expect(currentRow(keysIn(s, down))).toMatchObject({kind: 'number', key: 'refMasterDb'});
@@ -167,7 +181,8 @@ describe('keys that arrive together', () => {
 			['3', false, false],
 		]);
 		let s = start();
-		for (const p of [...splitKeys('2', noFlags), ...splitKeys('\r7\r', noFlags)]) s = consoleReducer(s, {type: 'key', ...p});
+		for (const p of [...splitKeys('2', noFlags), ...splitKeys('\r7\r', noFlags)])
+			s = consoleReducer(s, {type: 'key', ...p});
 		expect(s.doc.layers[1]).toEqual({tissue: 'fat', thicknessCm: 7, thicknessAs: 'displayed'});
 	});
 });
@@ -177,7 +192,11 @@ describe('a plan the schema refuses never reaches the state', () => {
 	const fortyLayers = () => {
 		const s = start();
 		const doc = structuredClone(s.doc);
-		doc.layers = Array.from({length: 40}, (_, i) => ({tissue: i === 39 ? 'liver' : 'soft-tissue', thicknessCm: 0.5, thicknessAs: 'true' as const}));
+		doc.layers = Array.from({length: 40}, (_, i) => ({
+			tissue: i === 39 ? 'liver' : 'soft-tissue',
+			thicknessCm: 0.5,
+			thicknessAs: 'true' as const,
+		}));
 		return {...s, doc};
 	};
 
@@ -188,7 +207,10 @@ describe('a plan the schema refuses never reaches the state', () => {
 		const after = applyDoc(s, next, 'a:add-layer');
 		expect(after.doc).toBe(s.doc);
 		expect(after.dirty).toBe(false);
-		expect(after.refusal).toEqual({rowId: 'a:add-layer', message: expect.stringMatching(/layers: must be a list of 1 to 40 layers/)});
+		expect(after.refusal).toEqual({
+			rowId: 'a:add-layer',
+			message: expect.stringMatching(/layers: must be a list of 1 to 40 layers/),
+		});
 	});
 
 	it('adding a 41st layer with the a key is refused the same way', () => {

@@ -47,7 +47,15 @@ const notImage = join(dir, 'notes.txt');
 writeFileSync(notImage, 'not an image\n');
 
 async function open(columns = 100, rows = 30) {
-	const app = render(<App shelf={openShelf({home: join(dir, 'home')})} theme={plainTheme} columns={columns} rows={rows} initialPlan={doc} />);
+	const app = render(
+		<App
+			shelf={openShelf({home: join(dir, 'home')})}
+			theme={plainTheme}
+			columns={columns}
+			rows={rows}
+			initialPlan={doc}
+		/>,
+	);
 	apps.push(app);
 	await ready(app);
 	return app;
@@ -114,12 +122,18 @@ describe('refine from an image, by keystrokes', () => {
 });
 
 describe('refine from an image, the pure steps', () => {
-	const key = (s: ConsoleState, input: string, flags: Partial<typeof noFlags> = {}) => consoleReducer(s, {type: 'key', input, key: {...noFlags, ...flags}});
+	const key = (s: ConsoleState, input: string, flags: Partial<typeof noFlags> = {}) =>
+		consoleReducer(s, {type: 'key', input, key: {...noFlags, ...flags}});
 	const run = (s: ConsoleState): ConsoleState => {
 		let next = s;
 		for (const effect of s.effects) {
 			next = consoleReducer(next, {type: 'effects-taken', count: 1});
-			for (const action of runEffect(effect, {shelf: openShelf({home: join(dir, 'home2')}), doc: s.doc, exit: () => {}}) as Action[]) next = consoleReducer(next, action);
+			for (const action of runEffect(effect, {
+				shelf: openShelf({home: join(dir, 'home2')}),
+				doc: s.doc,
+				exit: () => {},
+			}) as Action[])
+				next = consoleReducer(next, action);
 		}
 		return next;
 	};
@@ -158,6 +172,8 @@ describe('refine from an image, the pure steps', () => {
 		expect(good.refine.phase === 'shown' && good.refine.result.appliedIsPlanFit).toBe(false);
 		const bad = withSettings(wrongCount);
 		expect(bad.refine.phase).toBe('pick');
-		expect(bad.refine.phase === 'pick' ? bad.refine.error : '').toMatch(/three-sliders\.json: not valid settings for this plan \(sliders/);
+		expect(bad.refine.phase === 'pick' ? bad.refine.error : '').toMatch(
+			/three-sliders\.json: not valid settings for this plan \(sliders/,
+		);
 	});
 });

@@ -26,7 +26,9 @@ function expectFits(text: string, columns: number, rows: number, what: string) {
 async function screens(columns: number, rows: number, check: (app: Rendered, what: string) => void) {
 	// A folder of its own per size, so the export writes instead of asking to replace.
 	const out = mkdtempSync(join(home, `export-${columns}-`));
-	const app = render(<App shelf={openShelf({home})} theme={plainTheme} columns={columns} rows={rows} exportDir={out} />);
+	const app = render(
+		<App shelf={openShelf({home})} theme={plainTheme} columns={columns} rows={rows} exportDir={out} />,
+	);
 	await ready(app);
 	const visit: [string, string[]][] = [
 		['step 1', []],
@@ -80,7 +82,9 @@ describe('narrow, 80x24', () => {
 	});
 
 	it('renders the first screen at a real 80-column width', () => {
-		const text = renderToString(<App shelf={openShelf({home})} theme={plainTheme} columns={80} rows={24} />, {columns: 80});
+		const text = renderToString(<App shelf={openShelf({home})} theme={plainTheme} columns={80} rows={24} />, {
+			columns: 80,
+		});
 		expectFits(text, 80, 24, 'renderToString');
 		expect(text).toContain('[1 Starting plan]');
 		expect(text).toContain('Live: master');

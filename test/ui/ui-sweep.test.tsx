@@ -25,7 +25,17 @@ import {consoleMessage, parseFatList, sweepTable} from '../../src/ui/state/sweep
 import {columnHeads, frozenWidth, maxColumnOffset, sweepGrid, warningKey} from '../../src/ui/state/sweep-view-model.js';
 import {plainTheme} from '../../src/ui/kit/theme.js';
 import {keys} from '../helpers/keys.js';
-import {frame, moveToMarked, press, ready, selectedLine, send, type, waitForText, type Rendered} from '../helpers/press.js';
+import {
+	frame,
+	moveToMarked,
+	press,
+	ready,
+	selectedLine,
+	send,
+	type,
+	waitForText,
+	type Rendered,
+} from '../helpers/press.js';
 
 const stem = 'demo-deep-liver-through-thick-fat.fat-sweep';
 const formats = ['md', 'csv', 'json', 'svg'] as const;
@@ -50,7 +60,13 @@ async function open(options: {columns?: number; rows?: number; plan?: PlanDocume
 	const cwd = tempDir();
 	process.chdir(cwd);
 	const app = render(
-		<App shelf={openShelf({home: tempDir()})} theme={plainTheme} columns={options.columns ?? 80} rows={options.rows ?? 24} {...(options.plan ? {initialPlan: options.plan} : {})} />,
+		<App
+			shelf={openShelf({home: tempDir()})}
+			theme={plainTheme}
+			columns={options.columns ?? 80}
+			rows={options.rows ?? 24}
+			{...(options.plan ? {initialPlan: options.plan} : {})}
+		/>,
 	);
 	apps.push(app);
 	await ready(app);
@@ -60,11 +76,22 @@ async function open(options: {columns?: number; rows?: number; plan?: PlanDocume
 /** The demo plan with its fat layer made muscle: nothing to sweep. */
 function planWithoutFat(): PlanDocument {
 	const doc = demoPlan();
-	return {...doc, name: 'No fat here', layers: doc.layers.map((l) => (l.tissue === 'fat' ? {...l, tissue: 'muscle'} : l))};
+	return {
+		...doc,
+		name: 'No fat here',
+		layers: doc.layers.map((l) => (l.tissue === 'fat' ? {...l, tissue: 'muscle'} : l)),
+	};
 }
 
 const state = (doc: PlanDocument = demoPlan(), columns = 80) =>
-	createInitialState({doc, originName: demoPoint.name, startingPoints: [demoPoint], isWide: columns >= 100, columns, rows: columns >= 100 ? 30 : 24});
+	createInitialState({
+		doc,
+		originName: demoPoint.name,
+		startingPoints: [demoPoint],
+		isWide: columns >= 100,
+		columns,
+		rows: columns >= 100 ? 30 : 24,
+	});
 
 function keysIn(s: ConsoleState, ...presses: (string | Partial<KeyFlags>)[]): ConsoleState {
 	return presses.reduce<ConsoleState>((st, p) => {
@@ -115,7 +142,9 @@ describe('sweep view model', () => {
 		expect(g.position).not.toContain('→ more');
 		for (const l of [...g.header, ...g.lines.map((x) => x.text)]) expect(l.length).toBeLessThanOrEqual(80);
 		// One column less would not show them all.
-		const widths = columnHeads(8, false).slice(max - 1).reduce((n, c) => n + c.width, frozenWidth);
+		const widths = columnHeads(8, false)
+			.slice(max - 1)
+			.reduce((n, c) => n + c.width, frozenWidth);
 		expect(widths).toBeGreaterThan(80);
 	});
 
@@ -135,21 +164,29 @@ describe('sweep view model', () => {
 		expect(sweepGrid(noisy, {width: 100, height: 5, cursor: 0, column: 0}).lines[1]!.text).toContain('~noise');
 	});
 
-	it('defaults to 1, 2, 3, 4, 6, 8 cm with the plan\'s own thickness, and to finer steps for shallow displays', () => {
+	it("defaults to 1, 2, 3, 4, 6, 8 cm with the plan's own thickness, and to finer steps for shallow displays", () => {
 		expect(defaultFatCm(demoPlan())).toEqual([1, 2, 3, 4, 5, 6, 8]);
 		const doc = demoPlan();
-		const shallow = {...doc, display: {...doc.display, depthCm: 4}, layers: doc.layers.map((l) => (l.tissue === 'fat' ? {...l, thicknessCm: 0.3} : l))};
+		const shallow = {
+			...doc,
+			display: {...doc.display, depthCm: 4},
+			layers: doc.layers.map((l) => (l.tissue === 'fat' ? {...l, thicknessCm: 0.3} : l)),
+		};
 		expect(defaultFatCm(shallow)).toEqual([0.25, 0.3, 0.5, 0.75, 1, 1.5, 2]);
 	});
 
-	it('checks lists with the table code\'s parser, at most 16 values, messages naming the range', () => {
+	it("checks lists with the table code's parser, at most 16 values, messages naming the range", () => {
 		expect(parseFatList(' 1:8:1 ')).toEqual({ok: true, fatCm: [1, 2, 3, 4, 5, 6, 7, 8]});
 		const out = parseFatList('1,2,99');
 		expect(out.ok).toBe(false);
 		expect(!out.ok && out.message).toBe('99 is out of range; every value must be a number above 0 and up to 50 cm');
 		const many = parseFatList('1:20:1');
 		expect(!many.ok && many.message).toBe(`"1:20:1" makes 20 values; at most ${maxSweepValues} are allowed`);
-		expect(consoleMessage('--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (from 1 to 4)')).toBe(
+		expect(
+			consoleMessage(
+				'--fat: the plan has no layer of tissue "fat"; choose the layer to sweep with --layer N (from 1 to 4)',
+			),
+		).toBe(
 			'the plan has no layer of tissue "fat", so there is no thickness to sweep: give a layer the tissue Fat on step 2 (Tissue stack)',
 		);
 	});
@@ -195,10 +232,17 @@ describe('sweep in the reducer', () => {
 		expect(s.sweep.isDelta).toBe(true);
 		// e asks for the folder through the plan export's prompt (the current one offered), then queues the one export.
 		s = keysIn(s, 'e');
-		expect(s.overlay).toEqual({kind: 'path', text: '.', isFresh: true, sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}});
+		expect(s.overlay).toEqual({
+			kind: 'path',
+			text: '.',
+			isFresh: true,
+			sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true},
+		});
 		expect(modeOf(s)).toBe('edit-text');
 		s = keysIn(s, {return: true});
-		expect(s.effects).toEqual([{kind: 'export', dir: '.', replace: false, sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}}]);
+		expect(s.effects).toEqual([
+			{kind: 'export', dir: '.', replace: false, sweep: {fatCm: [1, 2, 3, 4, 5, 6, 8], isDelta: true}},
+		]);
 		expect(modeOf(s)).toBe('sweep');
 		expect(s.dirty).toBe(false);
 	});
@@ -239,7 +283,8 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		expect(f).toContain('Sweep over fat thickness: layer 2; the plan has 5.0 cm');
 		expect(f).toContain('Thicknesses, cm: [1,2,3,4,5,6,8]');
 		expect(f).toMatch(/rows 1-7 of 7 {2}columns 1-12 of 13, → more/);
-		for (const cm of ['1.0', '2.0', '3.0', '4.0', '6.0', '8.0']) expect(f).toMatch(new RegExp(`^\\s+${cm.replace('.', '\\.')}\\s+[+-]\\d`, 'm'));
+		for (const cm of ['1.0', '2.0', '3.0', '4.0', '6.0', '8.0'])
+			expect(f).toMatch(new RegExp(`^\\s+${cm.replace('.', '\\.')}\\s+[+-]\\d`, 'm'));
 		expect(selectedLine(app)).toMatch(/^>\s+5\.0\s/);
 		expect(f.replace(/\s+/g, ' ')).toContain(cautionLine);
 		// The plain theme: no escape codes, the cursor row marked by `>` alone.
@@ -260,7 +305,9 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		await type(app, '1,2,99');
 		await press(app, keys.enter);
 		f = frame(app);
-		expect(f.replace(/\s+/g, ' ')).toContain('99 is out of range; every value must be a number above 0 and up to 50 cm');
+		expect(f.replace(/\s+/g, ' ')).toContain(
+			'99 is out of range; every value must be a number above 0 and up to 50 cm',
+		);
 		expect(f).toContain('rows 1-8 of 8');
 		await press(app, keys.escape);
 		expect(frame(app)).not.toContain('out of range');
@@ -337,7 +384,9 @@ describe('console: the fat-thickness sweep by keystrokes', () => {
 		const {app, cwd} = await open({plan: planWithoutFat()});
 		await press(app, 'f');
 		const f = frame(app);
-		expect(f.replace(/\s+/g, ' ')).toContain('the plan has no layer of tissue "fat", so there is no thickness to sweep');
+		expect(f.replace(/\s+/g, ' ')).toContain(
+			'the plan has no layer of tissue "fat", so there is no thickness to sweep',
+		);
 		expect(f).not.toContain('rows 1-');
 		await press(app, 'e');
 		expect(frame(app)).toContain('Nothing exported: the plan has no fat layer to sweep.');

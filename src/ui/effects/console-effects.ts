@@ -47,7 +47,10 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			const outcome = ctx.shelf.save(effect.name, plan, effect.overwrite);
 			if (outcome.ok) {
 				const {points, problems} = ctx.shelf.list();
-				return [{type: 'saved', name: effect.name}, {type: 'starting-points', points, problems}];
+				return [
+					{type: 'saved', name: effect.name},
+					{type: 'starting-points', points, problems},
+				];
 			}
 			if (outcome.exists) return [{type: 'save-exists', name: effect.name}];
 			return [{type: 'failed', message: `Not saved: ${outcome.message}`}];
@@ -58,7 +61,13 @@ export function runEffect(effect: Effect, ctx: EffectContext): Action[] {
 			let entries = planEntries(ctx.doc);
 			if (sweep) {
 				const outcome = sweepTable(ctx.doc, sweep.fatCm, sweep.isDelta);
-				if (!outcome.ok) return [{type: 'failed', message: 'Nothing exported: there is no table for this plan (the reason is under the list).'}];
+				if (!outcome.ok)
+					return [
+						{
+							type: 'failed',
+							message: 'Nothing exported: there is no table for this plan (the reason is under the list).',
+						},
+					];
 				entries = sweepEntries(outcome.table);
 			}
 			try {

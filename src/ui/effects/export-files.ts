@@ -49,7 +49,8 @@ export function exportToFolder(entries: readonly BatchEntry[], typed: string, re
 	} catch {
 		return {ok: false, message: `Export folder ${printable(dir)} does not exist; type an existing folder.`};
 	}
-	if (!isFolder) return {ok: false, message: `Export folder ${printable(dir)} is not a folder (a file or a link); type a folder.`};
+	if (!isFolder)
+		return {ok: false, message: `Export folder ${printable(dir)} is not a folder (a file or a link); type a folder.`};
 	const taken = entries.filter((e) => entryAt(join(dir, e.name)) !== undefined).map((e) => e.name);
 	if (taken.length > 0 && !replace) return {ok: false, exists: taken, dir};
 	commitBatch(dir, entries, {replace});

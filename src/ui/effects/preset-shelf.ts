@@ -9,7 +9,10 @@ import {openPresetStore} from '../../store/preset-store.js';
 import {PresetExistsError} from '../../store/store-errors.js';
 import {demoPoint, demoPointId, type StartingPoint, type StartingPointKind} from '../state/starting-point.js';
 
-export type SaveOutcome = {readonly ok: true} | {readonly ok: false; readonly exists: true} | {readonly ok: false; readonly exists: false; readonly message: string};
+export type SaveOutcome =
+	| {readonly ok: true}
+	| {readonly ok: false; readonly exists: true}
+	| {readonly ok: false; readonly exists: false; readonly message: string};
 
 export interface PresetShelf {
 	list(): {readonly points: readonly StartingPoint[]; readonly problems: readonly string[]};
@@ -21,7 +24,10 @@ export interface PresetShelf {
 
 /** The store's API as the console uses it (src/store/preset-store.ts). */
 export interface StoreLike {
-	list(): {presets: readonly {id: string; name: string; region: string; isTemplate: boolean}[]; problems: readonly string[]};
+	list(): {
+		presets: readonly {id: string; name: string; region: string; isTemplate: boolean}[];
+		problems: readonly string[];
+	};
 	find(idOrName: string): {id: string; name: string; isTemplate: boolean; plan: PlanDocument} | undefined;
 	save(name: string, plan: PlanDocument, options?: {overwrite?: boolean}): unknown;
 	readonly notices: readonly string[];
@@ -37,7 +43,14 @@ export function shelfOver(store: StoreLike | undefined, openProblem?: string): P
 			if (!store) return {points: [demoPoint], problems: []};
 			try {
 				const {presets, problems} = store.list();
-				const points = presets.map((p): StartingPoint => ({id: p.id, name: p.name, region: p.region, kind: p.isTemplate ? 'template' : 'preset'}));
+				const points = presets.map(
+					(p): StartingPoint => ({
+						id: p.id,
+						name: p.name,
+						region: p.region,
+						kind: p.isTemplate ? 'template' : 'preset',
+					}),
+				);
 				const order = (k: StartingPointKind) => (k === 'template' ? 0 : 1);
 				points.sort((a, b) => order(a.kind) - order(b.kind));
 				return {points: [demoPoint, ...points], problems};

@@ -60,7 +60,13 @@ export function refineStill(doc: PlanDocument, path: string, frame: number | und
 	}
 	try {
 		const {frame: grey, region} = frameFromImage(still);
-		const outcome = refineImage({frame: grey, region, plan, ...(applied ? {applied} : {}), ...(reading ? {levelMap: reading.levelMap, sliderTravelDb: reading.sliderTravelDb} : {})});
+		const outcome = refineImage({
+			frame: grey,
+			region,
+			plan,
+			...(applied ? {applied} : {}),
+			...(reading ? {levelMap: reading.levelMap, sliderTravelDb: reading.sliderTravelDb} : {}),
+		});
 		if (!outcome.ok) return {type: 'refine-failed', problem: outcome.problem};
 		return {type: 'refined', still, result: outcome};
 	} catch (error) {

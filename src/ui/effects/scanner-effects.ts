@@ -9,7 +9,11 @@ import type {ScannerServices} from './scanner-services.js';
 
 const messageOf = (e: unknown) => (e instanceof Error ? e.message : String(e));
 
-export function runScannerEffect(effect: ScannerEffect, scanners: ScannerServices, later: (work: () => Promise<Action[]>) => void): Action[] {
+export function runScannerEffect(
+	effect: ScannerEffect,
+	scanners: ScannerServices,
+	later: (work: () => Promise<Action[]>) => void,
+): Action[] {
 	switch (effect.kind) {
 		case 'scanner-list':
 			return [{type: 'scanner-profiles', ...scanners.list()}];
@@ -28,7 +32,13 @@ export function runScannerEffect(effect: ScannerEffect, scanners: ScannerService
 		case 'scanner-measure-built':
 			later(async () => {
 				try {
-					return [{type: 'scanner-measured', path: effect.folder, ...(await scanners.measureBuilt(effect.folder, effect.session))}];
+					return [
+						{
+							type: 'scanner-measured',
+							path: effect.folder,
+							...(await scanners.measureBuilt(effect.folder, effect.session)),
+						},
+					];
 				} catch (error) {
 					return [{type: 'scanner-refused', message: messageOf(error)}];
 				}

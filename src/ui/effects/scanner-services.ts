@@ -11,7 +11,11 @@ import type {ScannerSession} from '../../calibration/session-schema.js';
 import {printable} from '../../files/printable.js';
 import type {PlanScanner} from '../../plan/resolve-plan.js';
 import {isBuilderImage} from '../state/session-builder.js';
-import {checkProfileName, openScannerProfileStore, type ScannerProfileStore} from '../../store/scanner-profile-store.js';
+import {
+	checkProfileName,
+	openScannerProfileStore,
+	type ScannerProfileStore,
+} from '../../store/scanner-profile-store.js';
 
 export interface ScannerServices {
 	list(): {readonly profiles: readonly ScannerProfile[]; readonly problems: readonly string[]};
@@ -22,7 +26,10 @@ export interface ScannerServices {
 	/** The DICOM images of a folder (sorted), or null when the path is not a folder. */
 	folderImages(path: string): readonly string[] | null;
 	/** Measures a session built in the console from a folder's images. */
-	measureBuilt(folder: string, session: ScannerSession): Promise<{readonly input: CalibrationInput; readonly cal: ScannerCalibration}>;
+	measureBuilt(
+		folder: string,
+		session: ScannerSession,
+	): Promise<{readonly input: CalibrationInput; readonly cal: ScannerCalibration}>;
 	/** Stores the measurement under `name` (default its label); returns the profile id. Throws when taken and not `replace`. */
 	keep(cal: ScannerCalibration, replace: boolean, name?: string): string;
 }
@@ -47,13 +54,18 @@ export function scannerServicesOver(open: () => ScannerProfileStore): ScannerSer
 			try {
 				return {scanner: scannerResponseOf(open().get(id))};
 			} catch (error) {
-				return {problem: `scanner: ${messageOf(error)}; the curve uses the assumed built-in ramp until it is found or changed (g)`};
+				return {
+					problem: `scanner: ${messageOf(error)}; the curve uses the assumed built-in ramp until it is found or changed (g)`,
+				};
 			}
 		},
 		async measure(path) {
 			try {
 				// The image readers and the fit load only when first used, not with the console.
-				const [{loadSession}, {calibrateScanner}] = await Promise.all([import('../../image/load-session.js'), import('../../calibration/scanner-calibration.js')]);
+				const [{loadSession}, {calibrateScanner}] = await Promise.all([
+					import('../../image/load-session.js'),
+					import('../../calibration/scanner-calibration.js'),
+				]);
 				const {input} = loadSession(expandHome(path));
 				return {input, cal: calibrateScanner(input)};
 			} catch (error) {
@@ -71,7 +83,10 @@ export function scannerServicesOver(open: () => ScannerProfileStore): ScannerSer
 		},
 		async measureBuilt(folder, session) {
 			try {
-				const [{loadSessionImages}, {calibrateScanner}] = await Promise.all([import('../../image/load-session.js'), import('../../calibration/scanner-calibration.js')]);
+				const [{loadSessionImages}, {calibrateScanner}] = await Promise.all([
+					import('../../image/load-session.js'),
+					import('../../calibration/scanner-calibration.js'),
+				]);
 				const {input} = loadSessionImages(session, expandHome(folder));
 				return {input, cal: calibrateScanner(input)};
 			} catch (error) {
@@ -80,9 +95,13 @@ export function scannerServicesOver(open: () => ScannerProfileStore): ScannerSer
 		},
 		keep(cal, replace, typed) {
 			try {
-				const {name, id} = typed === undefined ? checkProfileName(cal.label, 'label (the session label names the profile)') : checkProfileName(typed, 'name');
+				const {name, id} =
+					typed === undefined
+						? checkProfileName(cal.label, 'label (the session label names the profile)')
+						: checkProfileName(typed, 'name');
 				const store = open();
-				if (!replace && store.list().profiles.some((p) => p.id === id)) throw new Error(`a scanner profile "${id}" already exists; S replaces it`);
+				if (!replace && store.list().profiles.some((p) => p.id === id))
+					throw new Error(`a scanner profile "${id}" already exists; S replaces it`);
 				store.save(profileFromCalibration(cal, id, name), {replace});
 				return id;
 			} catch (error) {

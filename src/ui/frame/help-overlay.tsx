@@ -11,7 +11,14 @@ export interface HelpOverlayProps {
 
 // Ordered so the two columns split evenly (17 lines each at 80×24): getting about and the stack on the left,
 // the plan and editing on the right.
-const sectionOrder: readonly Section[] = ['Moving around', 'Tissue stack', 'Questions', 'The plan', 'Changing a value', 'Typing a value'];
+const sectionOrder: readonly Section[] = [
+	'Moving around',
+	'Tissue stack',
+	'Questions',
+	'The plan',
+	'Changing a value',
+	'Typing a value',
+];
 
 type Line = {readonly text: string; readonly isHeading: boolean};
 
@@ -19,7 +26,9 @@ type Line = {readonly text: string; readonly isHeading: boolean};
 export function helpLines(columnWidth: number): Line[][] {
 	return sectionOrder.map((section) => [
 		{text: section, isHeading: true},
-		...bindings.filter((b) => b.section === section).map((b) => ({text: clip(`  ${padTo(b.keys, 13)} ${b.help}`, columnWidth), isHeading: false})),
+		...bindings
+			.filter((b) => b.section === section)
+			.map((b) => ({text: clip(`  ${padTo(b.keys, 13)} ${b.help}`, columnWidth), isHeading: false})),
 	]);
 }
 

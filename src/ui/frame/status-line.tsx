@@ -19,15 +19,26 @@ export function statusText(state: ConsoleState): {text: string; tone: 'ask' | 'r
 	if (o?.kind === 'ask') return {text: `? ${o.question}`, tone: 'ask'};
 	if (o?.kind === 'name') {
 		if (o.error) return {text: `Save as preset, name: [${o.text}_]  ! ${o.error}`, tone: 'refusal'};
-		return {text: `Save as preset, name: [${o.text}_]  ${o.isFresh ? `${freshHint}; ` : ''}Enter saves, Esc cancels`, tone: 'ask'};
+		return {
+			text: `Save as preset, name: [${o.text}_]  ${o.isFresh ? `${freshHint}; ` : ''}Enter saves, Esc cancels`,
+			tone: 'ask',
+		};
 	}
-	if (o?.kind === 'path') return {text: `Export to folder: [${o.text}_]  Enter writes there, Esc cancels${o.isFresh ? `; ${freshHint}` : ''}`, tone: 'ask'};
+	if (o?.kind === 'path')
+		return {
+			text: `Export to folder: [${o.text}_]  Enter writes there, Esc cancels${o.isFresh ? `; ${freshHint}` : ''}`,
+			tone: 'ask',
+		};
 	if (state.editing) {
 		const hint = rangeHint(currentRow(state));
 		// The fresh-field words go last: at 80 columns the range and Enter/Esc matter more.
-		return {text: `Typing. ${hint ?? ''}. Enter applies, Esc cancels.${state.editing.isFresh ? ` ${capitalised(freshHint)}.` : ''}`, tone: 'info'};
+		return {
+			text: `Typing. ${hint ?? ''}. Enter applies, Esc cancels.${state.editing.isFresh ? ` ${capitalised(freshHint)}.` : ''}`,
+			tone: 'info',
+		};
 	}
-	if (state.sweep.isOpen && state.sweep.typing?.isFresh) return {text: `Thickness list: ${freshHint}. Enter applies, Esc cancels.`, tone: 'info'};
+	if (state.sweep.isOpen && state.sweep.typing?.isFresh)
+		return {text: `Thickness list: ${freshHint}. Enter applies, Esc cancels.`, tone: 'info'};
 	if (state.notice) return {text: state.notice.text, tone: state.notice.tone};
 	return {text: '', tone: 'info'};
 }
@@ -69,15 +80,27 @@ export function statusLines(state: ConsoleState, width: number): string[] {
 		const room = Math.max(1, width - head.length - 3);
 		return [o.text.length + 2 <= width - head.length ? clip(text, width) : `${head}…${o.text.slice(-room)}_]`];
 	}
-	if (!state.notice?.isWhole || state.overlay || state.editing || text.length <= width) return [clip(text || ' ', width)];
+	if (!state.notice?.isWhole || state.overlay || state.editing || text.length <= width)
+		return [clip(text || ' ', width)];
 	const lines = wrapAtBreaks(text, width);
-	return lines.length <= wholeNoticeMax ? lines : [...lines.slice(0, wholeNoticeMax - 1), clip(lines.slice(wholeNoticeMax - 1).join(''), width)];
+	return lines.length <= wholeNoticeMax
+		? lines
+		: [...lines.slice(0, wholeNoticeMax - 1), clip(lines.slice(wholeNoticeMax - 1).join(''), width)];
 }
 
 export function StatusLine({state, width}: StatusLineProps) {
 	const theme = useTheme();
 	const {tone} = statusText(state);
-	const style = tone === 'ask' ? theme.current : tone === 'refusal' ? theme.refusal : tone === 'done' ? theme.done : tone === 'warning' ? theme.warning : theme.muted;
+	const style =
+		tone === 'ask'
+			? theme.current
+			: tone === 'refusal'
+				? theme.refusal
+				: tone === 'done'
+					? theme.done
+					: tone === 'warning'
+						? theme.warning
+						: theme.muted;
 	return (
 		<>
 			{statusLines(state, width).map((line, i) => (

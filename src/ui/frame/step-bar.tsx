@@ -17,7 +17,13 @@ const dirtyMark = ' *changed';
 export function stepBarParts(step: StepId, width: number, isDirty = false): {text: string; isCurrent: boolean}[] {
 	const long = stepIds.map((id, i) => ({text: `${i + 1} ${stepTitles[id].title}`, isCurrent: id === step}));
 	const total = long.reduce((n, p) => n + p.text.length + 2, 0) + 'evenecho '.length + (isDirty ? dirtyMark.length : 0);
-	const parts = total <= width ? long : stepIds.map((id, i) => ({text: `${i + 1} ${id === step ? stepTitles[id].title : stepTitles[id].short}`, isCurrent: id === step}));
+	const parts =
+		total <= width
+			? long
+			: stepIds.map((id, i) => ({
+					text: `${i + 1} ${id === step ? stepTitles[id].title : stepTitles[id].short}`,
+					isCurrent: id === step,
+				}));
 	return parts.map((p) => ({...p, text: p.isCurrent ? `[${p.text}]` : ` ${p.text} `}));
 }
 

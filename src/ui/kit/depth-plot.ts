@@ -115,7 +115,8 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	const values = [0, ...r.samples.map((s) => s.highDb), ...r.samples.map((s) => s.lowDb), ...totals];
 	const lowDb = Math.floor(Math.min(...values) / 10) * 10;
 	const highDb = Math.max(lowDb + 10, Math.ceil(Math.max(...values) / 10) * 10);
-	const col = (db: number) => Math.max(0, Math.min(grid - 1, Math.round(((db - lowDb) / (highDb - lowDb)) * (grid - 1))));
+	const col = (db: number) =>
+		Math.max(0, Math.min(grid - 1, Math.round(((db - lowDb) / (highDb - lowDb)) * (grid - 1))));
 	const rowOf = (d: number) => Math.max(0, Math.min(height - 1, Math.floor(d / rowCm + 1e-9)));
 
 	const cells: string[][] = Array.from({length: height}, () => new Array<string>(grid).fill(glyph.empty));
@@ -123,7 +124,11 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	for (let row = 0; row < height; row++) {
 		const top = row * rowCm;
 		const bottom = Math.min(depth, (row + 1) * rowCm);
-		const inRow = r.samples.filter((s) => s.displayedDepthCm >= top - 1e-9 && (s.displayedDepthCm < bottom - 1e-9 || (row === height - 1 && s.displayedDepthCm <= bottom + 1e-9)));
+		const inRow = r.samples.filter(
+			(s) =>
+				s.displayedDepthCm >= top - 1e-9 &&
+				(s.displayedDepthCm < bottom - 1e-9 || (row === height - 1 && s.displayedDepthCm <= bottom + 1e-9)),
+		);
 		if (inRow.length === 0) continue;
 		const line = cells[row]!;
 		const isBlocked = inRow.every((s) => s.blocked);
@@ -138,7 +143,8 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	// Notes: the barrier and the noise floor in their own rows, then each layer's name at its top
 	// (or the next free row, so thin layers near the skin still get named).
 	if (r.blockedDepthCm !== null) notes[rowOf(r.blockedDepthCm)] = `${glyph.blocked} blocked`;
-	if (r.penetrationDepthCm !== null && !notes[rowOf(r.penetrationDepthCm)]) notes[rowOf(r.penetrationDepthCm)] = `${glyph.noise} noise`;
+	if (r.penetrationDepthCm !== null && !notes[rowOf(r.penetrationDepthCm)])
+		notes[rowOf(r.penetrationDepthCm)] = `${glyph.noise} noise`;
 	let next = 0;
 	r.plan.layers.forEach((layer, i) => {
 		const first = r.samples.find((s) => s.layerIndex === i);
@@ -172,5 +178,15 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	if (midDb > lowDb && midDb < highDb && grid >= 20) put(midDb);
 	const axis = fit(`${'cm'.padStart(labelWidth)} ${axisCells.join('')}  dB`, o.width);
 	// No trailing blanks: Ink tokenises every character it is given, spaces included.
-	return {axis: axis.trimEnd(), rows: rows.map((l) => fit(l, o.width).trimEnd()), legend: legendFor(o.width, {selected: o.selectedSlider !== undefined, noise: r.penetrationDepthCm !== null, blocked: r.blockedDepthCm !== null}).trimEnd(), lowDb, highDb};
+	return {
+		axis: axis.trimEnd(),
+		rows: rows.map((l) => fit(l, o.width).trimEnd()),
+		legend: legendFor(o.width, {
+			selected: o.selectedSlider !== undefined,
+			noise: r.penetrationDepthCm !== null,
+			blocked: r.blockedDepthCm !== null,
+		}).trimEnd(),
+		lowDb,
+		highDb,
+	};
 }

@@ -64,11 +64,31 @@ export function layoutFor(columns: number, rows: number): Layout {
 		const curveWidth = Math.min(56, Math.max(40, Math.floor(cols * 0.45)));
 		const stepWidth = cols - curveWidth - 1;
 		// Curve pane: title, axis, legend, two summary lines, up to three warning lines.
-		return {isWide, columns: cols, rows: lines, cautionRows, bodyRows, stepWidth, curveWidth, plotWidth: curveWidth, plotRows: Math.max(4, bodyRows - 8)};
+		return {
+			isWide,
+			columns: cols,
+			rows: lines,
+			cautionRows,
+			bodyRows,
+			stepWidth,
+			curveWidth,
+			plotWidth: curveWidth,
+			plotRows: Math.max(4, bodyRows - 8),
+		};
 	}
 	// Curve step, narrow: the plot on the left half with the slider table beside it; axis, legend and three warning lines.
 	const plotWidth = Math.min(46, Math.floor(cols * 0.56));
-	return {isWide, columns: cols, rows: lines, cautionRows, bodyRows, stepWidth: cols, curveWidth: 0, plotWidth, plotRows: Math.max(4, bodyRows - 5)};
+	return {
+		isWide,
+		columns: cols,
+		rows: lines,
+		cautionRows,
+		bodyRows,
+		stepWidth: cols,
+		curveWidth: 0,
+		plotWidth,
+		plotRows: Math.max(4, bodyRows - 5),
+	};
 }
 
 /** The slice of a list to show so the cursor stays visible: [start, end). */

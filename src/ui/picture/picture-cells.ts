@@ -40,7 +40,8 @@ export function pictureLines(grey: Uint8Array, width: number, height: number, mo
 		const lower = y + 1 < height ? (y + 1) * width : -1;
 		let line = '';
 		if (mode === 'plain') {
-			for (let x = 0; x < width; x++) line += plainShade(lower < 0 ? grey[upper + x]! / 2 : (grey[upper + x]! + grey[lower + x]!) / 2);
+			for (let x = 0; x < width; x++)
+				line += plainShade(lower < 0 ? grey[upper + x]! / 2 : (grey[upper + x]! + grey[lower + x]!) / 2);
 		} else {
 			let lastTop = -1;
 			let lastBottom = -1;
@@ -49,7 +50,8 @@ export function pictureLines(grey: Uint8Array, width: number, height: number, mo
 				const bottom = lower < 0 ? 0 : grey[lower + x]!;
 				// Same escape as the previous cell: skip it (a third of the characters on smooth rows).
 				if (mode === 'truecolor' ? top !== lastTop : fg[top] !== fg[lastTop] || lastTop < 0) line += fg[top];
-				if (mode === 'truecolor' ? bottom !== lastBottom : bg[bottom] !== bg[lastBottom] || lastBottom < 0) line += bg[bottom];
+				if (mode === 'truecolor' ? bottom !== lastBottom : bg[bottom] !== bg[lastBottom] || lastBottom < 0)
+					line += bg[bottom];
 				line += upperHalf;
 				lastTop = top;
 				lastBottom = bottom;

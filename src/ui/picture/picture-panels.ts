@@ -29,7 +29,8 @@ export function travelLine(result: CurveResult): string | null {
 	return `sliders as a fraction of travel (full travel ${travel.toFixed(1)} dB, measured): ${parts.join('  ')}`;
 }
 
-export const illustrationLabel = 'Illustration: a uniform tissue under this model, not a prediction of the patient\'s image.';
+export const illustrationLabel =
+	"Illustration: a uniform tissue under this model, not a prediction of the patient's image.";
 
 /** Text columns a panel needs around its picture: scale (4), depth mark (1), knot mark (2). */
 export const panelChrome = 7;
@@ -83,7 +84,9 @@ export function panelLines(
 	}
 	const columns = kinds.map((kind) => {
 		const picture = pictureLines(kind === 'ramp' ? pics.ramp : pics.plan, w, rows * 2, mode);
-		const title = panelTitle(kind, result).slice(0, w + panelChrome).padEnd(w + panelChrome);
+		const title = panelTitle(kind, result)
+			.slice(0, w + panelChrome)
+			.padEnd(w + panelChrome);
 		const body = picture.map((line, r) => {
 			const knot = knotRows.get(r);
 			return `${scale[r]}${line}${knot === undefined ? `${edge} ` : `<${knotLabel(knot)}`}`;

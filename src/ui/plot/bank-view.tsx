@@ -24,7 +24,9 @@ export function BankView({curve, width, height, selected}: BankViewProps) {
 	const theme = useTheme();
 	const bank = sliderBank(curve, Math.min(31, width - labelWidth - 2), selected);
 	const unit = curve.plan.scanner?.sliderTravelDb ? 'fractions of full travel' : 'dB offsets';
-	const rows = bank.rows.map((track, k) => `${String(k + 1).padStart(2)} ${curve.fit.sliders[k]!.depthCm.toFixed(1).padStart(5)} ${track}`);
+	const rows = bank.rows.map(
+		(track, k) => `${String(k + 1).padStart(2)} ${curve.fit.sliders[k]!.depthCm.toFixed(1).padStart(5)} ${track}`,
+	);
 	const lines = [...rows.slice(0, Math.max(1, height - 3))];
 	return (
 		<Box flexDirection="column" width={width} height={height}>

@@ -27,12 +27,26 @@ export interface CompareViewProps {
 
 /** "this patient vs …: master +1.2 dB; sliders +0.4 +0.8 …", or why there is no such line. */
 export function changeLine(curve: CurveResult, other: CurveResult): string {
-	if (curve.fit.sliders.length !== other.fit.sliders.length) return 'The two plans have different slider counts: compare the tables by depth.';
+	if (curve.fit.sliders.length !== other.fit.sliders.length)
+		return 'The two plans have different slider counts: compare the tables by depth.';
 	const d: SettingsDelta = settingsDelta(settingsOf(curve.fit), settingsOf(other.fit));
-	return `This patient minus the other: master ${signedDb(d.masterDeltaDb)} dB; sliders ${d.sliderDeltasDb.map((x) => signedDb(x)).join(' ')}`;
+	return (
+		`This patient minus the other: master ${signedDb(d.masterDeltaDb)} dB; sliders ` +
+		`${d.sliderDeltasDb.map((x) => signedDb(x)).join(' ')}`
+	);
 }
 
-function Side({curve, title, width, plotRows}: {readonly curve: CurveResult; readonly title: string; readonly width: number; readonly plotRows: number}) {
+function Side({
+	curve,
+	title,
+	width,
+	plotRows,
+}: {
+	readonly curve: CurveResult;
+	readonly title: string;
+	readonly width: number;
+	readonly plotRows: number;
+}) {
 	const theme = useTheme();
 	return (
 		<Box flexDirection="column" width={width}>
@@ -43,12 +57,27 @@ function Side({curve, title, width, plotRows}: {readonly curve: CurveResult; rea
 			<Text wrap="truncate" {...theme.value}>
 				{clip(`${masterLine(curve, null)}  ${reachText(curve)}`, width)}
 			</Text>
-			<SliderTable curve={curve} delta={null} width={width} height={curve.fit.sliders.length + 1} cursor={-1} isFocused={false} />
+			<SliderTable
+				curve={curve}
+				delta={null}
+				width={width}
+				height={curve.fit.sliders.length + 1}
+				cursor={-1}
+				isFocused={false}
+			/>
 		</Box>
 	);
 }
 
-export function CompareView({curve, other, thisName, otherName, otherTitle = 'Starting plan', width, height}: CompareViewProps) {
+export function CompareView({
+	curve,
+	other,
+	thisName,
+	otherName,
+	otherTitle = 'Starting plan',
+	width,
+	height,
+}: CompareViewProps) {
 	const theme = useTheme();
 	const half = Math.floor((width - 1) / 2);
 	const sliders = Math.max(curve.fit.sliders.length, typeof other === 'string' ? 0 : other.fit.sliders.length);

@@ -34,7 +34,16 @@ export function sliderReadout(curve: CurveResult, delta: SettingsDelta | null, k
 	return `slider ${k + 1} at ${s.depthCm.toFixed(1)} cm: ${signedDb(s.gainDb)} dB (gives ${total.toFixed(1)})${vs}`;
 }
 
-export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isPlotOnly, picture = 'off'}: CurvePaneProps) {
+export function CurvePane({
+	curve,
+	delta,
+	width,
+	plotRows,
+	isFocused,
+	slider,
+	isPlotOnly,
+	picture = 'off',
+}: CurvePaneProps) {
 	const theme = useTheme();
 	const title = isFocused ? '> Live curve: Up/Down pick a slider, Tab returns' : '  Live curve (Tab to look closer)';
 	return (
@@ -43,14 +52,21 @@ export function CurvePane({curve, delta, width, plotRows, isFocused, slider, isP
 				{clip(title, width)}
 			</Text>
 			{picture === 'off' || picture === 'bank' ? (
-				<PlotView curve={curve} width={width} height={plotRows} {...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})} />
+				<PlotView
+					curve={curve}
+					width={width}
+					height={plotRows}
+					{...(isFocused || isPlotOnly ? {selectedSlider: slider} : {})}
+				/>
 			) : (
 				// The plot adds its axis and legend lines to plotRows; the picture counts its own, so it gets them too.
 				<PictureView curve={curve} kinds={['ramp', 'plan']} width={width} height={plotRows + 2} />
 			)}
 			{isPlotOnly ? null : (
 				<>
-					<Text wrap="truncate">{clip(isFocused ? sliderReadout(curve, delta, slider) : masterText(curve, delta), width)}</Text>
+					<Text wrap="truncate">
+						{clip(isFocused ? sliderReadout(curve, delta, slider) : masterText(curve, delta), width)}
+					</Text>
 					<Text wrap="truncate">{clip(reachText(curve), width)}</Text>
 					<WarningLines curve={curve} width={width} maxLines={3} />
 				</>

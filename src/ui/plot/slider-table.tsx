@@ -38,7 +38,10 @@ export function sliderRows(curve: CurveResult, delta: SettingsDelta | null): str
 	return curve.fit.sliders.map((s, k) => {
 		const vs = delta ? signedDb(delta.sliderDeltasDb[k]!).padStart(7) : '      -';
 		const ofTravel = travel ? ` ${travelFractionText(s.gainDb / travel).padStart(6)}` : '';
-		return `${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${signedDb(s.gainDb).padStart(6)} ${totals[k]!.toFixed(1).padStart(6)} ${vs}${ofTravel}`;
+		return (
+			`${String(k + 1).padStart(2)} ${s.depthCm.toFixed(1).padStart(5)} ${signedDb(s.gainDb).padStart(6)} ` +
+			`${totals[k]!.toFixed(1).padStart(6)} ${vs}${ofTravel}`
+		);
 	});
 }
 
@@ -54,7 +57,8 @@ export function SliderTable({curve, delta, width, height, cursor, isFocused, ban
 	const bank = bankTrack > 0 ? sliderBank(curve, bankTrack, isFocused ? cursor : -1) : null;
 	// The travel column (a measured scanner) widens every row by the same 7 characters.
 	const rowWidth = sliderRowWidth + (curve.plan.scanner?.sliderTravelDb ? 7 : 0);
-	const beside = (text: string, extra: string | undefined) => (bank && extra !== undefined ? `${text.padEnd(rowWidth)}  ${extra}` : text);
+	const beside = (text: string, extra: string | undefined) =>
+		bank && extra !== undefined ? `${text.padEnd(rowWidth)}  ${extra}` : text;
 	const lines = sliderRows(curve, delta);
 	const {start, end} = scrollWindow(lines.length, Math.max(0, cursor), Math.max(1, height - 1));
 	const more = start > 0 || end < lines.length ? ` (${start + 1}-${end} of ${lines.length})` : '';

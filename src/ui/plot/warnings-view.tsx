@@ -14,15 +14,25 @@ export interface WarningsViewProps {
 	readonly height: number;
 }
 
-export function warningsViewLines(curve: CurveResult, width: number, height: number): {text: string; tone: 'title' | 'warning' | 'plain'}[] {
-	const out: {text: string; tone: 'title' | 'warning' | 'plain'}[] = [{text: 'Warnings in full (Esc closes)', tone: 'title'}];
+export function warningsViewLines(
+	curve: CurveResult,
+	width: number,
+	height: number,
+): {text: string; tone: 'title' | 'warning' | 'plain'}[] {
+	const out: {text: string; tone: 'title' | 'warning' | 'plain'}[] = [
+		{text: 'Warnings in full (Esc closes)', tone: 'title'},
+	];
 	if (curve.warnings.length === 0) out.push({text: 'No warnings for this plan.', tone: 'plain'});
 	for (const w of curve.warnings) {
 		const mark = shortWarning(w, curve)[0] ?? '!';
-		wrapWords(`${mark} ${w.message}`, width - 2).forEach((text, i) => out.push({text: i === 0 ? text : `  ${text}`, tone: 'warning'}));
+		wrapWords(`${mark} ${w.message}`, width - 2).forEach((text, i) =>
+			out.push({text: i === 0 ? text : `  ${text}`, tone: 'warning'}),
+		);
 	}
 	// The plot's band (-): what it holds, said once in the console, here.
-	wrapWords(`- ${bandScopeNote}`, width - 2).forEach((text, i) => out.push({text: i === 0 ? text : `  ${text}`, tone: 'plain'}));
+	wrapWords(`- ${bandScopeNote}`, width - 2).forEach((text, i) =>
+		out.push({text: i === 0 ? text : `  ${text}`, tone: 'plain'}),
+	);
 	const room = height - out.length - 1;
 	const cautionText = cautions.flatMap((c) => wrapWords(`- ${c}`, width));
 	if (room > 1) {
@@ -38,7 +48,11 @@ export function WarningsView({curve, width, height}: WarningsViewProps) {
 	return (
 		<Box flexDirection="column" width={width}>
 			{lines.map((l, i) => (
-				<Text key={i} wrap="truncate" {...(l.tone === 'title' ? theme.current : l.tone === 'warning' ? theme.warning : {})}>
+				<Text
+					key={i}
+					wrap="truncate"
+					{...(l.tone === 'title' ? theme.current : l.tone === 'warning' ? theme.warning : {})}
+				>
 					{clip(l.text, width)}
 				</Text>
 			))}

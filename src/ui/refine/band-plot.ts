@@ -32,13 +32,16 @@ export function bandPlot(r: RefineResult, width: number, height: number): string
 		if (Number.isFinite(b.expectedDb)) row[at(b.expectedDb)] = bandGlyph.expected;
 		if (Number.isFinite(b.levelDb)) {
 			const c = at(b.levelDb);
-			row[c] = row[c] === bandGlyph.expected && b.usable ? bandGlyph.both : b.usable ? bandGlyph.measured : bandGlyph.unusable;
+			row[c] =
+				row[c] === bandGlyph.expected && b.usable ? bandGlyph.both : b.usable ? bandGlyph.measured : bandGlyph.unusable;
 		}
 		const verdict = b.usable ? (b.fitted ? 'fitted' : '') : (shortVerdict[b.verdict] ?? b.verdict);
 		return `${b.depthCm.toFixed(1).padStart(5)}cm|${row.join('')} ${verdict}`.slice(0, width);
 	});
 	const left = `${lo} dB`;
 	const right = `${hi} dB`;
-	out.push(`${' '.repeat(7)}+${left}${'-'.repeat(Math.max(1, plotW - left.length - right.length))}${right}`.slice(0, width));
+	out.push(
+		`${' '.repeat(7)}+${left}${'-'.repeat(Math.max(1, plotW - left.length - right.length))}${right}`.slice(0, width),
+	);
 	return out;
 }

@@ -28,7 +28,9 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 	const field = (label: string, text: string, isActive: boolean) => (
 		<Text wrap="truncate">
 			<Text {...theme.muted}>{label}</Text>
-			<Text {...(isActive ? theme.selected : theme.value)}>{clip(`${text}${isActive ? '▏' : ''}`, width - label.length)}</Text>
+			<Text {...(isActive ? theme.selected : theme.value)}>
+				{clip(`${text}${isActive ? '▏' : ''}`, width - label.length)}
+			</Text>
 		</Text>
 	);
 	const isPick = panel.phase === 'pick';
@@ -38,14 +40,20 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 				{clip('Refine from an image of this patient', width)}
 			</Text>
 			<Text wrap="truncate" {...theme.muted}>
-				{clip('A still exported from the scanner (DICOM or PNG), taken with this plan\'s sliders and master.', width)}
+				{clip("A still exported from the scanner (DICOM or PNG), taken with this plan's sliders and master.", width)}
 			</Text>
 			<Text> </Text>
 			{field('Image file  ', panel.path, isPick && panel.field === 'path')}
-			{field('Frame       ', panel.frame === '' && !(isPick && panel.field === 'frame') ? '(first)' : panel.frame, isPick && panel.field === 'frame')}
+			{field(
+				'Frame       ',
+				panel.frame === '' && !(isPick && panel.field === 'frame') ? '(first)' : panel.frame,
+				isPick && panel.field === 'frame',
+			)}
 			{field(
 				'Settings    ',
-				panel.settings === '' && !(isPick && panel.field === 'settings') ? '(none: the plan\'s own sliders and master)' : panel.settings,
+				panel.settings === '' && !(isPick && panel.field === 'settings')
+					? "(none: the plan's own sliders and master)"
+					: panel.settings,
 				isPick && panel.field === 'settings',
 			)}
 			<Text> </Text>
@@ -61,7 +69,10 @@ function PickForm({panel, width}: {readonly panel: RefinePanel & {phase: 'pick' 
 				))
 			) : (
 				<Text wrap="truncate" {...theme.muted}>
-					{clip('Enter measures it; Tab: next field (frame, settings file {sliders, masterGainDb}); Esc closes.', width)}
+					{clip(
+						'Enter measures it; Tab: next field (frame, settings file {sliders, masterGainDb}); Esc closes.',
+						width,
+					)}
 				</Text>
 			)}
 			<Text> </Text>
@@ -79,35 +90,65 @@ function sliderLines(r: RefineResult, width: number): string[] {
 	const hasTravel = r.sliders.some((s) => s.correctionTravel !== null);
 	const cell = 6;
 	const columns = [
-		...r.sliders.map((s, k) => ({head: String(k + 1), db: signed(s.correctionDb), travel: s.correctionTravel === null ? '' : signed(s.correctionTravel, 2)})),
+		...r.sliders.map((s, k) => ({
+			head: String(k + 1),
+			db: signed(s.correctionDb),
+			travel: s.correctionTravel === null ? '' : signed(s.correctionTravel, 2),
+		})),
 		{head: 'master', db: signed(r.masterCorrectionDb), travel: ''},
 	];
 	const perLine = Math.max(1, Math.floor((width - 7) / cell));
 	const lines: string[] = [];
 	for (let k = 0; k < columns.length; k += perLine) {
 		const part = columns.slice(k, k + perLine);
-		const row = (label: string, pick: (c: (typeof columns)[number]) => string) => `${label.padEnd(7)}${part.map((c) => pick(c).padStart(cell - 1).padEnd(cell)).join('')}`;
-		lines.push(row(k === 0 ? 'slider' : '', (c) => c.head), row('dB', (c) => c.db));
+		const row = (label: string, pick: (c: (typeof columns)[number]) => string) =>
+			`${label.padEnd(7)}${part
+				.map((c) =>
+					pick(c)
+						.padStart(cell - 1)
+						.padEnd(cell),
+				)
+				.join('')}`;
+		lines.push(
+			row(k === 0 ? 'slider' : '', (c) => c.head),
+			row('dB', (c) => c.db),
+		);
 		if (hasTravel) lines.push(row('travel', (c) => c.travel));
 	}
 	return lines;
 }
 
-function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 'shown'}; readonly width: number; readonly height: number}) {
+function Shown({
+	panel,
+	width,
+	height,
+}: {
+	readonly panel: RefinePanel & {phase: 'shown'};
+	readonly width: number;
+	readonly height: number;
+}) {
 	const theme = useTheme();
 	const r = panel.result;
 	const thumbWidth = Math.max(16, Math.min(40, Math.floor(width * 0.34)));
 	const rightWidth = width - thumbWidth - 2;
 	const cautionLines = wrapWords(`${refineCautions[0]} ${refineCautions[1]}`, thumbWidth);
 	const thumbRows = Math.max(6, height - 2 - cautionLines.length);
-	const thumb = useMemo(() => refineThumbnail(panel.still, r.mask, thumbWidth, thumbRows), [panel.still, r.mask, thumbWidth, thumbRows]);
+	const thumb = useMemo(
+		() => refineThumbnail(panel.still, r.mask, thumbWidth, thumbRows),
+		[panel.still, r.mask, thumbWidth, thumbRows],
+	);
 	const a = r.attenuation;
 	const alphaLine = a
-		? `Layer ${a.layerIndex + 1} ${a.label}: α0 ${a.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz, 95 % ${a.low.toFixed(2)}–${a.high.toFixed(2)} (plan ${a.planAlphaDbPerCmMhz})`
+		? `Layer ${a.layerIndex + 1} ${a.label}: α0 ${a.alphaDbPerCmMhz.toFixed(2)} dB/cm/MHz, 95 % ` +
+			`${a.low.toFixed(2)}–${a.high.toFixed(2)} (plan ${a.planAlphaDbPerCmMhz})`
 		: `α0 not measured: ${r.cannotTell ?? ''}`;
 	const sliders = sliderLines(r, rightWidth);
-	const notes = r.warnings.filter((w) => w.code === 'uncalibrated' || w.code === 'model-leftover' || w.code === 'slider-range-exceeded');
-	const noteLines = notes.flatMap((w) => wrapWords(w.code === 'uncalibrated' ? w.message.split('. ')[0]! + '.' : w.message, rightWidth)).slice(0, 2);
+	const notes = r.warnings.filter(
+		(w) => w.code === 'uncalibrated' || w.code === 'model-leftover' || w.code === 'slider-range-exceeded',
+	);
+	const noteLines = notes
+		.flatMap((w) => wrapWords(w.code === 'uncalibrated' ? w.message.split('. ')[0]! + '.' : w.message, rightWidth))
+		.slice(0, 2);
 	const plotRows = Math.max(6, height - 3 - sliders.length - noteLines.length);
 	const plot = bandPlot(r, rightWidth, plotRows);
 	return (
@@ -133,7 +174,11 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 			<Box width={2} />
 			<Box flexDirection="column" width={rightWidth}>
 				<Text wrap="truncate" {...theme.current}>
-					{clip(`${r.levelMap.calibrated ? 'Calibrated' : 'UNCALIBRATED'}: ${bandGlyph.measured} measured ${bandGlyph.unusable} unusable ${bandGlyph.expected} plan`, rightWidth)}
+					{clip(
+						`${r.levelMap.calibrated ? 'Calibrated' : 'UNCALIBRATED'}: ${bandGlyph.measured} measured ${bandGlyph.unusable} ` +
+							`unusable ${bandGlyph.expected} plan`,
+						rightWidth,
+					)}
 				</Text>
 				{plot.map((l, i) => (
 					<Text key={i} wrap="truncate" {...theme.value}>
@@ -154,7 +199,10 @@ function Shown({panel, width, height}: {readonly panel: RefinePanel & {phase: 's
 					</Text>
 				))}
 				<Text wrap="truncate" {...theme.muted}>
-					{clip(a ? 'a: α0 into the plan (u undoes)  Esc: discard  Enter: another' : 'Esc: discard  Enter: another image', rightWidth)}
+					{clip(
+						a ? 'a: α0 into the plan (u undoes)  Esc: discard  Enter: another' : 'Esc: discard  Enter: another image',
+						rightWidth,
+					)}
 				</Text>
 			</Box>
 		</Box>

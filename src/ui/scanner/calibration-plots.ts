@@ -42,7 +42,15 @@ function sampleAt(depths: readonly number[], values: readonly number[], d: numbe
 	return values.length === 1 ? values[0]! : values[i - 1]! + t * (values[i]! - values[i - 1]!);
 }
 
-function depthPlot(depthCm: number, height: number, width: number, value: (d: number) => number | null, lo: number, hi: number, mark?: (d: number, row: string[]) => void): string[] {
+function depthPlot(
+	depthCm: number,
+	height: number,
+	width: number,
+	value: (d: number) => number | null,
+	lo: number,
+	hi: number,
+	mark?: (d: number, row: string[]) => void,
+): string[] {
 	const plotW = Math.max(10, width - 8);
 	const out: string[] = [];
 	for (let r = 0; r < height; r++) {
@@ -79,8 +87,17 @@ export function penetrationPlot(cal: ScannerCalibration, width: number, height: 
 	const plotW = Math.max(10, width - 8);
 	const zero = Math.round(((0 - lo) / (hi - lo)) * (plotW - 1));
 	const rowCm = cal.displayDepthCm / height;
-	return depthPlot(cal.displayDepthCm, height, width, (d) => sampleAt(depths, enr, d), lo, hi, (d, row) => {
-		row[zero] = '|';
-		if (cal.penetrationCm !== null && Math.abs(d - cal.penetrationCm) <= rowCm / 2) row.fill('v', 0, Math.max(0, zero));
-	});
+	return depthPlot(
+		cal.displayDepthCm,
+		height,
+		width,
+		(d) => sampleAt(depths, enr, d),
+		lo,
+		hi,
+		(d, row) => {
+			row[zero] = '|';
+			if (cal.penetrationCm !== null && Math.abs(d - cal.penetrationCm) <= rowCm / 2)
+				row.fill('v', 0, Math.max(0, zero));
+		},
+	);
 }

@@ -9,7 +9,12 @@ import type {PhantomImage} from '../../calibration/phantom-image.js';
 /** Light to dark is dark to bright on a terminal background: space for black, @ for white. */
 const ramp = ' .:-=+*#%@';
 
-export function imageThumbnail(image: PhantomImage, columns: readonly [number, number], width: number, height: number): string[] {
+export function imageThumbnail(
+	image: PhantomImage,
+	columns: readonly [number, number],
+	width: number,
+	height: number,
+): string[] {
 	const {region} = image;
 	const [c0, c1] = measuredColumns(image, columns);
 	const lines: string[] = [];
@@ -24,8 +29,8 @@ export function imageThumbnail(image: PhantomImage, columns: readonly [number, n
 			const x1 = Math.max(x0 + 1, Math.floor((c + 1) * sx));
 			const insideX = x1 > region.x0 && x0 <= region.x1;
 			const insideY = y1 > region.y0 && y0 <= region.y1;
-			const edgeX = insideY && (x0 <= region.x0 && x1 > region.x0 || x0 <= region.x1 && x1 > region.x1);
-			const edgeY = insideX && (y0 <= region.y0 && y1 > region.y0 || y0 <= region.y1 && y1 > region.y1);
+			const edgeX = insideY && ((x0 <= region.x0 && x1 > region.x0) || (x0 <= region.x1 && x1 > region.x1));
+			const edgeY = insideX && ((y0 <= region.y0 && y1 > region.y0) || (y0 <= region.y1 && y1 > region.y1));
 			const measured = x1 > c0 && x0 <= c1;
 			if (edgeY) {
 				line += measured ? ':' : '-';

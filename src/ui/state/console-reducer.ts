@@ -8,11 +8,28 @@ import type {ConsoleState, Overlay, StepId, SweepExport} from './console-state.j
 import {nextPicture, stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
-import {addLayer, customCopy, moveLayer, removeLayer, setLayerTissue, standardReference} from '../../plan/plan-edits.js';
+import {
+	addLayer,
+	customCopy,
+	moveLayer,
+	removeLayer,
+	setLayerTissue,
+	standardReference,
+} from '../../plan/plan-edits.js';
 import {budgetReceiveOf, choiceFields, cycleChoice, numberFields} from './plan-fields.js';
 import {receiveBudgetNotice} from './receive-budget-notice.js';
 import type {StartingPoint} from './starting-point.js';
-import {applyDoc, applyNumber, clampCursor, pickerTissues, queue, remember, setCursor, travel, withNotice} from './state-helpers.js';
+import {
+	applyDoc,
+	applyNumber,
+	clampCursor,
+	pickerTissues,
+	queue,
+	remember,
+	setCursor,
+	travel,
+	withNotice,
+} from './state-helpers.js';
 import {tissueOf} from './row-text.js';
 import {currentRow, rowsOf, type Row} from './step-rows.js';
 import {openScannerPanel, scannerIntent, scannerResult} from './scanner-reducer.js';
@@ -34,7 +51,12 @@ export type Action =
 	| {readonly type: 'saved'; readonly name: string}
 	| {readonly type: 'save-exists'; readonly name: string}
 	| {readonly type: 'exported'; readonly files: readonly string[]}
-	| {readonly type: 'export-exists'; readonly dir: string; readonly files: readonly string[]; readonly sweep?: SweepExport}
+	| {
+			readonly type: 'export-exists';
+			readonly dir: string;
+			readonly files: readonly string[];
+			readonly sweep?: SweepExport;
+	  }
 	| {readonly type: 'compare-loaded'; readonly index: number; readonly name: string; readonly plan: PlanDocument}
 	| {readonly type: 'failed'; readonly message: string}
 	| {readonly type: 'refined'; readonly still: PhantomImage; readonly result: RefineResult}
@@ -63,12 +85,26 @@ export function modeOf(s: ConsoleState): Mode {
 }
 
 function goStep(s: ConsoleState, step: StepId): ConsoleState {
-	return clampCursor({...s, step, pane: 'step', openLayer: step === 'stack' ? s.openLayer : null, refusal: null, returnStep: null});
+	return clampCursor({
+		...s,
+		step,
+		pane: 'step',
+		openLayer: step === 'stack' ? s.openLayer : null,
+		refusal: null,
+		returnStep: null,
+	});
 }
 
 function askQuit(s: ConsoleState): ConsoleState {
 	if (!s.dirty) return queue(s, {kind: 'exit'});
-	return {...s, overlay: {kind: 'ask', question: 'This plan has changes not saved as a preset. Quit anyway? (y/n)', then: {kind: 'quit'}}};
+	return {
+		...s,
+		overlay: {
+			kind: 'ask',
+			question: 'This plan has changes not saved as a preset. Quit anyway? (y/n)',
+			then: {kind: 'quit'},
+		},
+	};
 }
 
 function openSave(s: ConsoleState): ConsoleState {
@@ -86,11 +122,19 @@ function enterRow(s: ConsoleState, row: Row): ConsoleState {
 		case 'number': {
 			const v = numberFields[row.key].get(s.doc, row.index);
 			const spec = numberFields[row.key].spec;
-			return {...s, editing: {rowId: row.id, ...openEntry(v === undefined ? '' : formatNumber(v, spec))}, refusal: null};
+			return {
+				...s,
+				editing: {rowId: row.id, ...openEntry(v === undefined ? '' : formatNumber(v, spec))},
+				refusal: null,
+			};
 		}
 		case 'tissue-label': {
 			const t = s.doc.layers[row.index]?.tissue;
-			return {...s, editing: {rowId: row.id, ...openEntry(typeof t === 'string' ? '' : (t?.label ?? ''))}, refusal: null};
+			return {
+				...s,
+				editing: {rowId: row.id, ...openEntry(typeof t === 'string' ? '' : (t?.label ?? ''))},
+				refusal: null,
+			};
 		}
 		case 'choice':
 			return changeChoice(s, row, 1);
@@ -110,7 +154,10 @@ function enterRow(s: ConsoleState, row: Row): ConsoleState {
 
 /** The open layer's first custom value row (its name), where typing custom values starts. */
 function firstCustomRow(s: ConsoleState): number {
-	return Math.max(0, rowsOf(s, 'stack').findIndex((r) => r.kind === 'tissue-label'));
+	return Math.max(
+		0,
+		rowsOf(s, 'stack').findIndex((r) => r.kind === 'tissue-label'),
+	);
 }
 
 function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleState {
@@ -131,7 +178,10 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 		case 'fill-reference': {
 			const next = structuredClone(s.doc);
 			next.reference = standardReference(s.doc, s.origin.layers);
-			return withNotice(applyDoc(s, next, row.id), `Usual gains refilled from the standard layers of "${s.origin.name}".`);
+			return withNotice(
+				applyDoc(s, next, row.id),
+				`Usual gains refilled from the standard layers of "${s.origin.name}".`,
+			);
 		}
 		case 'save':
 		case 'export':
@@ -160,12 +210,23 @@ function changeChoice(s: ConsoleState, row: Row & {kind: 'choice'}, direction: 1
 	const next = field.set(s.doc, value, {standardReference: () => standardReference(s.doc, s.origin.layers)});
 	const after = applyDoc(s, next, row.id);
 	const notice = after.doc === s.doc ? null : receiveBudgetNotice(s.doc, after.doc);
-	return notice ? withNotice(after, notice, budgetReceiveOf(after.doc) === (after.doc.probe.receive ?? 'fundamental') ? 'info' : 'warning') : after;
+	return notice
+		? withNotice(
+				after,
+				notice,
+				budgetReceiveOf(after.doc) === (after.doc.probe.receive ?? 'fundamental') ? 'info' : 'warning',
+			)
+		: after;
 }
 
 function nudgeRow(s: ConsoleState, row: Row, direction: 1 | -1, isCoarse: boolean): ConsoleState {
 	if (row.kind === 'choice') return changeChoice(s, row, direction);
-	const target = row.kind === 'number' ? row : row.kind === 'layer' ? ({kind: 'number', id: row.id, key: 'thickness', index: row.index} as const) : undefined;
+	const target =
+		row.kind === 'number'
+			? row
+			: row.kind === 'layer'
+				? ({kind: 'number', id: row.id, key: 'thickness', index: row.index} as const)
+				: undefined;
 	if (!target) return s;
 	const field = numberFields[target.key];
 	const current = field.get(s.doc, target.index);
@@ -185,7 +246,8 @@ function stackIntent(s: ConsoleState, intent: Intent, row: Row | undefined): Con
 		}
 		case 'layer-remove': {
 			if (layer === undefined) return s;
-			if (s.doc.layers.length <= 1) return {...s, refusal: {rowId: row!.id, message: 'refused: a plan needs at least one layer'}};
+			if (s.doc.layers.length <= 1)
+				return {...s, refusal: {rowId: row!.id, message: 'refused: a plan needs at least one layer'}};
 			const gone = `${layer + 1} ${tissueOf(s.doc, layer)?.label ?? 'layer'}`;
 			const after = clampCursor(applyDoc(s, removeLayer(s.doc, layer), row!.id));
 			return after.doc === s.doc ? after : withNotice(after, `Removed layer ${gone}; u brings it back.`);
@@ -225,7 +287,8 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 		case 'up':
 		case 'down': {
 			const d = intent === 'up' ? -1 : 1;
-			if (mode === 'curve-pane') return setCursor(s, 'curve', Math.max(0, Math.min(s.doc.sliders.count - 1, s.cursors.curve + d)));
+			if (mode === 'curve-pane')
+				return setCursor(s, 'curve', Math.max(0, Math.min(s.doc.sliders.count - 1, s.cursors.curve + d)));
 			return {...setCursor(s, s.step, Math.max(0, Math.min(rows.length - 1, here + d))), refusal: null};
 		}
 		case 'prev-step':
@@ -242,14 +305,16 @@ function browseIntent(s: ConsoleState, intent: Intent, input: string, mode: Mode
 		case 'pane':
 			if (s.isWide) return s.step === 'curve' ? s : {...s, pane: s.pane === 'step' ? 'curve' : 'step'};
 			if (s.step !== 'curve') return {...goStep(s, 'curve'), returnStep: s.step};
-			if (s.returnStep === null) return withNotice(s, 'Tab goes back to the step you came from; here use 1-4 or ← for a step.');
+			if (s.returnStep === null)
+				return withNotice(s, 'Tab goes back to the step you came from; here use 1-4 or ← for a step.');
 			return goStep(s, s.returnStep);
 		case 'undo':
 		case 'redo':
 			return travel(s, intent);
 		case 'back':
 			if (mode === 'curve-pane') return {...s, pane: 'step'};
-			if (s.step === 'stack' && s.openLayer !== null) return setCursor({...s, openLayer: null, refusal: null}, 'stack', s.openLayer + 1);
+			if (s.step === 'stack' && s.openLayer !== null)
+				return setCursor({...s, openLayer: null, refusal: null}, 'stack', s.openLayer + 1);
 			if (s.step === 'start') return withNotice(s, 'This is the first step; q quits.');
 			return goStep(s, stepIds[stepIds.indexOf(s.step) - 1]!);
 		case 'enter':
@@ -324,7 +389,8 @@ function stepCompare(s: ConsoleState, o: Overlay & {kind: 'compare'}, direction:
 }
 
 function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent): ConsoleState {
-	if (intent === 'no') return withNotice({...s, overlay: null}, o.then.kind === 'quit' ? 'Still here.' : 'Nothing changed.');
+	if (intent === 'no')
+		return withNotice({...s, overlay: null}, o.then.kind === 'quit' ? 'Still here.' : 'Nothing changed.');
 	if (intent !== 'yes') return s;
 	const closed = {...s, overlay: null};
 	switch (o.then.kind) {
@@ -335,7 +401,12 @@ function askIntent(s: ConsoleState, o: Overlay & {kind: 'ask'}, intent: Intent):
 		case 'overwrite':
 			return queue(closed, {kind: 'save', name: o.then.name, overwrite: true});
 		case 'replace-export':
-			return queue(closed, {kind: 'export', dir: o.then.dir, replace: true, ...(o.then.sweep ? {sweep: o.then.sweep} : {})});
+			return queue(closed, {
+				kind: 'export',
+				dir: o.then.dir,
+				replace: true,
+				...(o.then.sweep ? {sweep: o.then.sweep} : {}),
+			});
 	}
 }
 
@@ -348,7 +419,8 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 	const o = s.overlay;
 	switch (mode) {
 		case 'overlay':
-			if (o?.kind === 'compare' && (intent === 'prev-step' || intent === 'next-step')) return stepCompare(s, o, intent === 'next-step' ? 1 : -1);
+			if (o?.kind === 'compare' && (intent === 'prev-step' || intent === 'next-step'))
+				return stepCompare(s, o, intent === 'next-step' ? 1 : -1);
 			return intent === 'back' || intent === 'help' ? {...s, overlay: null} : s;
 		case 'ask':
 			return askIntent(s, o as Overlay & {kind: 'ask'}, intent);
@@ -367,7 +439,10 @@ function keyPress(s: ConsoleState, input: string, key: KeyFlags): ConsoleState {
 		case 'refine':
 			return intent === 'help' ? {...s, overlay: {kind: 'help'}} : refineIntent(s, intent, input);
 		case 'sweep':
-			return sweepIntent(s, intent) ?? (intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s);
+			return (
+				sweepIntent(s, intent) ??
+				(intent === 'help' ? {...s, overlay: {kind: 'help'}} : intent === 'quit' ? askQuit(s) : s)
+			);
 		default:
 			return clampCursor(browseIntent(s, intent, input, mode));
 	}
@@ -377,7 +452,11 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 	switch (a.type) {
 		case 'key':
 			// A notice shown whole gives the key hints their line back at the next key.
-			return keyPress(s.notice?.isWhole ? {...s, notice: {text: s.notice.text, tone: s.notice.tone}} : s, a.input, a.key);
+			return keyPress(
+				s.notice?.isWhole ? {...s, notice: {text: s.notice.text, tone: s.notice.tone}} : s,
+				a.input,
+				a.key,
+			);
 		case 'resize': {
 			const columns = a.columns ?? s.columns;
 			const rows = a.rows ?? s.rows;
@@ -405,12 +484,25 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				'done',
 			);
 		case 'saved': {
-			const twin = s.startingPoints.some((p) => p.kind !== 'preset' && p.name.trim().toLowerCase() === a.name.trim().toLowerCase());
+			const twin = s.startingPoints.some(
+				(p) => p.kind !== 'preset' && p.name.trim().toLowerCase() === a.name.trim().toLowerCase(),
+			);
 			const mark = twin ? ' Step 1 marks it "(your preset)" beside the template of that name.' : '';
-			return withNotice({...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}}, `Saved as preset "${a.name}".${mark}`, 'done');
+			return withNotice(
+				{...s, dirty: false, presetName: a.name, doc: {...s.doc, name: a.name}},
+				`Saved as preset "${a.name}".${mark}`,
+				'done',
+			);
 		}
 		case 'save-exists':
-			return {...s, overlay: {kind: 'ask', question: `A preset named "${a.name}" exists. Replace it? (y/n)`, then: {kind: 'overwrite', name: a.name}}};
+			return {
+				...s,
+				overlay: {
+					kind: 'ask',
+					question: `A preset named "${a.name}" exists. Replace it? (y/n)`,
+					then: {kind: 'overwrite', name: a.name},
+				},
+			};
 		case 'exported': {
 			// The full path of the first file, then the others' endings (same folder, same name up to a dot).
 			const [first = '', ...rest] = a.files;
@@ -421,7 +513,9 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 				return p.slice(0, i);
 			}, names[0] ?? '');
 			const stem = shared.slice(0, Math.max(0, shared.lastIndexOf('.')));
-			const others = rest.map((f) => f.slice(f.lastIndexOf('/') + 1)).map((b) => (stem && b.startsWith(`${stem}.`) ? b.slice(stem.length) : b));
+			const others = rest
+				.map((f) => f.slice(f.lastIndexOf('/') + 1))
+				.map((b) => (stem && b.startsWith(`${stem}.`) ? b.slice(stem.length) : b));
 			const all = [first, ...others];
 			const said = all.length > 1 ? `${all.slice(0, -1).join(', ')} and ${all.at(-1)}` : first;
 			return {...s, notice: {text: `Wrote ${said}`, tone: 'done', isWhole: true}};
@@ -429,7 +523,14 @@ export function consoleReducer(s: ConsoleState, a: Action): ConsoleState {
 		case 'export-exists': {
 			const n = a.files.length;
 			const question = `Replace the ${n > 1 ? `${n} files` : 'file'} already there? (y/n)  ${a.files.join(', ')} in ${a.dir}`;
-			return {...s, overlay: {kind: 'ask', question, then: {kind: 'replace-export', dir: a.dir, ...(a.sweep ? {sweep: a.sweep} : {})}}};
+			return {
+				...s,
+				overlay: {
+					kind: 'ask',
+					question,
+					then: {kind: 'replace-export', dir: a.dir, ...(a.sweep ? {sweep: a.sweep} : {})},
+				},
+			};
 		}
 		case 'failed':
 			return {...s, notice: {text: a.message, tone: 'warning', isWhole: true}};

@@ -40,7 +40,11 @@ export type Overlay =
 	 * This patient beside another plan (key v): the starting plan (index -1), or the starting point
 	 * at `index` of the list (a template or a saved preset), once loaded.
 	 */
-	| {readonly kind: 'compare'; readonly index: number; readonly against?: {readonly name: string; readonly plan: PlanDocument}}
+	| {
+			readonly kind: 'compare';
+			readonly index: number;
+			readonly against?: {readonly name: string; readonly plan: PlanDocument};
+	  }
 	| {readonly kind: 'ask'; readonly question: string; readonly then: FollowUp}
 	| {readonly kind: 'name'; readonly text: string; readonly isFresh: boolean; readonly error?: string}
 	/** The folder to export the plan (or the fat sweep) into, typed (the current one offered). */

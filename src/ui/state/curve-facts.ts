@@ -43,7 +43,10 @@ export function shortWarning(w: CurveWarning, r: CurveResult): string {
 
 /** "reach: full 16 cm" / "reach: 12.3 cm, then noise". */
 export function reachText(r: CurveResult): string {
-	const noise = r.penetrationDepthCm === null ? `full ${r.plan.display.depthCm} cm` : `${f1(r.penetrationDepthCm)} cm, ${glyph.noise} noise below`;
+	const noise =
+		r.penetrationDepthCm === null
+			? `full ${r.plan.display.depthCm} cm`
+			: `${f1(r.penetrationDepthCm)} cm, ${glyph.noise} noise below`;
 	const blocked = r.blockedDepthCm === null ? '' : `; ${glyph.blocked} blocked from ${f1(r.blockedDepthCm)} cm`;
 	return `reach ${noise}${blocked}`;
 }

@@ -39,7 +39,8 @@ export function isInRange(value: number, spec: NumberSpec): boolean {
 export function parseEntry(text: string, spec: NumberSpec): Checked {
 	const t = text.trim().replace(',', '.');
 	if (t === '') return {ok: false, message: `type a value: ${rangeMessage(spec)}`};
-	if (!/^[-+]?(\d+\.?\d*|\.\d+)$/.test(t)) return {ok: false, message: `"${text.trim()}" is not a number: ${rangeMessage(spec)}`};
+	if (!/^[-+]?(\d+\.?\d*|\.\d+)$/.test(t))
+		return {ok: false, message: `"${text.trim()}" is not a number: ${rangeMessage(spec)}`};
 	const value = Number(t);
 	if (!isInRange(value, spec)) return {ok: false, message: rangeMessage(spec)};
 	return {ok: true, value};

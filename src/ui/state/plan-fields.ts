@@ -56,7 +56,15 @@ interface NumberField {
 	check?(doc: PlanDocument, index: number, value: number): string | undefined;
 }
 
-const spec = (label: string, unit: string, limit: NumberSpec['limit'], step: number, coarse: number, decimals: number, integer = false): NumberSpec => ({
+const spec = (
+	label: string,
+	unit: string,
+	limit: NumberSpec['limit'],
+	step: number,
+	coarse: number,
+	decimals: number,
+	integer = false,
+): NumberSpec => ({
 	label,
 	unit,
 	limit,
@@ -108,7 +116,10 @@ export const numberFields: Record<NumberKey, NumberField> = {
 	},
 	speedMps: customField('speedMps', spec('Speed c', 'm/s', limits.speedMps, 5, 50, 1)),
 	densityKgM3: customField('densityKgM3', spec('Density rho', 'kg/m³', limits.densityKgM3, 10, 100, 1)),
-	alphaDbPerCmMhz: customField('alphaDbPerCmMhz', spec('Attenuation a0', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.5, 3)),
+	alphaDbPerCmMhz: customField(
+		'alphaDbPerCmMhz',
+		spec('Attenuation a0', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.5, 3),
+	),
 	exponent: customField('exponent', spec('Exponent n', '', limits.exponent, 0.05, 0.25, 2)),
 	centerMhz: {
 		spec: spec('Centre frequency', 'MHz', limits.centerMhz, 0.5, 2, 2),
@@ -167,19 +178,22 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		spec: spec('  its interval, low', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
 		get: (doc, i) => doc.layers[i]?.measuredAlpha?.lowDbPerCmMhz,
 		set: (doc, i, v) => edit(doc, (d) => void (d.layers[i]!.measuredAlpha!.lowDbPerCmMhz = v)),
-		check: (doc, i, v) => (v > (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be above the measured value' : undefined),
+		check: (doc, i, v) =>
+			v > (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be above the measured value' : undefined,
 	},
 	measuredHigh: {
 		spec: spec('  its interval, high', 'dB/cm/MHz^n', limits.alphaDbPerCmMhz, 0.05, 0.2, 3),
 		get: (doc, i) => doc.layers[i]?.measuredAlpha?.highDbPerCmMhz,
 		set: (doc, i, v) => edit(doc, (d) => void (d.layers[i]!.measuredAlpha!.highDbPerCmMhz = v)),
-		check: (doc, i, v) => (v < (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be below the measured value' : undefined),
+		check: (doc, i, v) =>
+			v < (doc.layers[i]?.measuredAlpha?.alphaDbPerCmMhz ?? v) ? 'must not be below the measured value' : undefined,
 	},
 	targetLayer: {
 		spec: spec('Target layer (0 = fixed)', '', {min: 0, max: limits.layers.max}, 1, 1, 0, true),
 		get: (doc) => doc.targetBelowLayer?.layer ?? 0,
 		set: (doc, _i, v) => setTargetLayer(doc, v, resolvePlan(doc)),
-		check: (doc, _i, v) => (v > doc.layers.length ? `must be 0 (a fixed depth) or a layer from 1 to ${doc.layers.length}` : undefined),
+		check: (doc, _i, v) =>
+			v > doc.layers.length ? `must be 0 (a fixed depth) or a layer from 1 to ${doc.layers.length}` : undefined,
 	},
 	target: {
 		spec: spec('Target depth', 'cm', {min: 0, max: limits.depthCm.max}, 0.5, 2, 1),
@@ -190,7 +204,9 @@ export const numberFields: Record<NumberKey, NumberField> = {
 				else d.targetDepthCm = v;
 			}),
 		check: (doc, _i, v) =>
-			!doc.targetBelowLayer && v > doc.display.depthCm ? `must not be deeper than the display (${doc.display.depthCm} cm)` : undefined,
+			!doc.targetBelowLayer && v > doc.display.depthCm
+				? `must not be deeper than the display (${doc.display.depthCm} cm)`
+				: undefined,
 	},
 	assumedSpeedMps: {
 		spec: spec('Assumed speed', 'm/s', limits.assumedSpeedMps, 5, 20, 1),
@@ -206,13 +222,15 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		spec: spec('Slider low end', 'dB', limits.sliderDb, 1, 5, 1),
 		get: (doc) => doc.sliders.minDb,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.sliders.minDb = v)),
-		check: (doc, _i, v) => (v < doc.sliders.maxDb ? undefined : `must be below the slider high end (${db(doc.sliders.maxDb)})`),
+		check: (doc, _i, v) =>
+			v < doc.sliders.maxDb ? undefined : `must be below the slider high end (${db(doc.sliders.maxDb)})`,
 	},
 	sliderMaxDb: {
 		spec: spec('Slider high end', 'dB', limits.sliderDb, 1, 5, 1),
 		get: (doc) => doc.sliders.maxDb,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.sliders.maxDb = v)),
-		check: (doc, _i, v) => (v > doc.sliders.minDb ? undefined : `must be above the slider low end (${db(doc.sliders.minDb)})`),
+		check: (doc, _i, v) =>
+			v > doc.sliders.minDb ? undefined : `must be above the slider low end (${db(doc.sliders.minDb)})`,
 	},
 	rampDbPerCmMhz: {
 		spec: spec('Built-in ramp', 'dB/cm/MHz', limits.rampDbPerCmMhz, 0.05, 0.25, 2),
@@ -245,7 +263,9 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		get: (doc) => doc.masterGain.baseDb ?? (doc.masterGain.minDb + doc.masterGain.maxDb) / 2,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.masterGain.baseDb = v)),
 		check: (doc, _i, v) =>
-			v < doc.masterGain.minDb || v > doc.masterGain.maxDb ? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}` : undefined,
+			v < doc.masterGain.minDb || v > doc.masterGain.maxDb
+				? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}`
+				: undefined,
 	},
 	noiseBudgetDb: {
 		spec: spec('Noise budget', 'dB', limits.noiseBudgetDb, 1, 5, 1),
@@ -272,14 +292,18 @@ export const numberFields: Record<NumberKey, NumberField> = {
 		get: (doc) => doc.reference?.masterGainDb,
 		set: (doc, _i, v) => edit(doc, (d) => void (d.reference!.masterGainDb = v)),
 		check: (doc, _i, v) =>
-			v < doc.masterGain.minDb || v > doc.masterGain.maxDb ? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}` : undefined,
+			v < doc.masterGain.minDb || v > doc.masterGain.maxDb
+				? `must be within the master range, ${db(doc.masterGain.minDb)} to ${db(doc.masterGain.maxDb)}`
+				: undefined,
 	},
 	refSliderDb: {
 		spec: {...spec('Usual slider', 'dB', limits.sliderDb, 1, 5, 1), isFixed: true},
 		get: (doc, i) => doc.reference?.slidersDb[i],
 		set: (doc, i, v) => edit(doc, (d) => void (d.reference!.slidersDb[i] = v)),
 		check: (doc, _i, v) =>
-			v < doc.sliders.minDb || v > doc.sliders.maxDb ? `must be within the slider range, ${db(doc.sliders.minDb)} to ${db(doc.sliders.maxDb)}` : undefined,
+			v < doc.sliders.minDb || v > doc.sliders.maxDb
+				? `must be within the slider range, ${db(doc.sliders.minDb)} to ${db(doc.sliders.maxDb)}`
+				: undefined,
 	},
 };
 
@@ -402,5 +426,5 @@ export function derivedNoiseBudgetDb(doc: PlanDocument): number {
 export function cycleChoice(field: ChoiceField, current: string, direction: 1 | -1): string {
 	const i = field.options.findIndex((o) => o.value === current);
 	const n = field.options.length;
-	return field.options[(((i < 0 ? 0 : i) + direction) % n + n) % n]!.value;
+	return field.options[((((i < 0 ? 0 : i) + direction) % n) + n) % n]!.value;
 }

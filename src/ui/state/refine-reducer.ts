@@ -40,7 +40,10 @@ function pickIntent(s: ConsoleState, p: RefinePanel & {phase: 'pick'}, intent: I
 			if (!f.ok) return set({error: f.message, field: 'frame'});
 			const settings = p.settings.trim();
 			const working: RefinePanel = {phase: 'working', path: p.path.trim(), frame: p.frame.trim(), settings};
-			return queue({...s, refine: working}, {kind: 'refine', path: p.path.trim(), ...(f.frame ? {frame: f.frame} : {}), ...(settings ? {settings} : {})});
+			return queue(
+				{...s, refine: working},
+				{kind: 'refine', path: p.path.trim(), ...(f.frame ? {frame: f.frame} : {}), ...(settings ? {settings} : {})},
+			);
 		}
 		default:
 			return s;
@@ -49,10 +52,17 @@ function pickIntent(s: ConsoleState, p: RefinePanel & {phase: 'pick'}, intent: I
 
 function accept(s: ConsoleState, p: RefinePanel & {phase: 'shown'}): ConsoleState {
 	const a = p.result.attenuation;
-	if (!a) return withNotice(s, `Nothing to accept: ${p.result.cannotTell ?? 'no attenuation was measured'}. Esc closes.`, 'warning');
+	if (!a)
+		return withNotice(
+			s,
+			`Nothing to accept: ${p.result.cannotTell ?? 'no attenuation was measured'}. Esc closes.`,
+			'warning',
+		);
 	const after = applyDoc(s, planWithMeasuredLayer(s.doc, a), `a:refine`);
 	if (after.doc === s.doc) return after;
-	const text = `Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} (${a.low.toFixed(2)}–${a.high.toFixed(2)}) now in the plan (u undoes); confirm live.`;
+	const text =
+		`Layer ${a.layerIndex + 1} (${a.label}): measured α0 ${a.alphaDbPerCmMhz.toFixed(2)} ` +
+		`(${a.low.toFixed(2)}–${a.high.toFixed(2)}) now in the plan (u undoes); confirm live.`;
 	return withNotice({...after, refine: closedRefine}, text, 'done');
 }
 
@@ -68,16 +78,41 @@ export function refineIntent(s: ConsoleState, intent: Intent, input: string): Co
 			return s;
 		case 'shown':
 			if (intent === 'accept') return accept(s, p);
-			if (intent === 'back') return withNotice({...s, refine: closedRefine}, 'Measurement discarded; the plan is unchanged.');
+			if (intent === 'back')
+				return withNotice({...s, refine: closedRefine}, 'Measurement discarded; the plan is unchanged.');
 			if (intent === 'enter') return {...s, refine: openRefine(p)};
 			return s;
 	}
 }
 
 /** The measurement came back: shown, or the form again with the reason. */
-export function refineDone(s: ConsoleState, outcome: {still: PhantomImage; result: RefineResult} | {problem: string}): ConsoleState {
+export function refineDone(
+	s: ConsoleState,
+	outcome: {still: PhantomImage; result: RefineResult} | {problem: string},
+): ConsoleState {
 	const p = s.refine;
 	if (p.phase !== 'working') return s;
-	if ('problem' in outcome) return {...s, refine: {phase: 'pick', path: p.path, frame: p.frame, settings: p.settings, field: 'path', error: outcome.problem}};
-	return {...s, refine: {phase: 'shown', path: p.path, frame: p.frame, settings: p.settings, still: outcome.still, result: outcome.result}};
+	if ('problem' in outcome)
+		return {
+			...s,
+			refine: {
+				phase: 'pick',
+				path: p.path,
+				frame: p.frame,
+				settings: p.settings,
+				field: 'path',
+				error: outcome.problem,
+			},
+		};
+	return {
+		...s,
+		refine: {
+			phase: 'shown',
+			path: p.path,
+			frame: p.frame,
+			settings: p.settings,
+			still: outcome.still,
+			result: outcome.result,
+		},
+	};
 }

@@ -47,6 +47,7 @@ export function frameOf(text: string): {ok: true; frame: number | undefined} | {
 	const t = text.trim();
 	if (t === '') return {ok: true, frame: undefined};
 	const n = Number(t);
-	if (!Number.isInteger(n) || n < 1 || n > 10000) return {ok: false, message: `frame: a whole number from 1 (got "${t}"), or empty for the first`};
+	if (!Number.isInteger(n) || n < 1 || n > 10000)
+		return {ok: false, message: `frame: a whole number from 1 (got "${t}"), or empty for the first`};
 	return {ok: true, frame: n};
 }

@@ -61,7 +61,8 @@ export function rowText(s: ConsoleState, row: Row): RowText {
 			const field = numberFields[row.key];
 			const v = field.get(s.doc, row.index);
 			const unit = field.spec.unit ? ` ${field.spec.unit}` : '';
-			if (v === undefined) return {label: numberLabel(row, s.doc), value: row.key === 'fat' ? 'no fat layer (Enter adds one)' : '-'};
+			if (v === undefined)
+				return {label: numberLabel(row, s.doc), value: row.key === 'fat' ? 'no fat layer (Enter adds one)' : '-'};
 			// Columns of fixed-decimal values (the usual gains) line up on the decimal point.
 			const text = formatNumber(v, field.spec);
 			return {label: numberLabel(row, s.doc), value: `${field.spec.isFixed ? text.padStart(6) : text}${unit}`};
@@ -83,10 +84,14 @@ export function rowText(s: ConsoleState, row: Row): RowText {
 			const isLast = row.index === s.doc.layers.length - 1;
 			// "screen": measured on the screen (displayed); "true": the real thickness. "+": goes on below.
 			const mode = l.thicknessAs === 'displayed' ? 'screen' : 'true';
-			return {label: `${row.index + 1} ${t?.label ?? '?'}`, value: `${thicknessText(l.thicknessCm)} cm ${mode}${isLast ? ' +' : ''}`};
+			return {
+				label: `${row.index + 1} ${t?.label ?? '?'}`,
+				value: `${thicknessText(l.thicknessCm)} cm ${mode}${isLast ? ' +' : ''}`,
+			};
 		}
 		case 'action':
-			if (row.action === 'pick-tissue' && s.openLayer !== null) return {label: 'Tissue', value: `${tissueOf(s.doc, s.openLayer)?.label ?? '?'} (Enter to change)`};
+			if (row.action === 'pick-tissue' && s.openLayer !== null)
+				return {label: 'Tissue', value: `${tissueOf(s.doc, s.openLayer)?.label ?? '?'} (Enter to change)`};
 			return {label: `[ ${row.label} ]`, value: ''};
 		case 'slider':
 			return {label: `Slider ${row.index + 1}`, value: ''};

@@ -7,7 +7,13 @@
 import type {ScannerProfile} from '../../calibration/profile-document.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
-import {measurePages, type KeepNaming, type ScannerAction, type ScannerOverlay, type ScannerPanel} from './scanner-state.js';
+import {
+	measurePages,
+	type KeepNaming,
+	type ScannerAction,
+	type ScannerOverlay,
+	type ScannerPanel,
+} from './scanner-state.js';
 import {buildSession, labelFor, needsPixelScale} from './session-builder.js';
 import {applyDoc, queue, withNotice} from './state-helpers.js';
 import {eraseIn, openEntry, printableChars, typeInto} from './text-entry.js';
@@ -27,7 +33,10 @@ export function openScannerPanel(s: ConsoleState): ConsoleState {
 	return queue({...s, overlay, refusal: null}, {kind: 'scanner-list'});
 }
 
-const withPanel = (s: ConsoleState, o: ScannerOverlay, panel: ScannerPanel): ConsoleState => ({...s, overlay: {...o, panel}});
+const withPanel = (s: ConsoleState, o: ScannerOverlay, panel: ScannerPanel): ConsoleState => ({
+	...s,
+	overlay: {...o, panel},
+});
 /** The overlay without a remembered builder (a new measurement starts from elsewhere). */
 function fresh(o: ScannerOverlay): ScannerOverlay {
 	const {built: _, ...rest} = o;
@@ -63,7 +72,8 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 				const cursor = Math.max(0, Math.min(rows - 1, p.cursor + (intent === 'up' ? -1 : 1)));
 				return withPanel(s, o, {...p, cursor});
 			}
-			if (intent === 'enter' && o.profiles) return chooseScanner(s, p.cursor === 0 ? null : o.profiles[p.cursor - 1]!.id);
+			if (intent === 'enter' && o.profiles)
+				return chooseScanner(s, p.cursor === 0 ? null : o.profiles[p.cursor - 1]!.id);
 			if (intent === 'measure') return withPanel(s, o, {kind: 'path', text: ''});
 			return s;
 		}
@@ -76,7 +86,8 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 			}
 			if (intent === 'enter') {
 				const path = p.text.trim();
-				if (!path) return withPanel(s, o, {...p, error: 'session file: type the path of an evenecho-scanner-session/1 file'});
+				if (!path)
+					return withPanel(s, o, {...p, error: 'session file: type the path of an evenecho-scanner-session/1 file'});
 				return queue(withPanel(s, fresh(o), {kind: 'measuring', path}), {kind: 'scanner-measure', path});
 			}
 			return s;
@@ -105,7 +116,14 @@ export function scannerIntent(s: ConsoleState, o: ScannerOverlay, intent: Intent
 type ResultPanel = ScannerPanel & {kind: 'result'};
 
 /** Keys while typing the name a measurement is kept under: the console's shared text entry. */
-function namingIntent(s: ConsoleState, o: ScannerOverlay, p: ResultPanel, naming: KeepNaming, intent: Intent, input: string): ConsoleState {
+function namingIntent(
+	s: ConsoleState,
+	o: ScannerOverlay,
+	p: ResultPanel,
+	naming: KeepNaming,
+	intent: Intent,
+	input: string,
+): ConsoleState {
 	const {naming: _, ...panel} = p;
 	const {error: __, ...entry} = naming;
 	switch (intent) {
@@ -117,7 +135,8 @@ function namingIntent(s: ConsoleState, o: ScannerOverlay, p: ResultPanel, naming
 			return withPanel(s, o, {...panel, naming: {...entry, ...eraseIn(entry)}});
 		case 'enter': {
 			const name = naming.text.trim();
-			if (!name) return withPanel(s, o, {...p, naming: {...entry, error: `name: type 1 to ${profileNameMax} characters`}});
+			if (!name)
+				return withPanel(s, o, {...p, naming: {...entry, error: `name: type 1 to ${profileNameMax} characters`}});
 			const {message: ___, ...rest} = panel;
 			return queue(withPanel(s, o, {...rest, name}), {kind: 'scanner-keep', cal: p.cal, replace: naming.replace, name});
 		}
@@ -134,12 +153,22 @@ export function scannerResult(s: ConsoleState, a: ScannerAction): ConsoleState {
 		case 'scanner-profiles': {
 			const next = {...o, profiles: a.profiles, problems: a.problems};
 			const cursor = rowOf(a.profiles, a.kept ?? s.doc.scanner);
-			const opened = o.panel.kind === 'list' || a.kept !== undefined ? withPanel(s, next, {kind: 'list', cursor}) : {...s, overlay: next};
-			return a.kept === undefined ? opened : withNotice(opened, `Kept the scanner profile "${a.kept}"; Enter names it in this plan.`, 'done');
+			const opened =
+				o.panel.kind === 'list' || a.kept !== undefined
+					? withPanel(s, next, {kind: 'list', cursor})
+					: {...s, overlay: next};
+			return a.kept === undefined
+				? opened
+				: withNotice(opened, `Kept the scanner profile "${a.kept}"; Enter names it in this plan.`, 'done');
 		}
 		case 'scanner-folder':
 			if (o.panel.kind !== 'measuring') return s;
-			if (!a.images.length) return withPanel(s, o, {kind: 'path', text: o.panel.path, error: `${a.folder}: no DICOM (.dcm) or PNG (.png) images here`});
+			if (!a.images.length)
+				return withPanel(s, o, {
+					kind: 'path',
+					text: o.panel.path,
+					error: `${a.folder}: no DICOM (.dcm) or PNG (.png) images here`,
+				});
 			return withPanel(s, o, {
 				kind: 'build',
 				folder: a.folder,
@@ -149,7 +178,9 @@ export function scannerResult(s: ConsoleState, a: ScannerAction): ConsoleState {
 				...(a.images.some(needsPixelScale) ? {scale: ''} : {}),
 			});
 		case 'scanner-measured':
-			return o.panel.kind === 'measuring' ? withPanel(s, fresh(o), {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0}) : s;
+			return o.panel.kind === 'measuring'
+				? withPanel(s, fresh(o), {kind: 'result', path: a.path, input: a.input, cal: a.cal, page: 0})
+				: s;
 		case 'scanner-refused':
 			if (o.panel.kind === 'measuring' && o.built) return withPanel(s, o, {...o.built, error: a.message});
 			if (o.panel.kind === 'measuring') return withPanel(s, o, {kind: 'path', text: o.panel.path, error: a.message});
@@ -169,7 +200,11 @@ function buildIntent(s: ConsoleState, o: ScannerOverlay, p: BuildPanel, intent: 
 	if (p.typing !== null) {
 		if (intent === 'back') return withPanel(s, o, {...panel, typing: null});
 		if (intent === 'erase') return withPanel(s, o, {...panel, typing: p.typing.slice(0, -1)});
-		if (intent === 'type') return withPanel(s, o, {...panel, typing: (p.typing + [...input].filter((c) => c >= ' ' && c !== '\u007F').join('')).slice(0, 40)});
+		if (intent === 'type')
+			return withPanel(s, o, {
+				...panel,
+				typing: (p.typing + [...input].filter((c) => c >= ' ' && c !== '\u007F').join('')).slice(0, 40),
+			});
 		if (intent === 'enter') {
 			if (p.cursor === scaleRow) return withPanel(s, o, {...panel, scale: p.typing, typing: null, cursor: lastRow});
 			const images = p.images.map((im, i) => (i === p.cursor ? {...im, entry: p.typing!} : im));
@@ -185,7 +220,11 @@ function buildIntent(s: ConsoleState, o: ScannerOverlay, p: BuildPanel, intent: 
 	if (intent !== 'enter') return s;
 	if (p.cursor < p.images.length) return withPanel(s, o, {...panel, typing: p.images[p.cursor]!.entry});
 	if (p.cursor === scaleRow) return withPanel(s, o, {...panel, typing: p.scale ?? ''});
-	const folderName = p.folder.replace(/[\\/]+$/, '').split(/[\\/]/).pop() ?? '';
+	const folderName =
+		p.folder
+			.replace(/[\\/]+$/, '')
+			.split(/[\\/]/)
+			.pop() ?? '';
 	const built = buildSession(p.images, s.doc, labelFor(folderName), s.doc.display.depthCm, p.scale);
 	if (!built.ok) return withPanel(s, o, {...panel, error: built.message});
 	const measuring = {...s, overlay: {...o, panel: {kind: 'measuring', path: p.folder} as const, built: panel}};

@@ -65,8 +65,18 @@ export type ScannerEffect =
 	| {readonly kind: 'scanner-measure-built'; readonly folder: string; readonly session: ScannerSession};
 
 export type ScannerAction =
-	| {readonly type: 'scanner-profiles'; readonly profiles: readonly ScannerProfile[]; readonly problems: readonly string[]; readonly kept?: string}
-	| {readonly type: 'scanner-measured'; readonly path: string; readonly input: CalibrationInput; readonly cal: ScannerCalibration}
+	| {
+			readonly type: 'scanner-profiles';
+			readonly profiles: readonly ScannerProfile[];
+			readonly problems: readonly string[];
+			readonly kept?: string;
+	  }
+	| {
+			readonly type: 'scanner-measured';
+			readonly path: string;
+			readonly input: CalibrationInput;
+			readonly cal: ScannerCalibration;
+	  }
 	| {readonly type: 'scanner-refused'; readonly message: string}
 	/** The typed path is a folder: its images, for building a session in the console. */
 	| {readonly type: 'scanner-folder'; readonly folder: string; readonly images: readonly string[]};

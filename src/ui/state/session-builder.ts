@@ -35,7 +35,7 @@ const scaleLine = /^\s*([+-]?\d*\.?\d+(?:e[+-]?\d+)?)\s+([+-]?\d*\.?\d+)\s*$/i;
 /** The depth-scale line as numbers, or a message saying how to write it (limits are the session format's). */
 export function pixelScaleOf(entry: string): {cmPerPixel: number; topRowCm: number} | string {
 	const m = scaleLine.exec(entry);
-	if (!m) return 'pixelScale: write cm per pixel and the top row\'s depth in cm, e.g. 0.02 0';
+	if (!m) return "pixelScale: write cm per pixel and the top row's depth in cm, e.g. 0.02 0";
 	return {cmPerPixel: Number(m[1]), topRowCm: Number(m[2])};
 }
 
@@ -81,7 +81,11 @@ export function roleText(entry: string): string {
 
 /** A profile name made from the folder's name (letters, digits and spaces kept). */
 export function labelFor(folderName: string): string {
-	const cleaned = folderName.replace(/[^\p{L}\p{N} ]+/gu, ' ').replace(/\s+/g, ' ').trim().slice(0, 50);
+	const cleaned = folderName
+		.replace(/[^\p{L}\p{N} ]+/gu, ' ')
+		.replace(/\s+/g, ' ')
+		.trim()
+		.slice(0, 50);
 	return cleaned ? `${cleaned} (measured in the console)` : 'Measured in the console';
 }
 
@@ -110,9 +114,14 @@ export function buildSession(
 		const r = roleOf(image.entry);
 		if (typeof r === 'string') return {ok: false, message: `${image.name}: ${r}`};
 		if (r.kind === 'gain') gainSteps.push({image: image.name, masterGainDb: r.masterGainDb});
-		else if (r.kind === 'slider') sliderSteps.push({image: image.name, slider: r.slider, position: r.position, masterGainDb: r.masterGainDb});
+		else if (r.kind === 'slider')
+			sliderSteps.push({image: image.name, slider: r.slider, position: r.position, masterGainDb: r.masterGainDb});
 		else if (r.kind === 'air') {
-			if (probeInAir) return {ok: false, message: `${image.name}: probeInAir: one image only (${probeInAir.image} is already the probe in air)`};
+			if (probeInAir)
+				return {
+					ok: false,
+					message: `${image.name}: probeInAir: one image only (${probeInAir.image} is already the probe in air)`,
+				};
 			probeInAir = {image: image.name, masterGainDb: r.masterGainDb};
 		}
 	}

@@ -11,4 +11,9 @@ export interface StartingPoint {
 
 export const demoPointId = 'built-in:demo';
 
-export const demoPoint: StartingPoint = {id: demoPointId, name: 'Built-in demo (thick-fat liver)', region: 'upper-abdomen', kind: 'demo'};
+export const demoPoint: StartingPoint = {
+	id: demoPointId,
+	name: 'Built-in demo (thick-fat liver)',
+	region: 'upper-abdomen',
+	kind: 'demo',
+};

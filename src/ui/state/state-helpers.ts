@@ -11,9 +11,15 @@ import {rowsOf, type Row} from './step-rows.js';
 /** The library as the tissue picker lists it; one more row after it is for custom values. */
 export const pickerTissues = allLibraryTissues();
 
-export const withNotice = (s: ConsoleState, text: string, tone: Notice['tone'] = 'info'): ConsoleState => ({...s, notice: {text, tone}});
+export const withNotice = (s: ConsoleState, text: string, tone: Notice['tone'] = 'info'): ConsoleState => ({
+	...s,
+	notice: {text, tone},
+});
 export const queue = (s: ConsoleState, e: Effect): ConsoleState => ({...s, effects: [...s.effects, e]});
-export const setCursor = (s: ConsoleState, step: StepId, value: number): ConsoleState => ({...s, cursors: {...s.cursors, [step]: value}});
+export const setCursor = (s: ConsoleState, step: StepId, value: number): ConsoleState => ({
+	...s,
+	cursors: {...s.cursors, [step]: value},
+});
 
 /** Keeps the current step's cursor on a real row after the rows changed. */
 export function clampCursor(s: ConsoleState): ConsoleState {
@@ -41,12 +47,26 @@ export function travel(s: ConsoleState, direction: 'undo' | 'redo'): ConsoleStat
 	if (direction === 'undo') {
 		const previous = past[past.length - 1];
 		if (!previous) return withNotice(s, 'Nothing to undo.');
-		const after = {...s, doc: previous, dirty: true, editing: null, refusal: null, history: {past: past.slice(0, -1), future: [s.doc, ...future]}};
+		const after = {
+			...s,
+			doc: previous,
+			dirty: true,
+			editing: null,
+			refusal: null,
+			history: {past: past.slice(0, -1), future: [s.doc, ...future]},
+		};
 		return withNotice(clampCursor(after), `Undid one change (${past.length - 1} more to undo; Ctrl+R redoes).`);
 	}
 	const next = future[0];
 	if (!next) return withNotice(s, 'Nothing to redo.');
-	const after = {...s, doc: next, dirty: true, editing: null, refusal: null, history: {past: [...past, s.doc], future: future.slice(1)}};
+	const after = {
+		...s,
+		doc: next,
+		dirty: true,
+		editing: null,
+		refusal: null,
+		history: {past: [...past, s.doc], future: future.slice(1)},
+	};
 	return withNotice(clampCursor(after), `Redid one change (${future.length - 1} more to redo).`);
 }
 

@@ -6,7 +6,15 @@ import type {ConsoleState, StepId} from './console-state.js';
 import type {ChoiceKey, NumberKey} from './plan-fields.js';
 import type {StartingPoint} from './starting-point.js';
 
-export type RowAction = 'add-layer' | 'pick-tissue' | 'make-custom' | 'fill-reference' | 'save' | 'export' | 'sweep' | 'refine';
+export type RowAction =
+	| 'add-layer'
+	| 'pick-tissue'
+	| 'make-custom'
+	| 'fill-reference'
+	| 'save'
+	| 'export'
+	| 'sweep'
+	| 'refine';
 
 export type Row =
 	| {readonly kind: 'number'; readonly id: string; readonly key: NumberKey; readonly index: number}
@@ -26,11 +34,23 @@ function stackRows(s: ConsoleState): Row[] {
 	if (i !== null && s.doc.layers[i]) {
 		const rows: Row[] = [action('pick-tissue', 'Tissue'), num('thickness', i), num('measuredAlpha', i)];
 		if (s.doc.layers[i].measuredAlpha) rows.push(num('measuredLow', i), num('measuredHigh', i));
-		if (typeof s.doc.layers[i].tissue === 'string') rows.push(action('make-custom', 'Edit these values as a custom tissue'));
-		else rows.push({kind: 'tissue-label', id: `t:label:${i}`, index: i}, num('speedMps', i), num('densityKgM3', i), num('alphaDbPerCmMhz', i), num('exponent', i));
+		if (typeof s.doc.layers[i].tissue === 'string')
+			rows.push(action('make-custom', 'Edit these values as a custom tissue'));
+		else
+			rows.push(
+				{kind: 'tissue-label', id: `t:label:${i}`, index: i},
+				num('speedMps', i),
+				num('densityKgM3', i),
+				num('alphaDbPerCmMhz', i),
+				num('exponent', i),
+			);
 		return rows;
 	}
-	return [num('fat'), ...s.doc.layers.map((_, k): Row => ({kind: 'layer', id: `l:${k}`, index: k})), action('add-layer', 'Add a layer at the bottom')];
+	return [
+		num('fat'),
+		...s.doc.layers.map((_, k): Row => ({kind: 'layer', id: `l:${k}`, index: k})),
+		action('add-layer', 'Add a layer at the bottom'),
+	];
 }
 
 function probeRows(s: ConsoleState): Row[] {
@@ -72,8 +92,16 @@ function usualRows(s: ConsoleState): Row[] {
 }
 
 function curveRows(s: ConsoleState): Row[] {
-	const rows: Row[] = Array.from({length: s.doc.sliders.count}, (_, k): Row => ({kind: 'slider', id: `s:${k}`, index: k}));
-	rows.push(action('save', 'Save as a preset'), action('export', 'Export JSON + text summary'), action('sweep', 'Sweep over fat thickness'), action('refine', 'Refine from an image'));
+	const rows: Row[] = Array.from(
+		{length: s.doc.sliders.count},
+		(_, k): Row => ({kind: 'slider', id: `s:${k}`, index: k}),
+	);
+	rows.push(
+		action('save', 'Save as a preset'),
+		action('export', 'Export JSON + text summary'),
+		action('sweep', 'Sweep over fat thickness'),
+		action('refine', 'Refine from an image'),
+	);
 	return rows;
 }
 

@@ -17,7 +17,10 @@ import {eraseIn, openEntry, typeInto} from './text-entry.js';
 /** Characters a thickness list can hold; anything else is refused as it is typed. */
 const listChars = /^[0-9.,:+\- ]$/;
 
-const withSweep = (s: ConsoleState, patch: Partial<SweepState>): ConsoleState => ({...s, sweep: {...s.sweep, ...patch}});
+const withSweep = (s: ConsoleState, patch: Partial<SweepState>): ConsoleState => ({
+	...s,
+	sweep: {...s.sweep, ...patch},
+});
 
 /** Rows PgUp / PgDn move: about one screen of the table. */
 export function sweepPage(s: ConsoleState): number {
@@ -34,7 +37,11 @@ export function openSweep(s: ConsoleState): ConsoleState {
 	const layer = fatLayerToSweep(s.doc);
 	const own = layer === null ? -1 : fatCm.indexOf(s.doc.layers[layer]!.thicknessCm);
 	const at = rowsOf(s, 'curve').findIndex((r) => r.kind === 'action' && r.action === 'sweep');
-	const onStep = setCursor({...s, step: 'curve', pane: 'step', returnStep: null, openLayer: null, refusal: null, editing: null}, 'curve', Math.max(0, at));
+	const onStep = setCursor(
+		{...s, step: 'curve', pane: 'step', returnStep: null, openLayer: null, refusal: null, editing: null},
+		'curve',
+		Math.max(0, at),
+	);
 	return withSweep(onStep, {isOpen: true, typing: null, refusal: null, column: 0, row: Math.max(0, own)});
 }
 
@@ -65,9 +72,17 @@ export function sweepIntent(s: ConsoleState, intent: Intent): ConsoleState | und
 		case 'enter':
 			return withSweep(s, {typing: openEntry(sweepFieldText(sw, s.doc)), refusal: null});
 		case 'export':
-			if (fatLayerToSweep(s.doc) === null) return withNotice(s, 'Nothing exported: the plan has no fat layer to sweep.', 'warning');
+			if (fatLayerToSweep(s.doc) === null)
+				return withNotice(s, 'Nothing exported: the plan has no fat layer to sweep.', 'warning');
 			// The plan export's folder prompt, carrying the list and the deltas choice.
-			return {...s, overlay: {kind: 'path', ...openEntry(s.exportFolder), sweep: {fatCm: sweepFatCm(sw, s.doc), isDelta: sw.isDelta}}};
+			return {
+				...s,
+				overlay: {
+					kind: 'path',
+					...openEntry(s.exportFolder),
+					sweep: {fatCm: sweepFatCm(sw, s.doc), isDelta: sw.isDelta},
+				},
+			};
 		case 'back':
 			return closeSweep(s);
 		default:
@@ -84,7 +99,10 @@ export function sweepTypingIntent(s: ConsoleState, intent: Intent, input: string
 			return withSweep(s, {typing: null, refusal: null});
 		case 'type': {
 			const chars = [...input].filter((c) => listChars.test(c)).join('');
-			if (!chars) return withSweep(s, {refusal: 'type numbers with commas (1,2,4,6,8) or from:to:step (1:8:1), each above 0 and up to 50 cm'});
+			if (!chars)
+				return withSweep(s, {
+					refusal: 'type numbers with commas (1,2,4,6,8) or from:to:step (1:8:1), each above 0 and up to 50 cm',
+				});
 			return setTyping(typeInto(typing, chars, sweepTextMax));
 		}
 		case 'erase':
@@ -92,7 +110,12 @@ export function sweepTypingIntent(s: ConsoleState, intent: Intent, input: string
 		case 'enter': {
 			const r = parseFatList(typing.text);
 			if (!r.ok) return withSweep(s, {refusal: r.message});
-			return withSweep(s, {list: {text: typing.text.trim(), fatCm: r.fatCm}, typing: null, refusal: null, row: Math.min(s.sweep.row, r.fatCm.length - 1)});
+			return withSweep(s, {
+				list: {text: typing.text.trim(), fatCm: r.fatCm},
+				typing: null,
+				refusal: null,
+				row: Math.min(s.sweep.row, r.fatCm.length - 1),
+			});
 		}
 		default:
 			return s;

@@ -33,7 +33,15 @@ export interface SweepState {
 	readonly column: number;
 }
 
-export const closedSweep: SweepState = {isOpen: false, list: null, typing: null, refusal: null, isDelta: false, row: 0, column: 0};
+export const closedSweep: SweepState = {
+	isOpen: false,
+	list: null,
+	typing: null,
+	refusal: null,
+	isDelta: false,
+	row: 0,
+	column: 0,
+};
 
 /**
  * The default list: 1, 2, 3, 4, 6, 8 cm for displays 8 cm deep or more, 0.25, 0.5, 0.75, 1, 1.5,

@@ -9,9 +9,13 @@ import {buildTable, type ProtocolTable} from '../../table/sweep-runner.js';
 import {parseNumberList} from '../../table/sweep-options.js';
 import {maxSweepValues} from './sweep-state.js';
 
-export type SweepOutcome = {readonly ok: true; readonly table: ProtocolTable} | {readonly ok: false; readonly message: string};
+export type SweepOutcome =
+	| {readonly ok: true; readonly table: ProtocolTable}
+	| {readonly ok: false; readonly message: string};
 
-export type ListOutcome = {readonly ok: true; readonly fatCm: number[]} | {readonly ok: false; readonly message: string};
+export type ListOutcome =
+	| {readonly ok: true; readonly fatCm: number[]}
+	| {readonly ok: false; readonly message: string};
 
 /**
  * A table-code message in the console's words: without the command-line option it starts with,
@@ -21,12 +25,16 @@ export function consoleMessage(message: string): string {
 	const text = message
 		.replace(/^--[a-z]+(?: [a-z]+)?: /, '')
 		.replace(/; choose (?:the layer to sweep|another) with --layer N.*$/, '');
-	if (/no layer of tissue "fat"/.test(text)) return `${text}, so there is no thickness to sweep: give a layer the tissue Fat on step 2 (Tissue stack)`;
+	if (/no layer of tissue "fat"/.test(text))
+		return `${text}, so there is no thickness to sweep: give a layer the tissue Fat on step 2 (Tissue stack)`;
 	if (/deepest layer/.test(text)) return `${text}: the fat layer must have a layer below it (step 2, Tissue stack)`;
 	return text;
 }
 
-const messageOf = (error: unknown) => (error instanceof SweepError ? consoleMessage(error.message) : `the table could not be worked out: ${error instanceof Error ? error.message : String(error)}`);
+const messageOf = (error: unknown) =>
+	error instanceof SweepError
+		? consoleMessage(error.message)
+		: `the table could not be worked out: ${error instanceof Error ? error.message : String(error)}`;
 
 /** Checks typed text with the table code's own parser: a list ("1,2,4") or from:to:step ("1:8:1"), at most 16 values. */
 export function parseFatList(text: string): ListOutcome {

@@ -45,7 +45,10 @@ export interface ColumnHead {
 /** The scrolled columns for a slider count, in order. */
 export function columnHeads(sliderCount: number, isDelta: boolean): ColumnHead[] {
 	const d = isDelta ? 'Δ' : '';
-	const out: ColumnHead[] = Array.from({length: sliderCount}, (_, k): ColumnHead => ({kind: 'slider', index: k, head: `${d}S${k + 1}`, width: 6}));
+	const out: ColumnHead[] = Array.from(
+		{length: sliderCount},
+		(_, k): ColumnHead => ({kind: 'slider', index: k, head: `${d}S${k + 1}`, width: 6}),
+	);
 	if (isDelta) out.push({kind: 'master-delta', index: 0, head: 'Δmaster', width: 8});
 	out.push(
 		{kind: 'master', index: 0, head: 'master', width: 7},
@@ -96,13 +99,17 @@ function cellOf(c: ColumnHead, t: ProtocolTable, r: TableRow): string {
 		case 'fit':
 			return fixed(r.residualDb, 1);
 		case 'floor':
-			return r.penetrationDepthCm === null ? `>${fixed(t.sweep.doc.display.depthCm, 0)}` : fixed(r.penetrationDepthCm, 1);
+			return r.penetrationDepthCm === null
+				? `>${fixed(t.sweep.doc.display.depthCm, 0)}`
+				: fixed(r.penetrationDepthCm, 1);
 		case 'fmax':
 			return r.highestReachingMhz === null ? 'none' : fixed(r.highestReachingMhz, 1);
 		case 'warnings':
-			return rowWarningCodes(r)
-				.map((code) => shortCodes[code].code)
-				.join(' ') || '-';
+			return (
+				rowWarningCodes(r)
+					.map((code) => shortCodes[code].code)
+					.join(' ') || '-'
+			);
 	}
 }
 
@@ -167,12 +174,25 @@ export function sweepGrid(t: ProtocolTable, o: GridOptions): SweepGrid {
 		const index = start + k;
 		const isSelected = index === cursor;
 		const mark = isSelected ? '>' : ' ';
-		const text = `${mark} ${thicknessText(r.layerCm ?? 0).padStart(frozenWidth - 2)}${shown.map((c) => fit(cellOf(c.head, t, r), c.head, c.width)).join('')}`;
+		const cells = shown.map((c) => fit(cellOf(c.head, t, r), c.head, c.width)).join('');
+		const text = `${mark} ${thicknessText(r.layerCm ?? 0).padStart(frozenWidth - 2)}${cells}`;
 		return {text: cut(text), isSelected, index};
 	});
 	const more = [columnStart > 0 ? '← more' : '', columnEnd < heads.length ? '→ more' : ''].filter(Boolean).join(', ');
-	const position = `rows ${rowCount ? start + 1 : 0}-${end} of ${rowCount}  columns ${columnStart + 1}-${columnEnd} of ${heads.length}${more ? `, ${more}` : ''}`;
-	return {header, lines, rowStart: start, rowEnd: end, rowCount, columnStart, columnEnd, columnCount: heads.length, position};
+	const position =
+		`rows ${rowCount ? start + 1 : 0}-${end} of ${rowCount}  columns ${columnStart + 1}-${columnEnd} of ` +
+		`${heads.length}${more ? `, ${more}` : ''}`;
+	return {
+		header,
+		lines,
+		rowStart: start,
+		rowEnd: end,
+		rowCount,
+		columnStart,
+		columnEnd,
+		columnCount: heads.length,
+		position,
+	};
 }
 
 /** What the warning codes in this table mean, for the line under it; null when no row has one. */

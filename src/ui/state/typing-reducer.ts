@@ -60,7 +60,9 @@ export function editTextIntent(s: ConsoleState, intent: Intent, input: string): 
 	const max = isName ? nameMax : tissueLabelMax;
 	const entry = {text, isFresh};
 	const setText = (t: string): ConsoleState =>
-		isName ? {...s, overlay: {kind: 'name', text: t, isFresh: false}} : {...s, editing: {...s.editing!, text: t, isFresh: false}, refusal: null};
+		isName
+			? {...s, overlay: {kind: 'name', text: t, isFresh: false}}
+			: {...s, editing: {...s.editing!, text: t, isFresh: false}, refusal: null};
 	switch (intent) {
 		case 'back':
 			return isName ? withNotice({...s, overlay: null}, 'Not saved.') : {...s, editing: null, refusal: null};
@@ -72,7 +74,9 @@ export function editTextIntent(s: ConsoleState, intent: Intent, input: string): 
 			const t = text.trim();
 			if (t.length === 0) {
 				const error = `type a name of 1 to ${max} characters`;
-				return isName ? {...s, overlay: {kind: 'name', text, isFresh: false, error}} : {...s, refusal: {rowId: s.editing!.rowId, message: error}};
+				return isName
+					? {...s, overlay: {kind: 'name', text, isFresh: false, error}}
+					: {...s, refusal: {rowId: s.editing!.rowId, message: error}};
 			}
 			if (isName) return queue({...s, overlay: null}, {kind: 'save', name: t, overwrite: false});
 			const row = currentRow(s);
@@ -101,7 +105,10 @@ function editPathIntent(s: ConsoleState, o: Overlay & {kind: 'path'}, intent: In
 			return {...s, overlay: {...o, ...eraseIn(o)}};
 		case 'enter': {
 			const dir = o.text.trim() || '.';
-			return queue({...s, overlay: null, exportFolder: dir}, {kind: 'export', dir, replace: false, ...(o.sweep ? {sweep: o.sweep} : {})});
+			return queue(
+				{...s, overlay: null, exportFolder: dir},
+				{kind: 'export', dir, replace: false, ...(o.sweep ? {sweep: o.sweep} : {})},
+			);
 		}
 		default:
 			return s;

@@ -37,7 +37,14 @@ function Actions({state, width}: {readonly state: ConsoleState; readonly width: 
 				.map((row, i) => ({row, i}))
 				.filter(({row}) => row.kind === 'action')
 				.map(({row, i}) => (
-					<RowLine key={row.id} label={row.kind === 'action' ? `[ ${row.label} ]` : ''} value="" width={width} isSelected={i === cursor} labelWidth={width - 3} />
+					<RowLine
+						key={row.id}
+						label={row.kind === 'action' ? `[ ${row.label} ]` : ''}
+						value=""
+						width={width}
+						isSelected={i === cursor}
+						labelWidth={width - 3}
+					/>
 				))}
 		</>
 	);
@@ -67,7 +74,9 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 		const tableRows = Math.min(count + 1, height - 7 - actionCount);
 		const room = Math.max(1, height - tableRows - 4 - actionCount);
 		const full = curve.warnings.length
-			? curve.warnings.flatMap((w) => wrapWords(`${shortWarning(w, curve)[0] ?? '!'} ${w.message}`, width - 2).map((l, i) => (i ? `  ${l}` : l)))
+			? curve.warnings.flatMap((w) =>
+					wrapWords(`${shortWarning(w, curve)[0] ?? '!'} ${w.message}`, width - 2).map((l, i) => (i ? `  ${l}` : l)),
+				)
 			: ['no warnings'];
 		const shown = full.length <= room ? full : [...full.slice(0, room - 1), '… w shows every warning in full'];
 		return (
@@ -76,7 +85,15 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 					{clip('5 Curve & save: the sliders to set for this patient', width)}
 				</Text>
 				{facts(width)}
-				<SliderTable curve={curve} delta={delta} width={width} height={tableRows} cursor={slider} isFocused bankTrack={bankTrackFor(width)} />
+				<SliderTable
+					curve={curve}
+					delta={delta}
+					width={width}
+					height={tableRows}
+					cursor={slider}
+					isFocused
+					bankTrack={bankTrackFor(width)}
+				/>
 				<Actions state={state} width={width} />
 				{shown.map((l, i) => (
 					<Text key={i} wrap="truncate" {...(curve.warnings.length ? theme.warning : theme.muted)}>
@@ -93,7 +110,12 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 		<Box flexDirection="column" width={width}>
 			<Box flexDirection="row" width={width} height={sideRows}>
 				{state.picture === 'off' ? (
-					<PlotView curve={curve} width={layout.plotWidth} height={sideRows - 2} {...(slider >= 0 ? {selectedSlider: slider} : {})} />
+					<PlotView
+						curve={curve}
+						width={layout.plotWidth}
+						height={sideRows - 2}
+						{...(slider >= 0 ? {selectedSlider: slider} : {})}
+					/>
 				) : state.picture === 'bank' ? (
 					<BankView curve={curve} width={layout.plotWidth} height={sideRows} selected={slider} />
 				) : (
@@ -102,7 +124,14 @@ export function CurveStep({state, curve, delta, layout, width, height}: CurveSte
 				<Box width={1} />
 				<Box flexDirection="column" width={tableWidth}>
 					{facts(tableWidth)}
-					<SliderTable curve={curve} delta={delta} width={tableWidth} height={Math.max(2, sideRows - 3 - actionCount)} cursor={slider} isFocused />
+					<SliderTable
+						curve={curve}
+						delta={delta}
+						width={tableWidth}
+						height={Math.max(2, sideRows - 3 - actionCount)}
+						cursor={slider}
+						isFocused
+					/>
 					<Actions state={state} width={tableWidth} />
 				</Box>
 			</Box>

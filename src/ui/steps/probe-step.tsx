@@ -17,7 +17,14 @@ export function ProbeStep({state, width, height, isFocused}: StepProps) {
 			<Text wrap="truncate" {...theme.current}>
 				{clip(`3 Probe & system${windowNote(state, rows, state.cursors.probe, height - 2)}`, width)}
 			</Text>
-			<FieldList state={state} rows={rows} cursor={state.cursors.probe} width={width} height={height - 2} isFocused={isFocused} />
+			<FieldList
+				state={state}
+				rows={rows}
+				cursor={state.cursors.probe}
+				width={width}
+				height={height - 2}
+				isFocused={isFocused}
+			/>
 			<Text wrap="truncate" {...theme.muted}>
 				{clip(`  budget in use: ${budget.toFixed(1)} dB, ${from}`, width)}
 			</Text>

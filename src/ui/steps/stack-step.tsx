@@ -31,11 +31,13 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 	const tissue = focusLayer === null ? undefined : tissueOf(state.doc, focusLayer);
 	// The source gets whatever lines the list leaves free (at least one, at most five).
 	const sourceLines = Math.max(1, Math.min(5, height - rows.length - 6));
-	const detail = tissue ? [clip(`${tissue.label}: ${tissueNumbers(tissue)}`, width), ...wrapWords(`source: ${tissue.source ?? 'none given'}`, width).slice(0, sourceLines)] : [];
-	const legend =
-		open === null
-			? wrapWords(stackLegend, width - 2).map((l) => `  ${l}`)
-			: [];
+	const detail = tissue
+		? [
+				clip(`${tissue.label}: ${tissueNumbers(tissue)}`, width),
+				...wrapWords(`source: ${tissue.source ?? 'none given'}`, width).slice(0, sourceLines),
+			]
+		: [];
+	const legend = open === null ? wrapWords(stackLegend, width - 2).map((l) => `  ${l}`) : [];
 	const lines = height - 1 - detail.length - legend.length;
 	const note = windowNote(state, rows, cursor, lines);
 	const title =
@@ -54,7 +56,16 @@ export function StackStep({state, width, height, isFocused}: StepProps) {
 			<Text wrap="truncate" {...theme.current}>
 				{clip(title, width)}
 			</Text>
-			<FieldList state={state} rows={rows} cursor={cursor} width={width} height={lines} isFocused={isFocused} extra={extra} labelWidth={stackLabelWidth(width)} />
+			<FieldList
+				state={state}
+				rows={rows}
+				cursor={cursor}
+				width={width}
+				height={lines}
+				isFocused={isFocused}
+				extra={extra}
+				labelWidth={stackLabelWidth(width)}
+			/>
 			{legend.map((l, i) => (
 				<Text key={`legend-${i}`} wrap="truncate" {...theme.muted}>
 					{l}

@@ -30,18 +30,30 @@ export function StartStep({state, width, height, isFocused}: StepProps) {
 	}
 	const listHeight = height - 3 - problems.length - noteLines.length;
 	// Which of two same-named entries the plan came from: a saved preset is remembered by name.
-	const shared = state.startingPoints.filter((p) => p.name.trim().toLowerCase() === state.doc.name.trim().toLowerCase()).length > 1;
+	const shared =
+		state.startingPoints.filter((p) => p.name.trim().toLowerCase() === state.doc.name.trim().toLowerCase()).length > 1;
 	const from = shared ? (state.presetName === state.doc.name ? ' (your preset)' : ' (template)') : '';
 	const now = `Now: "${state.doc.name}"${from} [${state.doc.region}]${state.dirty ? ', changed' : ''}`;
 	return (
 		<Box flexDirection="column" width={width}>
 			<Text wrap="truncate" {...theme.current}>
-				{clip(`1 Starting plan: a region template or a saved preset${windowNote(state, rows, state.cursors.start, listHeight)}`, width)}
+				{clip(
+					`1 Starting plan: a region template or a saved preset${windowNote(state, rows, state.cursors.start, listHeight)}`,
+					width,
+				)}
 			</Text>
 			<Text wrap="truncate" {...theme.muted}>
 				{clip(now, width)}
 			</Text>
-			<FieldList state={state} rows={rows} cursor={state.cursors.start} width={width} height={listHeight} isFocused={isFocused} labelWidth={width - 13} />
+			<FieldList
+				state={state}
+				rows={rows}
+				cursor={state.cursors.start}
+				width={width}
+				height={listHeight}
+				isFocused={isFocused}
+				labelWidth={width - 13}
+			/>
 			<Text wrap="truncate" {...theme.muted}>
 				{clip(about, width)}
 			</Text>

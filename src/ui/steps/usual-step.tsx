@@ -20,7 +20,8 @@ export function UsualStep({state, width, height, isFocused, curve, delta}: Usual
 	const rows = rowsOf(state, 'usual');
 	const extra = (row: Row) => {
 		if (row.kind !== 'number' || !delta) return undefined;
-		if (row.key === 'refMasterDb') return `patient ${curve.fit.masterGainDb.toFixed(1)} (${signedDb(delta.masterDeltaDb)})`;
+		if (row.key === 'refMasterDb')
+			return `patient ${curve.fit.masterGainDb.toFixed(1)} (${signedDb(delta.masterDeltaDb)})`;
 		if (row.key === 'refSliderDb') {
 			const s = curve.fit.sliders[row.index];
 			return s ? `patient ${signedDb(s.gainDb)} (${signedDb(delta.sliderDeltasDb[row.index]!)})` : undefined;
@@ -29,13 +30,28 @@ export function UsualStep({state, width, height, isFocused, curve, delta}: Usual
 	};
 	const note = state.doc.reference
 		? []
-		: wrapWords("Switch on to see this patient's master and sliders as changes from the department's usual settings for the region.", width - 2).map((l) => `  ${l}`);
+		: wrapWords(
+				"Switch on to see this patient's master and sliders as changes from the department's usual settings for the region.",
+				width - 2,
+			).map((l) => `  ${l}`);
 	return (
 		<Box flexDirection="column" width={width}>
 			<Text wrap="truncate" {...theme.current}>
-				{clip(`4 Usual gains: the department's, for this region${windowNote(state, rows, state.cursors.usual, height - 1 - note.length)}`, width)}
+				{clip(
+					`4 Usual gains: the department's, for this region${windowNote(state, rows, state.cursors.usual, height - 1 - note.length)}`,
+					width,
+				)}
 			</Text>
-			<FieldList state={state} rows={rows} cursor={state.cursors.usual} width={width} height={height - 1 - note.length} isFocused={isFocused} extra={extra} labelWidth={18} />
+			<FieldList
+				state={state}
+				rows={rows}
+				cursor={state.cursors.usual}
+				width={width}
+				height={height - 1 - note.length}
+				isFocused={isFocused}
+				extra={extra}
+				labelWidth={18}
+			/>
 			{note.map((l) => (
 				<Text key={l} wrap="truncate" {...theme.muted}>
 					{l}

@@ -28,7 +28,9 @@ const minRows = 8;
 export function fieldLines(state: ConsoleState, width: number): {text: string; isRefusal: boolean}[] {
 	const sw = state.sweep;
 	const text = sweepFieldText(sw, state.doc);
-	const head = sw.typing ? `Thicknesses, cm: [${text}_]  Enter applies, Esc cancels` : `Thicknesses, cm: [${text}]  Enter edits (1,2,4,6,8 or 1:8:1)`;
+	const head = sw.typing
+		? `Thicknesses, cm: [${text}_]  Enter applies, Esc cancels`
+		: `Thicknesses, cm: [${text}]  Enter edits (1,2,4,6,8 or 1:8:1)`;
 	if (!sw.refusal) return [{text: clip(head, width), isRefusal: false}];
 	const beside = `${head}  ! ${sw.refusal}`;
 	if (beside.length <= width) return [{text: beside, isRefusal: true}];
@@ -40,7 +42,8 @@ export function fieldLines(state: ConsoleState, width: number): {text: string; i
 
 export function titleText(state: ConsoleState): string {
 	const i = fatLayerToSweep(state.doc);
-	const layer = i === null ? '' : `: layer ${i + 1}; the plan has ${thicknessText(state.doc.layers[i]!.thicknessCm)} cm`;
+	const layer =
+		i === null ? '' : `: layer ${i + 1}; the plan has ${thicknessText(state.doc.layers[i]!.thicknessCm)} cm`;
 	return `5 Curve & save › Sweep over fat thickness${layer}`;
 }
 
@@ -86,7 +89,12 @@ export function SweepView({state, width, height}: SweepViewProps) {
 	while (paragraphs.length && height - fixedRows - lineCount() < Math.min(minRows, table.rows.length)) paragraphs.pop();
 	const warnLines = warnLine !== null && paragraphs.length ? paragraphs[0]!.length : 0;
 	const notes = paragraphs.flat();
-	const grid = sweepGrid(table, {width, height: Math.max(1, height - fixedRows - notes.length), cursor: sw.row, column: sw.column});
+	const grid = sweepGrid(table, {
+		width,
+		height: Math.max(1, height - fixedRows - notes.length),
+		cursor: sw.row,
+		column: sw.column,
+	});
 	const mode = sw.isDelta ? 'Δ = row minus the plan; d: values' : 'values in dB; d: deltas';
 	return (
 		<Box flexDirection="column" width={width}>
