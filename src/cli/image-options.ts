@@ -26,12 +26,6 @@ export function wholeNumberOption(
 	return v;
 }
 
-export function choiceOption<T extends string>(option: string, text: string, choices: readonly T[]): T {
-	if (!(choices as readonly string[]).includes(text))
-		throw new UsageError(`--${option}: must be one of ${choices.join(', ')} (got "${text}")`);
-	return text as T;
-}
-
 /** The folder named by `--out`: made if missing (its parent must exist), refused if not a folder.
  * True when this call made it. */
 export function outputFolder(dir: string): boolean {

@@ -14,16 +14,10 @@ import {presetSlug} from '../store/safe-name.js';
 import {loadTemplates} from '../store/templates.js';
 import {readJsonInputOrRefuse, readPlanFile} from './read-plan-file.js';
 import {UsageError} from '../errors/usage-error.js';
+import {choiceOption} from './choice-option.js';
 import {writeOutput} from './write-output.js';
 
 const formats = ['text', 'json'] as const;
-type Format = (typeof formats)[number];
-
-function parseFormat(value: string): Format {
-	if (!(formats as readonly string[]).includes(value))
-		throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
-	return value as Format;
-}
 
 /** Messages quote names and file paths: printable, so nothing from a file drives the terminal. */
 function say(message: string): void {
@@ -146,7 +140,7 @@ export function registerPresetsCommand(program: Command): void {
 		.description('list the templates and your presets, with their ids')
 		.option('--format <format>', 'text or json', 'text')
 		.action(async (opts: {format: string}) => {
-			const format = parseFormat(opts.format);
+			const format = choiceOption('format', opts.format, formats);
 			await withStore((store) => {
 				const {presets: all, problems} = store.list();
 				if (format === 'json') {
@@ -166,7 +160,7 @@ export function registerPresetsCommand(program: Command): void {
 		.argument('<preset>', 'id or name')
 		.option('--format <format>', 'text (plan and curve summary) or json (the preset and its plan)', 'text')
 		.action(async (query: string, opts: {format: string}) => {
-			const format = parseFormat(opts.format);
+			const format = choiceOption('format', opts.format, formats);
 			await withStore((store) => {
 				const found = store.get(query);
 				if (format === 'json') process.stdout.write(JSON.stringify(presetJson(found), null, 2) + '\n');

@@ -8,17 +8,11 @@ import {previewPicture} from '../simulate/preview-picture.js';
 import {defaultDynamicRangeDb} from '../simulate/scanner-behaviour.js';
 import {pictureModeFromEnv} from '../ui/picture/picture-cells.js';
 import {illustrationLabel, panelChrome, panelLines, panelLegend, travelLine} from '../ui/picture/picture-panels.js';
-import {
-	choiceOption,
-	dynamicRangeLimit,
-	pixelLimit,
-	seedLimit,
-	wholeNumberOption,
-	writeOutputFile,
-} from './image-options.js';
+import {dynamicRangeLimit, pixelLimit, seedLimit, wholeNumberOption, writeOutputFile} from './image-options.js';
 import {numberOption} from './option-values.js';
 import {resolvePlan} from '../plan/resolve-plan.js';
 import {UsageError} from '../errors/usage-error.js';
+import {choiceOption} from './choice-option.js';
 import {readPlanFile, scannerForPlan} from './read-plan-file.js';
 
 const panels = ['ramp', 'plan', 'both'] as const;

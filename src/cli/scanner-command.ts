@@ -13,15 +13,9 @@ import {loadSession} from '../image/load-session.js';
 import {scannerProfileText} from '../report/scanner-profile-text.js';
 import {checkProfileName, openScannerProfileStore} from '../store/scanner-profile-store.js';
 import {UsageError} from '../errors/usage-error.js';
+import {choiceOption} from './choice-option.js';
 
 const formats = ['text', 'json'] as const;
-type Format = (typeof formats)[number];
-
-function parseFormat(value: string): Format {
-	if (!(formats as readonly string[]).includes(value))
-		throw new UsageError(`--format: must be one of ${formats.join(', ')} (got "${value}")`);
-	return value as Format;
-}
 
 function parseFrame(value: string | undefined): number | undefined {
 	if (value === undefined) return undefined;
@@ -54,7 +48,7 @@ export function registerScannerCommand(program: Command): void {
 		.option('--frame <n>', 'frame to read from multi-frame images that do not name one, from 1')
 		.option('--force', 'replace a profile of the same name')
 		.action((session: string, opts: {name?: string; format: string; frame?: string; force?: boolean}) => {
-			const format = parseFormat(opts.format);
+			const format = choiceOption('format', opts.format, formats);
 			const frame = parseFrame(opts.frame);
 			try {
 				const loaded = loadSession(session, frame === undefined ? {} : {frame});
@@ -80,7 +74,7 @@ export function registerScannerCommand(program: Command): void {
 		.description('your scanner profiles')
 		.option('--format <format>', 'text or json', 'text')
 		.action((opts: {format: string}) => {
-			const format = parseFormat(opts.format);
+			const format = choiceOption('format', opts.format, formats);
 			const {profiles, problems} = openScannerProfileStore().list();
 			for (const p of problems) say(`note: ${p}`);
 			if (format === 'json') {
@@ -131,7 +125,7 @@ export function registerScannerCommand(program: Command): void {
 		.argument('<profile>', 'id or name')
 		.option('--format <format>', 'text or json', 'text')
 		.action((query: string, opts: {format: string}) => {
-			const format = parseFormat(opts.format);
+			const format = choiceOption('format', opts.format, formats);
 			const p = openScannerProfileStore().get(query);
 			process.stdout.write(format === 'json' ? `${JSON.stringify(p, null, 2)}\n` : scannerProfileText(p));
 		});

@@ -9,15 +9,9 @@ import {derivedUid, encodeUltrasoundDicom} from '../image/dicom-writer.js';
 import {encodePng} from '../image/png-writer.js';
 import type {BatchEntry} from '../files/file-batch.js';
 import {UsageError} from '../errors/usage-error.js';
+import {choiceOption} from './choice-option.js';
 import {patientImage, phantomSeries, type DemoSet} from '../simulate/demo-images.js';
-import {
-	choiceOption,
-	outputFolder,
-	removeEmptyFolder,
-	seedLimit,
-	wholeNumberOption,
-	writeOutputBatch,
-} from './image-options.js';
+import {outputFolder, removeEmptyFolder, seedLimit, wholeNumberOption, writeOutputBatch} from './image-options.js';
 import {readPlanFile} from './read-plan-file.js';
 
 const kinds = ['phantom-series', 'patient'] as const;

@@ -241,16 +241,16 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;
 		return points[i]!.echoCenterMhz;
 	};
-	const band =
-		options.band === false
-			? {at: (d: number) => ({lowDb: nominal.lossAt(d), highDb: nominal.lossAt(d)}), isNominal: true}
-			: {...uncertaintyBand(plan, bandDepths(plan, depths), centroidAt), isNominal: false};
-	const heldAt = blockedDepthCm === null ? null : {nominal: nominal.lossAt(blockedDepthCm), ...band.at(blockedDepthCm)};
+	const band = options.band === false ? null : uncertaintyBand(plan, bandDepths(plan, depths), centroidAt);
+	// Without the band both its ends are the curve itself.
+	const bandAt = (d: number, loss: number) => (band ? band.at(d) : {lowDb: loss, highDb: loss});
+	const heldLoss = blockedDepthCm === null ? 0 : nominal.lossAt(blockedDepthCm);
+	const heldAt = blockedDepthCm === null ? null : {nominal: heldLoss, ...bandAt(blockedDepthCm, heldLoss)};
 	const samples: CurveSample[] = depths.map((d, i) => {
 		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = heldAt !== null && d > blockedDepthCm!;
-		const {lowDb: lo, highDb: hi} = blocked ? heldAt : band.isNominal ? {lowDb: loss, highDb: loss} : band.at(d);
+		const {lowDb: lo, highDb: hi} = blocked ? heldAt : bandAt(d, loss);
 		const comp = blocked ? heldAt.nominal : loss;
 		return {
 			displayedDepthCm: d,

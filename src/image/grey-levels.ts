@@ -51,17 +51,9 @@ export function greyFromRgb(width: number, height: number, rgbAt: (i: number, ou
 	let colouredPixels = 0;
 	for (let i = 0; i < n; i++) {
 		rgbAt(i, px);
-		const r = px[0]!;
-		const g = px[1]!;
-		const b = px[2]!;
-		grey[i] = 0.299 * r + 0.587 * g + 0.114 * b;
-		if (Math.abs(r - g) + Math.abs(g - b) > colourSpreadLimit) {
-			coloured[i] = 1;
-			colouredPixels++;
-		}
+		colouredPixels += putPixel(grey, coloured, i, px[0]!, px[1]!, px[2]!);
 	}
-	const mask = colouredPixels ? grow(coloured, width, height, colourMaskGrowPx) : coloured;
-	return {grey, mask, colouredPixels};
+	return planeOf(grey, coloured, colouredPixels, width, height);
 }
 
 /** The same as greyFromRgb for 8-bit interleaved RGB (the usual export), without a call per pixel. */
@@ -71,15 +63,27 @@ export function greyFromInterleavedRgb(width: number, height: number, rgb: Uint8
 	const coloured = new Uint8Array(n);
 	let colouredPixels = 0;
 	for (let i = 0, k = 0; i < n; i++, k += 3) {
-		const r = rgb[k]!;
-		const g = rgb[k + 1]!;
-		const b = rgb[k + 2]!;
-		grey[i] = 0.299 * r + 0.587 * g + 0.114 * b;
-		if (Math.abs(r - g) + Math.abs(g - b) > colourSpreadLimit) {
-			coloured[i] = 1;
-			colouredPixels++;
-		}
+		colouredPixels += putPixel(grey, coloured, i, rgb[k]!, rgb[k + 1]!, rgb[k + 2]!);
 	}
+	return planeOf(grey, coloured, colouredPixels, width, height);
+}
+
+/** Pixel i's luma; marks it when its channels spread (a colour overlay). Returns 1 if marked. */
+function putPixel(grey: Float32Array, coloured: Uint8Array, i: number, r: number, g: number, b: number): number {
+	grey[i] = 0.299 * r + 0.587 * g + 0.114 * b;
+	if (Math.abs(r - g) + Math.abs(g - b) <= colourSpreadLimit) return 0;
+	coloured[i] = 1;
+	return 1;
+}
+
+/** The plane, with the colour mask grown over the overlay's anti-aliased edge. */
+function planeOf(
+	grey: Float32Array,
+	coloured: Uint8Array,
+	colouredPixels: number,
+	width: number,
+	height: number,
+): GreyPlane {
 	const mask = colouredPixels ? grow(coloured, width, height, colourMaskGrowPx) : coloured;
 	return {grey, mask, colouredPixels};
 }

@@ -13,43 +13,20 @@ import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
 import {writeSession} from '../helpers/phantom-session.js';
 import {keys} from '../helpers/keys.js';
+import {loadScannerConsole, openScannerConsole, type ScannerConsole} from '../helpers/scanner-console.js';
 
 const root = mkdtempSync(join(tmpdir(), 'evenecho-scanner-console-'));
 afterAll(() => rmSync(root, {recursive: true, force: true}));
 
-let lib: {
-	render: typeof import('ink-testing-library').render;
-	App: typeof import('../../src/ui/app.js').App;
-	openShelf: typeof import('../../src/ui/effects/preset-shelf.js').openShelf;
-	services: typeof import('../../src/ui/effects/scanner-services.js');
-	store: typeof import('../../src/store/scanner-profile-store.js');
-	theme: typeof import('../../src/ui/kit/theme.js');
-	press: typeof import('../helpers/press.js');
-};
+let lib: ScannerConsole;
 let sessionPath = '';
 
 beforeAll(async () => {
-	lib = {
-		render: (await import('ink-testing-library')).render,
-		App: (await import('../../src/ui/app.js')).App,
-		openShelf: (await import('../../src/ui/effects/preset-shelf.js')).openShelf,
-		services: await import('../../src/ui/effects/scanner-services.js'),
-		store: await import('../../src/store/scanner-profile-store.js'),
-		theme: await import('../../src/ui/kit/theme.js'),
-		press: await import('../helpers/press.js'),
-	};
+	lib = await loadScannerConsole();
 	sessionPath = writeSession(join(root, 'series'), 'png', {seed: 5, width: 200, height: 200}).sessionPath;
 }, 60_000);
 
-async function open(home: string, columns = 100, rows = 30) {
-	const {render, App, openShelf, services, store, theme, press} = lib;
-	const scanners = services.scannerServicesOver(() => store.openScannerProfileStore(home));
-	const app = render(
-		<App shelf={openShelf({home})} scanners={scanners} theme={theme.plainTheme} columns={columns} rows={rows} />,
-	);
-	await press.ready(app);
-	return app;
-}
+const open = (home: string, columns?: number, rows?: number) => openScannerConsole(lib, home, columns, rows);
 
 describe('the measured-scanner panel', () => {
 	it('measures a session, shows each page, keeps the profile and names it in the plan; u takes it back', async () => {

@@ -11,50 +11,26 @@ import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
 import {writeSession} from '../helpers/phantom-session.js';
 import {keys} from '../helpers/keys.js';
+import {loadScannerConsole, openScannerConsole, type ScannerConsole} from '../helpers/scanner-console.js';
 
 const root = mkdtempSync(join(tmpdir(), 'evenecho-scanner-keep-'));
 afterAll(() => rmSync(root, {recursive: true, force: true}));
 
-let lib: {
-	render: typeof import('ink-testing-library').render;
-	App: typeof import('../../src/ui/app.js').App;
-	openShelf: typeof import('../../src/ui/effects/preset-shelf.js').openShelf;
-	services: typeof import('../../src/ui/effects/scanner-services.js');
-	store: typeof import('../../src/store/scanner-profile-store.js');
-	theme: typeof import('../../src/ui/kit/theme.js');
-	press: typeof import('../helpers/press.js');
-};
+let lib: ScannerConsole;
 let sessionPath = '';
 
 beforeAll(async () => {
-	lib = {
-		render: (await import('ink-testing-library')).render,
-		App: (await import('../../src/ui/app.js')).App,
-		openShelf: (await import('../../src/ui/effects/preset-shelf.js')).openShelf,
-		services: await import('../../src/ui/effects/scanner-services.js'),
-		store: await import('../../src/store/scanner-profile-store.js'),
-		theme: await import('../../src/ui/kit/theme.js'),
-		press: await import('../helpers/press.js'),
-	};
+	lib = await loadScannerConsole();
 	sessionPath = writeSession(join(root, 'series'), 'png', {seed: 3, width: 200, height: 200}).sessionPath;
 }, 60_000);
 
 describe('keeping a measured scanner under a typed name', () => {
 	it('offers the session label, takes a typed name, refuses a taken one and replaces with S', async () => {
-		const {render, App, openShelf, services, store, theme} = lib;
-		const {press, frame, type, send, waitForText, ready} = lib.press;
+		const {store} = lib;
+		const {press, frame, type, send, waitForText} = lib.press;
 		const home = mkdtempSync(join(root, 'home-'));
 		const profiles = () => store.openScannerProfileStore(home).list().profiles;
-		const app = render(
-			<App
-				shelf={openShelf({home})}
-				scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))}
-				theme={theme.plainTheme}
-				columns={100}
-				rows={30}
-			/>,
-		);
-		await ready(app);
+		const app = await openScannerConsole(lib, home);
 		await press(app, 'g');
 		await waitForText(app, 'No profiles yet');
 		await press(app, 'c');

@@ -14,6 +14,7 @@ import {join} from 'node:path';
 import {afterAll, beforeAll, describe, expect, it} from 'vitest';
 import {demoPlan} from '../../src/plan/demo-plan.js';
 import {keys} from '../helpers/keys.js';
+import {loadScannerConsole, openScannerConsole, type ScannerConsole} from '../helpers/scanner-console.js';
 
 const root = mkdtempSync(join(tmpdir(), 'evenecho-scanner-png-'));
 afterAll(() => rmSync(root, {recursive: true, force: true}));
@@ -26,15 +27,7 @@ interface Session {
 	pixelScale: {cmPerPixel: number; topRowCm: number};
 }
 let session: Session;
-let lib: {
-	render: typeof import('ink-testing-library').render;
-	App: typeof import('../../src/ui/app.js').App;
-	openShelf: typeof import('../../src/ui/effects/preset-shelf.js').openShelf;
-	services: typeof import('../../src/ui/effects/scanner-services.js');
-	store: typeof import('../../src/store/scanner-profile-store.js');
-	theme: typeof import('../../src/ui/kit/theme.js');
-	press: typeof import('../helpers/press.js');
-};
+let lib: ScannerConsole;
 
 beforeAll(async () => {
 	const planPath = join(root, 'plan.json');
@@ -53,21 +46,13 @@ beforeAll(async () => {
 		folder,
 	]);
 	session = JSON.parse(readFileSync(join(folder, 'session.json'), 'utf8')) as Session;
-	lib = {
-		render: (await import('ink-testing-library')).render,
-		App: (await import('../../src/ui/app.js')).App,
-		openShelf: (await import('../../src/ui/effects/preset-shelf.js')).openShelf,
-		services: await import('../../src/ui/effects/scanner-services.js'),
-		store: await import('../../src/store/scanner-profile-store.js'),
-		theme: await import('../../src/ui/kit/theme.js'),
-		press: await import('../helpers/press.js'),
-	};
+	lib = await loadScannerConsole();
 }, 60_000);
 
 describe('a folder of PNG images in the session builder', () => {
 	it("asks for the depth scale once, refuses one outside the format's limits, and measures with it", async () => {
-		const {render, App, openShelf, services, store, theme} = lib;
-		const {press, frame, type, waitForText, selectedLine, moveTo, ready} = lib.press;
+		const {store} = lib;
+		const {press, frame, type, waitForText, selectedLine, moveTo} = lib.press;
 		const lineFor = new Map<string, string>([
 			...session.gainSteps.map((g) => [g.image, String(g.masterGainDb)] as const),
 			...(session.probeInAir ? [[session.probeInAir.image, `air ${session.probeInAir.masterGainDb}`] as const] : []),
@@ -76,16 +61,7 @@ describe('a folder of PNG images in the session builder', () => {
 			),
 		]);
 		const home = mkdtempSync(join(root, 'home-'));
-		const app = render(
-			<App
-				shelf={openShelf({home})}
-				scanners={services.scannerServicesOver(() => store.openScannerProfileStore(home))}
-				theme={theme.plainTheme}
-				columns={100}
-				rows={30}
-			/>,
-		);
-		await ready(app);
+		const app = await openScannerConsole(lib, home);
 		await press(app, 'g');
 		await waitForText(app, 'No profiles yet');
 		await press(app, 'c');
