@@ -3,18 +3,19 @@
  * protocols. One row of starting settings per combination of habitus (subcutaneous layer thickness),
  * probe frequency, receive mode and tissue swaps; Markdown, CSV, JSON or SVG on standard output.
  */
+import {once} from 'node:events';
 import {basename} from 'node:path';
 import type {Command} from 'commander';
 import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
-import {maxTableRows, resolveSweep, SweepError, type TissueChoice} from '../table/sweep-spec.js';
-import {runSweepInParallel} from '../table/sweep-parallel.js';
+import {maxTableRows, resolveSweep, SweepError, type ResolvedSweep, type TissueChoice} from '../table/sweep-spec.js';
+import {runSweepInParallel, streamSweepInParallel, tableFrame} from '../table/sweep-parallel.js';
 import {parseSweepText, type PresetLayerLookup} from '../table/sweep-options.js';
 import type {TableFormatOptions} from '../table/table-common.js';
-import {tableCsvChunks} from '../table/table-csv.js';
-import {tableJsonChunks} from '../table/table-json.js';
+import {tableCsvChunks, tableCsvParts} from '../table/table-csv.js';
+import {tableJsonChunks, tableJsonParts} from '../table/table-json.js';
 import {tableMarkdownChunks} from '../table/table-markdown.js';
 import {checkSvgSweep, maxSvgLines, maxSvgPanels, tableSvg} from '../table/table-svg.js';
 import {readPlanFile, scannerForPlan} from './read-plan-file.js';
@@ -47,6 +48,14 @@ async function openStore(): Promise<PresetStore> {
 
 function kindOf(entry: Preset): string {
 	return `${entry.isTemplate ? 'template' : 'preset'} "${entry.id}"`;
+}
+
+/**
+ * Writes to standard output and waits while a pipe is full, so streamed rows do not pile up in
+ * memory behind a slow reader (a file takes them at once).
+ */
+async function written(text: string): Promise<void> {
+	if (text !== '' && !process.stdout.write(text)) await once(process.stdout, 'drain');
 }
 
 function collect(value: string, previous: string[] | undefined): string[] {
@@ -156,7 +165,7 @@ export function registerTableCommand(program: Command): void {
 					}
 				: undefined;
 
-			let chunks: Iterable<string>;
+			let sweep: ResolvedSweep;
 			try {
 				const spec = parseSweepText(
 					{
@@ -173,34 +182,47 @@ export function registerTableCommand(program: Command): void {
 					},
 					presetLayer,
 				);
-				const sweep = resolveSweep(doc, spec);
+				sweep = resolveSweep(doc, spec);
 				if (format === 'svg') checkSvgSweep(sweep);
-				const bar = createProgressBar(process.stderr);
-				let table;
-				try {
-					const scanner = await scannerForPlan(doc);
-					const swept = scanner ? {...sweep, scanner} : sweep;
-					table = await runSweepInParallel(swept, {
-						keepCurves: format === 'svg',
-						onProgress: (done, total) => bar.update(done, total),
-					});
-				} finally {
-					bar.finish();
-				}
-				const fo: TableFormatOptions = {source, ...(opts.timestamp ? {generatedAt: new Date().toISOString()} : {})};
-				chunks =
-					format === 'csv'
-						? tableCsvChunks(table)
-						: format === 'json'
-							? tableJsonChunks(table, fo)
-							: format === 'svg'
-								? [tableSvg(table, fo)]
-								: tableMarkdownChunks(table, fo);
 			} catch (error) {
 				if (error instanceof SweepError) throw new UsageError(error.message);
 				throw error;
 			}
-			// Written a few hundred rows at a time: a 20,000-row table is never one string in memory.
-			for (const chunk of chunks) process.stdout.write(chunk);
+			const scanner = await scannerForPlan(doc);
+			const swept = scanner ? {...sweep, scanner} : sweep;
+			const fo: TableFormatOptions = {source, ...(opts.timestamp ? {generatedAt: new Date().toISOString()} : {})};
+			const bar = createProgressBar(process.stderr);
+			try {
+				const run = {
+					keepCurves: format === 'svg',
+					onProgress: (done: number, total: number) => bar.update(done, total),
+				};
+				// Rows are written as they are computed, in order, and dropped: a 20,000-row table is never
+				// held whole, neither as rows nor as text. Not on a terminal, where they would cross the
+				// progress bar; nor Markdown (its columns fit the widest cell) or SVG (one drawing).
+				if ((format === 'json' || format === 'csv') && !process.stdout.isTTY) {
+					const frame = tableFrame(swept);
+					const parts = format === 'json' ? tableJsonParts(frame, fo) : tableCsvParts(frame);
+					await written(parts.head);
+					await streamSweepInParallel(frame, run, (rows) => written(parts.rows(rows)));
+					bar.finish();
+					await written(parts.end());
+				} else {
+					const table = await runSweepInParallel(swept, run);
+					bar.finish();
+					const chunks =
+						format === 'csv'
+							? tableCsvChunks(table)
+							: format === 'json'
+								? tableJsonChunks(table, fo)
+								: format === 'svg'
+									? [tableSvg(table, fo)]
+									: tableMarkdownChunks(table, fo);
+					// Written a few hundred rows at a time: a 20,000-row table is never one string in memory.
+					for (const chunk of chunks) process.stdout.write(chunk);
+				}
+			} finally {
+				bar.finish();
+			}
 		});
 }

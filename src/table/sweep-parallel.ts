@@ -1,14 +1,14 @@
 /**
  * Runs a protocol-table sweep on every core: this thread and worker threads each take whole row
  * groups (rows that differ only in frequency, so each frequency ladder is climbed once, by one of
- * them); the workers send back plain row values and this thread puts the rows in order. Small sweeps, or a build without the worker
- * file (the TypeScript sources under test), run on this thread with {@link runSweep}.
+ * them); the workers send back plain row values and this thread hands the rows on in order as they
+ * become ready. Small sweeps, or a build without the worker file (the TypeScript sources under
+ * test), run on this thread alone, as runSweep does.
  */
 import {existsSync} from 'node:fs';
 import {availableParallelism} from 'node:os';
 import {fileURLToPath} from 'node:url';
 import {Worker} from 'node:worker_threads';
-import {settingsOf} from '../engine/plan-difference.js';
 import type {ResolvedSweep} from './sweep-spec.js';
 import {
 	referenceFitOf,
@@ -16,7 +16,6 @@ import {
 	rowsPerFrequency,
 	rowValues,
 	type LadderCache,
-	runSweep,
 	tableOf,
 	tableRow,
 	type ProtocolTable,
@@ -36,33 +35,96 @@ export interface ParallelOptions extends RunOptions {
 
 const workerFile = fileURLToPath(new URL('./sweep-worker.js', import.meta.url));
 
-/** Runs a checked sweep on worker threads; the same rows, in the same order, as {@link runSweep}. */
+/** Receives a sweep's rows in row order, a batch at a time; a returned promise holds the sweep back (a full pipe). */
+export type RowSink = (rows: readonly TableRow[]) => void | Promise<void>;
+
+/** A sweep's table without its rows: what the formats write before the first row. */
+export function tableFrame(sweep: ResolvedSweep): ProtocolTable {
+	return tableOf(sweep, [], referenceFitOf(sweep));
+}
+
+/** Runs a checked sweep on worker threads; the same rows, in the same order, as runSweep. */
 export async function runSweepInParallel(sweep: ResolvedSweep, options: ParallelOptions = {}): Promise<ProtocolTable> {
+	const frame = tableFrame(sweep);
+	const rows: TableRow[] = [];
+	await streamSweepInParallel(frame, options, (batch) => {
+		rows.push(...batch);
+	});
+	return {...frame, rows};
+}
+
+/**
+ * Runs the sweep of a {@link tableFrame} on worker threads and hands its rows to `sink` in row
+ * order as soon as they are ready; rows that arrive ahead of their turn wait here, and nothing is
+ * kept once handed on, so a 20,000-row table is never in memory whole.
+ */
+export async function streamSweepInParallel(
+	frame: ProtocolTable,
+	options: ParallelOptions,
+	sink: RowSink,
+): Promise<void> {
+	const sweep = frame.sweep;
+	const reference = frame.reference;
 	// More threads than row groups would leave some idle (a group never splits: its ladder is shared).
 	const threads = Math.min(options.threads ?? Math.min(8, availableParallelism()), rowsPerFrequency(sweep));
 	const small = options.threads === undefined && sweep.rowCount < minRowsForThreads;
-	if (threads < 2 || small || !existsSync(workerFile)) return runSweep(sweep, options);
+	if (threads < 2 || small || !existsSync(workerFile)) {
+		const ladders: LadderCache = new Map();
+		let batch: TableRow[] = [];
+		let done = 0;
+		for (const spot of rowSpots(sweep)) {
+			batch.push(tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference));
+			options.onProgress?.(++done, sweep.rowCount);
+			if (batch.length >= rowsPerReply) {
+				await sink(batch);
+				batch = [];
+			}
+		}
+		if (batch.length) await sink(batch);
+		return;
+	}
 
-	const referenceFit = referenceFitOf(sweep);
-	const reference = settingsOf(referenceFit);
-	const values: (RowValues | undefined)[] = new Array(sweep.rowCount);
+	// Rows computed but not yet handed on, by row number; `next` is the next row to hand on.
+	const waiting = new Map<number, RowValues>();
+	const spots = rowSpots(sweep);
+	let next = 1;
 	let done = 0;
+	let wake: (() => void) | undefined;
 	const take = (reply: WorkerReply) => {
-		for (const [index, v] of reply.rows) values[index - 1] = v;
+		for (const [index, v] of reply.rows) waiting.set(index, v);
 		done += reply.rows.length;
 		options.onProgress?.(done, sweep.rowCount);
+		wake?.();
+	};
+	const handOn = async () => {
+		const batch: TableRow[] = [];
+		while (waiting.has(next)) {
+			const spot = spots.next().value!;
+			batch.push(tableRow(sweep, spot, waiting.get(next)!, reference));
+			waiting.delete(next++);
+		}
+		if (batch.length) await sink(batch);
 	};
 	const keepCurves = options.keepCurves === true;
 	// This thread takes share 0 itself: one heap fewer than a worker per share (~40 MB each).
 	const workers = Array.from({length: threads - 1}, (_, k) => {
 		const job: SweepJob = {sweep, worker: k + 1, workers: threads, keepCurves};
 		return new Promise<void>((resolve, reject) => {
-			const w = new Worker(workerFile, {workerData: job, resourceLimits: {maxYoungGenerationSizeMb: 4}});
+			// A worker keeps little alive (its ladders, one batch of rows: ~11 MB at the end of a 10,000-row
+			// sweep), but with no limit V8 lets its heap grow to three times that; 48 MB keeps a 4× margin.
+			const limits = {maxYoungGenerationSizeMb: 4, maxOldGenerationSizeMb: 48};
+			const w = new Worker(workerFile, {workerData: job, resourceLimits: limits});
 			w.on('message', take);
 			w.on('error', reject);
 			w.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`sweep worker stopped with code ${code}`))));
 		});
 	});
+	let finished = false;
+	const allWorkers = Promise.all(workers).then(() => {
+		finished = true;
+	});
+	// Awaited below; until then a failing worker must not count as an unhandled rejection.
+	allWorkers.catch(() => {});
 	const ladders: LadderCache = new Map();
 	let mine: [number, RowValues][] = [];
 	for (const spot of rowSpots(sweep)) {
@@ -71,18 +133,17 @@ export async function runSweepInParallel(sweep: ResolvedSweep, options: Parallel
 		if (mine.length >= rowsPerReply) {
 			take({rows: mine});
 			mine = [];
+			await handOn();
 			// Let the workers' replies (and the progress bar) in between batches.
 			await new Promise<void>((resolve) => setImmediate(resolve));
 		}
 	}
 	take({rows: mine});
-	await Promise.all(workers);
-
-	const rows: TableRow[] = [];
-	for (const spot of rowSpots(sweep)) {
-		const v = values[spot.index - 1];
-		if (!v) throw new Error(`sweep worker left row ${spot.index} out`);
-		rows.push(tableRow(sweep, spot, v, reference));
+	for (;;) {
+		await handOn();
+		if (finished) break;
+		await Promise.race([allWorkers, new Promise<void>((resolve) => (wake = resolve))]);
 	}
-	return tableOf(sweep, rows, referenceFit);
+	await handOn();
+	if (next <= sweep.rowCount) throw new Error(`sweep worker left row ${next} out`);
 }

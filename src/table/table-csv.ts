@@ -19,6 +19,7 @@ import {
 	residualDecimals,
 	rowWarningCodes,
 	showsAngle,
+	type TextParts,
 } from './table-common.js';
 
 /** `penetration_cm` when the echo stays above the noise floor down to the display depth. */
@@ -68,13 +69,22 @@ export function tableCsv(t: ProtocolTable): string {
 	return stringify([csvHeader(t), ...t.rows.map((r) => csvCells(t, r))], {record_delimiter: '\r\n'});
 }
 
+/** The same text as {@link tableCsv} in parts, for rows written as they are computed (see TextParts). */
+export function tableCsvParts(t: ProtocolTable): TextParts {
+	return {
+		head: stringify([csvHeader(t)], {record_delimiter: '\r\n'}),
+		rows: (batch) =>
+			stringify(
+				batch.map((r) => csvCells(t, r)),
+				{record_delimiter: '\r\n'},
+			),
+		end: () => '',
+	};
+}
+
 /** The same text as {@link tableCsv} in pieces of `rowsPerChunk` rows. */
 export function* tableCsvChunks(t: ProtocolTable, rowsPerChunk = 500): Generator<string> {
-	yield stringify([csvHeader(t)], {record_delimiter: '\r\n'});
-	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
-		yield stringify(
-			t.rows.slice(i, i + rowsPerChunk).map((r) => csvCells(t, r)),
-			{record_delimiter: '\r\n'},
-		);
-	}
+	const parts = tableCsvParts(t);
+	yield parts.head;
+	for (let i = 0; i < t.rows.length; i += rowsPerChunk) yield parts.rows(t.rows.slice(i, i + rowsPerChunk));
 }

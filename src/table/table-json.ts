@@ -18,6 +18,7 @@ import {
 	sweptLayerLabel,
 	warningLegend,
 	type TableFormatOptions,
+	type TextParts,
 } from './table-common.js';
 
 export const tableFormat = 'evenecho-table/1';
@@ -223,21 +224,35 @@ export function tableJsonText(t: ProtocolTable, o: TableFormatOptions = {}): str
 export const rowsPerChunk = 500;
 
 /**
+ * The same text as {@link tableJsonText} in parts, for rows written as they are computed. `t` may
+ * be a table without its rows (see tableFrame in sweep-parallel.ts): only its row count is used.
+ */
+export function tableJsonParts(t: ProtocolTable, o: TableFormatOptions = {}, rowCount = t.sweep.rowCount): TextParts {
+	const head = JSON.stringify({...tableJsonHead(t, o), rows: []}, null, 2);
+	if (rowCount === 0) return {head: head + '\n', rows: () => '', end: () => ''};
+	let first = true;
+	return {
+		head: head.slice(0, -'[]\n}'.length) + '[\n',
+		rows(batch) {
+			if (!batch.length) return '';
+			const text = batch
+				.map((r) => '    ' + JSON.stringify(rowJson(t, r), null, 2).replaceAll('\n', '\n    '))
+				.join(',\n');
+			const lead = first ? '' : ',\n';
+			first = false;
+			return lead + text;
+		},
+		end: () => '\n  ]\n}\n',
+	};
+}
+
+/**
  * The same text as {@link tableJsonText} in pieces, a few hundred rows each, so a 20,000-row table
  * is written out without ever being one string.
  */
 export function* tableJsonChunks(t: ProtocolTable, o: TableFormatOptions = {}): Generator<string> {
-	const head = JSON.stringify({...tableJsonHead(t, o), rows: []}, null, 2);
-	if (!t.rows.length) {
-		yield head + '\n';
-		return;
-	}
-	yield head.slice(0, -'[]\n}'.length) + '[\n';
-	for (let i = 0; i < t.rows.length; i += rowsPerChunk) {
-		const part = t.rows
-			.slice(i, i + rowsPerChunk)
-			.map((r) => '    ' + JSON.stringify(rowJson(t, r), null, 2).replaceAll('\n', '\n    '));
-		yield part.join(',\n') + (i + rowsPerChunk < t.rows.length ? ',\n' : '\n');
-	}
-	yield '  ]\n}\n';
+	const parts = tableJsonParts(t, o, t.rows.length);
+	yield parts.head;
+	for (let i = 0; i < t.rows.length; i += rowsPerChunk) yield parts.rows(t.rows.slice(i, i + rowsPerChunk));
+	yield parts.end();
 }

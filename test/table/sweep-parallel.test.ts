@@ -6,8 +6,8 @@ import {abdomenPlan} from '../helpers/plans.js';
 import {resolveSweep, type SweepSpec} from '../../src/table/sweep-spec.js';
 import {buildTable, ladderKey, runSweep} from '../../src/table/sweep-runner.js';
 import {isWorkersRow} from '../../src/table/sweep-worker.js';
-import {tableCsv, tableCsvChunks} from '../../src/table/table-csv.js';
-import {tableJsonChunks, tableJsonText} from '../../src/table/table-json.js';
+import {tableCsv, tableCsvChunks, tableCsvParts} from '../../src/table/table-csv.js';
+import {tableJsonChunks, tableJsonParts, tableJsonText} from '../../src/table/table-json.js';
 import {tableMarkdown, tableMarkdownChunks} from '../../src/table/table-markdown.js';
 
 const spec: SweepSpec = {
@@ -62,5 +62,30 @@ describe('rows shared out to worker threads', () => {
 		expect(parallel.rows.map((r) => r.doc)).toEqual(single.rows.map((r) => r.doc));
 		expect(seen.at(-1)).toBe(sweep.rowCount);
 		expect(tableJsonText(parallel)).toBe(tableJsonText(single));
+	});
+
+	it('streamed on two threads, hands every row on once, in order, and writes the same JSON and CSV bytes', async () => {
+		const built = (await import(
+			new URL('../../dist/src/table/sweep-parallel.js', import.meta.url).href
+		)) as typeof import('../../src/table/sweep-parallel.js');
+		const sweep = resolveSweep(abdomenPlan(), spec);
+		const single = runSweep(sweep);
+		const options = {source: 'plan file test.json'};
+		const frame = built.tableFrame(sweep);
+		const json = tableJsonParts(frame, options);
+		const csv = tableCsvParts(frame);
+		let jsonText = json.head;
+		let csvText = csv.head;
+		const handed: number[] = [];
+		await built.streamSweepInParallel(frame, {threads: 2}, (rows) => {
+			handed.push(...rows.map((r) => r.index));
+			jsonText += json.rows(rows);
+			csvText += csv.rows(rows);
+		});
+		jsonText += json.end();
+		csvText += csv.end();
+		expect(handed).toEqual(single.rows.map((r) => r.index));
+		expect(jsonText).toBe(tableJsonText(single, options));
+		expect(csvText).toBe(tableCsv(single));
 	});
 });
