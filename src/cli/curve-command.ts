@@ -3,7 +3,6 @@ import type {Command} from 'commander';
 import {computeCurve} from '../engine/compensation-curve.js';
 import {settingsDelta, settingsOf, type SettingsDelta} from '../engine/plan-difference.js';
 import type {CurveResult} from '../engine/types.js';
-import {curveCsv, curveJson} from '../report/curve-json.js';
 import {curveSummary, signedDb} from '../report/curve-summary.js';
 import {printable} from '../files/printable.js';
 import {numberOption} from './option-values.js';
@@ -88,12 +87,15 @@ export function registerCurveCommand(program: Command): void {
 			const {plan} = await readMeasuredPlanFile(planPath);
 			const result = computeCurve(plan, {stepCm});
 			const against = opts.against === undefined ? undefined : await comparedWith(result, opts.against, stepCm);
+			// The machine-readable forms (and the CSV library) load only when asked for.
 			if (opts.format === 'json') {
+				const {curveJson} = await import('../report/curve-json.js');
 				process.stdout.write(
 					JSON.stringify(against ? {...curveJson(result), against: deltaJson(against)} : curveJson(result), null, 2) +
 						'\n',
 				);
 			} else if (opts.format === 'csv') {
+				const {curveCsv} = await import('../report/curve-json.js');
 				process.stdout.write(curveCsv(result));
 			} else {
 				process.stdout.write(curveSummary(result));

@@ -17,7 +17,8 @@ export {maxPlanBytes};
 /** Any JSON input of the CLI: the file layer's refusals become UsageErrors (exit code 2). */
 export async function readJsonInputOrRefuse(path: string, what = 'plan'): Promise<unknown> {
 	try {
-		return (await readJsonInput(path, {maxBytes: maxPlanBytes, what})).value;
+		// Only the value is used: no fingerprint of the file (that is for the store's guarded changes).
+		return (await readJsonInput(path, {maxBytes: maxPlanBytes, what, withIdentity: false})).value;
 	} catch (error) {
 		if (error instanceof FileRefusedError) throw new UsageError(error.message);
 		throw error;

@@ -6,7 +6,6 @@
  * check cannot stall the open) and checked again on the open descriptor. Standard input ("-") may
  * be a pipe or a device; it is read asynchronously, so Ctrl+C and SIGTERM keep working while it waits.
  */
-import {createHash} from 'node:crypto';
 import {
 	closeSync,
 	constants,
@@ -61,6 +60,8 @@ export function inputName(path: string): string {
 }
 
 export function identityOf(stat: Stats, bytes: Uint8Array): FileIdentity {
+	// node:crypto is loaded on first use: commands that only read their input (`curve`) never need it.
+	const {createHash} = process.getBuiltinModule('node:crypto');
 	return {dev: stat.dev, ino: stat.ino, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex')};
 }
 

@@ -14,6 +14,10 @@ import {libraryTissue, tissueIds} from '../engine/tissue-library.js';
 import type {Tissue} from '../engine/types.js';
 import {migratePlanInput} from './plan-migration.js';
 
+// Each command parses a handful of documents: zod's compiled object parsers (built with new Function
+// on first use) cost more to build than they save here. Global, set where the schemas are built.
+z.config({jitless: true});
+
 export const planFormat = 'evenecho-plan/2';
 
 /** Allowed ranges, in one place so messages, the console's fields and the docs agree. */
