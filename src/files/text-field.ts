@@ -6,6 +6,7 @@
  * multi-line fields), invisible format characters such as bidi overrides, line/paragraph
  * separators, and unpaired surrogates.
  */
+import {superRefine} from 'zod/mini';
 import type {z} from 'zod';
 
 const singleLine = /[\p{Cc}\p{Cf}\p{Zl}\p{Zp}\p{Cs}]/u;
@@ -33,9 +34,15 @@ export function textRuleText(options: TextRuleOptions = {}): string {
 }
 
 /** Adds the rule to a string schema; the message names the first offending character. */
-export function safeText<S extends z.ZodType<string>>(schema: S, options: TextRuleOptions = {}) {
-	return schema.superRefine((value, ctx) => {
-		const found = findUnsafeCharacter(value, options);
-		if (found) ctx.addIssue({code: 'custom', message: `${textRuleText(options)} (found ${found})`});
-	});
+export function safeText<S extends z.core.$ZodType<string> & {check(...c: z.core.$ZodCheck<string>[]): S}>(
+	schema: S,
+	options: TextRuleOptions = {},
+): S {
+	// As a check, not classic zod's superRefine method: the plan schema is built with zod/mini.
+	return schema.check(
+		superRefine((value: string, ctx) => {
+			const found = findUnsafeCharacter(value, options);
+			if (found) ctx.addIssue({code: 'custom', message: `${textRuleText(options)} (found ${found})`});
+		}),
+	);
 }
