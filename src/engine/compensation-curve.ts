@@ -267,7 +267,13 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		};
 	});
 
-	const penetrationDepthCm = nominal.depthForLoss(plan.noiseBudgetDb, depthCm);
+	// The samples bracket the noise-floor crossing already (checked exactly there; the whole range if not).
+	const firstOver = nominal.receive === 'tissue-harmonic' ? -1 : samples.findIndex((s) => s.belowNoise);
+	const penetrationDepthCm = nominal.depthForLoss(
+		plan.noiseBudgetDb,
+		depthCm,
+		firstOver > 0 ? {loCm: depths[firstOver - 1]!, hiCm: depths[firstOver]!} : undefined,
+	);
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
 	const fitted = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),

@@ -40,11 +40,27 @@ export function frequencyLadder(
 	marginDb = 0,
 ): FrequencyLadder {
 	const budget = plan.noiseBudgetDb - marginDb;
+	// The depth falls smoothly from rung to rung: each search starts where the last two rungs point
+	// (a guess only: depthForLoss brackets it and checks the bracket).
+	const found: {mhz: number; cm: number}[] = [];
+	const guessAt = (f: number): number | undefined => {
+		const b = found[found.length - 1];
+		const a = found[found.length - 2];
+		if (!b) return undefined;
+		if (!a || a.mhz === b.mhz) return b.cm;
+		return b.cm + ((b.cm - a.cm) * (f - b.mhz)) / (b.mhz - a.mhz);
+	};
 	const rungs = [...frequenciesMhz]
 		.sort((a, b) => a - b)
 		.map((f) => {
 			const model = pathModelOf(atFrequency(plan, f));
-			const penetrationDepthCm = model.depthForLoss(plan.noiseBudgetDb, ladderSearchCm);
+			const guessCm = guessAt(f);
+			const penetrationDepthCm = model.depthForLoss(
+				plan.noiseBudgetDb,
+				ladderSearchCm,
+				guessCm === undefined ? undefined : {guessCm},
+			);
+			if (penetrationDepthCm !== null) found.push({mhz: f, cm: penetrationDepthCm});
 			const reachesTarget =
 				model.lossAt(targetDepthCm) <= budget && !(model.barrier && model.barrier.displayedCm < targetDepthCm);
 			return {centerMhz: f, penetrationDepthCm, reachesTarget};
