@@ -1,13 +1,67 @@
 /**
  * Linear programmes with few unknowns and many inequality rows (the minimax stage of the slider fit).
  */
-import {dotSparse, luFactor, luSolve, luSolveTransposed} from './dense-linear-algebra.js';
+import {luFactor, luSolve, luSolveTransposed} from './dense-linear-algebra.js';
 
 /** One linear inequality Σ val·x[idx] (≤ or ≥, by context) rhs, stored sparsely. */
 export interface Constraint {
 	readonly idx: number[];
 	readonly val: number[];
 	readonly rhs: number;
+}
+
+/** Rows packed flat (compressed sparse rows): the pricing passes over every row run over flat arrays,
+ * summing each row's entries in the same order as dotSparse (dense-linear-algebra.ts). Built row by row
+ * with {@link PackedRows.add}, so callers with many rows make no object per row. */
+export class PackedRows {
+	/** Row j's entries are start[j] … start[j + 1] − 1 of idx and val. */
+	readonly start: number[] = [0];
+	readonly idx: number[] = [];
+	readonly val: number[] = [];
+	readonly rhs: number[] = [];
+
+	get count(): number {
+		return this.rhs.length;
+	}
+
+	/** Appends the row Σ val·x[idx] (≤ or ≥, by context) rhs; `sign` −1 negates every value. */
+	add(idx: readonly number[], val: readonly number[], rhs: number, sign = 1): this {
+		for (let e = 0; e < idx.length; e++) {
+			this.idx.push(idx[e]!);
+			this.val.push(sign * val[e]!);
+		}
+		this.rhs.push(rhs);
+		this.start.push(this.idx.length);
+		return this;
+	}
+
+	/** Appends one entry to the last row added (a variable the shared weights leave out). */
+	extend(index: number, value: number): this {
+		this.idx.push(index);
+		this.val.push(value);
+		this.start[this.start.length - 1] = this.idx.length;
+		return this;
+	}
+
+	static of(cons: readonly Constraint[]): PackedRows {
+		const rows = new PackedRows();
+		for (const c of cons) rows.add(c.idx, c.val, c.rhs);
+		return rows;
+	}
+}
+
+/** Row j of packed rows times x. */
+export function packedDot(rows: PackedRows, j: number, x: ArrayLike<number>): number {
+	const {start, idx, val} = rows;
+	let s = 0;
+	for (let e = start[j]!, end = start[j + 1]!; e < end; e++) s += val[e]! * x[idx[e]!]!;
+	return s;
+}
+
+/** Writes row j into a dense column/vector `out` (entries added, so `out` starts zeroed) at stride. */
+function scatterRow(rows: PackedRows, j: number, out: Float64Array, stride: number, offset: number): void {
+	for (let e = rows.start[j]!, end = rows.start[j + 1]!; e < end; e++)
+		out[rows.idx[e]! * stride + offset] = rows.val[e]!;
 }
 
 /**
@@ -18,17 +72,13 @@ export interface Constraint {
  * primal row), switching to Bland's rule after a run of degenerate pivots so it cannot cycle.
  * `basis` must be dual feasible (B⁻¹(−e) ≥ 0). Returns null on numerical failure.
  */
-export function solveInequalityLp(
-	n: number,
-	cons: readonly Constraint[],
-	start: readonly number[],
-): Float64Array | null {
-	const count = cons.length;
+export function solveInequalityLp(n: number, rows: PackedRows, start: readonly number[]): Float64Array | null {
+	const count = rows.count;
 	const basis = [...start];
 	const inBasis = new Uint8Array(count);
 	for (const j of basis) inBasis[j] = 1;
 	let rhsScale = 1;
-	for (const c of cons) rhsScale = Math.max(rhsScale, Math.abs(c.rhs));
+	for (let j = 0; j < count; j++) rhsScale = Math.max(rhsScale, Math.abs(rows.rhs[j]!));
 	const tolOpt = 1e-11 * rhsScale;
 	const b = new Float64Array(n * n);
 	const piv = new Int32Array(n);
@@ -39,15 +89,12 @@ export function solveInequalityLp(
 	const maxIter = 50 * (n + 10) + 4 * count;
 	for (let iter = 0; iter < maxIter; iter++) {
 		b.fill(0);
-		for (let i = 0; i < n; i++) {
-			const c = cons[basis[i]!]!;
-			for (let e = 0; e < c.idx.length; e++) b[c.idx[e]! * n + i] = c.val[e]!;
-		}
+		for (let i = 0; i < n; i++) scatterRow(rows, basis[i]!, b, n, i);
 		if (!luFactor(b, n, piv)) return null;
 		y.fill(0);
 		y[n - 1] = -1;
 		luSolve(b, n, piv, y);
-		for (let i = 0; i < n; i++) pi[i] = cons[basis[i]!]!.rhs;
+		for (let i = 0; i < n; i++) pi[i] = rows.rhs[basis[i]!]!;
 		luSolveTransposed(b, n, piv, pi);
 
 		const bland = degenerateRun > 30;
@@ -55,8 +102,7 @@ export function solveInequalityLp(
 		let best = -tolOpt;
 		for (let j = 0; j < count; j++) {
 			if (inBasis[j]) continue;
-			const c = cons[j]!;
-			const d = c.rhs - dotSparse(c, pi);
+			const d = rows.rhs[j]! - packedDot(rows, j, pi);
 			if (d < best) {
 				q = j;
 				best = d;
@@ -66,8 +112,7 @@ export function solveInequalityLp(
 		if (q < 0) return pi;
 
 		w.fill(0);
-		const cq = cons[q]!;
-		for (let e = 0; e < cq.idx.length; e++) w[cq.idx[e]!] = cq.val[e]!;
+		scatterRow(rows, q, w, 1, 0);
 		luSolve(b, n, piv, w);
 		let wMax = 0;
 		for (let i = 0; i < n; i++) wMax = Math.max(wMax, Math.abs(w[i]!));

@@ -16,7 +16,7 @@
 import type {SliderBank, SliderFit, SliderSetting} from './types.js';
 import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
-import {solveInequalityLp, type Constraint} from './inequality-lp.js';
+import {PackedRows, solveInequalityLp} from './inequality-lp.js';
 import {appliedGainDb, basisWeights, knotDepths} from './slider-basis.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
@@ -408,19 +408,19 @@ function minimaxTotals(
 	b: TotalBounds,
 ): {totals: number[]; tStar: number} | null {
 	const tIndex = n;
-	const cons: Constraint[] = [];
+	const cons = new PackedRows();
 	for (let i = 0; i < rows.length; i++) {
 		const r = rows[i]!;
-		cons.push({idx: [...r.idx, tIndex], val: [...r.val, -1], rhs: targets[i]!});
-		cons.push({idx: [...r.idx, tIndex], val: [...r.val.map((v) => -v), -1], rhs: -targets[i]!});
+		cons.add(r.idx, r.val, targets[i]!).extend(tIndex, -1);
+		cons.add(r.idx, r.val, -targets[i]!, -1).extend(tIndex, -1);
 	}
-	const boxStart = cons.length;
+	const boxStart = cons.count;
 	for (let k = 0; k < n; k++) {
-		cons.push({idx: [k], val: [1], rhs: b.hi});
-		cons.push({idx: [k], val: [-1], rhs: -b.lo});
+		cons.add([k], [1], b.hi);
+		cons.add([k], [-1], -b.lo);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.push({idx: [j, k], val: [1, -1], rhs: b.spread});
+		for (let k = 0; k < n; k++) if (j !== k) cons.add([j, k], [1, -1], b.spread);
 	}
 	// A dual-feasible starting basis: the first sample's upper residual row, and for every slider
 	// the bound row whose normal cancels that sample's weight (so the dual values are the weights).
@@ -468,18 +468,18 @@ function tieBreakTotals(
 		addAt(g, (k + 1) * n + k, -SMOOTHNESS);
 	}
 	// Constraints in the form c·h ≥ rhs.
-	const cons: Constraint[] = [];
+	const cons = new PackedRows();
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
-		cons.push({idx: r.idx, val: r.val, rhs: targets[i]! - tau});
-		cons.push({idx: r.idx, val: r.val.map((v) => -v), rhs: -targets[i]! - tau});
+		cons.add(r.idx, r.val, targets[i]! - tau);
+		cons.add(r.idx, r.val, -targets[i]! - tau, -1);
 	}
 	for (let k = 0; k < n; k++) {
-		cons.push({idx: [k], val: [1], rhs: b.lo});
-		cons.push({idx: [k], val: [-1], rhs: -b.hi});
+		cons.add([k], [1], b.lo);
+		cons.add([k], [-1], -b.hi);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.push({idx: [j, k], val: [-1, 1], rhs: -b.spread});
+		for (let k = 0; k < n; k++) if (j !== k) cons.add([j, k], [-1, 1], -b.spread);
 	}
 	const scale = 1 + Math.abs(b.lo) + Math.abs(b.hi) + tau + targets.reduce((s, t) => Math.max(s, Math.abs(t)), 0);
 	const h = solveConvexQp(n, g, a, cons, 1e-11 * scale);
