@@ -250,7 +250,10 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = heldAt !== null && d > blockedDepthCm!;
-		const {lowDb: lo, highDb: hi} = blocked ? heldAt : bandAt(d, loss);
+		let lo = loss;
+		let hi = loss;
+		if (blocked) ({lowDb: lo, highDb: hi} = heldAt);
+		else if (band) ({lowDb: lo, highDb: hi} = band.at(d));
 		const comp = blocked ? heldAt.nominal : loss;
 		return {
 			displayedDepthCm: d,

@@ -11,41 +11,57 @@ export interface Constraint {
 }
 
 /** Rows packed flat (compressed sparse rows): the pricing passes over every row run over flat arrays,
- * summing each row's entries in the same order as dotSparse (dense-linear-algebra.ts). Built row by row
- * with {@link PackedRows.add}, so callers with many rows make no object per row. */
+ * summing each row's entries in the same order as dotSparse (dense-linear-algebra.ts). Sized up front
+ * and filled row by row, so callers with many rows make no object or array per row. */
 export class PackedRows {
 	/** Row j's entries are start[j] … start[j + 1] − 1 of idx and val. */
-	readonly start: number[] = [0];
-	readonly idx: number[] = [];
-	readonly val: number[] = [];
-	readonly rhs: number[] = [];
+	readonly start: Int32Array;
+	readonly idx: Int32Array;
+	readonly val: Float64Array;
+	readonly rhs: Float64Array;
+	private rows = 0;
+	private used = 0;
 
-	get count(): number {
-		return this.rhs.length;
+	/** Room for `maxRows` rows with `maxEntries` entries in all. */
+	constructor(maxRows: number, maxEntries: number) {
+		this.start = new Int32Array(maxRows + 1);
+		this.idx = new Int32Array(maxEntries);
+		this.val = new Float64Array(maxEntries);
+		this.rhs = new Float64Array(maxRows);
 	}
 
-	/** Appends the row Σ val·x[idx] (≤ or ≥, by context) rhs; `sign` −1 negates every value. */
-	add(idx: readonly number[], val: readonly number[], rhs: number, sign = 1): this {
-		for (let e = 0; e < idx.length; e++) {
-			this.idx.push(idx[e]!);
-			this.val.push(sign * val[e]!);
-		}
-		this.rhs.push(rhs);
-		this.start.push(this.idx.length);
+	get count(): number {
+		return this.rows;
+	}
+
+	/** Starts a row with right-hand side `rhs`; its entries follow with {@link entry}. */
+	row(rhs: number): this {
+		this.rhs[this.rows] = rhs;
+		this.rows++;
+		this.start[this.rows] = this.used;
 		return this;
 	}
 
-	/** Appends one entry to the last row added (a variable the shared weights leave out). */
-	extend(index: number, value: number): this {
-		this.idx.push(index);
-		this.val.push(value);
-		this.start[this.start.length - 1] = this.idx.length;
+	/** Adds the entry val·x[index] to the last row started. */
+	entry(index: number, value: number): this {
+		this.idx[this.used] = index;
+		this.val[this.used] = value;
+		this.used++;
+		this.start[this.rows] = this.used;
+		return this;
+	}
+
+	/** Adds sign·val[e]·x[idx[e]] for every e to the last row started. */
+	entries(idx: readonly number[], val: readonly number[], sign = 1): this {
+		for (let e = 0; e < idx.length; e++) this.entry(idx[e]!, sign * val[e]!);
 		return this;
 	}
 
 	static of(cons: readonly Constraint[]): PackedRows {
-		const rows = new PackedRows();
-		for (const c of cons) rows.add(c.idx, c.val, c.rhs);
+		let total = 0;
+		for (const c of cons) total += c.idx.length;
+		const rows = new PackedRows(cons.length, total);
+		for (const c of cons) rows.row(c.rhs).entries(c.idx, c.val);
 		return rows;
 	}
 }

@@ -17,7 +17,7 @@ import type {SliderBank, SliderFit, SliderSetting} from './types.js';
 import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
 import {PackedRows, solveInequalityLp} from './inequality-lp.js';
-import {appliedGainDb, basisWeights, knotDepths} from './slider-basis.js';
+import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
 export interface FitRequest {
@@ -213,19 +213,18 @@ function safeKnots(req: FitRequest): number[] {
 	return knotDepths(req.bank, depth);
 }
 
+const hatScratch: HatWeights = [0, 0, 0, 0];
+
 /** Hat weights at one depth, as the non-zero entries only (at most two). */
 function sparseWeights(knots: readonly number[], ends: SliderBank['ends'], depthCm: number): SparseWeights {
-	const w = basisWeights(knots, ends, depthCm);
-	const idx: number[] = [];
-	const val: number[] = [];
-	for (let k = 0; k < w.length; k++) {
-		const v = w[k]!;
-		if (v !== 0 && Number.isFinite(v)) {
-			idx.push(k);
-			val.push(v);
-		}
-	}
-	return {idx, val};
+	const count = hatWeights(knots, ends, depthCm, hatScratch);
+	const [k0, w0, k1, w1] = hatScratch;
+	const keep0 = w0 !== 0 && Number.isFinite(w0);
+	const keep1 = count === 2 && w1 !== 0 && Number.isFinite(w1);
+	if (keep0 && keep1) return {idx: [k0, k1], val: [w0, w1]};
+	if (keep0) return {idx: [k0], val: [w0]};
+	if (keep1) return {idx: [k1], val: [w1]};
+	return {idx: [], val: []};
 }
 
 function totalBounds(req: FitRequest): TotalBounds | null {
@@ -408,19 +407,22 @@ function minimaxTotals(
 	b: TotalBounds,
 ): {totals: number[]; tStar: number} | null {
 	const tIndex = n;
-	const cons = new PackedRows();
-	for (let i = 0; i < rows.length; i++) {
+	const m = rows.length;
+	let weights = 0;
+	for (const r of rows) weights += r.idx.length;
+	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * (weights + m) + 2 * n + 2 * n * (n - 1));
+	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
-		cons.add(r.idx, r.val, targets[i]!).extend(tIndex, -1);
-		cons.add(r.idx, r.val, -targets[i]!, -1).extend(tIndex, -1);
+		cons.row(targets[i]!).entries(r.idx, r.val).entry(tIndex, -1);
+		cons.row(-targets[i]!).entries(r.idx, r.val, -1).entry(tIndex, -1);
 	}
 	const boxStart = cons.count;
 	for (let k = 0; k < n; k++) {
-		cons.add([k], [1], b.hi);
-		cons.add([k], [-1], -b.lo);
+		cons.row(b.hi).entry(k, 1);
+		cons.row(-b.lo).entry(k, -1);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.add([j, k], [1, -1], b.spread);
+		for (let k = 0; k < n; k++) if (j !== k) cons.row(b.spread).entry(j, 1).entry(k, -1);
 	}
 	// A dual-feasible starting basis: the first sample's upper residual row, and for every slider
 	// the bound row whose normal cancels that sample's weight (so the dual values are the weights).
@@ -468,18 +470,20 @@ function tieBreakTotals(
 		addAt(g, (k + 1) * n + k, -SMOOTHNESS);
 	}
 	// Constraints in the form c·h ≥ rhs.
-	const cons = new PackedRows();
+	let weights = 0;
+	for (const r of rows) weights += r.idx.length;
+	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * weights + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
-		cons.add(r.idx, r.val, targets[i]! - tau);
-		cons.add(r.idx, r.val, -targets[i]! - tau, -1);
+		cons.row(targets[i]! - tau).entries(r.idx, r.val);
+		cons.row(-targets[i]! - tau).entries(r.idx, r.val, -1);
 	}
 	for (let k = 0; k < n; k++) {
-		cons.add([k], [1], b.lo);
-		cons.add([k], [-1], -b.hi);
+		cons.row(b.lo).entry(k, 1);
+		cons.row(-b.hi).entry(k, -1);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.add([j, k], [-1, 1], -b.spread);
+		for (let k = 0; k < n; k++) if (j !== k) cons.row(-b.spread).entry(j, -1).entry(k, 1);
 	}
 	const scale = 1 + Math.abs(b.lo) + Math.abs(b.hi) + tau + targets.reduce((s, t) => Math.max(s, Math.abs(t)), 0);
 	const h = solveConvexQp(n, g, a, cons, 1e-11 * scale);
