@@ -16,7 +16,7 @@
 import type {SliderBank, SliderFit, SliderSetting} from './types.js';
 import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
-import {PackedRows, solveInequalityLp} from './inequality-lp.js';
+import {type DantzigPricing, PackedRows, solveInequalityLp} from './inequality-lp.js';
 import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
@@ -167,12 +167,12 @@ interface Samples {
 	readonly targets: number[];
 }
 
-interface SparseWeights {
+export interface SparseWeights {
 	readonly idx: number[];
 	readonly val: number[];
 }
 
-interface TotalBounds {
+export interface TotalBounds {
 	/** Lowest / highest reachable total, dB. */
 	readonly lo: number;
 	readonly hi: number;
@@ -433,11 +433,76 @@ function minimaxTotals(
 		const w = e >= 0 ? first.val[e]! : 0;
 		basis.push(boxStart + 2 * k + (w < 0 ? 0 : 1));
 	}
-	const x = solveInequalityLp(n + 1, cons, basis);
+	const x = solveInequalityLp(n + 1, cons, basis, minimaxPricing(n, rows, targets, b, boxStart));
 	if (x === null) return null;
 	const totals = Array.from({length: n}, (_, k) => x[k]!);
 	if (!totals.every(Number.isFinite)) return null;
 	return {totals, tStar: worstResidual(totals, rows, targets)};
+}
+
+/**
+ * The Dantzig choice of the stage-1 rows without a pass over each: a sample's two residual rows share
+ * one weighted sum, and the most violated spread row is the pair of the largest and the smallest
+ * total. The same reduced costs, summed in the same order, and the same lowest-numbered row on a tie
+ * as the plain pass (a basic spread row has reduced cost 0, so it is never the most violated).
+ */
+export function minimaxPricing(
+	n: number,
+	rows: readonly SparseWeights[],
+	targets: readonly number[],
+	b: TotalBounds,
+	boxStart: number,
+): DantzigPricing {
+	return (pi, inBasis, tol) => {
+		const piT = pi[n]!;
+		let q = -1;
+		let best = -tol;
+		for (let i = 0; i < rows.length; i++) {
+			const r = rows[i]!;
+			let s = 0;
+			for (let e = 0; e < r.idx.length; e++) s += r.val[e]! * pi[r.idx[e]!]!;
+			if (!inBasis[2 * i]) {
+				const d = targets[i]! - (s + -piT);
+				if (d < best) {
+					q = 2 * i;
+					best = d;
+				}
+			}
+			if (!inBasis[2 * i + 1]) {
+				const d = -targets[i]! - (-s + -piT);
+				if (d < best) {
+					q = 2 * i + 1;
+					best = d;
+				}
+			}
+		}
+		for (let k = 0; k < n; k++) {
+			const j = boxStart + 2 * k;
+			const hiD = b.hi - pi[k]!;
+			if (!inBasis[j] && hiD < best) {
+				q = j;
+				best = hiD;
+			}
+			const loD = -b.lo - -pi[k]!;
+			if (!inBasis[j + 1] && loD < best) {
+				q = j + 1;
+				best = loD;
+			}
+		}
+		let top = 0;
+		let bottom = 0;
+		for (let k = 1; k < n; k++) {
+			if (pi[k]! > pi[top]!) top = k;
+			if (pi[k]! < pi[bottom]!) bottom = k;
+		}
+		if (top !== bottom) {
+			const d = b.spread - (pi[top]! + -pi[bottom]!);
+			// Spread rows run j = 0…n−1, k = 0…n−1 without k = j.
+			const j = boxStart + 2 * n + top * (n - 1) + (bottom < top ? bottom : bottom - 1);
+			if (d < best && !inBasis[j]) q = j;
+		}
+		return q;
+	};
 }
 
 /**
