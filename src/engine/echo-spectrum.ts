@@ -274,7 +274,6 @@ function fallPoint(
 	dropNp: number,
 	toleranceNp: number,
 ): number {
-	const fall = (f: number) => gPeak - ig.log(f > 0 ? f : Number.MIN_VALUE);
 	const rootDrop = Math.sqrt(dropNp);
 	const m = ig.weightExponent;
 	// Frequencies: the fall is below dropNp at `near`, above it at `far` (NaN until known).
@@ -292,12 +291,12 @@ function fallPoint(
 			// At or past 0 MHz: the window may reach it.
 			if (!(far === 0)) {
 				far = 0;
-				gFar = fall(0);
+				gFar = gPeak - ig.log(Number.MIN_VALUE);
 				farScale = 1;
 				if (gFar < dropNp) return 0;
 			}
 		} else {
-			const g = fall(f);
+			const g = gPeak - ig.log(f > 0 ? f : Number.MIN_VALUE);
 			if (Math.abs(g - dropNp) <= toleranceNp) return f;
 			if (g > dropNp) {
 				far = f;

@@ -7,6 +7,7 @@
  * front ends vary across their band; stated in outputs).
  */
 import {pathModelOf} from './compensation-curve.js';
+import type {PathModel} from './path-model.js';
 import type {EnginePlan} from './types.js';
 
 export interface LadderRung {
@@ -31,6 +32,31 @@ export const ladderSearchCm = 40;
 /** A plan with another centre frequency (same fractional bandwidth). */
 export function atFrequency(plan: EnginePlan, centerMhz: number): EnginePlan {
 	return {...plan, probe: {...plan.probe, centerMhz}};
+}
+
+/** How far from the noise-floor depth (cm) the target must lie for that depth to settle the question:
+ * 100× the search's 1e-5 cm. */
+const settledCm = 1e-3;
+
+/**
+ * Is the loss at the target within the budget? Without a margin the budget is the noise floor's own,
+ * and where the loss grows with depth (every receive mode but the tissue harmonic) the target is within
+ * it exactly when it lies above the noise-floor depth just found; only a target within 1e-3 cm of that
+ * depth (or a margin) needs the loss itself.
+ */
+function withinBudget(
+	model: PathModel,
+	targetCm: number,
+	penetrationCm: number | null,
+	budgetDb: number,
+	marginDb: number,
+): boolean {
+	if (marginDb === 0 && model.receive !== 'tissue-harmonic') {
+		if (penetrationCm === null && targetCm <= ladderSearchCm) return true;
+		if (penetrationCm !== null && targetCm < penetrationCm - settledCm) return true;
+		if (penetrationCm !== null && targetCm > penetrationCm + settledCm) return false;
+	}
+	return model.lossAt(targetCm) <= budgetDb;
 }
 
 export function frequencyLadder(
@@ -62,7 +88,8 @@ export function frequencyLadder(
 			);
 			if (penetrationDepthCm !== null) found.push({mhz: f, cm: penetrationDepthCm});
 			const reachesTarget =
-				model.lossAt(targetDepthCm) <= budget && !(model.barrier && model.barrier.displayedCm < targetDepthCm);
+				withinBudget(model, targetDepthCm, penetrationDepthCm, budget, marginDb) &&
+				!(model.barrier && model.barrier.displayedCm < targetDepthCm);
 			return {centerMhz: f, penetrationDepthCm, reachesTarget};
 		});
 	const reaching = rungs.filter((r) => r.reachesTarget);
