@@ -11,6 +11,13 @@ import {join} from 'node:path';
 /** The commit the speed issue measured ("today's code" when it was filed). Override with EVENECHO_BENCH_PINNED. */
 export const pinnedCommit = process.env['EVENECHO_BENCH_PINNED'] ?? '4b71f78';
 
+/**
+ * The second yardstick: the model as it stood when the engine's speed work began (the band's model
+ * and the fit's split rule changed on purpose after {@link pinnedCommit}). Every output of this tree
+ * is compared with it, so a speed-up that moved an output shows. Override with EVENECHO_BENCH_MODEL_PINNED.
+ */
+export const modelPinnedCommit = process.env['EVENECHO_BENCH_MODEL_PINNED'] ?? '4640513';
+
 export interface PinnedBuild {
 	readonly commit: string;
 	/** The compiled tree: `<dir>/src/engine/…`, `<dir>/src/table/…`. */
@@ -22,10 +29,10 @@ function repoRoot(): string {
 	return execFileSync('git', ['rev-parse', '--show-toplevel'], {encoding: 'utf8'}).trim();
 }
 
-/** Extracts and compiles the pinned commit once (≈ 15 s), then reuses it. */
-export function pinnedBuild(): PinnedBuild {
+/** Extracts and compiles a commit (by default the pinned one) once (≈ 15 s), then reuses it. */
+export function pinnedBuild(ref: string = pinnedCommit): PinnedBuild {
 	const root = repoRoot();
-	const commit = execFileSync('git', ['-C', root, 'rev-parse', '--short=12', pinnedCommit], {encoding: 'utf8'}).trim();
+	const commit = execFileSync('git', ['-C', root, 'rev-parse', '--short=12', ref], {encoding: 'utf8'}).trim();
 	const dir = join(tmpdir(), `evenecho-pinned-${commit}`);
 	const distDir = join(dir, 'dist');
 	const done = join(dir, '.built');

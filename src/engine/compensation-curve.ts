@@ -250,7 +250,10 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		const p = points[i]!;
 		const loss = p.attenuationDb + p.interfaceLossDb;
 		const blocked = heldAt !== null && d > blockedDepthCm!;
-		const {lowDb: lo, highDb: hi} = blocked ? heldAt : bandAt(d, loss);
+		let lo = loss;
+		let hi = loss;
+		if (blocked) ({lowDb: lo, highDb: hi} = heldAt);
+		else if (band) ({lowDb: lo, highDb: hi} = band.at(d));
 		const comp = blocked ? heldAt.nominal : loss;
 		return {
 			displayedDepthCm: d,
@@ -267,7 +270,13 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		};
 	});
 
-	const penetrationDepthCm = nominal.depthForLoss(plan.noiseBudgetDb, depthCm);
+	// The samples bracket the noise-floor crossing already (checked exactly there; the whole range if not).
+	const firstOver = nominal.receive === 'tissue-harmonic' ? -1 : samples.findIndex((s) => s.belowNoise);
+	const penetrationDepthCm = nominal.depthForLoss(
+		plan.noiseBudgetDb,
+		depthCm,
+		firstOver > 0 ? {loCm: depths[firstOver - 1]!, hiCm: depths[firstOver]!} : undefined,
+	);
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
 	const fitted = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),

@@ -1,8 +1,8 @@
 /**
  * Strictly convex quadratic programmes with inequality rows (the tie-break stage of the slider fit).
  */
-import {backSolveTransposed, cholesky, dotSparse, forwardSolve, householderQr} from './dense-linear-algebra.js';
-import type {Constraint} from './inequality-lp.js';
+import {backSolveTransposed, cholesky, forwardSolve, householderQr} from './dense-linear-algebra.js';
+import {packedDot, type PackedRows} from './inequality-lp.js';
 
 /**
  * min ½hᵀGh + aᵀh subject to c_j·h ≥ rhs_j, G symmetric positive definite (row-major n×n).
@@ -17,7 +17,7 @@ export function solveConvexQp(
 	n: number,
 	hessian: Float64Array,
 	linear: Float64Array,
-	cons: readonly Constraint[],
+	rows: PackedRows,
 	tolFeas: number,
 ): Float64Array | null {
 	const l = Float64Array.from(hessian);
@@ -31,8 +31,7 @@ export function solveConvexQp(
 	};
 	const transformed = (j: number): Float64Array => {
 		const v = new Float64Array(n);
-		const c = cons[j]!;
-		for (let e = 0; e < c.idx.length; e++) v[c.idx[e]!] = c.val[e]!;
+		for (let e = rows.start[j]!, end = rows.start[j + 1]!; e < end; e++) v[rows.idx[e]!] = rows.val[e]!;
 		forwardSolve(l, n, v);
 		return v;
 	};
@@ -44,15 +43,14 @@ export function solveConvexQp(
 	};
 	const d = new Float64Array(n);
 	const z = new Float64Array(n);
-	const maxSteps = 20 * (n + 10) + 2 * cons.length;
+	const maxSteps = 20 * (n + 10) + 2 * rows.count;
 	let steps = 0;
 	for (;;) {
 		toH();
 		let p = -1;
 		let worst = -tolFeas;
-		for (let j = 0; j < cons.length; j++) {
-			const c = cons[j]!;
-			const s = dotSparse(c, h) - c.rhs;
+		for (let j = 0; j < rows.count; j++) {
+			const s = packedDot(rows, j, h) - rows.rhs[j]!;
 			if (s < worst) {
 				worst = s;
 				p = j;
@@ -100,7 +98,7 @@ export function solveConvexQp(
 					}
 				}
 			}
-			let sp = -cons[p]!.rhs;
+			let sp = -rows.rhs[p]!;
 			for (let i = 0; i < n; i++) sp += np[i]! * y[i]!;
 			let t2 = Infinity;
 			if (!zeroStep) {

@@ -1,13 +1,86 @@
 /**
  * Linear programmes with few unknowns and many inequality rows (the minimax stage of the slider fit).
  */
-import {dotSparse, luFactor, luSolve, luSolveTransposed} from './dense-linear-algebra.js';
+import {luFactor, luSolve, luSolveTransposed} from './dense-linear-algebra.js';
 
 /** One linear inequality Σ val·x[idx] (≤ or ≥, by context) rhs, stored sparsely. */
 export interface Constraint {
 	readonly idx: number[];
 	readonly val: number[];
 	readonly rhs: number;
+}
+
+/** Rows packed flat (compressed sparse rows): the pricing passes over every row run over flat arrays,
+ * summing each row's entries in the same order as dotSparse (dense-linear-algebra.ts). Sized up front
+ * and filled row by row, so callers with many rows make no object or array per row. */
+export class PackedRows {
+	/** Row j's entries are start[j] … start[j + 1] − 1 of idx and val. */
+	readonly start: Int32Array;
+	readonly idx: Int32Array;
+	readonly val: Float64Array;
+	readonly rhs: Float64Array;
+	private rows = 0;
+	private used = 0;
+
+	/** Room for `maxRows` rows with `maxEntries` entries in all. */
+	constructor(maxRows: number, maxEntries: number) {
+		this.start = new Int32Array(maxRows + 1);
+		this.idx = new Int32Array(maxEntries);
+		this.val = new Float64Array(maxEntries);
+		this.rhs = new Float64Array(maxRows);
+	}
+
+	get count(): number {
+		return this.rows;
+	}
+
+	/** Starts a row with right-hand side `rhs`; its entries follow with {@link entry}. */
+	row(rhs: number): this {
+		this.rhs[this.rows] = rhs;
+		this.rows++;
+		this.start[this.rows] = this.used;
+		return this;
+	}
+
+	/** Adds the entry val·x[index] to the last row started. */
+	entry(index: number, value: number): this {
+		this.idx[this.used] = index;
+		this.val[this.used] = value;
+		this.used++;
+		this.start[this.rows] = this.used;
+		return this;
+	}
+
+	/** Adds sign·val[e]·x[idx[e]] for every e to the last row started. */
+	entries(idx: readonly number[], val: readonly number[], sign = 1): this {
+		for (let e = 0; e < idx.length; e++) this.entry(idx[e]!, sign * val[e]!);
+		return this;
+	}
+
+	static of(cons: readonly Constraint[]): PackedRows {
+		let total = 0;
+		for (const c of cons) total += c.idx.length;
+		const rows = new PackedRows(cons.length, total);
+		for (const c of cons) rows.row(c.rhs).entries(c.idx, c.val);
+		return rows;
+	}
+}
+
+/** Dantzig pricing for rows of a known structure: the entering row for multipliers `pi`, or −1. */
+export type DantzigPricing = (pi: Float64Array, inBasis: Uint8Array, tol: number) => number;
+
+/** Row j of packed rows times x. */
+export function packedDot(rows: PackedRows, j: number, x: ArrayLike<number>): number {
+	const {start, idx, val} = rows;
+	let s = 0;
+	for (let e = start[j]!, end = start[j + 1]!; e < end; e++) s += val[e]! * x[idx[e]!]!;
+	return s;
+}
+
+/** Writes row j into a dense column/vector `out` (entries added, so `out` starts zeroed) at stride. */
+function scatterRow(rows: PackedRows, j: number, out: Float64Array, stride: number, offset: number): void {
+	for (let e = rows.start[j]!, end = rows.start[j + 1]!; e < end; e++)
+		out[rows.idx[e]! * stride + offset] = rows.val[e]!;
 }
 
 /**
@@ -17,18 +90,22 @@ export interface Constraint {
  * there are; the simplex multipliers π are the primal solution x. Dantzig pricing (most violated
  * primal row), switching to Bland's rule after a run of degenerate pivots so it cannot cycle.
  * `basis` must be dual feasible (B⁻¹(−e) ≥ 0). Returns null on numerical failure.
+ * `price`, when given, finds the Dantzig row for rows of a known structure faster than a pass over
+ * them all; it must return what that pass would (the lowest-numbered row among the most violated
+ * non-basic ones with reduced cost below −tol, or −1). Bland's rule always uses the plain pass.
  */
 export function solveInequalityLp(
 	n: number,
-	cons: readonly Constraint[],
+	rows: PackedRows,
 	start: readonly number[],
+	price?: DantzigPricing,
 ): Float64Array | null {
-	const count = cons.length;
+	const count = rows.count;
 	const basis = [...start];
 	const inBasis = new Uint8Array(count);
 	for (const j of basis) inBasis[j] = 1;
 	let rhsScale = 1;
-	for (const c of cons) rhsScale = Math.max(rhsScale, Math.abs(c.rhs));
+	for (let j = 0; j < count; j++) rhsScale = Math.max(rhsScale, Math.abs(rows.rhs[j]!));
 	const tolOpt = 1e-11 * rhsScale;
 	const b = new Float64Array(n * n);
 	const piv = new Int32Array(n);
@@ -39,35 +116,33 @@ export function solveInequalityLp(
 	const maxIter = 50 * (n + 10) + 4 * count;
 	for (let iter = 0; iter < maxIter; iter++) {
 		b.fill(0);
-		for (let i = 0; i < n; i++) {
-			const c = cons[basis[i]!]!;
-			for (let e = 0; e < c.idx.length; e++) b[c.idx[e]! * n + i] = c.val[e]!;
-		}
+		for (let i = 0; i < n; i++) scatterRow(rows, basis[i]!, b, n, i);
 		if (!luFactor(b, n, piv)) return null;
 		y.fill(0);
 		y[n - 1] = -1;
 		luSolve(b, n, piv, y);
-		for (let i = 0; i < n; i++) pi[i] = cons[basis[i]!]!.rhs;
+		for (let i = 0; i < n; i++) pi[i] = rows.rhs[basis[i]!]!;
 		luSolveTransposed(b, n, piv, pi);
 
 		const bland = degenerateRun > 30;
 		let q = -1;
-		let best = -tolOpt;
-		for (let j = 0; j < count; j++) {
-			if (inBasis[j]) continue;
-			const c = cons[j]!;
-			const d = c.rhs - dotSparse(c, pi);
-			if (d < best) {
-				q = j;
-				best = d;
-				if (bland) break;
+		if (price && !bland) q = price(pi, inBasis, tolOpt);
+		else {
+			let best = -tolOpt;
+			for (let j = 0; j < count; j++) {
+				if (inBasis[j]) continue;
+				const d = rows.rhs[j]! - packedDot(rows, j, pi);
+				if (d < best) {
+					q = j;
+					best = d;
+					if (bland) break;
+				}
 			}
 		}
 		if (q < 0) return pi;
 
 		w.fill(0);
-		const cq = cons[q]!;
-		for (let e = 0; e < cq.idx.length; e++) w[cq.idx[e]!] = cq.val[e]!;
+		scatterRow(rows, q, w, 1, 0);
 		luSolve(b, n, piv, w);
 		let wMax = 0;
 		for (let i = 0; i < n; i++) wMax = Math.max(wMax, Math.abs(w[i]!));

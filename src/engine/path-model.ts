@@ -264,12 +264,15 @@ export class PathModel {
 	 * take ~6 loss evaluations where halving took ~21, and a halving step whenever the bracket has not
 	 * halved in two steps keeps the jumps at boundaries (interface losses) from slowing it.
 	 */
-	depthForLoss(budgetDb: number, maxCm: number): number | null {
+	depthForLoss(budgetDb: number, maxCm: number, near?: DepthHint): number | null {
 		let lo = 0;
 		let hi = maxCm;
 		let fLo: number;
 		let fHi: number;
-		if (this.harmonic) {
+		const bracket = this.harmonic || !near ? null : this.bracketNear(budgetDb, maxCm, near);
+		if (bracket) {
+			({lo, hi, fLo, fHi} = bracket);
+		} else if (this.harmonic) {
 			const start = Math.min(this.referenceDisplayedCm, maxCm);
 			let crossed = false;
 			fLo = Number.NaN;
@@ -320,4 +323,59 @@ export class PathModel {
 		}
 		return (lo + hi) / 2;
 	}
+
+	/**
+	 * A bracket of the crossing near a hint, for the monotone (non-harmonic) loss only: a given
+	 * bracket is checked with one exact loss at each end; a guess is widened from both sides by
+	 * doubling steps. With one crossing any bracket leads to it, so the answer is the same to the
+	 * search's 1e-5 cm; a bracket that does not hold is dropped (null: search the whole range).
+	 */
+	private bracketNear(
+		budgetDb: number,
+		maxCm: number,
+		near: DepthHint,
+	): {lo: number; hi: number; fLo: number; fHi: number} | null {
+		const f = (d: number) => this.lossAt(d) - budgetDb;
+		if ('loCm' in near) {
+			const lo = Math.max(0, near.loCm);
+			const hi = Math.min(maxCm, near.hiCm);
+			if (!(lo < hi)) return null;
+			const fHi = f(hi);
+			if (!(fHi > 0)) return null;
+			const fLo = f(lo);
+			return fLo <= 0 ? {lo, hi, fLo, fHi} : null;
+		}
+		const guess = Math.min(Math.max(near.guessCm, 0), maxCm);
+		if (!Number.isFinite(guess)) return null;
+		const fGuess = f(guess);
+		let step = Math.max(0.02, 0.02 * guess);
+		if (fGuess > 0) {
+			let hi = guess;
+			let fHi = fGuess;
+			for (;;) {
+				const lo = Math.max(0, hi - step);
+				const fLo = f(lo);
+				if (fLo <= 0) return {lo, hi, fLo, fHi};
+				if (lo === 0) return null;
+				hi = lo;
+				fHi = fLo;
+				step *= 2;
+			}
+		}
+		if (guess >= maxCm) return null;
+		let lo = guess;
+		let fLo = fGuess;
+		for (;;) {
+			const hi = Math.min(maxCm, lo + step);
+			const fHi = f(hi);
+			if (fHi > 0) return {lo, hi, fLo, fHi};
+			if (hi === maxCm) return null;
+			lo = hi;
+			fLo = fHi;
+			step *= 2;
+		}
+	}
 }
+
+/** Where a noise-floor crossing is likely: a bracket (displayed cm) or a single guess. */
+export type DepthHint = {readonly loCm: number; readonly hiCm: number} | {readonly guessCm: number};

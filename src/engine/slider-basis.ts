@@ -24,37 +24,54 @@ export function knotDepths(bank: SliderBank, displayDepthCm: number): number[] {
  * segment (weights may then be negative or above one, but still sum to one).
  */
 export function basisWeights(knots: readonly number[], ends: SliderBank['ends'], depthCm: number): number[] {
+	const w = new Array<number>(knots.length).fill(0);
+	const at: HatWeights = [0, 0, 0, 0];
+	const count = hatWeights(knots, ends, depthCm, at);
+	w[at[0]] = at[1];
+	if (count === 2) w[at[2]] = at[3];
+	return w;
+}
+
+/** The one or two weights that can be non-zero: [slider, weight, next slider, its weight]. */
+export type HatWeights = [number, number, number, number];
+
+/**
+ * The weights of {@link basisWeights} that can be non-zero, written into `out` in slider order; returns
+ * how many (1 or 2). The fit asks for one row per sample and keeps only these.
+ */
+export function hatWeights(
+	knots: readonly number[],
+	ends: SliderBank['ends'],
+	depthCm: number,
+	out: HatWeights,
+): 1 | 2 {
 	const n = knots.length;
-	const w = new Array<number>(n).fill(0);
-	if (n === 1) {
-		w[0] = 1;
-		return w;
-	}
-	const first = knots[0]!;
-	const last = knots[n - 1]!;
-	let k: number;
-	if (depthCm <= first) {
-		if (ends === 'flat') {
-			w[0] = 1;
-			return w;
-		}
+	// One slider alone: the only one, or an end slider held flat beyond its knot.
+	let only = -1;
+	let k = 0;
+	if (n === 1) only = 0;
+	else if (depthCm <= knots[0]!) {
+		if (ends === 'flat') only = 0;
 		k = 0;
-	} else if (depthCm >= last) {
-		if (ends === 'flat') {
-			w[n - 1] = 1;
-			return w;
-		}
+	} else if (depthCm >= knots[n - 1]!) {
+		if (ends === 'flat') only = n - 1;
 		k = n - 2;
 	} else {
-		k = 0;
 		while (k < n - 2 && depthCm > knots[k + 1]!) k++;
+	}
+	if (only >= 0) {
+		out[0] = only;
+		out[1] = 1;
+		return 1;
 	}
 	const a = knots[k]!;
 	const b = knots[k + 1]!;
 	const t = (depthCm - a) / (b - a);
-	w[k] = 1 - t;
-	w[k + 1] = t;
-	return w;
+	out[0] = k;
+	out[1] = 1 - t;
+	out[2] = k + 1;
+	out[3] = t;
+	return 2;
 }
 
 /** Gain the scanner applies at one displayed depth: master + interpolated sliders, dB. */

@@ -16,8 +16,8 @@
 import type {SliderBank, SliderFit, SliderSetting} from './types.js';
 import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
-import {solveInequalityLp, type Constraint} from './inequality-lp.js';
-import {appliedGainDb, basisWeights, knotDepths} from './slider-basis.js';
+import {type DantzigPricing, PackedRows, solveInequalityLp} from './inequality-lp.js';
+import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
 export interface FitRequest {
@@ -167,12 +167,12 @@ interface Samples {
 	readonly targets: number[];
 }
 
-interface SparseWeights {
+export interface SparseWeights {
 	readonly idx: number[];
 	readonly val: number[];
 }
 
-interface TotalBounds {
+export interface TotalBounds {
 	/** Lowest / highest reachable total, dB. */
 	readonly lo: number;
 	readonly hi: number;
@@ -213,19 +213,18 @@ function safeKnots(req: FitRequest): number[] {
 	return knotDepths(req.bank, depth);
 }
 
+const hatScratch: HatWeights = [0, 0, 0, 0];
+
 /** Hat weights at one depth, as the non-zero entries only (at most two). */
 function sparseWeights(knots: readonly number[], ends: SliderBank['ends'], depthCm: number): SparseWeights {
-	const w = basisWeights(knots, ends, depthCm);
-	const idx: number[] = [];
-	const val: number[] = [];
-	for (let k = 0; k < w.length; k++) {
-		const v = w[k]!;
-		if (v !== 0 && Number.isFinite(v)) {
-			idx.push(k);
-			val.push(v);
-		}
-	}
-	return {idx, val};
+	const count = hatWeights(knots, ends, depthCm, hatScratch);
+	const [k0, w0, k1, w1] = hatScratch;
+	const keep0 = w0 !== 0 && Number.isFinite(w0);
+	const keep1 = count === 2 && w1 !== 0 && Number.isFinite(w1);
+	if (keep0 && keep1) return {idx: [k0, k1], val: [w0, w1]};
+	if (keep0) return {idx: [k0], val: [w0]};
+	if (keep1) return {idx: [k1], val: [w1]};
+	return {idx: [], val: []};
 }
 
 function totalBounds(req: FitRequest): TotalBounds | null {
@@ -408,19 +407,22 @@ function minimaxTotals(
 	b: TotalBounds,
 ): {totals: number[]; tStar: number} | null {
 	const tIndex = n;
-	const cons: Constraint[] = [];
-	for (let i = 0; i < rows.length; i++) {
+	const m = rows.length;
+	let weights = 0;
+	for (const r of rows) weights += r.idx.length;
+	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * (weights + m) + 2 * n + 2 * n * (n - 1));
+	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
-		cons.push({idx: [...r.idx, tIndex], val: [...r.val, -1], rhs: targets[i]!});
-		cons.push({idx: [...r.idx, tIndex], val: [...r.val.map((v) => -v), -1], rhs: -targets[i]!});
+		cons.row(targets[i]!).entries(r.idx, r.val).entry(tIndex, -1);
+		cons.row(-targets[i]!).entries(r.idx, r.val, -1).entry(tIndex, -1);
 	}
-	const boxStart = cons.length;
+	const boxStart = cons.count;
 	for (let k = 0; k < n; k++) {
-		cons.push({idx: [k], val: [1], rhs: b.hi});
-		cons.push({idx: [k], val: [-1], rhs: -b.lo});
+		cons.row(b.hi).entry(k, 1);
+		cons.row(-b.lo).entry(k, -1);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.push({idx: [j, k], val: [1, -1], rhs: b.spread});
+		for (let k = 0; k < n; k++) if (j !== k) cons.row(b.spread).entry(j, 1).entry(k, -1);
 	}
 	// A dual-feasible starting basis: the first sample's upper residual row, and for every slider
 	// the bound row whose normal cancels that sample's weight (so the dual values are the weights).
@@ -431,11 +433,76 @@ function minimaxTotals(
 		const w = e >= 0 ? first.val[e]! : 0;
 		basis.push(boxStart + 2 * k + (w < 0 ? 0 : 1));
 	}
-	const x = solveInequalityLp(n + 1, cons, basis);
+	const x = solveInequalityLp(n + 1, cons, basis, minimaxPricing(n, rows, targets, b, boxStart));
 	if (x === null) return null;
 	const totals = Array.from({length: n}, (_, k) => x[k]!);
 	if (!totals.every(Number.isFinite)) return null;
 	return {totals, tStar: worstResidual(totals, rows, targets)};
+}
+
+/**
+ * The Dantzig choice of the stage-1 rows without a pass over each: a sample's two residual rows share
+ * one weighted sum, and the most violated spread row is the pair of the largest and the smallest
+ * total. The same reduced costs, summed in the same order, and the same lowest-numbered row on a tie
+ * as the plain pass (a basic spread row has reduced cost 0, so it is never the most violated).
+ */
+export function minimaxPricing(
+	n: number,
+	rows: readonly SparseWeights[],
+	targets: readonly number[],
+	b: TotalBounds,
+	boxStart: number,
+): DantzigPricing {
+	return (pi, inBasis, tol) => {
+		const piT = pi[n]!;
+		let q = -1;
+		let best = -tol;
+		for (let i = 0; i < rows.length; i++) {
+			const r = rows[i]!;
+			let s = 0;
+			for (let e = 0; e < r.idx.length; e++) s += r.val[e]! * pi[r.idx[e]!]!;
+			if (!inBasis[2 * i]) {
+				const d = targets[i]! - (s + -piT);
+				if (d < best) {
+					q = 2 * i;
+					best = d;
+				}
+			}
+			if (!inBasis[2 * i + 1]) {
+				const d = -targets[i]! - (-s + -piT);
+				if (d < best) {
+					q = 2 * i + 1;
+					best = d;
+				}
+			}
+		}
+		for (let k = 0; k < n; k++) {
+			const j = boxStart + 2 * k;
+			const hiD = b.hi - pi[k]!;
+			if (!inBasis[j] && hiD < best) {
+				q = j;
+				best = hiD;
+			}
+			const loD = -b.lo - -pi[k]!;
+			if (!inBasis[j + 1] && loD < best) {
+				q = j + 1;
+				best = loD;
+			}
+		}
+		let top = 0;
+		let bottom = 0;
+		for (let k = 1; k < n; k++) {
+			if (pi[k]! > pi[top]!) top = k;
+			if (pi[k]! < pi[bottom]!) bottom = k;
+		}
+		if (top !== bottom) {
+			const d = b.spread - (pi[top]! + -pi[bottom]!);
+			// Spread rows run j = 0…n−1, k = 0…n−1 without k = j.
+			const j = boxStart + 2 * n + top * (n - 1) + (bottom < top ? bottom : bottom - 1);
+			if (d < best && !inBasis[j]) q = j;
+		}
+		return q;
+	};
 }
 
 /**
@@ -468,18 +535,20 @@ function tieBreakTotals(
 		addAt(g, (k + 1) * n + k, -SMOOTHNESS);
 	}
 	// Constraints in the form c·h ≥ rhs.
-	const cons: Constraint[] = [];
+	let weights = 0;
+	for (const r of rows) weights += r.idx.length;
+	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * weights + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
-		cons.push({idx: r.idx, val: r.val, rhs: targets[i]! - tau});
-		cons.push({idx: r.idx, val: r.val.map((v) => -v), rhs: -targets[i]! - tau});
+		cons.row(targets[i]! - tau).entries(r.idx, r.val);
+		cons.row(-targets[i]! - tau).entries(r.idx, r.val, -1);
 	}
 	for (let k = 0; k < n; k++) {
-		cons.push({idx: [k], val: [1], rhs: b.lo});
-		cons.push({idx: [k], val: [-1], rhs: -b.hi});
+		cons.row(b.lo).entry(k, 1);
+		cons.row(-b.hi).entry(k, -1);
 	}
 	for (let j = 0; j < n; j++) {
-		for (let k = 0; k < n; k++) if (j !== k) cons.push({idx: [j, k], val: [-1, 1], rhs: -b.spread});
+		for (let k = 0; k < n; k++) if (j !== k) cons.row(-b.spread).entry(j, -1).entry(k, 1);
 	}
 	const scale = 1 + Math.abs(b.lo) + Math.abs(b.hi) + tau + targets.reduce((s, t) => Math.max(s, Math.abs(t)), 0);
 	const h = solveConvexQp(n, g, a, cons, 1e-11 * scale);

@@ -22,14 +22,28 @@ const lastDegree = 16;
 /** A piece with this many wanted points or fewer is evaluated exactly at each. */
 const exactBelow = firstDegree + 3;
 
+/** cos(πjk/N) for j, k = 0…N, per degree N (row k): the same numbers every fit needs, worked out once. */
+const cosineTables = new Map<number, Float64Array>();
+function cosineTable(n: number): Float64Array {
+	let table = cosineTables.get(n);
+	if (!table) {
+		table = new Float64Array((n + 1) * (n + 1));
+		for (let k = 0; k <= n; k++) for (let j = 0; j <= n; j++) table[k * (n + 1) + j] = Math.cos((Math.PI * j * k) / n);
+		cosineTables.set(n, table);
+	}
+	return table;
+}
+
 /** Coefficients a_k of p(t) = Σ a_k·T_k(t) through values at t_j = cos(πj/N), j = 0…N. */
 function chebyshevCoefficients(values: Float64Array): Float64Array {
 	const n = values.length - 1;
 	const a = new Float64Array(n + 1);
+	const cosines = cosineTable(n);
 	for (let k = 0; k <= n; k++) {
 		let s = 0;
+		const row = k * (n + 1);
 		for (let j = 0; j <= n; j++) {
-			const v = values[j]! * Math.cos((Math.PI * j * k) / n);
+			const v = values[j]! * cosines[row + j]!;
 			s += j === 0 || j === n ? v / 2 : v;
 		}
 		a[k] = ((k === 0 || k === n ? 1 : 2) * s) / n;

@@ -77,9 +77,9 @@ function corners(t: Tissue): Pick<Tissue, 'speedMps' | 'densityKgM3'>[] {
 	return cs.flatMap((speedMps) => rs.map((densityKgM3) => ({speedMps, densityKgM3})));
 }
 
-/** Impedance range of a tissue's spread, MRayl-proportional. */
-function impedanceRange(t: Tissue): Range {
-	const zs = corners(t).map((c) => c.speedMps * c.densityKgM3);
+/** Impedance range of a tissue's spread (given as its corners), MRayl-proportional. */
+function impedanceRange(cs: readonly Pick<Tissue, 'speedMps' | 'densityKgM3'>[]): Range {
+	const zs = cs.map((c) => c.speedMps * c.densityKgM3);
 	return [Math.min(...zs), Math.max(...zs)];
 }
 
@@ -90,6 +90,7 @@ function impedanceRange(t: Tissue): Range {
  */
 export function boundaryLossRanges(layers: readonly Layer[], angleDeg: number): Range[] {
 	const angles = refractedAnglesDeg(layers, angleDeg);
+	const cornersOf = layers.map((l) => corners(l.tissue));
 	const out: Range[] = [];
 	for (let i = 0; i + 1 < layers.length; i++) {
 		const a = layers[i]!.tissue;
@@ -99,12 +100,12 @@ export function boundaryLossRanges(layers: readonly Layer[], angleDeg: number): 
 			angleDeg === 0
 				? roundTripTransmissionLossDb(reflectionCoefficient(x, y))
 				: obliqueRoundTripLossDb(x, y, incidence);
-		const losses = corners(a)
-			.flatMap((x) => corners(b).map((y) => lossOf(x, y)))
-			.filter(Number.isFinite);
+		const ca = cornersOf[i]!;
+		const cb = cornersOf[i + 1]!;
+		const losses = ca.flatMap((x) => cb.map((y) => lossOf(x, y))).filter(Number.isFinite);
 		const nominal = lossOf(a, b);
-		const [za0, za1] = impedanceRange(a);
-		const [zb0, zb1] = impedanceRange(b);
+		const [za0, za1] = impedanceRange(ca);
+		const [zb0, zb1] = impedanceRange(cb);
 		const overlap = angleDeg === 0 && za0 <= zb1 && zb0 <= za1;
 		out.push([overlap ? 0 : Math.min(nominal, ...losses), Math.max(nominal, ...losses)]);
 	}
@@ -219,38 +220,59 @@ export function uncertaintyBand(
 	const depths = [...xs].sort((a, b) => a - b);
 	// Which corners each end is taken over at each depth; each corner's model is then worked out once
 	// over all the depths it is wanted at (interpolated along depth, checked), shared by both ends.
-	const wanted = new Map<PathModel, {corner: SpreadCorner; at: number[]}>();
+	// The corners depend on the depth only through its exponent sides: one set per distinct list.
+	const cornerSets = new Map<string, {low: PathModel[]; high: PathModel[]; all: PathModel[]}>();
+	const setOf = (sides: readonly ExponentSide[]) => {
+		const key = sides.join();
+		let set = cornerSets.get(key);
+		if (!set) {
+			const of = (end: BandEnd) =>
+				sides.flatMap((side) => cornersFor(end, side, tissueHarmonic).map((corner) => modelOf(corner)));
+			const low = of('low');
+			const high = of('high');
+			set = {low, high, all: [...new Set([...low, ...high])]};
+			cornerSets.set(key, set);
+		}
+		return set;
+	};
+	const wanted = new Map<PathModel, number[]>();
 	const cornersAt = depths.map((d, k) => {
 		const sides: ExponentSide[] = tissueHarmonic ? ['above'] : exponentSides(plan.probe.receive, centroidAt(d));
-		const of = (end: BandEnd) =>
-			sides.flatMap((side) =>
-				cornersFor(end, side, tissueHarmonic).map((corner) => {
-					const m = modelOf(corner);
-					const w = wanted.get(m) ?? {corner, at: []};
-					if (w.at[w.at.length - 1] !== k) w.at.push(k);
-					wanted.set(m, w);
-					return m;
-				}),
-			);
-		return {low: of('low'), high: of('high')};
+		const set = setOf(sides);
+		for (const m of set.all) {
+			const at = wanted.get(m);
+			if (at) at.push(k);
+			else wanted.set(m, [k]);
+		}
+		return set;
 	});
-	const pointsOf = new Map<PathModel, Map<number, PathPoint>>();
-	for (const [m, w] of wanted) {
+	// Each model's points, by depth index (only the depths it is wanted at are filled).
+	const pointsOf = new Map<PathModel, PathPoint[]>();
+	for (const [m, at] of wanted) {
 		const points = pointsAlongDepth(
 			m,
-			w.at.map((k) => depths[k]!),
+			at.map((k) => depths[k]!),
 			[cornerTolerance, cornerTolerance],
 		);
-		pointsOf.set(m, new Map(w.at.map((k, i) => [k, points[i]!])));
+		const byDepth: PathPoint[] = new Array(depths.length);
+		for (let i = 0; i < at.length; i++) byDepth[at[i]!] = points[i]!;
+		pointsOf.set(m, byDepth);
 	}
-	const lossOf = (end: BandEnd, m: PathModel, k: number): number => {
-		const p = pointsOf.get(m)!.get(k)!;
-		return p.attenuationDb + crossedBy[end][p.layerIndex]!;
-	};
-	const ends = cornersAt.map((c, k) => ({
-		lowDb: Math.min(...c.low.map((m) => lossOf('low', m, k))),
-		highDb: Math.max(...c.high.map((m) => lossOf('high', m, k))),
-	}));
+	const lowCrossed = crossedBy.low;
+	const highCrossed = crossedBy.high;
+	const ends = cornersAt.map((c, k) => {
+		let lowDb = Infinity;
+		for (const m of c.low) {
+			const p = pointsOf.get(m)![k]!;
+			lowDb = Math.min(lowDb, p.attenuationDb + lowCrossed[p.layerIndex]!);
+		}
+		let highDb = -Infinity;
+		for (const m of c.high) {
+			const p = pointsOf.get(m)![k]!;
+			highDb = Math.max(highDb, p.attenuationDb + highCrossed[p.layerIndex]!);
+		}
+		return {lowDb, highDb};
+	});
 	return {
 		at(d) {
 			let i = 1;
