@@ -131,8 +131,8 @@ export function naiveFit(req: FitRequest): SliderFit {
  *
  * @param sliderDb slider values, dB (missing entries count as 0 dB).
  * @param masterDb master gain, dB.
- * @returns residualDb (dB, 0 when nothing is usable) and atCm (displayed depth, cm, of the first
- * sample with that error; 0 when nothing is usable).
+ * @returns residualDb (dB, 0 when nothing is usable) and atCm (displayed depth, cm, of the shallowest
+ * sample whose error reaches it within 1e-4 dB; 0 when nothing is usable).
  */
 export function fitError(
 	req: FitRequest,
@@ -144,18 +144,28 @@ export function fitError(
 	const s = Array.from({length: knots.length}, (_, k) => finiteOr(sliderDb[k], 0));
 	const m = finiteOr(masterDb, 0);
 	const data = usableSamples(req);
+	const errors = data.depths.map((d, i) =>
+		Math.abs((knots.length === 0 ? m : appliedGainDb(knots, req.bank.ends, s, m, d)) - data.targets[i]!),
+	);
+	return worstSample(errors, data.depths);
+}
+
+/**
+ * Errors this close to the largest count as reaching it, dB. A minimax fit misses several samples by
+ * the same amount (it equioscillates); without a tolerance, which of them is named would be settled
+ * by rounding noise of about 1e-12 dB and move by centimetres between two builds. Far below the
+ * 0.1 dB any output shows.
+ */
+const worstTieDb = 1e-4;
+
+/** The largest error and the shallowest depth whose error reaches it (within {@link worstTieDb}). */
+function worstSample(errors: ArrayLike<number>, depths: readonly number[]): {residualDb: number; atCm: number} {
 	let residualDb = 0;
-	let atCm = 0;
-	for (let i = 0; i < data.depths.length; i++) {
-		const d = data.depths[i]!;
-		const g = knots.length === 0 ? m : appliedGainDb(knots, req.bank.ends, s, m, d);
-		const e = Math.abs(g - data.targets[i]!);
-		if (e > residualDb) {
-			residualDb = e;
-			atCm = d;
-		}
-	}
-	return {residualDb, atCm};
+	for (let i = 0; i < errors.length; i++) residualDb = Math.max(residualDb, errors[i]!);
+	if (residualDb === 0) return {residualDb, atCm: 0};
+	let i = 0;
+	while (errors[i]! < residualDb - worstTieDb) i++;
+	return {residualDb, atCm: depths[i]!};
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -332,19 +342,14 @@ function preparedError(
 	sliderDb: readonly number[],
 	masterDb: number,
 ): {residualDb: number; atCm: number} {
-	let residualDb = 0;
-	let atCm = 0;
+	const errors = new Float64Array(rows.length);
 	for (let i = 0; i < rows.length; i++) {
 		const r = rows[i]!;
 		let g = masterDb;
 		for (let e = 0; e < r.idx.length; e++) g += r.val[e]! * sliderDb[r.idx[e]!]!;
-		const err = Math.abs(g - data.targets[i]!);
-		if (err > residualDb) {
-			residualDb = err;
-			atCm = data.depths[i]!;
-		}
+		errors[i] = Math.abs(g - data.targets[i]!);
 	}
-	return {residualDb, atCm};
+	return worstSample(errors, data.depths);
 }
 
 /** A bank without sliders: the master alone takes the midrange of the usable target. */

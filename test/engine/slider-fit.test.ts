@@ -231,6 +231,20 @@ describe('split rule and fitError', () => {
 		expect(fitError(req, [0, 10], 5)).toEqual({residualDb: 5, atCm: 0});
 		expect(fitError({...req, usableDepthCm: 0}, [0, 10], 5)).toEqual({residualDb: 0, atCm: 0});
 	});
+
+	it('fitError: names the shallowest depth where the worst error is reached, ignoring rounding noise', () => {
+		// The same setting g(d) = 5 + d against T(d) = 5 − |d − 5| + d: |g − T| = |d − 5| (hand-worked), 5 dB at
+		// both 0 and 10 cm, as a minimax fit misses several samples by the same amount.
+		const tie = (noise: number) =>
+			request(grid(10, 10), (z) => 5 - Math.abs(z - 5) + z + noise * z, bank(2, 'band-edges', 'flat', -20, 20), loose);
+		const exact = fitError(tie(0), [0, 10], 5);
+		expect(exact.residualDb).toBeCloseTo(5, 12);
+		expect(exact.atCm).toBe(0);
+		// The deep end worse by 1e-9 dB of rounding noise: still the shallow depth is named.
+		expect(fitError(tie(-1e-10), [0, 10], 5).atCm).toBe(0);
+		// A real difference (0.01 dB) moves it.
+		expect(fitError(tie(-1e-3), [0, 10], 5).atCm).toBe(10);
+	});
 });
 
 // ---------------------------------------------------------------------------------------------
