@@ -101,8 +101,8 @@ class BenchStdin extends EventEmitter {
 }
 
 async function keystrokeToFrame(): Promise<void> {
-	(await import('../src/ui/render-options.js')).tuneProcessForConsole();
-	const [{render}, {createElement}, {App}, {shelfOver}, {plainTheme}, {consoleRenderOptions}] = await Promise.all([
+	const untune = (await import('../src/ui/render-options.js')).tuneProcessForConsole();
+	const [{render}, {createElement}, {App}, {shelfOver}, {colourTheme}, {consoleRenderOptions}] = await Promise.all([
 		import('ink'),
 		import('react'),
 		import('../src/ui/app.js'),
@@ -115,7 +115,9 @@ async function keystrokeToFrame(): Promise<void> {
 		const stdout = new BenchStdout();
 		const stdin = new BenchStdin();
 		const instance = render(
-			createElement(App, {shelf: shelfOver(undefined), theme: plainTheme, initialPlan: tenLayerDoc()}),
+			// The colour theme and picture cells the shipped console draws in a colour terminal (the plain
+			// theme draws the picture as shading characters, a fraction of the escapes Ink has to parse).
+			createElement(App, {shelf: shelfOver(undefined), theme: colourTheme, initialPlan: tenLayerDoc()}),
 			{
 				...consoleRenderOptions,
 				stdout: stdout as unknown as NodeJS.WriteStream,
@@ -166,6 +168,7 @@ async function keystrokeToFrame(): Promise<void> {
 		);
 		all.push(...got);
 	}
+	untune();
 	const framed = all.filter((g) => !Number.isNaN(g.wall));
 	const p95 = quantile(
 		framed.map((g) => g.wall),
