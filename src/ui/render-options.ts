@@ -32,10 +32,10 @@ const oldGenerationGrowthPercent = 50;
  * default 2 below it (V8 shrinks the space after a quiet spell; typing lets it grow back to the cap).
  * Checked between frames, since V8 has no synchronous hook for it.
  */
-function holdYoungGeneration(): NodeJS.Timeout {
+function holdYoungGeneration(): void {
 	let isHeld = true;
 	setFlagsFromString('--semi-space-growth-factor=1');
-	return setInterval(() => {
+	setInterval(() => {
 		const young = getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')?.space_size ?? 0;
 		const shouldHold = young >= youngGenerationCapBytes;
 		if (shouldHold === isHeld) return;
@@ -49,16 +49,10 @@ function holdYoungGeneration(): NodeJS.Timeout {
  * development checks are for us, not for users). The heap flags below are read by V8 at run time
  * (measured in the console bench: resident memory after 200 edits 140–160 MB without them,
  * 100–108 MB with them, for about 1 ms more CPU per key press). `--optimize-for-size` saved memory
- * too but doubled key-to-frame time. Returns what puts V8's defaults back (the benchmark goes on
- * to other suites in the same process).
+ * too but doubled key-to-frame time.
  */
-export function tuneProcessForConsole(): () => void {
+export function tuneProcessForConsole(): void {
 	process.env['NODE_ENV'] ??= 'production';
 	setFlagsFromString(`--heap-growing-percent=${oldGenerationGrowthPercent}`);
-	const holding = holdYoungGeneration();
-	return () => {
-		clearInterval(holding);
-		setFlagsFromString('--heap-growing-percent=0');
-		setFlagsFromString('--semi-space-growth-factor=2');
-	};
+	holdYoungGeneration();
 }
