@@ -6,12 +6,14 @@
  * - Memory: resident set of the real console process (the shipped bundle, in a pseudo-terminal)
  *   after 200 edits, one run per edit kind.
  */
+import {execFile} from 'node:child_process';
 import {EventEmitter} from 'node:events';
 import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {dirname, join} from 'node:path';
 import {performance} from 'node:perf_hooks';
 import {fileURLToPath} from 'node:url';
+import {promisify} from 'node:util';
 import {parsePlanDocument, type PlanDocument} from '../src/plan/plan-schema.js';
 import {cpuMs, median, note, quantile, target} from './bench-tools.js';
 import {inPty} from './pty-run.js';
@@ -19,6 +21,7 @@ import {inPty} from './pty-run.js';
 const here = dirname(fileURLToPath(import.meta.url));
 const cli = join(here, '..', 'bundle', 'main.js');
 const firstFrameMarker = '[1 Starting plan]';
+const execFileAsync = promisify(execFile);
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
 
 /** Invented 10-layer abdominal wall and organs, broadband probe (not a real patient). */
@@ -100,9 +103,19 @@ class BenchStdin extends EventEmitter {
 	}
 }
 
-async function keystrokeToFrame(): Promise<void> {
+interface Press {
+	readonly wall: number;
+	readonly cpu: number;
+}
+
+/** Set in the child process that measures key presses (see keystrokeToFrame). */
+const childFlag = 'EVENECHO_BENCH_KEYSTROKE_CHILD';
+const resultPrefix = 'key presses: ';
+
+/** Every edit kind's presses, in this process; a press without a frame within 1 s has null times. */
+async function measurePresses(): Promise<{readonly kind: string; readonly presses: (Press | null)[]}[]> {
 	(await import('../src/ui/render-options.js')).tuneProcessForConsole();
-	const [{render}, {createElement}, {App}, {shelfOver}, {plainTheme}, {consoleRenderOptions}] = await Promise.all([
+	const [{render}, {createElement}, {App}, {shelfOver}, {colourTheme}, {consoleRenderOptions}] = await Promise.all([
 		import('ink'),
 		import('react'),
 		import('../src/ui/app.js'),
@@ -110,12 +123,14 @@ async function keystrokeToFrame(): Promise<void> {
 		import('../src/ui/kit/theme.js'),
 		import('../src/ui/render-options.js'),
 	]);
-	const all: {wall: number; cpu: number}[] = [];
+	const out: {kind: string; presses: (Press | null)[]}[] = [];
 	for (const kind of editKinds) {
 		const stdout = new BenchStdout();
 		const stdin = new BenchStdin();
 		const instance = render(
-			createElement(App, {shelf: shelfOver(undefined), theme: plainTheme, initialPlan: tenLayerDoc()}),
+			// The colour theme and picture cells the shipped console draws in a colour terminal (the plain
+			// theme draws the picture as shading characters, a fraction of the escapes Ink has to parse).
+			createElement(App, {shelf: shelfOver(undefined), theme: colourTheme, initialPlan: tenLayerDoc()}),
 			{
 				...consoleRenderOptions,
 				stdout: stdout as unknown as NodeJS.WriteStream,
@@ -126,10 +141,10 @@ async function keystrokeToFrame(): Promise<void> {
 		);
 		await sleep(200);
 		const pressAndWait = (key: string) =>
-			new Promise<{wall: number; cpu: number}>((resolve) => {
+			new Promise<Press | null>((resolve) => {
 				const c0 = cpuMs();
 				const t0 = performance.now();
-				const timeout = setTimeout(() => resolve({wall: Number.NaN, cpu: Number.NaN}), 1000);
+				const timeout = setTimeout(() => resolve(null), 1000);
 				stdout.onWrite = () => {
 					stdout.onWrite = undefined;
 					clearTimeout(timeout);
@@ -146,16 +161,38 @@ async function keystrokeToFrame(): Promise<void> {
 			await pressAndWait(kind.press[i % 2]!);
 			await sleep(25);
 		}
-		const got: {wall: number; cpu: number}[] = [];
+		const presses: (Press | null)[] = [];
 		for (let i = 0; i < pressesPerKind; i++) {
-			got.push(await pressAndWait(kind.press[i % 2]!));
+			presses.push(await pressAndWait(kind.press[i % 2]!));
 			await sleep(25);
 		}
 		instance.unmount();
-		const framed = got.filter((g) => !Number.isNaN(g.wall));
-		const missed = got.length - framed.length;
+		out.push({kind: kind.name, presses});
+	}
+	return out;
+}
+
+/**
+ * Measured in a fresh Node process: the console tunes V8's heap at start-up, and a process that
+ * has already run other suites has a grown heap (its young generation at 2 × 16 MB instead of the
+ * console's 2 × 8 MB), which made key presses look cheaper than in the console.
+ */
+async function keystrokeToFrame(): Promise<void> {
+	const {CI: _ci, ...env} = process.env;
+	const {stdout} = await execFileAsync(process.execPath, [fileURLToPath(import.meta.url)], {
+		env: {...env, [childFlag]: '1'},
+		maxBuffer: 16 * 1024 * 1024,
+	});
+	// On one line of its own: the terminal library may add a cursor escape to stdout on exit.
+	const line = stdout.split('\n').find((l) => l.startsWith(resultPrefix));
+	if (!line) throw new Error(`the key-press child printed no result: ${JSON.stringify(stdout.slice(-300))}`);
+	const kinds = JSON.parse(line.slice(resultPrefix.length)) as Awaited<ReturnType<typeof measurePresses>>;
+	const all: (Press | null)[] = [];
+	for (const {kind, presses} of kinds) {
+		const framed = presses.filter((g): g is Press => g !== null);
+		const missed = presses.length - framed.length;
 		note(
-			`${kind.name} (${pressesPerKind} presses${missed ? `, ${missed} without a frame` : ''})`,
+			`${kind} (${pressesPerKind} presses${missed ? `, ${missed} without a frame` : ''})`,
 			`wall p50 ${quantile(
 				framed.map((g) => g.wall),
 				0.5,
@@ -164,9 +201,9 @@ async function keystrokeToFrame(): Promise<void> {
 				0.95,
 			).toFixed(1)} ms; CPU median ${median(framed.map((g) => g.cpu)).toFixed(1)} ms`,
 		);
-		all.push(...got);
+		all.push(...presses);
 	}
-	const framed = all.filter((g) => !Number.isNaN(g.wall));
+	const framed = all.filter((g): g is Press => g !== null);
 	const p95 = quantile(
 		framed.map((g) => g.wall),
 		0.95,
@@ -221,4 +258,9 @@ export async function run(): Promise<void> {
 	delete process.env['CI'];
 	await memoryAfterEdits();
 	await keystrokeToFrame();
+}
+
+// The child that measures key presses prints them as JSON and ends (Ink keeps the process alive otherwise).
+if (process.env[childFlag] === '1') {
+	process.stdout.write(`${resultPrefix}${JSON.stringify(await measurePresses())}\n`, () => process.exit(0));
 }

@@ -249,7 +249,7 @@ export function App({
 		<ThemeContext.Provider value={theme}>
 			<Box flexDirection="column" width={layout.columns}>
 				<StepBar step={state.step} width={layout.columns} isDirty={state.dirty} />
-				<Box height={layout.bodyRows - bodyGiven} flexDirection="column" overflow="hidden">
+				<Box height={layout.bodyRows - bodyGiven} flexDirection="column" overflowY="hidden">
 					{typeof curve === 'string' ? (
 						<Text {...theme.refusal}>{curve}</Text>
 					) : (

@@ -7,7 +7,7 @@
  */
 import {deliveredCompensationDb} from '../../engine/compensation-curve.js';
 import {clip} from './text-fit.js';
-import type {CurveResult} from '../../engine/types.js';
+import type {CurveResult, CurveSample} from '../../engine/types.js';
 
 export interface PlotOptions {
 	/** Total width of every line, characters. */
@@ -121,21 +121,34 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 
 	const cells: string[][] = Array.from({length: height}, () => new Array<string>(grid).fill(glyph.empty));
 	const notes: string[] = new Array<string>(height).fill('');
+	// Samples run down in depth: each row scans only from the first sample at or below its top
+	// (drawn on every key press, so no per-row filtering of every sample).
+	const samples = r.samples;
+	let first = 0;
 	for (let row = 0; row < height; row++) {
 		const top = row * rowCm;
 		const bottom = Math.min(depth, (row + 1) * rowCm);
-		const inRow = r.samples.filter(
-			(s) =>
-				s.displayedDepthCm >= top - 1e-9 &&
-				(s.displayedDepthCm < bottom - 1e-9 || (row === height - 1 && s.displayedDepthCm <= bottom + 1e-9)),
-		);
+		const isLast = row === height - 1;
+		while (first < samples.length && samples[first]!.displayedDepthCm < top - 1e-9) first++;
+		const inRow: CurveSample[] = [];
+		for (let i = first; i < samples.length; i++) {
+			const d = samples[i]!.displayedDepthCm;
+			if (d < bottom - 1e-9 || (isLast && d <= bottom + 1e-9)) inRow.push(samples[i]!);
+			else if (d > bottom + 1e-9) break;
+		}
 		if (inRow.length === 0) continue;
 		const line = cells[row]!;
-		const isBlocked = inRow.every((s) => s.blocked);
-		const isNoise = inRow.every((s) => s.belowNoise);
+		let isBlocked = true;
+		let isNoise = true;
+		let lo = Number.POSITIVE_INFINITY;
+		let hi = Number.NEGATIVE_INFINITY;
+		for (const s of inRow) {
+			isBlocked &&= s.blocked;
+			isNoise &&= s.belowNoise;
+			lo = Math.min(lo, s.lowDb);
+			hi = Math.max(hi, s.highDb);
+		}
 		if (isBlocked || isNoise) line.fill(isBlocked ? glyph.blocked : glyph.noise);
-		const lo = Math.min(...inRow.map((s) => s.lowDb));
-		const hi = Math.max(...inRow.map((s) => s.highDb));
 		for (let c = col(lo); c <= col(hi); c++) line[c] = glyph.band;
 		const mid = inRow[Math.floor(inRow.length / 2)]!;
 		line[col(mid.compensationDb)] = glyph.curve;

@@ -4,7 +4,7 @@
  * every frame. The speckle is kept between frames, so a gain change only re-maps grey.
  */
 import {Box, Text} from 'ink';
-import {useRef} from 'react';
+import {memo, useRef} from 'react';
 import type {CurveResult} from '../../engine/types.js';
 import {createPictureCache, type PanelKind, type PictureCache} from '../../simulate/plan-picture.js';
 import {useTheme} from '../kit/theme-context.js';
@@ -26,7 +26,7 @@ export function usePictureMode(): PictureMode {
 	return theme.name === 'plain' ? 'plain' : pictureModeFromEnv(process.env);
 }
 
-export function PictureView({curve, kinds, width, height}: PictureViewProps) {
+function PictureViewImpl({curve, kinds, width, height}: PictureViewProps) {
 	const theme = useTheme();
 	const mode = usePictureMode();
 	const cache = useRef<PictureCache | null>(null);
@@ -55,3 +55,9 @@ export function PictureView({curve, kinds, width, height}: PictureViewProps) {
 		</Box>
 	);
 }
+
+/** Memoised like the plot; the panel kinds compare by content (callers pass a fresh array each time). */
+export const PictureView = memo(
+	PictureViewImpl,
+	(a, b) => a.curve === b.curve && a.width === b.width && a.height === b.height && a.kinds.join() === b.kinds.join(),
+);

@@ -1,5 +1,6 @@
 /** Draws a depth plot; colour only repeats what the characters already say. */
 import {Box, Text} from 'ink';
+import {memo} from 'react';
 import type {CurveResult} from '../../engine/types.js';
 import {depthPlot, glyph} from '../kit/depth-plot.js';
 import type {Theme} from '../kit/theme.js';
@@ -44,7 +45,7 @@ export function styledRuns(grid: string, theme: Theme): {text: string; style: Re
 
 const isPlain = (style: object) => Object.keys(style).length === 0;
 
-export function PlotView({curve, width, height, selectedSlider}: PlotViewProps) {
+function PlotViewImpl({curve, width, height, selectedSlider}: PlotViewProps) {
 	const theme = useTheme();
 	const plot = depthPlot(curve, {width, height, ...(selectedSlider === undefined ? {} : {selectedSlider})});
 	return (
@@ -73,3 +74,6 @@ export function PlotView({curve, width, height, selectedSlider}: PlotViewProps) 
 		</Box>
 	);
 }
+
+/** Memoised: a cursor move or a notice redraws the frame, not the plot (the curve is kept until the plan changes). */
+export const PlotView = memo(PlotViewImpl);
