@@ -8,7 +8,7 @@ import {getHeapSpaceStatistics, setFlagsFromString} from 'node:v8';
  * 60 frames a second at most: a key press after a pause gets its frame at once (Ink throttles on
  * the leading and trailing edge), and a held-down key still coalesces.
  */
-export const consoleRenderOptions = {exitOnCtrlC: true, maxFps: 60} as const;
+export const consoleRenderOptions = {exitOnCtrlC: true, maxFps: 60, onRender: holdYoungGeneration} as const;
 
 /**
  * Young generation (both semi-spaces), bytes, that the console lets V8 grow to. Every frame leaves
@@ -25,23 +25,22 @@ const youngGenerationCapBytes = 16 * 1024 * 1024;
  */
 const oldGenerationGrowthPercent = 50;
 
+let isYoungHeld = false;
+
 /**
  * Holds the young generation at the cap. Its maximum can only be set when the process starts
  * (`--max-semi-space-size` given later changes nothing, as measured), but the growth factor is
- * read whenever V8 grows the space: 1 (no growth) while loading and once the cap is reached, the
- * default 2 below it (V8 shrinks the space after a quiet spell; typing lets it grow back to the cap).
- * Checked between frames, since V8 has no synchronous hook for it.
+ * read whenever V8 grows the space: 1 (no growth) once the cap is reached, the default 2 below it
+ * (V8 shrinks the space after a quiet spell; typing lets it grow back to the cap). Checked after
+ * every frame (Ink's onRender): the space grows only while a key's work allocates, and an idle
+ * console wakes for nothing.
  */
 function holdYoungGeneration(): void {
-	let isHeld = true;
-	setFlagsFromString('--semi-space-growth-factor=1');
-	setInterval(() => {
-		const young = getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')?.space_size ?? 0;
-		const shouldHold = young >= youngGenerationCapBytes;
-		if (shouldHold === isHeld) return;
-		setFlagsFromString(`--semi-space-growth-factor=${shouldHold ? 1 : 2}`);
-		isHeld = shouldHold;
-	}, 25).unref();
+	const young = getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')?.space_size ?? 0;
+	const shouldHold = young >= youngGenerationCapBytes;
+	if (shouldHold === isYoungHeld) return;
+	setFlagsFromString(`--semi-space-growth-factor=${shouldHold ? 1 : 2}`);
+	isYoungHeld = shouldHold;
 }
 
 /**
@@ -54,5 +53,7 @@ function holdYoungGeneration(): void {
 export function tuneProcessForConsole(): void {
 	process.env['NODE_ENV'] ??= 'production';
 	setFlagsFromString(`--heap-growing-percent=${oldGenerationGrowthPercent}`);
-	holdYoungGeneration();
+	// No growth while Ink and React load; the first frame's check lets it grow to the cap.
+	setFlagsFromString('--semi-space-growth-factor=1');
+	isYoungHeld = true;
 }
