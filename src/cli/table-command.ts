@@ -10,6 +10,7 @@ import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
+import {holdYoungGeneration} from '../runtime/young-generation.js';
 import {maxTableRows, resolveSweep, SweepError, type ResolvedSweep, type TissueChoice} from '../table/sweep-spec.js';
 import {runSweepInParallel, streamSweepInParallel, tableFrame} from '../table/sweep-parallel.js';
 import {parseSweepText, type PresetLayerLookup} from '../table/sweep-options.js';
@@ -195,7 +196,11 @@ export function registerTableCommand(program: Command): void {
 			try {
 				const run = {
 					keepCurves: format === 'svg',
-					onProgress: (done: number, total: number) => bar.update(done, total),
+					onProgress: (done: number, total: number) => {
+						bar.update(done, total);
+						// This thread computes rows and writes the output: its garbage is brief (runtime/young-generation.ts).
+						holdYoungGeneration();
+					},
 				};
 				// Rows are written as they are computed, in order, and dropped: a 20,000-row table is never
 				// held whole, neither as rows nor as text. Not on a terminal, where they would cross the

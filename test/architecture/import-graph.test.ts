@@ -8,7 +8,7 @@ import {describe, expect, it} from 'vitest';
 import {importLoops, readSourceFiles} from '../helpers/import-graph.js';
 
 const layers: readonly (readonly string[])[] = [
-	['errors'],
+	['errors', 'runtime'],
 	['engine', 'files', 'speckle'],
 	['plan', 'analysis', 'simulate', 'calibration'],
 	['report', 'image'],
