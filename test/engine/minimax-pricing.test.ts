@@ -1,5 +1,6 @@
 import {describe, expect, it} from 'vitest';
 import {minimaxPricing, type SparseWeights} from '../../src/engine/slider-fit.js';
+import {mulberry32 as seeded} from '../../src/simulate/seeded-random.js';
 
 /**
  * The fit's stage-1 LP prices its rows by structure (a sample's two residual rows from one weighted
@@ -8,18 +9,6 @@ import {minimaxPricing, type SparseWeights} from '../../src/engine/slider-fit.js
  * non-basic rows, the lowest-numbered on a tie; Dantzig 1963, Linear Programming and Extensions, from
  * memory), on random rows, multipliers and bases, including tied multipliers.
  */
-
-/** A small seeded generator (mulberry32; common practice, no source), so failures repeat. */
-function seeded(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
 
 interface Row {
 	readonly a: Map<number, number>;
