@@ -26,16 +26,11 @@ type Clock = 'ticks' | 'fine';
  */
 function cpuOf(args: readonly string[], env: NodeJS.ProcessEnv, clock: Clock): {cpu: number; wall: number} {
 	const t0 = performance.now();
-	const r =
+	const [timer, ...timerArgs] =
 		clock === 'ticks'
-			? spawnSync('/usr/bin/time', ['-f', '@@time %U %S', process.execPath, ...args], {
-					env,
-					stdio: ['ignore', 'pipe', 'pipe'],
-				})
-			: spawnSync('bash', ['-c', '"$@" >/dev/null; s=$?; times >&2; exit $s', 'bash', process.execPath, ...args], {
-					env,
-					stdio: ['ignore', 'pipe', 'pipe'],
-				});
+			? ['/usr/bin/time', '-f', '@@time %U %S']
+			: ['bash', '-c', '"$@" >/dev/null; s=$?; times >&2; exit $s', 'bash'];
+	const r = spawnSync(timer!, [...timerArgs, process.execPath, ...args], {env, stdio: ['ignore', 'pipe', 'pipe']});
 	const wall = performance.now() - t0;
 	const stderr = r.stderr.toString();
 	// bash's `times`: the second line is the children's "user system", e.g. "0m0.081s 0m0.022s".

@@ -210,7 +210,6 @@ export function registerTableCommand(program: Command): void {
 					const parts = format === 'json' ? tableJsonParts(frame, fo) : tableCsvParts(frame);
 					await written(parts.head);
 					await streamSweepInParallel(frame, run, (rows) => written(parts.rows(rows)));
-					bar.finish();
 					await written(parts.end());
 				} else {
 					const table = await runSweepInParallel(swept, run);

@@ -52,7 +52,6 @@ export function hatWeights(
 	if (n === 1) only = 0;
 	else if (depthCm <= knots[0]!) {
 		if (ends === 'flat') only = 0;
-		k = 0;
 	} else if (depthCm >= knots[n - 1]!) {
 		if (ends === 'flat') only = n - 1;
 		k = n - 2;

@@ -225,6 +225,13 @@ function safeKnots(req: FitRequest): number[] {
 
 const hatScratch: HatWeights = [0, 0, 0, 0];
 
+/** How many weights the rows hold in all (to size the packed constraint rows up front). */
+function weightCount(rows: readonly SparseWeights[]): number {
+	let count = 0;
+	for (const r of rows) count += r.idx.length;
+	return count;
+}
+
 /** Hat weights at one depth, as the non-zero entries only (at most two). */
 function sparseWeights(knots: readonly number[], ends: SliderBank['ends'], depthCm: number): SparseWeights {
 	const count = hatWeights(knots, ends, depthCm, hatScratch);
@@ -413,8 +420,7 @@ function minimaxTotals(
 ): {totals: number[]; tStar: number} | null {
 	const tIndex = n;
 	const m = rows.length;
-	let weights = 0;
-	for (const r of rows) weights += r.idx.length;
+	const weights = weightCount(rows);
 	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * (weights + m) + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
@@ -540,8 +546,7 @@ function tieBreakTotals(
 		addAt(g, (k + 1) * n + k, -SMOOTHNESS);
 	}
 	// Constraints in the form c·h ≥ rhs.
-	let weights = 0;
-	for (const r of rows) weights += r.idx.length;
+	const weights = weightCount(rows);
 	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * weights + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;

@@ -15,6 +15,7 @@ import {
 	rowSpots,
 	rowsPerFrequency,
 	rowValues,
+	sweepRows,
 	type LadderCache,
 	tableOf,
 	tableRow,
@@ -69,12 +70,9 @@ export async function streamSweepInParallel(
 	const threads = Math.min(options.threads ?? Math.min(8, availableParallelism()), rowsPerFrequency(sweep));
 	const small = options.threads === undefined && sweep.rowCount < minRowsForThreads;
 	if (threads < 2 || small || !existsSync(workerFile)) {
-		const ladders: LadderCache = new Map();
 		let batch: TableRow[] = [];
-		let done = 0;
-		for (const spot of rowSpots(sweep)) {
-			batch.push(tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference));
-			options.onProgress?.(++done, sweep.rowCount);
+		for (const row of sweepRows(sweep, reference, options)) {
+			batch.push(row);
 			if (batch.length >= rowsPerReply) {
 				await sink(batch);
 				batch = [];

@@ -293,17 +293,25 @@ export function tissueUses(sweep: ResolvedSweep): TissueUse[] {
 	return out;
 }
 
+/** A sweep's rows in row order on this thread, each worked out when asked for; `onProgress` after every row. */
+export function* sweepRows(
+	sweep: ResolvedSweep,
+	reference: GainSettings,
+	options: RunOptions = {},
+): Generator<TableRow> {
+	const ladders: LadderCache = new Map();
+	let done = 0;
+	for (const spot of rowSpots(sweep)) {
+		const row = tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference);
+		options.onProgress?.(++done, sweep.rowCount);
+		yield row;
+	}
+}
+
 /** Runs a checked sweep. Pure and synchronous; `onProgress` is called after every row. */
 export function runSweep(sweep: ResolvedSweep, options: RunOptions = {}): ProtocolTable {
 	const referenceFit = referenceFitOf(sweep);
-	const reference = settingsOf(referenceFit);
-	const ladders: LadderCache = new Map();
-	const rows: TableRow[] = [];
-	for (const spot of rowSpots(sweep)) {
-		rows.push(tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference));
-		options.onProgress?.(rows.length, sweep.rowCount);
-	}
-	return tableOf(sweep, rows, referenceFit);
+	return tableOf(sweep, [...sweepRows(sweep, settingsOf(referenceFit), options)], referenceFit);
 }
 
 /** Checks and runs a sweep in one step (throws {@link SweepError} on a bad spec). */

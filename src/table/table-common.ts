@@ -8,7 +8,6 @@ import {resolveTissue} from '../plan/plan-schema.js';
 import type {ReceiveMode} from './sweep-spec.js';
 import type {ProtocolTable, TableRow} from './sweep-runner.js';
 
-/** Options every formatter accepts. */
 /** A table's text in parts: the head, each batch of rows as they come (in row order), the end. */
 export interface TextParts {
 	readonly head: string;
@@ -16,6 +15,7 @@ export interface TextParts {
 	end(): string;
 }
 
+/** Options every formatter accepts. */
 export interface TableFormatOptions {
 	/** How the plan was given, e.g. `preset "upper-abdomen"` or `plan file liver.json`. */
 	readonly source?: string;

@@ -31,13 +31,12 @@ import {withLayerAlpha} from '../../src/analysis/attenuation-fit.js';
 import {computeCurve} from '../../src/engine/compensation-curve.js';
 import {settingsOfFit} from '../../src/analysis/applied-gain.js';
 import {loadSession} from '../../src/image/load-session.js';
-import {encodePng} from '../../src/image/png-writer.js';
-import {readImageFile} from '../../src/image/read-image.js';
 import {parsePlan, resolvePlan} from '../../src/plan/resolve-plan.js';
 import {patientImage, phantomSeries, type DemoSet} from '../../src/simulate/demo-images.js';
 import type {PatientStructures} from '../../src/simulate/patient-structures.js';
 import {openScannerProfileStore} from '../../src/store/scanner-profile-store.js';
 import {abdomenPlanJson} from '../helpers/plans.js';
+import {writtenAndRead} from '../helpers/patient-still.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'evenecho-demo-patients-'));
 afterAll(() => rmSync(dir, {recursive: true, force: true}));
@@ -78,27 +77,6 @@ interface Seed {
 	readonly shift: {readonly x: number; readonly y: number};
 }
 
-/** One still written as a file by our own writers and read back by the image reader. */
-function writtenAndRead(set: DemoSet, seed: number, format: 'dicom' | 'png') {
-	if (format === 'dicom') {
-		const path = join(dir, `patient-${seed}.dcm`);
-		writeFileSync(path, imageFiles(set, 'dicom', 'patient', seed, plan.name)[0]!.data);
-		return {image: readImageFile(path), shift: {x: 0, y: 0}};
-	}
-	const img = set.images[0]!;
-	const {x0, y0, x1, y1} = set.region;
-	const w = x1 - x0 + 1;
-	const h = y1 - y0 + 1;
-	const data = new Uint8Array(w * h * img.channels);
-	for (let y = 0; y < h; y++) {
-		const from = ((y + y0) * img.width + x0) * img.channels;
-		data.set(img.data.subarray(from, from + w * img.channels), y * w * img.channels);
-	}
-	const path = join(dir, `patient-${seed}.png`);
-	writeFileSync(path, encodePng({width: w, height: h, channels: img.channels, data}));
-	return {image: readImageFile(path, {pixelScale: {cmPerPixel: set.cmPerPixel, topRowCm: 0}}), shift: {x: x0, y: y0}};
-}
-
 function refined(
 	seed: number,
 	options: {cyst: boolean; brightLine: boolean; alphaFactor?: number},
@@ -106,7 +84,7 @@ function refined(
 ): Seed {
 	const format = seed % 2 === 0 ? 'dicom' : 'png';
 	const set = patientImage(imaged, seed, format === 'dicom' ? 'dcm' : 'png', {...options, size: patientSize});
-	const {image, shift} = writtenAndRead(set, seed, format);
+	const {image, shift} = writtenAndRead(dir, plan.name, set, seed, format);
 	const {frame, region} = frameFromImage(image);
 	const a = set.appliedSettings!;
 	const result = refineImage({

@@ -11,18 +11,16 @@
  * says it cannot tell; and every output names what the uncalibrated assumptions (display range, ramp,
  * noise) can cost.
  */
-import {mkdtempSync, rmSync, writeFileSync} from 'node:fs';
+import {mkdtempSync, rmSync} from 'node:fs';
 import {tmpdir} from 'node:os';
 import {join} from 'node:path';
 import {afterAll, describe, expect, it} from 'vitest';
 import {frameFromImage} from '../../src/analysis/frame-from-image.js';
 import {refineImage} from '../../src/analysis/refine-image.js';
-import {imageFiles} from '../../src/cli/simulate-command.js';
-import {encodePng} from '../../src/image/png-writer.js';
-import {readImageFile} from '../../src/image/read-image.js';
 import {parsePlan} from '../../src/plan/resolve-plan.js';
-import {patientImage, type DemoSet} from '../../src/simulate/demo-images.js';
+import {patientImage} from '../../src/simulate/demo-images.js';
 import {abdomenPlanJson} from '../helpers/plans.js';
+import {writtenAndRead} from '../helpers/patient-still.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'evenecho-uncalibrated-'));
 afterAll(() => rmSync(dir, {recursive: true, force: true}));
@@ -32,26 +30,6 @@ if (!parsed.ok) throw new Error(parsed.errors.join('; '));
 const {plan} = parsed.value;
 const size = {width: 360, height: 200};
 
-function read(set: DemoSet, seed: number, format: 'dicom' | 'png') {
-	if (format === 'dicom') {
-		const path = join(dir, `patient-${seed}.dcm`);
-		writeFileSync(path, imageFiles(set, 'dicom', 'patient', seed, plan.name)[0]!.data);
-		return readImageFile(path);
-	}
-	const img = set.images[0]!;
-	const {x0, y0, x1, y1} = set.region;
-	const w = x1 - x0 + 1;
-	const h = y1 - y0 + 1;
-	const data = new Uint8Array(w * h * img.channels);
-	for (let y = 0; y < h; y++) {
-		const from = ((y + y0) * img.width + x0) * img.channels;
-		data.set(img.data.subarray(from, from + w * img.channels), y * w * img.channels);
-	}
-	const path = join(dir, `patient-${seed}.png`);
-	writeFileSync(path, encodePng({width: w, height: h, channels: img.channels, data}));
-	return readImageFile(path, {pixelScale: {cmPerPixel: set.cmPerPixel, topRowCm: 0}});
-}
-
 describe('the demo patient refined without a scanner profile', () => {
 	const runs = [1, 2, 3, 4, 5, 6].map((seed) => {
 		const format = seed % 2 === 0 ? 'dicom' : 'png';
@@ -60,7 +38,7 @@ describe('the demo patient refined without a scanner profile', () => {
 			cyst: seed % 3 === 1,
 			brightLine: seed % 3 === 2,
 		});
-		const {frame, region} = frameFromImage(read(set, seed, format));
+		const {frame, region} = frameFromImage(writtenAndRead(dir, plan.name, set, seed, format).image);
 		const a = set.appliedSettings!;
 		const out = refineImage({frame, region, plan, applied: {slidersDb: a.sliders, masterGainDb: a.masterGainDb}});
 		if (!out.ok) throw new Error(`seed ${seed}: ${out.problem}`);
