@@ -1,0 +1,104 @@
+/**
+ * The project patches Ink's frame writer (patches/ink+6.8.0.patch, applied by `npm install`): it
+ * keeps tokenized lines and finished rows from one frame to the next instead of redoing all of
+ * them. The patch must not change a single byte of any frame. Checked against the tokenizer
+ * library's own functions on random styled text, frame after frame, with lines kept, changed and
+ * moved between frames.
+ */
+import {createRequire} from 'node:module';
+import {dirname, join} from 'node:path';
+import {pathToFileURL} from 'node:url';
+import {
+	type StyledChar,
+	styledCharsFromTokens,
+	styledCharsToString,
+	tokenize,
+} from '@alcalzone/ansi-tokenize';
+import stringWidth from 'string-width';
+import {describe, expect, it} from 'vitest';
+import {mulberry32} from '../../src/simulate/seeded-random.js';
+
+interface InkOutput {
+	write(x: number, y: number, text: string, options: {transformers: unknown[]}): void;
+	get(): {output: string; height: number};
+	caches: {previous?: unknown};
+}
+type OutputClass = new (size: {width: number; height: number}) => InkOutput;
+
+// Ink's package exports only its entry point; the frame writer is read from its file.
+const inkEntry = createRequire(import.meta.url).resolve('ink');
+const Output = ((await import(pathToFileURL(join(dirname(inkEntry), 'output.js')).href)) as {default: OutputClass})
+	.default;
+
+const esc = '\u001B[';
+const styles = [
+	`${esc}1m`,
+	`${esc}2m`,
+	`${esc}22m`,
+	`${esc}36m`,
+	`${esc}39m`,
+	`${esc}49m`,
+	`${esc}0m`,
+	`${esc}38;5;240m`,
+	`${esc}48;5;250m`,
+	`${esc}38;2;10;200;30m`,
+	`${esc}7m`,
+	`${esc}27m`,
+];
+// Plain, box-drawing, half-block, accented, wide (CJK) and emoji characters.
+const characters = ['a', 'Z', '0', ' ', ' ', '|', '─', '│', '▀', '░', 'é', '°', '–', '中', '😀'];
+
+function randomLine(random: () => number, width: number): string {
+	let text = '';
+	let used = 0;
+	while (used < width - 2) {
+		if (random() < 0.3) text += styles[Math.floor(random() * styles.length)];
+		const c = characters[Math.floor(random() * characters.length)]!;
+		used += Math.max(1, stringWidth(c));
+		text += c;
+	}
+	return random() < 0.5 ? `${text}${esc}0m` : text;
+}
+
+/** The row Ink 6.8 makes, unpatched: blank cells, the line's characters laid over, wide ones padded. */
+function referenceRow(line: string, x: number, width: number): string {
+	const blank = (): StyledChar => ({type: 'char', value: ' ', fullWidth: false, styles: []});
+	const cells: StyledChar[] = Array.from({length: width}, blank);
+	let at = x;
+	for (const c of styledCharsFromTokens(tokenize(line))) {
+		cells[at] = c;
+		const w = Math.max(1, stringWidth(c.value));
+		for (let k = 1; k < w; k++) cells[at + k] = {type: 'char', value: '', fullWidth: false, styles: c.styles};
+		at += w;
+	}
+	return styledCharsToString(cells.filter((c) => c !== undefined)).trimEnd();
+}
+
+describe('the patched Ink frame writer', () => {
+	it('is the patched one (npm install applies patches/)', () => {
+		const first = new Output({width: 4, height: 1});
+		const second = new Output({width: 4, height: 1});
+		expect(second.caches.previous).toBe(first.caches);
+	});
+
+	it('writes every frame byte for byte as the tokenizer library does, with lines kept and changed between frames', () => {
+		const random = mulberry32(20261202);
+		const width = 60;
+		const height = 12;
+		let lines = Array.from({length: height}, () => randomLine(random, width - 4));
+		for (let frame = 0; frame < 120; frame++) {
+			// Some lines kept, some new, some moved to another row, as when a value or a plot changes.
+			lines = lines.map((line, y) => {
+				const r = random();
+				if (r < 0.5) return line;
+				if (r < 0.8) return randomLine(random, width - 4);
+				return lines[(y + 1) % height]!;
+			});
+			const xs = lines.map((_, y) => (frame + y) % 4);
+			const output = new Output({width, height});
+			lines.forEach((line, y) => output.write(xs[y]!, y, line, {transformers: []}));
+			const expected = lines.map((line, y) => referenceRow(line, xs[y]!, width)).join('\n');
+			expect(output.get().output).toBe(expected);
+		}
+	});
+});
