@@ -8,12 +8,7 @@
 import {createRequire} from 'node:module';
 import {dirname, join} from 'node:path';
 import {pathToFileURL} from 'node:url';
-import {
-	type StyledChar,
-	styledCharsFromTokens,
-	styledCharsToString,
-	tokenize,
-} from '@alcalzone/ansi-tokenize';
+import {type StyledChar, styledCharsFromTokens, styledCharsToString, tokenize} from '@alcalzone/ansi-tokenize';
 import stringWidth from 'string-width';
 import {describe, expect, it} from 'vitest';
 import {mulberry32} from '../../src/simulate/seeded-random.js';
@@ -45,10 +40,14 @@ const styles = [
 	`${esc}7m`,
 	`${esc}27m`,
 ];
-// Plain, box-drawing, half-block, accented, wide (CJK) and emoji characters.
-const characters = ['a', 'Z', '0', ' ', ' ', '|', '─', '│', '▀', '░', 'é', '°', '–', '中', '😀'];
+// Plain, box-drawing, half-block, accented, wide (CJK), emoji, combining and joined characters: the
+// library tokenizes such lines whole.
+const anyCharacters = ['a', 'Z', '0', ' ', ' ', '|', '─', '│', '▀', '░', 'é', '°', '–', '中', '😀', 'e\u0301', '👍🏽'];
+// Only characters that are their own grapheme beside anything, as in most of the console's lines:
+// the patch tokenizes these piece by piece.
+const loneCharacters = ['a', 'Z', '0', ' ', ' ', '|', '─', '│', '▀', '░', 'é', '°', '–', '…', '→', '≤', '−', 'µ'];
 
-function randomLine(random: () => number, width: number): string {
+function randomLine(random: () => number, width: number, characters: readonly string[]): string {
 	let text = '';
 	let used = 0;
 	while (used < width - 2) {
@@ -60,19 +59,24 @@ function randomLine(random: () => number, width: number): string {
 	return random() < 0.5 ? `${text}${esc}0m` : text;
 }
 
-/** The row Ink 6.8 makes, unpatched: blank cells, the line's characters laid over, wide ones padded. */
-function referenceRow(line: string, x: number, width: number): string {
+/** The row Ink 6.8 makes, unpatched: blank cells, each text's characters laid over in turn, wide ones padded. */
+function referenceRow(texts: readonly {x: number; text: string}[], width: number): string {
 	const blank = (): StyledChar => ({type: 'char', value: ' ', fullWidth: false, styles: []});
 	const cells: StyledChar[] = Array.from({length: width}, blank);
-	let at = x;
-	for (const c of styledCharsFromTokens(tokenize(line))) {
-		cells[at] = c;
-		const w = Math.max(1, stringWidth(c.value));
-		for (let k = 1; k < w; k++) cells[at + k] = {type: 'char', value: '', fullWidth: false, styles: c.styles};
-		at += w;
+	for (const {x, text} of texts) {
+		let at = x;
+		for (const c of styledCharsFromTokens(tokenize(text))) {
+			cells[at] = c;
+			const w = Math.max(1, stringWidth(c.value));
+			for (let k = 1; k < w; k++) cells[at + k] = {type: 'char', value: '', fullWidth: false, styles: c.styles};
+			at += w;
+		}
 	}
 	return styledCharsToString(cells.filter((c) => c !== undefined)).trimEnd();
 }
+
+// Written after each line at a fixed column: a character counted into the wrong cells moves it.
+const marker = {x: 57, text: `${esc}2m#${esc}22m`};
 
 describe('the patched Ink frame writer', () => {
 	it('is the patched one (npm install applies patches/)', () => {
@@ -81,24 +85,33 @@ describe('the patched Ink frame writer', () => {
 		expect(second.caches.previous).toBe(first.caches);
 	});
 
-	it('writes every frame byte for byte as the tokenizer library does, with lines kept and changed between frames', () => {
-		const random = mulberry32(20261202);
-		const width = 60;
-		const height = 12;
-		let lines = Array.from({length: height}, () => randomLine(random, width - 4));
-		for (let frame = 0; frame < 120; frame++) {
-			// Some lines kept, some new, some moved to another row, as when a value or a plot changes.
-			lines = lines.map((line, y) => {
-				const r = random();
-				if (r < 0.5) return line;
-				if (r < 0.8) return randomLine(random, width - 4);
-				return lines[(y + 1) % height]!;
-			});
-			const xs = lines.map((_, y) => (frame + y) % 4);
-			const output = new Output({width, height});
-			lines.forEach((line, y) => output.write(xs[y]!, y, line, {transformers: []}));
-			const expected = lines.map((line, y) => referenceRow(line, xs[y]!, width)).join('\n');
-			expect(output.get().output).toBe(expected);
-		}
-	});
+	it.each([
+		['any characters', anyCharacters, 20261202],
+		['lone characters', loneCharacters, 7],
+	] as const)(
+		'writes every frame byte for byte as the tokenizer library does (%s), with lines kept and changed between frames',
+		(_, characters, seed) => {
+			const random = mulberry32(seed);
+			const width = 60;
+			const height = 12;
+			let lines = Array.from({length: height}, () => randomLine(random, width - 8, characters));
+			for (let frame = 0; frame < 120; frame++) {
+				// Some lines kept, some new, some moved to another row, as when a value or a plot changes.
+				lines = lines.map((line, y) => {
+					const r = random();
+					if (r < 0.5) return line;
+					if (r < 0.8) return randomLine(random, width - 8, characters);
+					return lines[(y + 1) % height]!;
+				});
+				const xs = lines.map((_, y) => (frame + y) % 4);
+				const output = new Output({width, height});
+				lines.forEach((line, y) => {
+					output.write(xs[y]!, y, line, {transformers: []});
+					output.write(marker.x, y, marker.text, {transformers: []});
+				});
+				const expected = lines.map((line, y) => referenceRow([{x: xs[y]!, text: line}, marker], width)).join('\n');
+				expect(output.get().output).toBe(expected);
+			}
+		},
+	);
 });
