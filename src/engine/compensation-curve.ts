@@ -225,11 +225,60 @@ export function scannerProfileNote(plan: EnginePlan): string {
 		: base;
 }
 
+/**
+ * The part of a curve the slider bank and master gain do not touch: the samples with their band,
+ * the noise floor and any barrier. Most of a curve's time; an edit of the bank alone reuses it
+ * (reusablePhysics) and redoes only the fit.
+ */
+export interface CurvePhysics {
+	readonly plan: EnginePlan;
+	readonly stepCm: number;
+	readonly band: boolean;
+	readonly nominal: PathModel;
+	readonly barrier: Barrier | null;
+	readonly samples: readonly CurveSample[];
+	readonly penetrationDepthCm: number | null;
+	readonly blockedDepthCm: number | null;
+	readonly usableDepthCm: number;
+}
+
 /** Computes the whole compensation curve of a plan. Pure: same plan, same result. */
 export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): CurveResult {
+	return fitCurve(curvePhysics(plan, options), plan);
+}
+
+/** Plain data (numbers, strings, booleans, arrays, objects) equal field by field. */
+function samePlainData(a: unknown, b: unknown): boolean {
+	if (a === b) return true;
+	if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false;
+	if (Array.isArray(a) !== Array.isArray(b)) return false;
+	const keysA = Object.keys(a).filter((k) => (a as Record<string, unknown>)[k] !== undefined);
+	const keysB = Object.keys(b).filter((k) => (b as Record<string, unknown>)[k] !== undefined);
+	if (keysA.length !== keysB.length) return false;
+	return keysA.every((k) => samePlainData((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k]));
+}
+
+/**
+ * `physics` when it holds for `plan` (worked out with the same options for a plan that differs at
+ * most in its slider bank, master gain or scanner response, which act only on the fit), else
+ * undefined.
+ */
+export function reusablePhysics(
+	physics: CurvePhysics | undefined,
+	plan: EnginePlan,
+	options: CurveOptions = {},
+): CurvePhysics | undefined {
+	if (!physics || physics.stepCm !== (options.stepCm ?? 0.1) || physics.band !== (options.band !== false))
+		return undefined;
+	const {sliders: _a, masterGain: _b, scanner: _c, ...rest} = plan;
+	const {sliders: _d, masterGain: _e, scanner: _f, ...before} = physics.plan;
+	return samePlainData(rest, before) ? physics : undefined;
+}
+
+/** The samples, band, noise floor and barrier of a plan (see CurvePhysics). */
+export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): CurvePhysics {
 	const stepCm = options.stepCm ?? 0.1;
 	const depthCm = plan.display.depthCm;
-	const f0 = plan.probe.centerMhz;
 	const nominal = pathModelOf(plan);
 
 	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
@@ -278,6 +327,27 @@ export function computeCurve(plan: EnginePlan, options: CurveOptions = {}): Curv
 		firstOver > 0 ? {loCm: depths[firstOver - 1]!, hiCm: depths[firstOver]!} : undefined,
 	);
 	const usableDepthCm = Math.min(depthCm, blockedDepthCm ?? depthCm, penetrationDepthCm ?? depthCm);
+	return {
+		plan,
+		stepCm,
+		band: options.band !== false,
+		nominal,
+		barrier,
+		samples,
+		penetrationDepthCm,
+		blockedDepthCm,
+		usableDepthCm,
+	};
+}
+
+/**
+ * The slider fit and the warnings of a plan, on physics worked out for it (or reusable for it:
+ * reusablePhysics).
+ */
+export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
+	const {nominal, barrier, samples, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
+	const depthCm = plan.display.depthCm;
+	const f0 = plan.probe.centerMhz;
 	const fitted = fitSliders({
 		depthsCm: samples.map((s) => s.displayedDepthCm),
 		targetDb: samples.map((s) => controlTargetDb(plan, s)),

@@ -5,7 +5,13 @@
 import {Box, Text, useApp, useInput} from 'ink';
 import {useEffect, useMemo, useReducer, useRef} from 'react';
 import {scannerResponseOf} from '../calibration/profile-document.js';
-import {computeCurve} from '../engine/compensation-curve.js';
+import {
+	computeCurve,
+	curvePhysics,
+	type CurvePhysics,
+	fitCurve,
+	reusablePhysics,
+} from '../engine/compensation-curve.js';
 import type {CurveResult} from '../engine/types.js';
 import {demoPlan} from '../plan/demo-plan.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
@@ -57,9 +63,21 @@ export interface AppProps {
 	readonly onExit?: (summary: {readonly isDirty: boolean}) => void;
 }
 
-function curveOf(doc: PlanDocument, scanner: PlanScanner | undefined): CurveResult | string {
+/**
+ * The plan's curve. `kept` holds the physics of the last curve worked out (samples, band, noise
+ * floor): an edit of the slider bank or master gain alone reuses them and redoes only the fit.
+ */
+function curveOf(
+	doc: PlanDocument,
+	scanner: PlanScanner | undefined,
+	kept?: {current: CurvePhysics | undefined},
+): CurveResult | string {
 	try {
-		return computeCurve(resolvePlan(doc, scanner));
+		const plan = resolvePlan(doc, scanner);
+		if (!kept) return computeCurve(plan);
+		const physics = reusablePhysics(kept.current, plan) ?? curvePhysics(plan);
+		kept.current = physics;
+		return fitCurve(physics, plan);
 	} catch (error) {
 		// The schema should make this unreachable; still never crash the console over it.
 		return `The curve could not be worked out: ${error instanceof Error ? error.message : String(error)}`;
@@ -238,7 +256,8 @@ export function App({
 		if (scannerProblem) dispatch({type: 'failed', message: scannerProblem});
 	}, [scannerProblem]);
 	const planScanner = named && 'scanner' in named ? named.scanner : undefined;
-	const curve = useMemo(() => curveOf(state.doc, planScanner), [state.doc, planScanner]);
+	const keptPhysics = useRef<CurvePhysics | undefined>(undefined);
+	const curve = useMemo(() => curveOf(state.doc, planScanner, keptPhysics), [state.doc, planScanner]);
 
 	// A notice read whole (a written path) takes the key-hint line, then lines from the body's bottom.
 	const noticeRows = statusLines(state, layout.columns).length;
