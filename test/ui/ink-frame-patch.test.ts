@@ -10,6 +10,7 @@ import {dirname, join} from 'node:path';
 import {pathToFileURL} from 'node:url';
 import {type StyledChar, styledCharsFromTokens, styledCharsToString, tokenize} from '@alcalzone/ansi-tokenize';
 import stringWidth from 'string-width';
+import widestLine from 'widest-line';
 import {describe, expect, it} from 'vitest';
 import {mulberry32} from '../../src/simulate/seeded-random.js';
 
@@ -22,8 +23,10 @@ type OutputClass = new (size: {width: number; height: number}) => InkOutput;
 
 // Ink's package exports only its entry point; the frame writer is read from its file.
 const inkEntry = createRequire(import.meta.url).resolve('ink');
-const Output = ((await import(pathToFileURL(join(dirname(inkEntry), 'output.js')).href)) as {default: OutputClass})
-	.default;
+const inkFile = async <T>(name: string): Promise<T> =>
+	((await import(pathToFileURL(join(dirname(inkEntry), name)).href)) as {default: T}).default;
+const Output = await inkFile<OutputClass>('output.js');
+const measureText = await inkFile<(text: string) => {width: number; height: number}>('measure-text.js');
 
 const esc = '\u001B[';
 const styles = [
@@ -114,4 +117,14 @@ describe('the patched Ink frame writer', () => {
 			}
 		},
 	);
+
+	it('takes a text’s widest line from the measuring cache, which stays bounded and right', () => {
+		// Ink's text rendering now asks measure-text (cached) instead of widest-line (uncached);
+		// the cache is emptied at 4,096 texts, so widths stay right past it.
+		const random = mulberry32(11);
+		for (let i = 0; i < 6000; i++) {
+			const text = `${randomLine(random, 30, anyCharacters)}\n${i}${randomLine(random, 20, loneCharacters)}`;
+			expect(measureText(text).width).toBe(widestLine(text));
+		}
+	});
 });
