@@ -55,12 +55,15 @@ interface EditKind {
 	readonly name: string;
 	readonly setup: readonly string[];
 	readonly press: readonly [string, string];
+	/** The selected row's label after the setup keys (checked: the row order has changed before). */
+	readonly row?: string;
 }
 
 const editKinds: readonly EditKind[] = [
-	{name: 'centre frequency +/-', setup: ['3'], press: ['+', '-']},
-	{name: 'fat layer thickness +/-', setup: ['2'], press: ['+', '-']},
-	{name: 'slider count +/-', setup: ['3', 'j', 'j', 'j', 'j', 'j', 'j'], press: ['+', '-']},
+	{name: 'centre frequency +/-', setup: ['3'], press: ['+', '-'], row: 'Centre frequency'},
+	{name: 'fat layer thickness +/-', setup: ['2'], press: ['+', '-'], row: 'Fat, measured on screen'},
+	// Step 3's eleventh row (until this was checked, six presses of j reached the display depth).
+	{name: 'slider count +/-', setup: ['3', ...Array<string>(10).fill('j')], press: ['+', '-'], row: 'Slider count'},
 	// The simulated picture shown, then hidden, then shown: each press draws or drops the whole picture.
 	{name: 'picture shown / hidden (p)', setup: [], press: ['p', 'p']},
 ];
@@ -77,11 +80,17 @@ class BenchStdout extends EventEmitter {
 	readonly columns = 100;
 	readonly rows = 30;
 	onWrite: (() => void) | undefined;
-	write = (_chunk: string) => {
+	/** The last frame written (Ink also writes cursor codes on their own). */
+	last = '';
+	write = (chunk: string) => {
+		if (String(chunk).includes('\n')) this.last = String(chunk);
 		this.onWrite?.();
 		return true;
 	};
 }
+
+/** A frame's text without its colour and cursor codes. */
+const plainText = (frame: string) => frame.replace(/\u001B\[[0-9;?]*[A-Za-z]/g, '');
 
 class BenchStdin extends EventEmitter {
 	readonly isTTY = true;
@@ -156,6 +165,8 @@ async function measurePresses(): Promise<{readonly kind: string; readonly presse
 			await pressAndWait(key);
 			await sleep(30);
 		}
+		if (kind.row && !plainText(stdout.last).includes(`> ${kind.row}`))
+			throw new Error(`${kind.name}: the setup keys did not select the row "${kind.row}"`);
 		// A few presses to warm the JIT on this path, not counted.
 		for (let i = 0; i < 10; i++) {
 			await pressAndWait(kind.press[i % 2]!);
