@@ -4,9 +4,11 @@
  * the program, only the `curve` command's is kept; the other commands and the console are never
  * loaded on a `curve` command line, and load here as a module that says so.
  */
+import {isBuiltin} from 'node:module';
 import {defineConfig} from 'rolldown';
 
 const leftOut = '\0left-out-of-curve-script:';
+const onFirstUse = '\0node-built-in-on-first-use:';
 
 export default defineConfig({
 	input: 'src/cli/curve-script.ts',
@@ -27,6 +29,20 @@ export default defineConfig({
 				return `throw new Error(${JSON.stringify(`${id.slice(leftOut.length)} is not part of the curve script`)});`;
 			},
 		},
+		{
+			// A CommonJS bundle requires every Node built-in it imports at its top, the store's crypto, os,
+			// child_process and assert with them, though only a plan naming a scanner reaches the store:
+			// each built-in becomes a small CommonJS module, required when its first importer runs.
+			name: 'built-ins-on-first-use',
+			resolveId(source, importer) {
+				if (!isBuiltin(source) || importer?.startsWith(onFirstUse)) return null;
+				return `${onFirstUse}${source}`;
+			},
+			load(id) {
+				if (!id.startsWith(onFirstUse)) return null;
+				return `module.exports = require(${JSON.stringify(id.slice(onFirstUse.length))});`;
+			},
+		},
 	],
-	output: {file: 'dist/bundle/curve-script.cjs', format: 'cjs', codeSplitting: false, minify: true},
+	output: {file: 'dist/bundle/curve-script.cjs', format: 'cjs', codeSplitting: false, minify: true, charset: 'ascii'},
 });
