@@ -6,13 +6,12 @@
  */
 import {fileURLToPath} from 'node:url';
 import {commandNamed} from './command-list.js';
+import {runCommandLine} from './command-line.js';
 import {runPrecompiledScript} from '../runtime/precompiled-script.js';
 
 const precompiled =
 	commandNamed(process.argv.slice(2))?.name === 'curve'
 		? runPrecompiledScript(fileURLToPath(new URL('./curve-script.cjs', import.meta.url)))
 		: undefined;
-const run = (precompiled?.['runCommandLine'] ?? (await import('./command-line.js')).runCommandLine) as (
-	argv: readonly string[],
-) => Promise<void>;
+const run = (precompiled?.['runCommandLine'] as typeof runCommandLine | undefined) ?? runCommandLine;
 await run(process.argv);
