@@ -1,46 +1,17 @@
 #!/usr/bin/env node
 /**
  * The `evenecho` command. With no arguments it opens the console; the sub-commands are the batch
- * side and never prompt. Bad input: one message on stderr, exit code 2, nothing on stdout.
+ * side and never prompt. `curve` runs from the precompiled curve script when the build made one
+ * (it starts faster, see runtime/precompiled-script.ts), everything else from the modules.
  */
-import {CommanderError} from 'commander';
-import {FileRefusedError} from '../files/file-errors.js';
-import {printable} from '../files/printable.js';
-import {buildProgram} from './program.js';
-import {badInputExit, UsageError} from '../errors/usage-error.js';
+import {fileURLToPath} from 'node:url';
+import {commandNamed} from './command-list.js';
+import {runCommandLine} from './command-line.js';
+import {runPrecompiledScript} from '../runtime/precompiled-script.js';
 
-function reportAndExit(error: unknown): never {
-	// Messages quote file names, keys and values: made printable once more here, the last door.
-	if (error instanceof UsageError) {
-		process.stderr.write(`evenecho: ${printable(error.message, 2000)}\n`);
-		for (const d of error.details) process.stderr.write(`  ${printable(d, 2000)}\n`);
-		process.exit(badInputExit);
-	}
-	if (error instanceof FileRefusedError) {
-		process.stderr.write(`evenecho: ${printable(error.message, 2000)}\n`);
-		process.exit(badInputExit);
-	}
-	if (error instanceof CommanderError) {
-		process.exit(error.exitCode === 0 ? 0 : badInputExit);
-	}
-	// Not the user's fault: still no stack trace unless asked for.
-	process.stderr.write(`evenecho: internal error: ${printable((error as Error)?.message ?? String(error), 400)}\n`);
-	if (process.env['EVENECHO_DEBUG']) process.stderr.write(`${(error as Error)?.stack ?? ''}\n`);
-	process.exit(1);
-}
-
-// A reader that stops early (`evenecho … | head`) is not an error: end quietly, no stack trace.
-// Any other failure to write the output (a full disk) is said plainly; commands that report
-// success on standard error wait for their output to be written first (see write-output.ts).
-process.stdout.on('error', (error: NodeJS.ErrnoException) => {
-	if (error.code === 'EPIPE') process.exit(0);
-	const why = error.code === 'ENOSPC' ? ' (the device is full)' : error.code ? ` (${error.code})` : '';
-	process.stderr.write(`evenecho: cannot write the output${why}; it is incomplete\n`);
-	process.exit(1);
-});
-
-try {
-	await (await buildProgram(process.argv.slice(2))).parseAsync(process.argv);
-} catch (error) {
-	reportAndExit(error);
-}
+const precompiled =
+	commandNamed(process.argv.slice(2))?.name === 'curve'
+		? runPrecompiledScript(fileURLToPath(new URL('./curve-script.cjs', import.meta.url)))
+		: undefined;
+const run = (precompiled?.['runCommandLine'] as typeof runCommandLine | undefined) ?? runCommandLine;
+await run(process.argv);
