@@ -12,7 +12,7 @@ import {appliedGainDb} from './slider-basis.js';
 import {fitSliders} from './slider-fit.js';
 import {receiveWarnings} from './receive-notes.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit} from './types.js';
-import {pointsAlongDepth} from './points-along-depth.js';
+import {columnsAlongDepth} from './points-along-depth.js';
 import {bandDepths, uncertaintyBand} from './uncertainty-band.js';
 
 /** Identifies the physics and fitting model in every output, so tables stay traceable. */
@@ -29,6 +29,12 @@ export interface CurveOptions {
 	 * curve's time. Without it lowDb = highDb = compensationDb. @default true
 	 */
 	readonly band?: boolean;
+	/**
+	 * Keep the per-depth samples in the result. Callers that want only the fit and the depths (the
+	 * protocol table, a row at a time) pass false: the samples were a seventh of what a row allocated.
+	 * Without them `samples` is empty; nothing else changes. @default true
+	 */
+	readonly samples?: boolean;
 }
 
 /** Fit residual above which a warning says the sliders cannot follow the curve, dB. */
@@ -284,43 +290,57 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const barrier = nominal.barrier && nominal.barrier.displayedCm < depthCm ? nominal.barrier : null;
 	const blockedDepthCm = barrier ? barrier.displayedCm : null;
 	const depths = sampleDepths(depthCm, stepCm);
-	const points = pointsAlongDepth(nominal, depths);
+	const points = columnsAlongDepth(nominal, depths);
 	const centroidAt = (d: number): number => {
 		let i = 0;
 		while (i < depths.length - 1 && depths[i + 1]! <= d) i++;
-		return points[i]!.echoCenterMhz;
+		return points.echoCenterMhz[i]!;
 	};
 	const band = options.band === false ? null : uncertaintyBand(plan, bandDepths(plan, depths), centroidAt);
 	// Without the band both its ends are the curve itself.
 	const bandAt = (d: number, loss: number) => (band ? band.at(d) : {lowDb: loss, highDb: loss});
 	const heldLoss = blockedDepthCm === null ? 0 : nominal.lossAt(blockedDepthCm);
 	const heldAt = blockedDepthCm === null ? null : {nominal: heldLoss, ...bandAt(blockedDepthCm, heldLoss)};
-	const samples: CurveSample[] = depths.map((d, i) => {
-		const p = points[i]!;
-		const loss = p.attenuationDb + p.interfaceLossDb;
-		const blocked = heldAt !== null && d > blockedDepthCm!;
-		let lo = loss;
-		let hi = loss;
-		if (blocked) ({lowDb: lo, highDb: hi} = heldAt);
-		else if (band) ({lowDb: lo, highDb: hi} = band.at(d));
-		const comp = blocked ? heldAt.nominal : loss;
-		return {
-			displayedDepthCm: d,
-			trueDepthCm: p.trueDepthCm,
-			layerIndex: p.layerIndex,
-			attenuationDb: p.attenuationDb,
-			interfaceLossDb: p.interfaceLossDb,
-			compensationDb: comp,
-			lowDb: Math.min(lo, hi, comp),
-			highDb: Math.max(lo, hi, comp),
-			echoCenterMhz: p.echoCenterMhz,
-			blocked,
-			belowNoise: loss > plan.noiseBudgetDb,
-		};
-	});
+	// What the fit needs per depth, worked out without a sample object each (see CurveOptions.samples).
+	const targetDb: number[] = new Array(depths.length);
+	let firstOver = -1;
+	for (let i = 0; i < depths.length; i++) {
+		const d = depths[i]!;
+		const loss = points.attenuationDb[i]! + points.interfaceLossDb[i]!;
+		const comp = heldAt !== null && d > blockedDepthCm! ? heldAt.nominal : loss;
+		targetDb[i] = controlTargetDb(plan, {displayedDepthCm: d, compensationDb: comp});
+		if (firstOver < 0 && loss > plan.noiseBudgetDb) firstOver = i;
+	}
+	const samples: CurveSample[] =
+		options.samples === false
+			? []
+			: depths.map((d, i) => {
+					const attenuationDb = points.attenuationDb[i]!;
+					const interfaceLossDb = points.interfaceLossDb[i]!;
+					const loss = attenuationDb + interfaceLossDb;
+					const blocked = heldAt !== null && d > blockedDepthCm!;
+					let lo = loss;
+					let hi = loss;
+					if (blocked) ({lowDb: lo, highDb: hi} = heldAt);
+					else if (band) ({lowDb: lo, highDb: hi} = band.at(d));
+					const comp = blocked ? heldAt.nominal : loss;
+					return {
+						displayedDepthCm: d,
+						trueDepthCm: points.trueDepthCm[i]!,
+						layerIndex: points.layerIndex[i]!,
+						attenuationDb,
+						interfaceLossDb,
+						compensationDb: comp,
+						lowDb: Math.min(lo, hi, comp),
+						highDb: Math.max(lo, hi, comp),
+						echoCenterMhz: points.echoCenterMhz[i]!,
+						blocked,
+						belowNoise: loss > plan.noiseBudgetDb,
+					};
+				});
 
 	// The samples bracket the noise-floor crossing already (checked exactly there; the whole range if not).
-	const firstOver = nominal.receive === 'tissue-harmonic' ? -1 : samples.findIndex((s) => s.belowNoise);
+	if (nominal.receive === 'tissue-harmonic') firstOver = -1;
 	const penetrationDepthCm = nominal.depthForLoss(
 		plan.noiseBudgetDb,
 		depthCm,
@@ -349,8 +369,8 @@ export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
 	const depthCm = plan.display.depthCm;
 	const f0 = plan.probe.centerMhz;
 	const fitted = fitSliders({
-		depthsCm: samples.map((s) => s.displayedDepthCm),
-		targetDb: samples.map((s) => controlTargetDb(plan, s)),
+		depthsCm: depths,
+		targetDb,
 		usableDepthCm,
 		fitFromCm: nominal.referenceDisplayedCm,
 		bank: plan.sliders,

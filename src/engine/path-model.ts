@@ -29,6 +29,50 @@ export interface PathPoint {
 	readonly echoCenterMhz: number;
 }
 
+/**
+ * The fields of {@link PathPoint} for many depths, one array per field: what a curve reads from
+ * every depth without an object each (a row of a protocol table asks for ~160 depths; those objects
+ * lived through the fit and were the costliest part of a row's garbage).
+ */
+export interface PathColumns {
+	readonly trueDepthCm: number[];
+	readonly layerIndex: number[];
+	readonly attenuationDb: number[];
+	readonly interfaceLossDb: number[];
+	readonly echoCenterMhz: number[];
+}
+
+/** Empty columns with room for `count` depths. */
+export function pathColumns(count: number): PathColumns {
+	return {
+		trueDepthCm: new Array(count),
+		layerIndex: new Array(count),
+		attenuationDb: new Array(count),
+		interfaceLossDb: new Array(count),
+		echoCenterMhz: new Array(count),
+	};
+}
+
+/** Writes one point into columns at `i`. */
+export function putPoint(c: PathColumns, i: number, p: PathPoint): void {
+	c.trueDepthCm[i] = p.trueDepthCm;
+	c.layerIndex[i] = p.layerIndex;
+	c.attenuationDb[i] = p.attenuationDb;
+	c.interfaceLossDb[i] = p.interfaceLossDb;
+	c.echoCenterMhz[i] = p.echoCenterMhz;
+}
+
+/** Columns as one object per depth. */
+export function pointsOf(c: PathColumns): PathPoint[] {
+	return c.trueDepthCm.map((trueDepthCm, i) => ({
+		trueDepthCm,
+		layerIndex: c.layerIndex[i]!,
+		attenuationDb: c.attenuationDb[i]!,
+		interfaceLossDb: c.interfaceLossDb[i]!,
+		echoCenterMhz: c.echoCenterMhz[i]!,
+	}));
+}
+
 /** Loss (dB) and centroid (MHz) tolerances of the depth interpolant: 10× below the quadrature's own
  * accuracy against the brute force (0.001 dB, see the engine tests). */
 const alongDepthTolerance: Pair = [1e-4, 1e-4];
@@ -199,35 +243,60 @@ export class PathModel {
 	 * along depth (smooth-along-depth.ts), within 1e-4 dB and 1e-4 MHz.
 	 */
 	pointsAt(displayedCm: readonly number[]): PathPoint[] {
-		if (!this.harmonic && !this.bands.some((b) => b.broadband)) return displayedCm.map((d) => this.at(d));
-		const order = displayedCm.map((_, i) => i).sort((a, b) => displayedCm[a]! - displayedCm[b]!);
-		const out: PathPoint[] = new Array(displayedCm.length);
+		return pointsOf(this.columnsAt(displayedCm));
+	}
+
+	/** {@link pointsAt} as columns (the same numbers). */
+	columnsAt(displayedCm: readonly number[]): PathColumns {
+		const count = displayedCm.length;
+		const out = pathColumns(count);
+		if (!this.harmonic && !this.bands.some((b) => b.broadband)) {
+			for (let i = 0; i < count; i++) putPoint(out, i, this.at(displayedCm[i]!));
+			return out;
+		}
+		// Worked out shallow to deep; the depths come so already (sample depths), else sorted here.
+		let ascending = true;
+		for (let i = 1; i < count && ascending; i++) ascending = displayedCm[i - 1]! <= displayedCm[i]!;
+		const order = ascending ? null : displayedCm.map((_, i) => i).sort((a, b) => displayedCm[a]! - displayedCm[b]!);
+		const sorted = order ? order.map((i) => displayedCm[i]!) : displayedCm;
+		const at = order ? pathColumns(count) : out;
 		let start = 0;
-		while (start < order.length) {
-			const span = spanAtDisplayed(this.spans, displayedCm[order[start]!]!);
+		while (start < count) {
+			const span = spanAtDisplayed(this.spans, sorted[start]!);
 			let end = start + 1;
-			while (end < order.length && spanAtDisplayed(this.spans, displayedCm[order[end]!]!) === span) end++;
-			const xs = order.slice(start, end).map((i) => displayedCm[i]!);
-			const values: Pair[] = new Array(xs.length);
+			while (end < count && spanAtDisplayed(this.spans, sorted[end]!) === span) end++;
 			// The tissue harmonic is held at its near-field floor above it (a corner): those few depths exactly.
-			let near = 0;
-			while (this.harmonic && near < xs.length && trueDepthAt(span, xs[near]!) <= harmonicNearFieldFloorCm) {
-				values[near] = this.exactIn(span, xs[near]!);
+			let near = start;
+			while (this.harmonic && near < end && trueDepthAt(span, sorted[near]!) <= harmonicNearFieldFloorCm) {
+				const v = this.exactIn(span, sorted[near]!);
+				at.attenuationDb[near] = v[0];
+				at.echoCenterMhz[near] = v[1];
 				near++;
 			}
-			const rest: Pair[] = new Array(xs.length - near);
-			smoothAlong((d) => this.exactIn(span, d), xs.slice(near), alongDepthTolerance, rest);
-			for (let k = 0; k < rest.length; k++) values[near + k] = rest[k]!;
-			for (let k = 0; k < xs.length; k++) {
-				out[order[start + k]!] = {
-					trueDepthCm: trueDepthAt(span, xs[k]!),
-					layerIndex: span.index,
-					attenuationDb: values[k]![0],
-					interfaceLossDb: this.interfaceAtTop[span.index]!,
-					echoCenterMhz: values[k]![1],
-				};
+			smoothAlong(
+				(d) => this.exactIn(span, d),
+				sorted.slice(near, end),
+				alongDepthTolerance,
+				{first: at.attenuationDb, second: at.echoCenterMhz},
+				near,
+			);
+			const iface = this.interfaceAtTop[span.index]!;
+			for (let k = start; k < end; k++) {
+				at.trueDepthCm[k] = trueDepthAt(span, sorted[k]!);
+				at.layerIndex[k] = span.index;
+				at.interfaceLossDb[k] = iface;
 			}
 			start = end;
+		}
+		if (order) {
+			for (let k = 0; k < count; k++) {
+				const i = order[k]!;
+				out.trueDepthCm[i] = at.trueDepthCm[k]!;
+				out.layerIndex[i] = at.layerIndex[k]!;
+				out.attenuationDb[i] = at.attenuationDb[k]!;
+				out.interfaceLossDb[i] = at.interfaceLossDb[k]!;
+				out.echoCenterMhz[i] = at.echoCenterMhz[k]!;
+			}
 		}
 		return out;
 	}

@@ -7,7 +7,7 @@
  * −20·log10(z) near the skin, which bends sharply in depth but is nearly straight in ln z.
  */
 import {spanAtDisplayed} from './layer-geometry.js';
-import type {PathModel, PathPoint} from './path-model.js';
+import {type PathColumns, type PathModel, type PathPoint, pathColumns, pointsOf, putPoint} from './path-model.js';
 import {smoothAlong, type Pair} from './smooth-along-depth.js';
 import {harmonicNearFieldFloorCm} from './tissue-harmonic.js';
 
@@ -21,8 +21,17 @@ export function pointsAlongDepth(
 	displayedCm: readonly number[],
 	tolerance: Pair = pathTolerance,
 ): PathPoint[] {
-	if (model.receive !== 'tissue-harmonic') return model.pointsAt(displayedCm);
-	const out: PathPoint[] = new Array(displayedCm.length);
+	return pointsOf(columnsAlongDepth(model, displayedCm, tolerance));
+}
+
+/** {@link pointsAlongDepth} as columns (the same numbers, no object per depth). */
+export function columnsAlongDepth(
+	model: PathModel,
+	displayedCm: readonly number[],
+	tolerance: Pair = pathTolerance,
+): PathColumns {
+	if (model.receive !== 'tissue-harmonic') return model.columnsAt(displayedCm);
+	const out = pathColumns(displayedCm.length);
 	let start = 0;
 	while (start < displayedCm.length) {
 		const first = displayedCm[start]!;
@@ -37,7 +46,7 @@ export function pointsAlongDepth(
 			end++;
 		}
 		if (isHeld || first <= 0) {
-			for (let k = start; k < end; k++) out[k] = model.at(displayedCm[k]!);
+			for (let k = start; k < end; k++) putPoint(out, k, model.at(displayedCm[k]!));
 		} else {
 			const piece = displayedCm.slice(start, end);
 			const xs = piece.map(Math.log);
@@ -51,17 +60,21 @@ export function pointsAlongDepth(
 				points.set(s, p);
 				return [p.attenuationDb, p.echoCenterMhz];
 			};
-			const values: Pair[] = new Array(xs.length);
+			const values = {first: new Array<number>(xs.length), second: new Array<number>(xs.length)};
 			smoothAlong(exact, xs, tolerance, values);
 			const template = points.values().next().value!;
 			xs.forEach((s, k) => {
 				const d = piece[k]!;
-				out[start + k] = points.get(s) ?? {
-					...template,
-					trueDepthCm: span.trueTopCm + (d - span.shownTopCm) / span.stretch,
-					attenuationDb: values[k]![0],
-					echoCenterMhz: values[k]![1],
-				};
+				putPoint(
+					out,
+					start + k,
+					points.get(s) ?? {
+						...template,
+						trueDepthCm: span.trueTopCm + (d - span.shownTopCm) / span.stretch,
+						attenuationDb: values.first[k]!,
+						echoCenterMhz: values.second[k]!,
+					},
+				);
 			});
 		}
 		start = end;

@@ -83,7 +83,8 @@ export function fitSliders(req: FitRequest): SliderFit {
 	if (bounds === null) return naiveFit(req);
 
 	const knots = safeKnots(req);
-	const rows = data.depths.map((d) => sparseWeights(knots, req.bank.ends, d));
+	const weightsAt = weightsOfBank(knots, req.bank.ends);
+	const rows = data.depths.map(weightsAt);
 	const lp = minimaxTotals(n, rows, data.targets, bounds);
 	if (lp === null) return naiveFit(req);
 
@@ -230,6 +231,41 @@ function weightCount(rows: readonly SparseWeights[]): number {
 	let count = 0;
 	for (const r of rows) count += r.idx.length;
 	return count;
+}
+
+/**
+ * Hat weights by depth for one set of knots, kept between fits: every row of a table (and every edit
+ * in the console) samples the same depths under the same bank, and these weights were a tenth of
+ * what a fit allocated. The weights are never written to, so sharing them is safe. Pure: the same
+ * knots and depth give the same numbers whether kept or not; cleared when large (many banks).
+ */
+const keptWeights = new Map<string, Map<number, SparseWeights>>();
+let keptWeightCount = 0;
+const weightsKept = 4096;
+
+function weightsOfBank(knots: readonly number[], ends: SliderBank['ends']): (depthCm: number) => SparseWeights {
+	const key = `${ends}|${knots.join('|')}`;
+	let byDepth = keptWeights.get(key);
+	if (!byDepth) {
+		byDepth = new Map();
+		keptWeights.set(key, byDepth);
+	}
+	const kept = byDepth;
+	return (depthCm) => {
+		let w = kept.get(depthCm);
+		if (!w) {
+			w = sparseWeights(knots, ends, depthCm);
+			if (keptWeightCount >= weightsKept) {
+				keptWeights.clear();
+				kept.clear();
+				keptWeights.set(key, kept);
+				keptWeightCount = 0;
+			}
+			kept.set(depthCm, w);
+			keptWeightCount++;
+		}
+		return w;
+	};
 }
 
 /** Hat weights at one depth, as the non-zero entries only (at most two). */

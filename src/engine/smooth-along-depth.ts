@@ -90,6 +90,17 @@ function fitAt(exact: (x: number) => Pair, lo: number, hi: number, n: number, kn
 
 const tail = (a: Float64Array): number => Math.abs(a[a.length - 1]!) + Math.abs(a[a.length - 2]!);
 
+/** Where {@link smoothAlong} writes: the first and second output, one array each (no pair per x). */
+export interface PairColumns {
+	readonly first: number[];
+	readonly second: number[];
+}
+
+function put(out: PairColumns, i: number, v: Pair): void {
+	out.first[i] = v[0];
+	out.second[i] = v[1];
+}
+
 /**
  * `exact` at every x of `xs` (ascending, all inside one smooth stretch), each within `tolerance`
  * (per output) of the exact value; written into `out` at `offset + i`.
@@ -98,13 +109,13 @@ export function smoothAlong(
 	exact: (x: number) => Pair,
 	xs: readonly number[],
 	tolerance: Pair,
-	out: Pair[],
+	out: PairColumns,
 	offset = 0,
 	depth = 0,
 ): void {
 	const count = xs.length;
 	if (count <= exactBelow || depth > 6) {
-		for (let i = 0; i < count; i++) out[offset + i] = exact(xs[i]!);
+		for (let i = 0; i < count; i++) put(out, offset + i, exact(xs[i]!));
 		return;
 	}
 	const lo = xs[0]!;
@@ -133,11 +144,12 @@ export function smoothAlong(
 		for (let i = 0; i < count; i++) {
 			const x = xs[i]!;
 			// The ends are nodes: exact there.
-			if (x === lo) out[offset + i] = known.get(1) ?? exact(x);
-			else if (x === hi) out[offset + i] = known.get(0) ?? exact(x);
+			if (x === lo) put(out, offset + i, known.get(1) ?? exact(x));
+			else if (x === hi) put(out, offset + i, known.get(0) ?? exact(x));
 			else {
 				const t = (x - mid) / half;
-				out[offset + i] = [clenshaw(p.first, t), clenshaw(p.second, t)];
+				out.first[offset + i] = clenshaw(p.first, t);
+				out.second[offset + i] = clenshaw(p.second, t);
 			}
 		}
 		return;
