@@ -240,8 +240,13 @@ export interface CurvePhysics {
 	readonly plan: EnginePlan;
 	readonly stepCm: number;
 	readonly band: boolean;
+	readonly keepsSamples: boolean;
 	readonly nominal: PathModel;
 	readonly barrier: Barrier | null;
+	/** Displayed depths of the samples, cm, and the compensation each needs, dB. */
+	readonly depths: readonly number[];
+	readonly compensationDb: readonly number[];
+	/** Empty when worked out with `samples: false`. */
 	readonly samples: readonly CurveSample[];
 	readonly penetrationDepthCm: number | null;
 	readonly blockedDepthCm: number | null;
@@ -274,7 +279,12 @@ export function reusablePhysics(
 	plan: EnginePlan,
 	options: CurveOptions = {},
 ): CurvePhysics | undefined {
-	if (!physics || physics.stepCm !== (options.stepCm ?? 0.1) || physics.band !== (options.band !== false))
+	if (
+		!physics ||
+		physics.stepCm !== (options.stepCm ?? 0.1) ||
+		physics.band !== (options.band !== false) ||
+		physics.keepsSamples !== (options.samples !== false)
+	)
 		return undefined;
 	const {sliders: _a, masterGain: _b, scanner: _c, ...rest} = plan;
 	const {sliders: _d, masterGain: _e, scanner: _f, ...before} = physics.plan;
@@ -302,13 +312,12 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
 	const heldLoss = blockedDepthCm === null ? 0 : nominal.lossAt(blockedDepthCm);
 	const heldAt = blockedDepthCm === null ? null : {nominal: heldLoss, ...bandAt(blockedDepthCm, heldLoss)};
 	// What the fit needs per depth, worked out without a sample object each (see CurveOptions.samples).
-	const targetDb: number[] = new Array(depths.length);
+	const compensationDb: number[] = new Array(depths.length);
 	let firstOver = -1;
 	for (let i = 0; i < depths.length; i++) {
 		const d = depths[i]!;
 		const loss = points.attenuationDb[i]! + points.interfaceLossDb[i]!;
-		const comp = heldAt !== null && d > blockedDepthCm! ? heldAt.nominal : loss;
-		targetDb[i] = controlTargetDb(plan, {displayedDepthCm: d, compensationDb: comp});
+		compensationDb[i] = heldAt !== null && d > blockedDepthCm! ? heldAt.nominal : loss;
 		if (firstOver < 0 && loss > plan.noiseBudgetDb) firstOver = i;
 	}
 	const samples: CurveSample[] =
@@ -351,8 +360,11 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
 		plan,
 		stepCm,
 		band: options.band !== false,
+		keepsSamples: options.samples !== false,
 		nominal,
 		barrier,
+		depths,
+		compensationDb,
 		samples,
 		penetrationDepthCm,
 		blockedDepthCm,
@@ -365,9 +377,13 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
  * reusablePhysics).
  */
 export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
-	const {nominal, barrier, samples, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
+	const {nominal, barrier, depths, samples, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
 	const depthCm = plan.display.depthCm;
 	const f0 = plan.probe.centerMhz;
+	// The ramp and any measured depth response belong to the plan's scanner: here, not in the physics.
+	const targetDb = depths.map((d, i) =>
+		controlTargetDb(plan, {displayedDepthCm: d, compensationDb: physics.compensationDb[i]!}),
+	);
 	const fitted = fitSliders({
 		depthsCm: depths,
 		targetDb,

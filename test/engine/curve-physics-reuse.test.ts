@@ -49,10 +49,11 @@ describe('reusing a curve’s physics', () => {
 			expect(reusablePhysics(physics, resolvePlan(edit(base)))).toBeUndefined();
 		});
 	}
-	it('not reused for another sample step or without the band', () => {
+	it('not reused for another sample step, without the band or without the samples', () => {
 		const plan = resolvePlan(base);
 		expect(reusablePhysics(physics, plan)).toBe(physics);
 		expect(reusablePhysics(physics, plan, {stepCm: 0.2})).toBeUndefined();
 		expect(reusablePhysics(physics, plan, {band: false})).toBeUndefined();
+		expect(reusablePhysics(physics, plan, {samples: false})).toBeUndefined();
 	});
 });
