@@ -83,8 +83,7 @@ export function fitSliders(req: FitRequest): SliderFit {
 	if (bounds === null) return naiveFit(req);
 
 	const knots = safeKnots(req);
-	const weightsAt = weightsOfBank(knots, req.bank.ends);
-	const rows = data.depths.map(weightsAt);
+	const rows = weightsOfBank(knots, req.bank.ends, data.depths);
 	const lp = minimaxTotals(n, rows, data.targets, bounds);
 	if (lp === null) return naiveFit(req);
 
@@ -234,38 +233,35 @@ function weightCount(rows: readonly SparseWeights[]): number {
 }
 
 /**
- * Hat weights by depth for one set of knots, kept between fits: every row of a table (and every edit
- * in the console) samples the same depths under the same bank, and these weights were a tenth of
- * what a fit allocated. The weights are never written to, so sharing them is safe. Pure: the same
- * knots and depth give the same numbers whether kept or not; cleared when large (many banks).
+ * The hat weights of each sample depth under one bank, kept from the fit before: every row of a
+ * table (and every slider edit in the console) samples the same depth grid under the same knots,
+ * and these weights were a tenth of what a fit allocated. A fit's usable depths are a run of that
+ * grid (they end where the echo meets the noise floor), so the longest run seen is kept and any
+ * run inside it is served from it. One bank only: a run of different banks pays a comparison, not
+ * a cache. The weights are never written to, so sharing them is safe; pure: the same knots and
+ * depths give the same numbers whether kept or not.
  */
-const keptWeights = new Map<string, Map<number, SparseWeights>>();
-let keptWeightCount = 0;
-const weightsKept = 4096;
+let lastBank: {
+	ends: SliderBank['ends'];
+	knots: readonly number[];
+	depths: readonly number[];
+	rows: SparseWeights[];
+} | null = null;
 
-function weightsOfBank(knots: readonly number[], ends: SliderBank['ends']): (depthCm: number) => SparseWeights {
-	const key = `${ends}|${knots.join('|')}`;
-	let byDepth = keptWeights.get(key);
-	if (!byDepth) {
-		byDepth = new Map();
-		keptWeights.set(key, byDepth);
+const sameNumbers = (a: readonly number[], b: readonly number[]): boolean =>
+	a.length === b.length && a.every((x, i) => x === b[i]);
+
+function weightsOfBank(knots: readonly number[], ends: SliderBank['ends'], depths: readonly number[]): SparseWeights[] {
+	const last = lastBank;
+	const sameBank = last !== null && last.ends === ends && sameNumbers(last.knots, knots);
+	if (sameBank && depths.length > 0) {
+		const at = last.depths.indexOf(depths[0]!);
+		if (at >= 0 && at + depths.length <= last.depths.length && depths.every((d, i) => d === last.depths[at + i]))
+			return at === 0 && depths.length === last.rows.length ? last.rows : last.rows.slice(at, at + depths.length);
 	}
-	const kept = byDepth;
-	return (depthCm) => {
-		let w = kept.get(depthCm);
-		if (!w) {
-			w = sparseWeights(knots, ends, depthCm);
-			if (keptWeightCount >= weightsKept) {
-				keptWeights.clear();
-				kept.clear();
-				keptWeights.set(key, kept);
-				keptWeightCount = 0;
-			}
-			kept.set(depthCm, w);
-			keptWeightCount++;
-		}
-		return w;
-	};
+	const rows = depths.map((d) => sparseWeights(knots, ends, d));
+	if (!sameBank || depths.length >= last.depths.length) lastBank = {ends, knots: [...knots], depths: [...depths], rows};
+	return rows;
 }
 
 /** Hat weights at one depth, as the non-zero entries only (at most two). */
