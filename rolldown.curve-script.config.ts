@@ -7,6 +7,7 @@
 import {isBuiltin} from 'node:module';
 import {defineConfig} from 'rolldown';
 import {moduleWrapperEnd, moduleWrapperStart} from './src/runtime/precompiled-script.js';
+import {commanderWithoutChildProcess} from './tools/commander-without-child-process.js';
 
 const leftOut = '\0left-out-of-curve-script:';
 const onFirstUse = '\0node-built-in-on-first-use:';
@@ -18,6 +19,7 @@ export default defineConfig({
 	transform: {jsx: 'react-jsx', define: {'process.env.NODE_ENV': '"production"'}},
 	logLevel: 'warn',
 	plugins: [
+		commanderWithoutChildProcess,
 		{
 			name: 'curve-command-only',
 			resolveDynamicImport(specifier, importer) {
