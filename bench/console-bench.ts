@@ -19,7 +19,7 @@ import {cpuMs, median, note, quantile, target} from './bench-tools.js';
 import {inPty} from './pty-run.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
-const cli = join(here, '..', 'bundle', 'main.js');
+const cli = join(here, '..', 'bundle', 'evenecho.cjs');
 const firstFrameMarker = '[1 Starting plan]';
 const execFileAsync = promisify(execFile);
 const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));

@@ -23,7 +23,7 @@ import {median, note, target} from './bench-tools.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, '..', '..');
-const cli = join(root, 'dist', 'bundle', 'main.js');
+const cli = join(root, 'dist', 'bundle', 'evenecho.cjs');
 
 const timeTool = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
 

@@ -19,7 +19,7 @@ import {median, note, seeded, target} from './bench-tools.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, '..', '..');
-const cli = join(root, 'dist', 'bundle', 'main.js');
+const cli = join(root, 'dist', 'bundle', 'evenecho.cjs');
 
 /** A 1024×768 JPEG-baseline (YBR_FULL_422) Ultrasound Image Storage still, written with dcmjs. */
 function jpegStill(path: string): void {

@@ -13,7 +13,7 @@ import {inPty} from './pty-run.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, '..', '..');
-const cli = join(root, 'dist', 'bundle', 'main.js');
+const cli = join(root, 'dist', 'bundle', 'evenecho.cjs');
 
 type Clock = 'ticks' | 'fine';
 

@@ -14,7 +14,7 @@ import type {PinnedBuild} from './pinned-build.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, '..', '..');
-const cli = join(root, 'dist', 'bundle', 'main.js');
+const cli = join(root, 'dist', 'bundle', 'evenecho.cjs');
 const plan = join(root, 'presets', 'upper-abdomen.json');
 
 interface Timed {

@@ -5,6 +5,7 @@
  * these entries to the full definitions, so the two cannot drift apart.
  */
 import type {Command} from 'commander';
+import {commandWord} from './command-word.js';
 
 export interface CommandEntry {
 	readonly name: string;
@@ -78,7 +79,6 @@ export const commandList: readonly CommandEntry[] = [
  * `--version`, `--help` or a word that is not a command.
  */
 export function commandNamed(args: readonly string[]): CommandEntry | undefined {
-	const words = args.filter((a) => !a.startsWith('-'));
-	const word = words[0] === 'help' ? words[1] : words[0];
+	const word = commandWord(args);
 	return commandList.find((c) => c.name === word);
 }

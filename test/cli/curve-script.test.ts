@@ -36,7 +36,7 @@ function bundleCopy(cache: Buffer | 'no cache' | 'no script'): string {
 	if (cache === 'no script') rmSync(script);
 	if (typeof cache === 'string') rmSync(codeCachePath(script));
 	else writeFileSync(codeCachePath(script), cache);
-	return join(dir, 'main.js');
+	return join(dir, 'evenecho.cjs');
 }
 
 const commandLines: {args: string[]; input?: string}[] = [

@@ -3,7 +3,7 @@ import {spawnSync} from 'node:child_process';
 import {fileURLToPath} from 'node:url';
 
 /** The shipped entry (the bundle `npm run build` makes; package.json "bin" points at it). */
-export const cliPath = fileURLToPath(new URL('../../dist/bundle/main.js', import.meta.url));
+export const cliPath = fileURLToPath(new URL('../../dist/bundle/evenecho.cjs', import.meta.url));
 
 export interface CliRun {
 	readonly status: number | null;

@@ -93,7 +93,7 @@ export interface CliRun {
 	readonly stderr: string;
 }
 
-/** Runs the shipped CLI (dist/bundle/main.js) with …args with EVENECHO_HOME set to `home`. */
+/** Runs the shipped CLI (dist/bundle/evenecho.cjs) with …args with EVENECHO_HOME set to `home`. */
 export function runCli(args: readonly string[], home: string, input?: string): CliRun {
 	const env: NodeJS.ProcessEnv = {...process.env, EVENECHO_HOME: home};
 	delete env['EVENECHO_DEBUG'];
