@@ -332,7 +332,7 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
 					let hi = loss;
 					if (blocked) ({lowDb: lo, highDb: hi} = heldAt);
 					else if (band) ({lowDb: lo, highDb: hi} = band.at(d));
-					const comp = blocked ? heldAt.nominal : loss;
+					const comp = compensationDb[i]!;
 					return {
 						displayedDepthCm: d,
 						trueDepthCm: points.trueDepthCm[i]!,

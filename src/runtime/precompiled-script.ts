@@ -32,8 +32,8 @@ export const moduleWrapperEnd = '\n})';
  * The text goes to V8 as read: a joined copy would cost V8 a flattening copy first.
  */
 export function compileScript(path: string, source: string, cachedData?: Buffer): CompiledScript {
-	// node:vm loaded here, not at the top: main.js imports this file for every command, and only
-	// `curve` compiles a script (measured: --version and --help 1.33× node -e 0 with it at the top).
+	// node:vm loaded here, not at the top: the installed command imports this file for every command
+	// line, and only `curve` compiles a script (measured: --version and --help 1.33× node -e 0 with it at the top).
 	const {constants, Script} = process.getBuiltinModule('node:vm');
 	const script = new Script(source, {
 		filename: path,

@@ -9,6 +9,7 @@ import {nextPicture, stepIds} from './console-state.js';
 import {resolveIntent, type Intent, type KeyFlags, type Mode} from './key-intents.js';
 import {formatNumber, nudge} from './number-field.js';
 import {
+	clonePlan,
 	addLayer,
 	customCopy,
 	moveLayer,
@@ -176,7 +177,7 @@ function runRowAction(s: ConsoleState, row: Row & {kind: 'action'}): ConsoleStat
 			return setCursor(after, 'stack', firstCustomRow(after));
 		}
 		case 'fill-reference': {
-			const next = structuredClone(s.doc);
+			const next = clonePlan(s.doc);
 			next.reference = standardReference(s.doc, s.origin.layers);
 			return withNotice(
 				applyDoc(s, next, row.id),
@@ -255,7 +256,7 @@ function stackIntent(s: ConsoleState, intent: Intent, row: Row | undefined): Con
 		case 'thickness-mode': {
 			if (layer === undefined) return s;
 			const mode = s.doc.layers[layer]!.thicknessAs === 'displayed' ? 'true' : 'displayed';
-			const next = structuredClone(s.doc);
+			const next = clonePlan(s.doc);
 			next.layers[layer]!.thicknessAs = mode;
 			const word = mode === 'displayed' ? 'as measured on screen' : 'as true thickness';
 			return withNotice(applyDoc(s, next, row!.id), `Layer ${layer + 1}: the same number now read ${word}.`);

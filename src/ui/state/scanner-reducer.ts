@@ -5,6 +5,7 @@
  * penetration) and keep it. Pure: reading files and the store are effects the app carries out.
  */
 import type {ScannerProfile} from '../../calibration/profile-document.js';
+import {clonePlan} from '../../plan/plan-edits.js';
 import type {ConsoleState} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {
@@ -47,7 +48,7 @@ function fresh(o: ScannerOverlay): ScannerOverlay {
 export function chooseScanner(s: ConsoleState, id: string | null): ConsoleState {
 	const closed = {...s, overlay: null};
 	if ((id ?? undefined) === s.doc.scanner) return withNotice(closed, 'The plan already uses that; nothing changed.');
-	const next = structuredClone(s.doc);
+	const next = clonePlan(s.doc);
 	if (id === null) delete next.scanner;
 	else next.scanner = id;
 	const after = applyDoc(closed, next, 'scanner');

@@ -2,6 +2,7 @@
  * Keys while typing: a number into a field, a tissue name, or a preset name. Pure. Every field
  * edits through the shared `text-entry` steps, so they all behave alike.
  */
+import {clonePlan} from '../../plan/plan-edits.js';
 import type {ConsoleState, Overlay} from './console-state.js';
 import type {Intent} from './key-intents.js';
 import {formatNumber, isNumberChar, nudge, parseEntry} from './number-field.js';
@@ -81,7 +82,7 @@ export function editTextIntent(s: ConsoleState, intent: Intent, input: string): 
 			if (isName) return queue({...s, overlay: null}, {kind: 'save', name: t, overwrite: false});
 			const row = currentRow(s);
 			if (row?.kind !== 'tissue-label') return {...s, editing: null};
-			const next = structuredClone(s.doc);
+			const next = clonePlan(s.doc);
 			const tissue = next.layers[row.index]!.tissue;
 			if (typeof tissue !== 'string') tissue.label = t;
 			return applyDoc(s, next, row.id);
