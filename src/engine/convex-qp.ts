@@ -3,6 +3,10 @@
  */
 import {backSolveTransposed, cholesky, forwardSolve, householderQr} from './dense-linear-algebra.js';
 import {packedDot, type PackedRows} from './inequality-lp.js';
+import {float64Room} from './working-arrays.js';
+
+/** The Cholesky factor's room, kept between calls (working-arrays.ts). */
+const choleskyFactor = float64Room();
 
 /**
  * min ½hᵀGh + aᵀh subject to c_j·h ≥ rhs_j, G symmetric positive definite (row-major n×n).
@@ -20,7 +24,8 @@ export function solveConvexQp(
 	rows: PackedRows,
 	tolFeas: number,
 ): Float64Array | null {
-	const l = Float64Array.from(hessian);
+	const l = choleskyFactor.take(n * n);
+	l.set(hessian);
 	if (!cholesky(l, n)) return null;
 	const y = Float64Array.from(linear, (v) => -v);
 	forwardSolve(l, n, y);

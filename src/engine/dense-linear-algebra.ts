@@ -2,6 +2,7 @@
  * Small dense linear algebra for the slider fit's solvers (n ≤ ~17 unknowns, row-major
  * Float64Arrays): factorisations are cheap enough to recompute at every step, which keeps them stable.
  */
+import {float64Room} from './working-arrays.js';
 
 /** In-place LU with partial pivoting of a row-major n×n matrix. False if (numerically) singular. */
 export function luFactor(a: Float64Array, n: number, piv: Int32Array): boolean {
@@ -117,17 +118,21 @@ export function backSolveTransposed(l: Float64Array, n: number, v: Float64Array)
 	}
 }
 
+/** The factorisation's working arrays, kept between calls (working-arrays.ts). */
+const qrWork = {a: float64Room(), q: float64Room(), v: float64Room(), r: float64Room()};
+
 /**
  * Householder QR of the n×q matrix whose columns are `cols`: returns Q (n×n, row-major, explicit)
- * and R (q×q, row-major, upper triangular) with cols = Q·[R; 0].
+ * and R (q×q, row-major, upper triangular) with cols = Q·[R; 0]. Q and R are overwritten by the next
+ * call: its one caller refactors from scratch whenever its columns change, and drops the old ones.
  */
 export function householderQr(cols: readonly Float64Array[], n: number): {q: Float64Array; r: Float64Array} {
 	const qn = cols.length;
-	const a = new Float64Array(n * qn); // row-major n×q
+	const a = qrWork.a.take(n * qn); // row-major n×q
 	for (let j = 0; j < qn; j++) for (let i = 0; i < n; i++) a[i * qn + j] = cols[j]![i]!;
-	const q = new Float64Array(n * n);
+	const q = qrWork.q.take(n * n);
 	for (let i = 0; i < n; i++) q[i * n + i] = 1;
-	const v = new Float64Array(n);
+	const v = qrWork.v.take(n);
 	for (let j = 0; j < qn && j < n; j++) {
 		let norm = 0;
 		for (let i = j; i < n; i++) norm += a[i * qn + j]! ** 2;
@@ -153,7 +158,7 @@ export function householderQr(cols: readonly Float64Array[], n: number): {q: Flo
 			for (let i = j; i < n; i++) q[row * n + i] = q[row * n + i]! - s * v[i]!;
 		}
 	}
-	const r = new Float64Array(qn * qn);
+	const r = qrWork.r.take(qn * qn);
 	for (let i = 0; i < qn; i++) for (let j = i; j < qn; j++) r[i * qn + j] = a[i * qn + j]!;
 	return {q, r};
 }

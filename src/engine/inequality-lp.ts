@@ -2,6 +2,7 @@
  * Linear programmes with few unknowns and many inequality rows (the minimax stage of the slider fit).
  */
 import {luFactor, luSolve, luSolveTransposed} from './dense-linear-algebra.js';
+import {float64Room, int32Room, uint8Room} from './working-arrays.js';
 
 /** One linear inequality Σ val·x[idx] (≤ or ≥, by context) rhs, stored sparsely. */
 export interface Constraint {
@@ -15,10 +16,10 @@ export interface Constraint {
  * and filled row by row, so callers with many rows make no object or array per row. */
 export class PackedRows {
 	/** Row j's entries are start[j] … start[j + 1] − 1 of idx and val. */
-	readonly start: Int32Array;
-	readonly idx: Int32Array;
-	readonly val: Float64Array;
-	readonly rhs: Float64Array;
+	start: Int32Array;
+	idx: Int32Array;
+	val: Float64Array;
+	rhs: Float64Array;
 	private rows = 0;
 	private used = 0;
 
@@ -28,6 +29,26 @@ export class PackedRows {
 		this.idx = new Int32Array(maxEntries);
 		this.val = new Float64Array(maxEntries);
 		this.rhs = new Float64Array(maxRows);
+	}
+
+	/**
+	 * Empties the rows for a new programme with room for `maxRows` rows and `maxEntries` entries,
+	 * keeping the arrays when they are large enough (see working-arrays.ts for why). Only rows added
+	 * since are ever read, so what the arrays held before does not matter.
+	 */
+	reset(maxRows: number, maxEntries: number): this {
+		if (this.start.length < maxRows + 1) {
+			this.start = new Int32Array(maxRows + 1);
+			this.rhs = new Float64Array(maxRows);
+		}
+		if (this.idx.length < maxEntries) {
+			this.idx = new Int32Array(maxEntries);
+			this.val = new Float64Array(maxEntries);
+		}
+		this.rows = 0;
+		this.used = 0;
+		this.start[0] = 0;
+		return this;
 	}
 
 	get count(): number {
@@ -83,6 +104,16 @@ function scatterRow(rows: PackedRows, j: number, out: Float64Array, stride: numb
 		out[rows.idx[e]! * stride + offset] = rows.val[e]!;
 }
 
+/** The simplex's working arrays, kept between calls (working-arrays.ts). */
+const work = {
+	inBasis: uint8Room(),
+	b: float64Room(),
+	piv: int32Room(),
+	y: float64Room(),
+	pi: float64Room(),
+	w: float64Room(),
+};
+
 /**
  * min x[n−1] subject to rows a_j·x ≤ rhs_j, solved through its dual
  * min Σ rhs_j·y_j s.t. Σ y_j·a_j = −e_{n−1}, y ≥ 0, by a revised primal simplex on the dual.
@@ -99,19 +130,19 @@ export function solveInequalityLp(
 	rows: PackedRows,
 	start: readonly number[],
 	price?: DantzigPricing,
-): Float64Array | null {
+): number[] | null {
 	const count = rows.count;
 	const basis = [...start];
-	const inBasis = new Uint8Array(count);
+	const inBasis = work.inBasis.take(count);
 	for (const j of basis) inBasis[j] = 1;
 	let rhsScale = 1;
 	for (let j = 0; j < count; j++) rhsScale = Math.max(rhsScale, Math.abs(rows.rhs[j]!));
 	const tolOpt = 1e-11 * rhsScale;
-	const b = new Float64Array(n * n);
-	const piv = new Int32Array(n);
-	const y = new Float64Array(n);
-	const pi = new Float64Array(n);
-	const w = new Float64Array(n);
+	const b = work.b.take(n * n);
+	const piv = work.piv.take(n);
+	const y = work.y.take(n);
+	const pi = work.pi.take(n);
+	const w = work.w.take(n);
 	let degenerateRun = 0;
 	const maxIter = 50 * (n + 10) + 4 * count;
 	for (let iter = 0; iter < maxIter; iter++) {
@@ -139,7 +170,7 @@ export function solveInequalityLp(
 				}
 			}
 		}
-		if (q < 0) return pi;
+		if (q < 0) return Array.from(pi);
 
 		w.fill(0);
 		scatterRow(rows, q, w, 1, 0);

@@ -18,6 +18,7 @@ import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
 import {type DantzigPricing, PackedRows, solveInequalityLp} from './inequality-lp.js';
 import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
+import {float64Room} from './working-arrays.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
 export interface FitRequest {
@@ -381,7 +382,7 @@ function preparedError(
 	sliderDb: readonly number[],
 	masterDb: number,
 ): {residualDb: number; atCm: number} {
-	const errors = new Float64Array(rows.length);
+	const errors = sampleErrors.take(rows.length);
 	for (let i = 0; i < rows.length; i++) {
 		const r = rows[i]!;
 		let g = masterDb;
@@ -406,6 +407,12 @@ function masterOnlyFit(req: FitRequest): SliderFit {
 // ---------------------------------------------------------------------------------------------
 // The two optimisation stages
 // ---------------------------------------------------------------------------------------------
+
+/** The constraint rows of the two stages and other working arrays, kept between fits (working-arrays.ts). */
+const minimaxRows = new PackedRows(0, 0);
+const tieBreakRows = new PackedRows(0, 0);
+const tieBreakHessian = float64Room();
+const sampleErrors = float64Room();
 
 function worstResidual(totals: ArrayLike<number>, rows: readonly SparseWeights[], targets: readonly number[]): number {
 	let worst = 0;
@@ -453,7 +460,7 @@ function minimaxTotals(
 	const tIndex = n;
 	const m = rows.length;
 	const weights = weightCount(rows);
-	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * (weights + m) + 2 * n + 2 * n * (n - 1));
+	const cons = minimaxRows.reset(2 * m + 2 * n + n * (n - 1), 2 * (weights + m) + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
 		cons.row(targets[i]!).entries(r.idx, r.val).entry(tIndex, -1);
@@ -561,7 +568,7 @@ function tieBreakTotals(
 	tau: number,
 ): number[] | null {
 	const m = rows.length;
-	const g = new Float64Array(n * n);
+	const g = tieBreakHessian.take(n * n);
 	const a = new Float64Array(n);
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
@@ -579,7 +586,7 @@ function tieBreakTotals(
 	}
 	// Constraints in the form c·h ≥ rhs.
 	const weights = weightCount(rows);
-	const cons = new PackedRows(2 * m + 2 * n + n * (n - 1), 2 * weights + 2 * n + 2 * n * (n - 1));
+	const cons = tieBreakRows.reset(2 * m + 2 * n + n * (n - 1), 2 * weights + 2 * n + 2 * n * (n - 1));
 	for (let i = 0; i < m; i++) {
 		const r = rows[i]!;
 		cons.row(targets[i]! - tau).entries(r.idx, r.val);
