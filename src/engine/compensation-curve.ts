@@ -373,33 +373,35 @@ export function curvePhysics(plan: EnginePlan, options: CurveOptions = {}): Curv
 }
 
 /**
- * The slider fit and the warnings of a plan, on physics worked out for it (or reusable for it:
- * reusablePhysics).
+ * What the fit of a curve needs from its physics, as plain data (numbers, arrays, warnings): the
+ * protocol table works the physics out on one thread and the fits on another, and only plain data
+ * crosses between threads. Each thread then runs (and its JIT compiles) only its own half.
  */
-export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
-	const {nominal, barrier, depths, samples, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
+export interface CurveFacts {
+	/** Displayed depths of the samples, cm, and the compensation each needs, dB (CurvePhysics). */
+	readonly depths: readonly number[];
+	readonly compensationDb: ArrayLike<number>;
+	readonly penetrationDepthCm: number | null;
+	readonly blockedDepthCm: number | null;
+	readonly usableDepthCm: number;
+	/** Samples shallower than this are not fitted (the tissue harmonic's build-up zone). */
+	readonly fitFromCm: number;
+	/** The loss at the usable depth, dB: sliders acting only below it hold the compensation there. */
+	readonly heldLossDb: number;
+	/** The physics' warnings, in their place before and after the fit's own. */
+	readonly warningsBefore: readonly CurveWarning[];
+	readonly warningsAfter: readonly CurveWarning[];
+}
+
+/** The facts of a plan's physics (see CurveFacts); `plan` is the one the physics was worked out for. */
+export function curveFacts(physics: CurvePhysics, plan: EnginePlan): CurveFacts {
+	const {nominal, barrier, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
 	const depthCm = plan.display.depthCm;
 	const f0 = plan.probe.centerMhz;
-	// The ramp and any measured depth response belong to the plan's scanner: here, not in the physics.
-	const targetDb = depths.map((d, i) =>
-		controlTargetDb(plan, {displayedDepthCm: d, compensationDb: physics.compensationDb[i]!}),
-	);
-	const fitted = fitSliders({
-		depthsCm: depths,
-		targetDb,
-		usableDepthCm,
-		fitFromCm: nominal.referenceDisplayedCm,
-		bank: plan.sliders,
-		displayDepthCm: depthCm,
-		master: plan.masterGain,
-	});
-	// The usable depth never lies below a barrier, so this is also the held value there.
-	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, nominal.lossAt(usableDepthCm));
-
-	const warnings: CurveWarning[] = [];
-	if (barrier) warnings.push(barrierWarning(barrier, plan));
+	const warningsBefore: CurveWarning[] = [];
+	if (barrier) warningsBefore.push(barrierWarning(barrier, plan));
 	if (penetrationDepthCm !== null && (blockedDepthCm === null || penetrationDepthCm < blockedDepthCm)) {
-		warnings.push({
+		warningsBefore.push({
 			code: 'below-noise-floor',
 			severity: 'warning',
 			message:
@@ -409,28 +411,18 @@ export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
 			depthCm: penetrationDepthCm,
 		});
 	}
-	if (fit.residualDb > residualWarningDb) {
-		warnings.push({
-			code: 'slider-range-exceeded',
-			severity: 'warning',
-			message:
-				`Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ` +
-				`${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
-			depthCm: fit.residualAtCm,
-		});
-	}
-	warnings.push(...receiveWarnings(plan));
+	const warningsAfter: CurveWarning[] = [...receiveWarnings(plan)];
 	const wall = bodyWallNote(plan);
-	if (wall) warnings.push(wall);
+	if (wall) warningsAfter.push(wall);
 	const shift = refractionNote(plan, usableDepthCm, nominal);
-	if (shift) warnings.push(shift);
-	if (plan.scanner) warnings.push({code: 'scanner-profile', severity: 'note', message: scannerProfileNote(plan)});
+	if (shift) warningsAfter.push(shift);
+	if (plan.scanner) warningsAfter.push({code: 'scanner-profile', severity: 'note', message: scannerProfileNote(plan)});
 	for (const span of nominal.spans) {
 		const c = span.layer.tissue.speedMps;
 		const misdrawn = span.stretch - 1;
 		if (span.shownTopCm < depthCm && Math.abs(misdrawn) > speedNoteFraction) {
 			if (barrier && span.shownTopCm >= barrier.displayedCm) continue;
-			warnings.push({
+			warningsAfter.push({
 				code: 'speed-mismatch',
 				severity: 'note',
 				message:
@@ -441,6 +433,58 @@ export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
 			});
 		}
 	}
+	return {
+		depths: physics.depths,
+		compensationDb: physics.compensationDb,
+		penetrationDepthCm,
+		blockedDepthCm,
+		usableDepthCm,
+		fitFromCm: nominal.referenceDisplayedCm,
+		// The usable depth never lies below a barrier, so this is also the held value there.
+		heldLossDb: nominal.lossAt(usableDepthCm),
+		warningsBefore,
+		warningsAfter,
+	};
+}
 
+/** The slider fit of a plan on the facts of its physics, and every warning in order. */
+export function fitFacts(facts: CurveFacts, plan: EnginePlan): {fit: SliderFit; warnings: CurveWarning[]} {
+	const {depths, usableDepthCm} = facts;
+	// The ramp and any measured depth response belong to the plan's scanner: here, not in the physics.
+	const targetDb = depths.map((d, i) =>
+		controlTargetDb(plan, {displayedDepthCm: d, compensationDb: facts.compensationDb[i]!}),
+	);
+	const fitted = fitSliders({
+		depthsCm: depths,
+		targetDb,
+		usableDepthCm,
+		fitFromCm: facts.fitFromCm,
+		bank: plan.sliders,
+		displayDepthCm: plan.display.depthCm,
+		master: plan.masterGain,
+	});
+	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, facts.heldLossDb);
+	const warnings = [...facts.warningsBefore];
+	if (fit.residualDb > residualWarningDb) {
+		warnings.push({
+			code: 'slider-range-exceeded',
+			severity: 'warning',
+			message:
+				`Sliders and master gain miss the curve by up to ${fit.residualDb.toFixed(1)} dB (worst at ` +
+				`${fit.residualAtCm.toFixed(1)} cm): the slider or master range is too narrow for this patient.`,
+			depthCm: fit.residualAtCm,
+		});
+	}
+	warnings.push(...facts.warningsAfter);
+	return {fit, warnings};
+}
+
+/**
+ * The slider fit and the warnings of a plan, on physics worked out for it (or reusable for it:
+ * reusablePhysics).
+ */
+export function fitCurve(physics: CurvePhysics, plan: EnginePlan): CurveResult {
+	const {samples, penetrationDepthCm, blockedDepthCm, usableDepthCm} = physics;
+	const {fit, warnings} = fitFacts(curveFacts(physics, plan), plan);
 	return {plan, samples, fit, penetrationDepthCm, blockedDepthCm, usableDepthCm, warnings};
 }

@@ -34,10 +34,18 @@ function cosineTable(n: number): Float64Array {
 	return table;
 }
 
+/**
+ * n zeros in a plain array. The short arrays here (17 numbers at most) are made some ten times per
+ * curve: as typed arrays over 64 bytes each would be an allocation outside V8's heap (working-arrays.ts).
+ */
+function zeros(n: number): number[] {
+	return new Array<number>(n).fill(0);
+}
+
 /** Coefficients a_k of p(t) = Σ a_k·T_k(t) through values at t_j = cos(πj/N), j = 0…N. */
-function chebyshevCoefficients(values: Float64Array): Float64Array {
+function chebyshevCoefficients(values: readonly number[]): number[] {
 	const n = values.length - 1;
-	const a = new Float64Array(n + 1);
+	const a = zeros(n + 1);
 	const cosines = cosineTable(n);
 	for (let k = 0; k <= n; k++) {
 		let s = 0;
@@ -52,7 +60,7 @@ function chebyshevCoefficients(values: Float64Array): Float64Array {
 }
 
 /** Clenshaw's sum of Σ a_k·T_k(t). */
-function clenshaw(a: Float64Array, t: number): number {
+function clenshaw(a: readonly number[], t: number): number {
 	let b1 = 0;
 	let b2 = 0;
 	for (let k = a.length - 1; k >= 1; k--) {
@@ -64,16 +72,16 @@ function clenshaw(a: Float64Array, t: number): number {
 }
 
 interface Interpolant {
-	readonly first: Float64Array;
-	readonly second: Float64Array;
+	readonly first: readonly number[];
+	readonly second: readonly number[];
 }
 
 /** Interpolant of `exact` on [lo, hi] at degree n, reusing values at the nodes already known. */
 function fitAt(exact: (x: number) => Pair, lo: number, hi: number, n: number, known: Map<number, Pair>): Interpolant {
 	const mid = (lo + hi) / 2;
 	const half = (hi - lo) / 2;
-	const v0 = new Float64Array(n + 1);
-	const v1 = new Float64Array(n + 1);
+	const v0 = zeros(n + 1);
+	const v1 = zeros(n + 1);
 	// Deepest node first is j = 0; evaluate shallow to deep so each integral's peak search starts near.
 	for (let j = n; j >= 0; j--) {
 		const key = j / n;
@@ -88,7 +96,7 @@ function fitAt(exact: (x: number) => Pair, lo: number, hi: number, n: number, kn
 	return {first: chebyshevCoefficients(v0), second: chebyshevCoefficients(v1)};
 }
 
-const tail = (a: Float64Array): number => Math.abs(a[a.length - 1]!) + Math.abs(a[a.length - 2]!);
+const tail = (a: readonly number[]): number => Math.abs(a[a.length - 1]!) + Math.abs(a[a.length - 2]!);
 
 /** Where {@link smoothAlong} writes: the first and second output, one array each (no pair per x). */
 export interface PairColumns {

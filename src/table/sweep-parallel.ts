@@ -20,11 +20,16 @@ import {
 	tableOf,
 	tableRow,
 	type ProtocolTable,
+	type RowPhysics,
+	type RowSpot,
 	type RowValues,
+	rowFromPhysics,
+	rowPlan,
 	type RunOptions,
 	type TableRow,
 } from './sweep-runner.js';
-import {isWorkersRow, rowsPerReply, type SweepJob, type WorkerReply} from './sweep-worker.js';
+import {isWorkersRow, rowsPerReply, type SweepJob, unpackedPhysics, type WorkerReply} from './sweep-worker.js';
+import {sampleDepths} from '../engine/compensation-curve.js';
 
 /** Below this many rows the threads' start-up (~0.1 s each) costs more than they save. */
 const minRowsForThreads = 400;
@@ -82,64 +87,105 @@ export async function streamSweepInParallel(
 		return;
 	}
 
-	// Rows computed but not yet handed on, by row number; `next` is the next row to hand on.
-	const waiting = new Map<number, RowValues>();
+	// With two threads the worker works out every row's physics and this thread fits them: each half
+	// of the engine is then compiled by one thread only. Its JIT warm-up (~1.6 s of CPU per thread on
+	// a 10,000-row table, against ~2 s for the rows themselves once warm) was paid twice when both
+	// threads computed whole rows. With more threads this thread alone could not keep up with the
+	// fits, so each thread computes whole rows as before.
+	const pipeline = threads === 2;
+	// Rows (or their physics) received but not yet handed on, by row number; `next` is the next row to hand on.
+	const waiting = new Map<number, RowValues | RowPhysics>();
 	const spots = rowSpots(sweep);
 	let next = 1;
 	let done = 0;
 	let wake: (() => void) | undefined;
 	const take = (reply: WorkerReply) => {
 		for (const [index, v] of reply.rows) waiting.set(index, v);
-		done += reply.rows.length;
-		options.onProgress?.(done, sweep.rowCount);
+		if (!pipeline) {
+			done += reply.rows.length;
+			options.onProgress?.(done, sweep.rowCount);
+		}
 		wake?.();
 	};
+	const keepCurves = options.keepCurves === true;
+	// The sample depths the worker leaves out of each row's physics, per display depth.
+	const depthsByDisplay = new Map<number, number[]>();
+	const fitted = (spot: RowSpot, physics: RowPhysics): RowValues => {
+		const plan = rowPlan(sweep, spot);
+		const depthCm = plan.display.depthCm;
+		let depths = depthsByDisplay.get(depthCm);
+		if (!depths) depthsByDisplay.set(depthCm, (depths = sampleDepths(depthCm, sweep.stepCm)));
+		return rowFromPhysics(sweep, spot, unpackedPhysics(physics, depths), keepCurves, plan);
+	};
 	const handOn = async () => {
-		const batch: TableRow[] = [];
+		let batch: TableRow[] = [];
 		while (waiting.has(next)) {
 			const spot = spots.next().value!;
-			batch.push(tableRow(sweep, spot, waiting.get(next)!, reference));
+			const got = waiting.get(next)!;
 			waiting.delete(next++);
+			batch.push(tableRow(sweep, spot, pipeline ? fitted(spot, got as RowPhysics) : (got as RowValues), reference));
+			if (pipeline && batch.length >= rowsPerReply) {
+				done += batch.length;
+				options.onProgress?.(done, sweep.rowCount);
+				await sink(batch);
+				batch = [];
+			}
 		}
-		if (batch.length) await sink(batch);
+		if (batch.length) {
+			if (pipeline) {
+				done += batch.length;
+				options.onProgress?.(done, sweep.rowCount);
+			}
+			await sink(batch);
+		}
 	};
-	const keepCurves = options.keepCurves === true;
-	// This thread takes share 0 itself: one heap fewer than a worker per share (~40 MB each).
-	const workers = Array.from({length: threads - 1}, (_, k) => {
-		const job: SweepJob = {sweep, worker: k + 1, workers: threads, keepCurves};
-		return new Promise<void>((resolve, reject) => {
-			// A worker keeps little alive (its ladders, one batch of rows: ~11 MB at the end of a 10,000-row
-			// sweep), but with no limit V8 lets its heap grow to three times that; 48 MB keeps a 4× margin.
-			// Its garbage is short-lived row arithmetic: a 4 MB young generation spent a fifth of the
-			// worker's time collecting it. 12 MB made a 10,000-row table ~15 % faster; 16 MB was no faster
-			// and held the 20,000-row JSON table at 154–161 MB against 147–150 MB (peak resident).
-			const limits = {maxYoungGenerationSizeMb: 12, maxOldGenerationSizeMb: 48};
-			const w = new Worker(workerFile, {workerData: job, resourceLimits: limits});
-			w.on('message', take);
-			w.on('error', reject);
-			w.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`sweep worker stopped with code ${code}`))));
-		});
-	});
+	const jobs: SweepJob[] = pipeline
+		? [{sweep, worker: 0, workers: 1, keepCurves, part: 'physics'}]
+		: // This thread takes share 0 itself: one heap fewer than a worker per share (~40 MB each).
+			Array.from({length: threads - 1}, (_, k) => ({
+				sweep,
+				worker: k + 1,
+				workers: threads,
+				keepCurves,
+				part: 'whole',
+			}));
+	const workers = jobs.map(
+		(job) =>
+			new Promise<void>((resolve, reject) => {
+				// A worker keeps little alive (its ladders, one batch of rows: ~11 MB at the end of a 10,000-row
+				// sweep), but with no limit V8 lets its heap grow to three times that; 48 MB keeps a 4× margin.
+				// Its garbage is short-lived row arithmetic: a 4 MB young generation spent a fifth of the
+				// worker's time collecting it. 12 MB made a 10,000-row table ~15 % faster; 16 MB was no faster
+				// and held the 20,000-row JSON table at 154–161 MB against 147–150 MB (peak resident).
+				const limits = {maxYoungGenerationSizeMb: 12, maxOldGenerationSizeMb: 48};
+				const w = new Worker(workerFile, {workerData: job, resourceLimits: limits});
+				w.on('message', take);
+				w.on('error', reject);
+				w.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`sweep worker stopped with code ${code}`))));
+			}),
+	);
 	let finished = false;
 	const allWorkers = Promise.all(workers).then(() => {
 		finished = true;
 	});
 	// Awaited below; until then a failing worker must not count as an unhandled rejection.
 	allWorkers.catch(() => {});
-	const ladders: LadderCache = new Map();
-	let mine: [number, RowValues][] = [];
-	for (const spot of rowSpots(sweep)) {
-		if (!isWorkersRow(sweep, spot.index, 0, threads)) continue;
-		mine.push([spot.index, rowValues(sweep, spot, ladders, keepCurves)]);
-		if (mine.length >= rowsPerReply) {
-			take({rows: mine});
-			mine = [];
-			await handOn();
-			// Let the workers' replies (and the progress bar) in between batches.
-			await new Promise<void>((resolve) => setImmediate(resolve));
+	if (!pipeline) {
+		const ladders: LadderCache = new Map();
+		let mine: [number, RowValues][] = [];
+		for (const spot of rowSpots(sweep)) {
+			if (!isWorkersRow(sweep, spot.index, 0, threads)) continue;
+			mine.push([spot.index, rowValues(sweep, spot, ladders, keepCurves)]);
+			if (mine.length >= rowsPerReply) {
+				take({rows: mine});
+				mine = [];
+				await handOn();
+				// Let the workers' replies (and the progress bar) in between batches.
+				await new Promise<void>((resolve) => setImmediate(resolve));
+			}
 		}
+		take({rows: mine});
 	}
-	take({rows: mine});
 	for (;;) {
 		await handOn();
 		if (finished) break;

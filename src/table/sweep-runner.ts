@@ -7,7 +7,7 @@
  * Pure and synchronous: no file system, no process, no clock.
  */
 import {ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
-import {computeCurve} from '../engine/compensation-curve.js';
+import {computeCurve, curveFacts, curvePhysics, fitFacts, type CurveFacts} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
 import type {CurveWarning, EnginePlan, ReceiveMode, SliderFit, Tissue} from '../engine/types.js';
@@ -141,11 +141,32 @@ export type RowValues = Omit<
 	'index' | 'layerCm' | 'centerMhz' | 'angleDeg' | 'receive' | 'swapLabels' | 'doc' | 'plan' | 'delta'
 >;
 
-/** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
-export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
+/**
+ * The physics of one row: everything but the slider fit (plain data, so a worker thread can send it
+ * back). The fit needs only these facts and the row's plan (rowFromPhysics).
+ */
+export interface RowPhysics {
+	readonly facts: CurveFacts;
+	readonly targetDepthCm: number;
+	readonly noiseBudgetDb: number;
+	readonly highestReachingMhz: number | null;
+	readonly highestReachingPenetrationCm: number | null;
+}
+
+/** The engine plan of one row. */
+export function rowPlan(sweep: ResolvedSweep, spot: RowSpot): EnginePlan {
+	return resolvePlan(variantDoc(sweep, spot.combo, spot.layerCm), sweep.scanner);
+}
+
+/** Works out one row's physics; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
+export function rowPhysics(
+	sweep: ResolvedSweep,
+	spot: RowSpot,
+	ladders: LadderCache,
+	plan: EnginePlan = rowPlan(sweep, spot),
+): RowPhysics {
 	const doc = variantDoc(sweep, spot.combo, spot.layerCm);
-	const plan = resolvePlan(doc, sweep.scanner);
-	const r = computeCurve(plan, {stepCm: sweep.stepCm, band: false, samples: keepCurves});
+	const facts = curveFacts(curvePhysics(plan, {stepCm: sweep.stepCm, band: false, samples: false}), plan);
 	const targetCm = targetDepthOf(doc, plan);
 	const key = ladderKey(plan, targetCm);
 	let highest = ladders.get(key);
@@ -155,30 +176,48 @@ export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCa
 		highest = {mhz: ladder.highestReachingMhz, penetrationCm: rung?.penetrationDepthCm ?? null};
 		ladders.set(key, highest);
 	}
-	const settings = settingsOf(r.fit);
+	return {
+		facts,
+		targetDepthCm: targetCm,
+		noiseBudgetDb: plan.noiseBudgetDb,
+		highestReachingMhz: highest.mhz,
+		highestReachingPenetrationCm: highest.penetrationCm,
+	};
+}
+
+/** Fits one row on its physics (worked out here or on another thread). */
+export function rowFromPhysics(
+	sweep: ResolvedSweep,
+	spot: RowSpot,
+	physics: RowPhysics,
+	keepCurves = false,
+	plan: EnginePlan = rowPlan(sweep, spot),
+): RowValues {
+	const facts = physics.facts;
+	const {fit, warnings} = fitFacts(facts, plan);
+	const settings = settingsOf(fit);
 	return {
 		slidersDb: settings.slidersDb,
 		masterGainDb: settings.masterGainDb,
-		residualDb: r.fit.residualDb,
-		residualAtCm: r.fit.residualAtCm,
-		penetrationDepthCm: r.penetrationDepthCm,
-		blockedDepthCm: r.blockedDepthCm,
-		usableDepthCm: r.usableDepthCm,
-		noiseBudgetDb: plan.noiseBudgetDb,
-		targetDepthCm: targetCm,
-		highestReachingMhz: highest.mhz,
-		highestReachingPenetrationCm: highest.penetrationCm,
+		residualDb: fit.residualDb,
+		residualAtCm: fit.residualAtCm,
+		penetrationDepthCm: facts.penetrationDepthCm,
+		blockedDepthCm: facts.blockedDepthCm,
+		usableDepthCm: facts.usableDepthCm,
+		noiseBudgetDb: physics.noiseBudgetDb,
+		targetDepthCm: physics.targetDepthCm,
+		highestReachingMhz: physics.highestReachingMhz,
+		highestReachingPenetrationCm: physics.highestReachingPenetrationCm,
 		// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
-		warnings: r.warnings.filter((w) => w.severity === 'warning'),
-		...(keepCurves
-			? {
-					curve: {
-						depthsCm: r.samples.map((s) => s.displayedDepthCm),
-						compensationDb: r.samples.map((s) => s.compensationDb),
-					},
-				}
-			: {}),
+		warnings: warnings.filter((w) => w.severity === 'warning'),
+		...(keepCurves ? {curve: {depthsCm: [...facts.depths], compensationDb: Array.from(facts.compensationDb)}} : {}),
 	};
+}
+
+/** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
+export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
+	const plan = rowPlan(sweep, spot);
+	return rowFromPhysics(sweep, spot, rowPhysics(sweep, spot, ladders, plan), keepCurves, plan);
 }
 
 /**
