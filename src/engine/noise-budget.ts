@@ -28,6 +28,54 @@ export function noiseBudgetFromPhantom(
 	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'spectrumSteepness'>,
 	scattererExponent: number,
 ): number {
+	const l = lastBudget;
+	if (
+		l !== null &&
+		l.centerMhz === cal.centerMhz &&
+		l.depthCm === cal.depthCm &&
+		l.alphaDbPerCmMhz === cal.alphaDbPerCmMhz &&
+		l.receive === cal.receive &&
+		l.bandwidthFraction === probe.bandwidthFraction &&
+		l.spectrumSteepness === probe.spectrumSteepness &&
+		l.scattererExponent === scattererExponent
+	)
+		return l.budgetDb;
+	const budgetDb = phantomLoss(cal, probe, scattererExponent);
+	lastBudget = {
+		centerMhz: cal.centerMhz,
+		depthCm: cal.depthCm,
+		alphaDbPerCmMhz: cal.alphaDbPerCmMhz,
+		receive: cal.receive,
+		bandwidthFraction: probe.bandwidthFraction,
+		spectrumSteepness: probe.spectrumSteepness,
+		scattererExponent,
+		budgetDb,
+	};
+	return budgetDb;
+}
+
+/**
+ * The last budget worked out and everything it depends on. Every row of a protocol table resolves
+ * its plan anew and asks again for the same phantom and probe (the probe's centre frequency is not
+ * among them): a loss model and a band integral per row, some 3 % of a table. Pure all the same:
+ * the same inputs give the same number whether kept or not.
+ */
+let lastBudget: {
+	readonly centerMhz: number;
+	readonly depthCm: number;
+	readonly alphaDbPerCmMhz: number;
+	readonly receive: ReceiveMode | undefined;
+	readonly bandwidthFraction: number;
+	readonly spectrumSteepness: number | undefined;
+	readonly scattererExponent: number;
+	readonly budgetDb: number;
+} | null = null;
+
+function phantomLoss(
+	cal: PhantomCalibration,
+	probe: Pick<EnginePlan['probe'], 'bandwidthFraction' | 'spectrumSteepness'>,
+	scattererExponent: number,
+): number {
 	const phantom = {
 		label: 'calibration phantom',
 		speedMps: 1540,

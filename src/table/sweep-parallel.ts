@@ -23,12 +23,25 @@ import {
 	type RowPhysics,
 	type RowSpot,
 	type RowValues,
+	climbLadder,
+	type HighestReaching,
+	highestReaching,
+	rowPhysics,
 	rowFromPhysics,
 	rowPlan,
 	type RunOptions,
 	type TableRow,
 } from './sweep-runner.js';
-import {isWorkersRow, rowsPerReply, type SweepJob, unpackedPhysics, type WorkerReply} from './sweep-worker.js';
+import {
+	isWorkersRow,
+	ladderClaim,
+	physicsProgress,
+	rowsPerClaim,
+	rowsPerReply,
+	type SweepJob,
+	unpackedPhysics,
+	type WorkerReply,
+} from './sweep-worker.js';
 import {sampleDepths} from '../engine/compensation-curve.js';
 
 /** Below this many rows the threads' start-up (~0.1 s each) costs more than they save. */
@@ -87,15 +100,18 @@ export async function streamSweepInParallel(
 		return;
 	}
 
-	// With two threads the worker works out every row's physics and this thread fits them: each half
-	// of the engine is then compiled by one thread only. Its JIT warm-up (~1.6 s of CPU per thread on
-	// a 10,000-row table, against ~2 s for the rows themselves once warm) was paid twice when both
-	// threads computed whole rows. With more threads this thread alone could not keep up with the
-	// fits, so each thread computes whole rows as before.
+	// With two threads the worker works out rows' physics and this thread fits them: each half of the
+	// engine is then compiled by one thread only. Its JIT warm-up (~1.6 s of CPU per thread on a
+	// 10,000-row table, against ~2 s for the rows themselves once warm) was paid twice when both
+	// threads computed whole rows. Whenever this thread has nothing to fit it climbs a frequency ladder
+	// nobody has claimed, or works out the physics of the next rows itself: how the work splits then
+	// follows the sweep (a tissue-harmonic row's physics costs many fundamental ones). With more
+	// threads this thread alone could not keep up with the fits, so each computes whole rows as before.
 	const pipeline = threads === 2;
 	// Rows (or their physics) received but not yet handed on, by row number; `next` is the next row to hand on.
 	const waiting = new Map<number, RowValues | RowPhysics>();
-	const spots = rowSpots(sweep);
+	const spots = pipeline ? [...rowSpots(sweep)] : [];
+	const spotsInOrder = rowSpots(sweep);
 	let next = 1;
 	let done = 0;
 	let wake: (() => void) | undefined;
@@ -108,39 +124,74 @@ export async function streamSweepInParallel(
 		wake?.();
 	};
 	const keepCurves = options.keepCurves === true;
+	const progress = pipeline ? new Int32Array(new SharedArrayBuffer(4 * physicsProgress.length)) : undefined;
 	// The sample depths the worker leaves out of each row's physics, per display depth.
 	const depthsByDisplay = new Map<number, number[]>();
+	const ladders: LadderCache = new Map();
+	const groups = rowsPerFrequency(sweep);
+	const ladderClaims = new Int32Array(new SharedArrayBuffer(4 * (pipeline ? groups : 0)));
+	// The highest-reaching frequency of each row group (its rows share a ladder), whoever climbed it.
+	// Every group's first row comes before its other rows, and brings it.
+	const highestByGroup = new Map<number, HighestReaching>();
 	const fitted = (spot: RowSpot, physics: RowPhysics): RowValues => {
 		const plan = rowPlan(sweep, spot);
 		const depthCm = plan.display.depthCm;
 		let depths = depthsByDisplay.get(depthCm);
 		if (!depths) depthsByDisplay.set(depthCm, (depths = sampleDepths(depthCm, sweep.stepCm)));
-		return rowFromPhysics(sweep, spot, unpackedPhysics(physics, depths), keepCurves, plan);
+		const group = (spot.index - 1) % groups;
+		let highest = physics.highest ?? highestByGroup.get(group);
+		if (!highest) {
+			// Not climbed yet (or claimed by the worker for a later row of the group): climb it here.
+			Atomics.compareExchange(ladderClaims, group, ladderClaim.free, ladderClaim.main);
+			highest = highestReaching(sweep, plan, physics.targetDepthCm, ladders);
+		}
+		highestByGroup.set(group, highest);
+		return rowFromPhysics(unpackedPhysics(physics, depths), highest, plan, keepCurves);
 	};
 	const handOn = async () => {
 		let batch: TableRow[] = [];
-		while (waiting.has(next)) {
-			const spot = spots.next().value!;
-			const got = waiting.get(next)!;
-			waiting.delete(next++);
-			batch.push(tableRow(sweep, spot, pipeline ? fitted(spot, got as RowPhysics) : (got as RowValues), reference));
-			if (pipeline && batch.length >= rowsPerReply) {
-				done += batch.length;
-				options.onProgress?.(done, sweep.rowCount);
-				await sink(batch);
-				batch = [];
-			}
-		}
-		if (batch.length) {
+		const flush = async () => {
 			if (pipeline) {
 				done += batch.length;
 				options.onProgress?.(done, sweep.rowCount);
+				// The worker may now run further ahead (SweepJob.progress).
+				Atomics.store(progress!, physicsProgress.handedOn, next - 1);
+				Atomics.notify(progress!, physicsProgress.handedOn);
 			}
 			await sink(batch);
+			batch = [];
+		};
+		while (waiting.has(next)) {
+			const spot = pipeline ? spots[next - 1]! : spotsInOrder.next().value!;
+			const got = waiting.get(next)!;
+			waiting.delete(next++);
+			batch.push(tableRow(sweep, spot, pipeline ? fitted(spot, got as RowPhysics) : (got as RowValues), reference));
+			if (pipeline && batch.length >= rowsPerReply) await flush();
 		}
+		if (batch.length) await flush();
+	};
+	// Ladders nobody has claimed, from the last group down (the worker meets them from the first up).
+	let lastGroup = groups - 1;
+	const climbAhead = (): boolean => {
+		while (lastGroup >= 0) {
+			const group = lastGroup--;
+			if (Atomics.compareExchange(ladderClaims, group, ladderClaim.free, ladderClaim.main) === ladderClaim.free) {
+				highestByGroup.set(group, climbLadder(sweep, spots[group]!, ladders));
+				return true;
+			}
+		}
+		return false;
+	};
+	// The physics of the next rows nobody has claimed, worked out here.
+	const physicsAhead = (): boolean => {
+		const first = Atomics.add(progress!, physicsProgress.claimed, rowsPerClaim);
+		if (first >= sweep.rowCount) return false;
+		for (let i = first; i < Math.min(first + rowsPerClaim, sweep.rowCount); i++)
+			waiting.set(i + 1, rowPhysics(sweep, spots[i]!));
+		return true;
 	};
 	const jobs: SweepJob[] = pipeline
-		? [{sweep, worker: 0, workers: 1, keepCurves, part: 'physics'}]
+		? [{sweep, worker: 0, workers: 1, keepCurves, part: 'physics', progress, ladderClaims}]
 		: // This thread takes share 0 itself: one heap fewer than a worker per share (~40 MB each).
 			Array.from({length: threads - 1}, (_, k) => ({
 				sweep,
@@ -171,7 +222,6 @@ export async function streamSweepInParallel(
 	// Awaited below; until then a failing worker must not count as an unhandled rejection.
 	allWorkers.catch(() => {});
 	if (!pipeline) {
-		const ladders: LadderCache = new Map();
 		let mine: [number, RowValues][] = [];
 		for (const spot of rowSpots(sweep)) {
 			if (!isWorkersRow(sweep, spot.index, 0, threads)) continue;
@@ -188,9 +238,16 @@ export async function streamSweepInParallel(
 	}
 	for (;;) {
 		await handOn();
+		if (next > sweep.rowCount) break;
+		if (pipeline) {
+			// Take in the replies already sent; nothing to fit still: climb a ladder, or work out the next rows' physics.
+			await new Promise<void>((resolve) => setImmediate(resolve));
+			if (waiting.has(next) || climbAhead() || physicsAhead()) continue;
+		}
 		if (finished) break;
 		await Promise.race([allWorkers, new Promise<void>((resolve) => (wake = resolve))]);
 	}
+	await allWorkers;
 	await handOn();
 	if (next <= sweep.rowCount) throw new Error(`sweep worker left row ${next} out`);
 }

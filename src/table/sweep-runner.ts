@@ -133,7 +133,7 @@ export function rowsPerFrequency(sweep: ResolvedSweep): number {
 }
 
 /** The highest-reaching frequency (and where it meets the noise floor) of each ladder already climbed. */
-export type LadderCache = Map<string, {readonly mhz: number | null; readonly penetrationCm: number | null}>;
+export type LadderCache = Map<string, HighestReaching>;
 
 /** What the engine gives for one row (plain data, so a worker thread can send it back). */
 export type RowValues = Omit<
@@ -142,15 +142,21 @@ export type RowValues = Omit<
 >;
 
 /**
- * The physics of one row: everything but the slider fit (plain data, so a worker thread can send it
- * back). The fit needs only these facts and the row's plan (rowFromPhysics).
+ * The physics of one row: everything but the slider fit and the frequency ladder (plain data, so a
+ * worker thread can send it back). The fit needs only these facts and the row's plan (rowFromPhysics).
  */
 export interface RowPhysics {
 	readonly facts: CurveFacts;
 	readonly targetDepthCm: number;
 	readonly noiseBudgetDb: number;
-	readonly highestReachingMhz: number | null;
-	readonly highestReachingPenetrationCm: number | null;
+	/** The row's highest-reaching frequency, when the thread that worked out the physics climbed its ladder. */
+	readonly highest?: HighestReaching;
+}
+
+/** The highest frequency of a row's ladder that reaches its target, and where it meets the noise floor. */
+export interface HighestReaching {
+	readonly mhz: number | null;
+	readonly penetrationCm: number | null;
 }
 
 /** The engine plan of one row. */
@@ -158,16 +164,20 @@ export function rowPlan(sweep: ResolvedSweep, spot: RowSpot): EnginePlan {
 	return resolvePlan(variantDoc(sweep, spot.combo, spot.layerCm), sweep.scanner);
 }
 
-/** Works out one row's physics; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
-export function rowPhysics(
-	sweep: ResolvedSweep,
-	spot: RowSpot,
-	ladders: LadderCache,
-	plan: EnginePlan = rowPlan(sweep, spot),
-): RowPhysics {
-	const doc = variantDoc(sweep, spot.combo, spot.layerCm);
+/** Works out one row's physics. */
+export function rowPhysics(sweep: ResolvedSweep, spot: RowSpot, plan: EnginePlan = rowPlan(sweep, spot)): RowPhysics {
 	const facts = curveFacts(curvePhysics(plan, {stepCm: sweep.stepCm, band: false, samples: false}), plan);
-	const targetCm = targetDepthOf(doc, plan);
+	const targetDepthCm = targetDepthOf(variantDoc(sweep, spot.combo, spot.layerCm), plan);
+	return {facts, targetDepthCm, noiseBudgetDb: plan.noiseBudgetDb};
+}
+
+/** A row's highest-reaching frequency; `ladders` keeps that of each ladder already climbed. */
+export function highestReaching(
+	sweep: ResolvedSweep,
+	plan: EnginePlan,
+	targetCm: number,
+	ladders: LadderCache,
+): HighestReaching {
 	const key = ladderKey(plan, targetCm);
 	let highest = ladders.get(key);
 	if (highest === undefined) {
@@ -176,22 +186,21 @@ export function rowPhysics(
 		highest = {mhz: ladder.highestReachingMhz, penetrationCm: rung?.penetrationDepthCm ?? null};
 		ladders.set(key, highest);
 	}
-	return {
-		facts,
-		targetDepthCm: targetCm,
-		noiseBudgetDb: plan.noiseBudgetDb,
-		highestReachingMhz: highest.mhz,
-		highestReachingPenetrationCm: highest.penetrationCm,
-	};
+	return highest;
+}
+
+/** Climbs the frequency ladder of a row's group (its rows share one ladder) into `ladders`. */
+export function climbLadder(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache): HighestReaching {
+	const plan = rowPlan(sweep, spot);
+	return highestReaching(sweep, plan, targetDepthOf(variantDoc(sweep, spot.combo, spot.layerCm), plan), ladders);
 }
 
 /** Fits one row on its physics (worked out here or on another thread). */
 export function rowFromPhysics(
-	sweep: ResolvedSweep,
-	spot: RowSpot,
 	physics: RowPhysics,
+	highest: HighestReaching,
+	plan: EnginePlan,
 	keepCurves = false,
-	plan: EnginePlan = rowPlan(sweep, spot),
 ): RowValues {
 	const facts = physics.facts;
 	const {fit, warnings} = fitFacts(facts, plan);
@@ -206,8 +215,8 @@ export function rowFromPhysics(
 		usableDepthCm: facts.usableDepthCm,
 		noiseBudgetDb: physics.noiseBudgetDb,
 		targetDepthCm: physics.targetDepthCm,
-		highestReachingMhz: physics.highestReachingMhz,
-		highestReachingPenetrationCm: physics.highestReachingPenetrationCm,
+		highestReachingMhz: highest.mhz,
+		highestReachingPenetrationCm: highest.penetrationCm,
 		// Depth-drawing notes hold for every row of a fat sweep; the tissue table shows the speeds.
 		warnings: warnings.filter((w) => w.severity === 'warning'),
 		...(keepCurves ? {curve: {depthsCm: [...facts.depths], compensationDb: Array.from(facts.compensationDb)}} : {}),
@@ -217,7 +226,8 @@ export function rowFromPhysics(
 /** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
 export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
 	const plan = rowPlan(sweep, spot);
-	return rowFromPhysics(sweep, spot, rowPhysics(sweep, spot, ladders, plan), keepCurves, plan);
+	const physics = rowPhysics(sweep, spot, plan);
+	return rowFromPhysics(physics, highestReaching(sweep, plan, physics.targetDepthCm, ladders), plan, keepCurves);
 }
 
 /**

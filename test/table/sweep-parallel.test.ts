@@ -64,6 +64,19 @@ describe('rows shared out to worker threads', () => {
 		expect(tableJsonText(parallel)).toBe(tableJsonText(single));
 	});
 
+	it('on three threads (whole rows on each) and on two keeping the curves, gives the same rows as one thread', async () => {
+		const built = (await import(
+			new URL('../../dist/src/table/sweep-parallel.js', import.meta.url).href
+		)) as typeof import('../../src/table/sweep-parallel.js');
+		const sweep = resolveSweep(abdomenPlan(), spec);
+		const plain = (t: ReturnType<typeof runSweep>) => t.rows.map(({doc: _d, plan: _p, ...rest}) => rest);
+		expect(plain(await built.runSweepInParallel(sweep, {threads: 3}))).toEqual(plain(runSweep(sweep)));
+		// Two threads split each row: the worker's physics, this thread's fit (the curve comes from the physics).
+		const withCurves = await built.runSweepInParallel(sweep, {threads: 2, keepCurves: true});
+		expect(plain(withCurves)).toEqual(plain(runSweep(sweep, {keepCurves: true})));
+		expect(withCurves.rows.every((r) => r.curve !== undefined && r.curve.depthsCm.length > 100)).toBe(true);
+	});
+
 	it('streamed on two threads, hands every row on once, in order, and writes the same JSON and CSV bytes', async () => {
 		const built = (await import(
 			new URL('../../dist/src/table/sweep-parallel.js', import.meta.url).href
