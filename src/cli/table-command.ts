@@ -10,6 +10,7 @@ import {printable} from '../files/printable.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import type {Preset, PresetStore} from '../store/preset-store.js';
 import {createProgressBar} from '../table/progress-bar.js';
+import {limitInlining} from '../runtime/inlining-budget.js';
 import {holdYoungGeneration} from '../runtime/young-generation.js';
 import {maxTableRows, resolveSweep, SweepError, type ResolvedSweep, type TissueChoice} from '../table/sweep-spec.js';
 import {runSweepInParallel, streamSweepInParallel, tableFrame} from '../table/sweep-parallel.js';
@@ -189,6 +190,8 @@ export function registerTableCommand(program: Command): void {
 				if (error instanceof SweepError) throw new UsageError(error.message);
 				throw error;
 			}
+			// Before the rows' hot code is compiled, here and on the worker threads (runtime/inlining-budget.ts).
+			limitInlining();
 			const scanner = await scannerForPlan(doc);
 			const swept = scanner ? {...sweep, scanner} : sweep;
 			const fo: TableFormatOptions = {source, ...(opts.timestamp ? {generatedAt: new Date().toISOString()} : {})};
