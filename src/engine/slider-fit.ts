@@ -18,7 +18,7 @@ import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
 import {type DantzigPricing, PackedRows, solveInequalityLp} from './inequality-lp.js';
 import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
-import {float64Room} from './working-arrays.js';
+import {float64Room, int32Room, uint8Room} from './working-arrays.js';
 
 /** What to fit: a sampled target curve, how deep it may be trusted, and the controls available. */
 export interface FitRequest {
@@ -412,6 +412,8 @@ function masterOnlyFit(req: FitRequest): SliderFit {
 const minimaxRows = new PackedRows(0, 0);
 const tieBreakRows = new PackedRows(0, 0);
 const tieBreakHessian = float64Room();
+/** The minimax pricing's flat copy of the samples' weights (minimaxPricing). */
+const pricingWork = {count: uint8Room(), k0: int32Room(), k1: int32Room(), w0: float64Room(), w1: float64Room()};
 const sampleErrors = float64Room();
 
 function worstResidual(totals: ArrayLike<number>, rows: readonly SparseWeights[], targets: readonly number[]): number {
@@ -503,14 +505,44 @@ export function minimaxPricing(
 	b: TotalBounds,
 	boxStart: number,
 ): DantzigPricing {
+	// The samples' weights laid out flat, once per programme: the pass below runs at every pivot, and
+	// reading each row's own two arrays there was the largest single cost of a table's fits.
+	const m = rows.length;
+	const count = pricingWork.count.take(m);
+	const k0 = pricingWork.k0.take(m);
+	const k1 = pricingWork.k1.take(m);
+	const w0 = pricingWork.w0.take(m);
+	const w1 = pricingWork.w1.take(m);
+	let flat = true;
+	for (let i = 0; i < m; i++) {
+		const r = rows[i]!;
+		const c = r.idx.length;
+		if (c > 2) flat = false;
+		count[i] = c;
+		if (c > 0) {
+			k0[i] = r.idx[0]!;
+			w0[i] = r.val[0]!;
+		}
+		if (c > 1) {
+			k1[i] = r.idx[1]!;
+			w1[i] = r.val[1]!;
+		}
+	}
 	return (pi, inBasis, tol) => {
 		const piT = pi[n]!;
 		let q = -1;
 		let best = -tol;
-		for (let i = 0; i < rows.length; i++) {
-			const r = rows[i]!;
+		for (let i = 0; i < m; i++) {
+			// The weighted sum in the order dotSparse adds it.
 			let s = 0;
-			for (let e = 0; e < r.idx.length; e++) s += r.val[e]! * pi[r.idx[e]!]!;
+			if (flat) {
+				const c = count[i]!;
+				if (c > 0) s += w0[i]! * pi[k0[i]!]!;
+				if (c > 1) s += w1[i]! * pi[k1[i]!]!;
+			} else {
+				const r = rows[i]!;
+				for (let e = 0; e < r.idx.length; e++) s += r.val[e]! * pi[r.idx[e]!]!;
+			}
 			if (!inBasis[2 * i]) {
 				const d = targets[i]! - (s + -piT);
 				if (d < best) {

@@ -240,9 +240,13 @@ export async function streamSweepInParallel(
 		await handOn();
 		if (next > sweep.rowCount) break;
 		if (pipeline) {
-			// Take in the replies already sent; nothing to fit still: climb a ladder, or work out the next rows' physics.
+			// Take in the replies already sent. Nothing to fit still, and the worker has no more than the
+			// rows it is on in hand (it is behind, not just between two replies): climb a ladder, or work
+			// out the next rows' physics here.
 			await new Promise<void>((resolve) => setImmediate(resolve));
-			if (waiting.has(next) || climbAhead() || physicsAhead()) continue;
+			if (waiting.has(next)) continue;
+			const inHand = Atomics.load(progress!, physicsProgress.claimed) - (next - 1);
+			if (inHand <= rowsPerClaim && (climbAhead() || physicsAhead())) continue;
 		}
 		if (finished) break;
 		await Promise.race([allWorkers, new Promise<void>((resolve) => (wake = resolve))]);

@@ -52,7 +52,7 @@ export const rowsPerClaim = 10;
  * How far the worker's physics may run ahead of the rows handed on: rows waiting to be fitted are
  * held in memory (about 2 kB each), so a worker faster than the fits waits rather than piling them up.
  */
-const maxRowsAhead = 1000;
+const maxRowsAhead = 200;
 
 export interface WorkerReply {
 	/** Row number (1-based) and values, or physics as {@link packedPhysics} sends it. */
@@ -76,7 +76,7 @@ export const rowsPerReply = 50;
  * stay behind, and the compensation goes as one typed array (copied at once, not number by number).
  */
 export function packedPhysics(p: RowPhysics): RowPhysics {
-	return {...p, facts: {...p.facts, depths: [], compensationDb: Float64Array.from(p.facts.compensationDb)}};
+	return {...p, facts: {...p.facts, depths: [], compensationDb: new Float64Array(p.facts.compensationDb)}};
 }
 
 /** {@link packedPhysics} undone: the depths put back. */
