@@ -9,7 +9,7 @@
 import {lateralShiftMm, refractedAnglesDeg} from './beam-angle.js';
 import {PathModel, type Barrier} from './path-model.js';
 import {appliedGainDb} from './slider-basis.js';
-import {fitSliders} from './slider-fit.js';
+import {type FitMemory, fitSliders} from './slider-fit.js';
 import {receiveWarnings} from './receive-notes.js';
 import type {CurveResult, CurveSample, CurveWarning, EnginePlan, Layer, SliderFit} from './types.js';
 import {columnsAlongDepth} from './points-along-depth.js';
@@ -447,22 +447,32 @@ export function curveFacts(physics: CurvePhysics, plan: EnginePlan): CurveFacts 
 	};
 }
 
-/** The slider fit of a plan on the facts of its physics, and every warning in order. */
-export function fitFacts(facts: CurveFacts, plan: EnginePlan): {fit: SliderFit; warnings: CurveWarning[]} {
+/**
+ * The slider fit of a plan on the facts of its physics, and every warning in order. `memory` carries
+ * the fit's start from one curve to the next of a run (fitSliders).
+ */
+export function fitFacts(
+	facts: CurveFacts,
+	plan: EnginePlan,
+	memory?: FitMemory,
+): {fit: SliderFit; warnings: CurveWarning[]} {
 	const {depths, usableDepthCm} = facts;
 	// The ramp and any measured depth response belong to the plan's scanner: here, not in the physics.
 	const targetDb = depths.map((d, i) =>
 		controlTargetDb(plan, {displayedDepthCm: d, compensationDb: facts.compensationDb[i]!}),
 	);
-	const fitted = fitSliders({
-		depthsCm: depths,
-		targetDb,
-		usableDepthCm,
-		fitFromCm: facts.fitFromCm,
-		bank: plan.sliders,
-		displayDepthCm: plan.display.depthCm,
-		master: plan.masterGain,
-	});
+	const fitted = fitSliders(
+		{
+			depthsCm: depths,
+			targetDb,
+			usableDepthCm,
+			fitFromCm: facts.fitFromCm,
+			bank: plan.sliders,
+			displayDepthCm: plan.display.depthCm,
+			master: plan.masterGain,
+		},
+		memory,
+	);
 	const fit = holdFlatBeyond(plan, fitted, usableDepthCm, facts.heldLossDb);
 	const warnings = [...facts.warningsBefore];
 	if (fit.residualDb > residualWarningDb) {

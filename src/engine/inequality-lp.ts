@@ -114,6 +114,30 @@ const work = {
 	w: float64Room(),
 };
 
+/** An optimum of {@link solveInequalityLp}: the primal solution and the dual basis it ended on. */
+export interface LpSolution {
+	readonly x: number[];
+	readonly basis: readonly number[];
+}
+
+/**
+ * Whether `basis` can start {@link solveInequalityLp}: n distinct rows whose matrix is regular and
+ * whose dual values B⁻¹(−e_{n−1}) are all non-negative (dual feasible). For a start taken from another
+ * programme's optimum, which must be checked before it is used.
+ */
+export function isDualFeasibleBasis(n: number, rows: PackedRows, basis: readonly number[]): boolean {
+	if (basis.length !== n || basis.some((j) => !(j >= 0 && j < rows.count))) return false;
+	const b = work.b.take(n * n);
+	for (let i = 0; i < n; i++) scatterRow(rows, basis[i]!, b, n, i);
+	const piv = work.piv.take(n);
+	if (!luFactor(b, n, piv)) return false;
+	const y = work.y.take(n);
+	y[n - 1] = -1;
+	luSolve(b, n, piv, y);
+	for (let i = 0; i < n; i++) if (!(y[i]! >= 0)) return false;
+	return true;
+}
+
 /**
  * min x[n−1] subject to rows a_j·x ≤ rhs_j, solved through its dual
  * min Σ rhs_j·y_j s.t. Σ y_j·a_j = −e_{n−1}, y ≥ 0, by a revised primal simplex on the dual.
@@ -130,7 +154,7 @@ export function solveInequalityLp(
 	rows: PackedRows,
 	start: readonly number[],
 	price?: DantzigPricing,
-): number[] | null {
+): LpSolution | null {
 	const count = rows.count;
 	const basis = [...start];
 	const inBasis = work.inBasis.take(count);
@@ -170,7 +194,7 @@ export function solveInequalityLp(
 				}
 			}
 		}
-		if (q < 0) return Array.from(pi);
+		if (q < 0) return {x: Array.from(pi), basis: [...basis]};
 
 		w.fill(0);
 		scatterRow(rows, q, w, 1, 0);

@@ -16,7 +16,7 @@
 import type {SliderBank, SliderFit, SliderSetting} from './types.js';
 import {solveConvexQp} from './convex-qp.js';
 import {dotSparse} from './dense-linear-algebra.js';
-import {type DantzigPricing, PackedRows, solveInequalityLp} from './inequality-lp.js';
+import {type DantzigPricing, isDualFeasibleBasis, PackedRows, solveInequalityLp} from './inequality-lp.js';
 import {appliedGainDb, type HatWeights, hatWeights, knotDepths} from './slider-basis.js';
 import {float64Room, int32Room, uint8Room} from './working-arrays.js';
 
@@ -72,10 +72,16 @@ const MINIMAX_SLACK = 1e-9;
  * The bank's built-in ramp (rampDbPerCmMhz) is not modelled here: pass the target with the ramp
  * already subtracted, and the sliders come out as offsets from it.
  *
+ * `memory`, when given, carries the stage-1 programme's final basis from one fit to the next: a
+ * caller fitting a run of similar curves (a table's rows of one habitus at rising frequencies) starts
+ * each from the last one's optimum, where it is still a valid start, instead of from scratch. The
+ * optimum is the same (t* is unique; the tie-break then picks its unique point), so only rounding in
+ * the last bits can differ from a fit without it.
+ *
  * @returns sliders (knot depth cm, value dB), master gain dB, and the worst error (dB) with its
  * depth (cm), evaluated on every usable sample.
  */
-export function fitSliders(req: FitRequest): SliderFit {
+export function fitSliders(req: FitRequest, memory?: FitMemory): SliderFit {
 	const n = Math.floor(req.bank.count);
 	if (!(n >= 1)) return masterOnlyFit(req);
 	const data = usableSamples(req);
@@ -85,7 +91,7 @@ export function fitSliders(req: FitRequest): SliderFit {
 
 	const knots = safeKnots(req);
 	const rows = weightsOfBank(knots, req.bank.ends, data.depths);
-	const lp = minimaxTotals(n, rows, data.targets, bounds);
+	const lp = minimaxTotals(n, rows, data, bounds, knots, req.bank.ends, memory);
 	if (lp === null) return naiveFit(req);
 
 	let totals = lp.totals;
@@ -201,18 +207,28 @@ function clamp(x: number, lo: number, hi: number): number {
 
 /** Samples that the fit must match; non-finite ones are skipped so they can never leak NaN. */
 function usableSamples(req: FitRequest): Samples {
-	const depths: number[] = [];
-	const targets: number[] = [];
 	const limit = req.usableDepthCm;
 	const from = req.fitFromCm ?? 0;
-	if (!(limit > 0)) return {depths, targets};
+	if (!(limit > 0)) return {depths: [], targets: []};
 	const count = Math.min(req.depthsCm.length, req.targetDb.length);
-	for (let i = 0; i < count; i++) {
+	const usable = (i: number): boolean => {
 		const d = req.depthsCm[i]!;
-		const t = req.targetDb[i]!;
-		if (Number.isFinite(d) && Number.isFinite(t) && d <= limit && d >= from) {
-			depths.push(d);
-			targets.push(t);
+		return Number.isFinite(d) && Number.isFinite(req.targetDb[i]!) && d <= limit && d >= from;
+	};
+	// Usually the usable samples are one unbroken run (depths ascend): then each list is one copy.
+	let first = 0;
+	while (first < count && !usable(first)) first++;
+	let end = first;
+	while (end < count && usable(end)) end++;
+	let after = end;
+	while (after < count && !usable(after)) after++;
+	if (after === count) return {depths: req.depthsCm.slice(first, end), targets: req.targetDb.slice(first, end)};
+	const depths: number[] = [];
+	const targets: number[] = [];
+	for (let i = 0; i < count; i++) {
+		if (usable(i)) {
+			depths.push(req.depthsCm[i]!);
+			targets.push(req.targetDb[i]!);
 		}
 	}
 	return {depths, targets};
@@ -456,9 +472,13 @@ function acceptable(
 function minimaxTotals(
 	n: number,
 	rows: readonly SparseWeights[],
-	targets: readonly number[],
+	data: Samples,
 	b: TotalBounds,
+	knots: readonly number[],
+	ends: SliderBank['ends'],
+	memory?: FitMemory,
 ): {totals: number[]; tStar: number} | null {
+	const targets = data.targets;
 	const tIndex = n;
 	const m = rows.length;
 	const weights = weightCount(rows);
@@ -479,17 +499,67 @@ function minimaxTotals(
 	// A dual-feasible starting basis: the first sample's upper residual row, and for every slider
 	// the bound row whose normal cancels that sample's weight (so the dual values are the weights).
 	const first = rows[0]!;
-	const basis: number[] = [0];
+	let basis: number[] = [0];
 	for (let k = 0; k < n; k++) {
 		const e = first.idx.indexOf(k);
 		const w = e >= 0 ? first.val[e]! : 0;
 		basis.push(boxStart + 2 * k + (w < 0 ? 0 : 1));
 	}
-	const x = solveInequalityLp(n + 1, cons, basis, minimaxPricing(n, rows, targets, b, boxStart));
-	if (x === null) return null;
+	const remembered = memory ? rememberedBasis(memory, n, data.depths, knots, ends, boxStart) : null;
+	if (remembered && isDualFeasibleBasis(n + 1, cons, remembered)) basis = remembered;
+	const solution = solveInequalityLp(n + 1, cons, basis, minimaxPricing(n, rows, targets, b, boxStart));
+	if (solution === null) return null;
+	const x = solution.x;
+	if (memory) {
+		memory.last = {sliders: n, depths: data.depths, knots, ends, boxStart, basis: solution.basis};
+	}
 	const totals = Array.from({length: n}, (_, k) => x[k]!);
 	if (!totals.every(Number.isFinite)) return null;
 	return {totals, tStar: worstResidual(totals, rows, targets)};
+}
+
+/** What a fit leaves for the next one (see {@link fitSliders}): the stage-1 programme's final basis and its rows. */
+export interface FitMemory {
+	last?: {
+		readonly sliders: number;
+		readonly depths: readonly number[];
+		readonly knots: readonly number[];
+		readonly ends: SliderBank['ends'];
+		readonly boxStart: number;
+		readonly basis: readonly number[];
+	};
+}
+
+/**
+ * The last fit's final basis as rows of this programme, or null when it does not carry over: the same
+ * sliders and knots, and each sample row it holds at the same depth here (so with the same weights);
+ * the bound and spread rows follow the samples, so they move with their count.
+ */
+function rememberedBasis(
+	memory: FitMemory,
+	n: number,
+	depths: readonly number[],
+	knots: readonly number[],
+	ends: SliderBank['ends'],
+	boxStart: number,
+): number[] | null {
+	const last = memory.last;
+	if (!last || last.sliders !== n || last.ends !== ends || !sameNumbers(last.knots, knots)) return null;
+	const out: number[] = [];
+	// Samples past this programme's last (a shallower noise floor) move to its deepest ones, in order.
+	let deepest = depths.length - 1;
+	const past = last.basis.filter((j) => j < last.boxStart && j >> 1 > deepest).sort((a, b) => b - a);
+	const moved = new Map(past.map((j) => [j, 2 * deepest-- + (j & 1)]));
+	for (const j of last.basis) {
+		if (j >= last.boxStart) out.push(j - last.boxStart + boxStart);
+		else {
+			const to = moved.get(j) ?? j;
+			const i = to >> 1;
+			if (i < 0 || (!moved.has(j) && depths[i] !== last.depths[i])) return null;
+			out.push(to);
+		}
+	}
+	return out;
 }
 
 /**

@@ -15,17 +15,22 @@ type TypedArray = Float64Array | Int32Array | Uint8Array;
 /** Room for one typed array that grows to the largest length asked for and hands out zeroed views. */
 export class WorkingArray<T extends TypedArray> {
 	private buffer: T;
+	/** The last view handed out: asked again for the same length (the usual case), it is handed out again. */
+	private view: T;
 
 	constructor(private readonly make: (length: number) => T) {
 		this.buffer = make(0);
+		this.view = this.buffer;
 	}
 
 	/** A zeroed view of `length` elements; valid until the next call (its contents are then overwritten). */
 	take(length: number): T {
-		if (this.buffer.length < length) this.buffer = this.make(Math.max(length, 2 * this.buffer.length));
-		const view = this.buffer.subarray(0, length) as T;
-		view.fill(0);
-		return view;
+		if (this.view.length !== length) {
+			if (this.buffer.length < length) this.buffer = this.make(Math.max(length, 2 * this.buffer.length));
+			this.view = this.buffer.subarray(0, length) as T;
+		}
+		this.view.fill(0);
+		return this.view;
 	}
 }
 

@@ -24,6 +24,8 @@ import {
 	type RowSpot,
 	type RowValues,
 	climbLadder,
+	type FitMemories,
+	fitMemoryOf,
 	type HighestReaching,
 	highestReaching,
 	rowPhysics,
@@ -128,6 +130,7 @@ export async function streamSweepInParallel(
 	// The sample depths the worker leaves out of each row's physics, per display depth.
 	const depthsByDisplay = new Map<number, number[]>();
 	const ladders: LadderCache = new Map();
+	const memories: FitMemories = new Map();
 	const groups = rowsPerFrequency(sweep);
 	const ladderClaims = new Int32Array(new SharedArrayBuffer(4 * (pipeline ? groups : 0)));
 	// The highest-reaching frequency of each row group (its rows share a ladder), whoever climbed it.
@@ -146,7 +149,8 @@ export async function streamSweepInParallel(
 			highest = highestReaching(sweep, plan, physics.targetDepthCm, ladders);
 		}
 		highestByGroup.set(group, highest);
-		return rowFromPhysics(unpackedPhysics(physics, depths), highest, plan, keepCurves);
+		const memory = fitMemoryOf(memories, sweep, spot);
+		return rowFromPhysics(unpackedPhysics(physics, depths), highest, plan, keepCurves, memory);
 	};
 	const handOn = async () => {
 		let batch: TableRow[] = [];
@@ -225,7 +229,7 @@ export async function streamSweepInParallel(
 		let mine: [number, RowValues][] = [];
 		for (const spot of rowSpots(sweep)) {
 			if (!isWorkersRow(sweep, spot.index, 0, threads)) continue;
-			mine.push([spot.index, rowValues(sweep, spot, ladders, keepCurves)]);
+			mine.push([spot.index, rowValues(sweep, spot, ladders, memories, keepCurves)]);
 			if (mine.length >= rowsPerReply) {
 				take({rows: mine});
 				mine = [];

@@ -10,6 +10,7 @@ import {ladderSimplification, receiveModeNote} from '../engine/model-notes.js';
 import {computeCurve, curveFacts, curvePhysics, fitFacts, type CurveFacts} from '../engine/compensation-curve.js';
 import {frequencyLadder} from '../engine/frequency-ladder.js';
 import {settingsDelta, settingsOf, type GainSettings, type SettingsDelta} from '../engine/plan-difference.js';
+import type {FitMemory} from '../engine/slider-fit.js';
 import type {CurveWarning, EnginePlan, ReceiveMode, SliderFit, Tissue} from '../engine/types.js';
 import type {PlanDocument} from '../plan/plan-schema.js';
 import {resolveLayer, resolvePlan} from '../plan/resolve-plan.js';
@@ -195,15 +196,31 @@ export function climbLadder(sweep: ResolvedSweep, spot: RowSpot, ladders: Ladder
 	return highestReaching(sweep, plan, targetDepthOf(variantDoc(sweep, spot.combo, spot.layerCm), plan), ladders);
 }
 
+/**
+ * Each row group's fit memory (fitSliders): a group's rows differ only in frequency and are fitted in
+ * row order by one thread whatever the number of threads, so each starts from the fit before it the
+ * same way on any machine.
+ */
+export type FitMemories = Map<number, FitMemory>;
+
+/** The fit memory of a row's group. */
+export function fitMemoryOf(memories: FitMemories, sweep: ResolvedSweep, spot: RowSpot): FitMemory {
+	const group = (spot.index - 1) % rowsPerFrequency(sweep);
+	let memory = memories.get(group);
+	if (!memory) memories.set(group, (memory = {}));
+	return memory;
+}
+
 /** Fits one row on its physics (worked out here or on another thread). */
 export function rowFromPhysics(
 	physics: RowPhysics,
 	highest: HighestReaching,
 	plan: EnginePlan,
 	keepCurves = false,
+	memory?: FitMemory,
 ): RowValues {
 	const facts = physics.facts;
-	const {fit, warnings} = fitFacts(facts, plan);
+	const {fit, warnings} = fitFacts(facts, plan, memory);
 	const settings = settingsOf(fit);
 	return {
 		slidersDb: settings.slidersDb,
@@ -223,11 +240,21 @@ export function rowFromPhysics(
 	};
 }
 
-/** Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed. */
-export function rowValues(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache, keepCurves = false): RowValues {
+/**
+ * Computes one row; `ladders` keeps the highest-reaching frequency of each ladder already climbed,
+ * `memories` each group's fit memory.
+ */
+export function rowValues(
+	sweep: ResolvedSweep,
+	spot: RowSpot,
+	ladders: LadderCache,
+	memories: FitMemories,
+	keepCurves = false,
+): RowValues {
 	const plan = rowPlan(sweep, spot);
 	const physics = rowPhysics(sweep, spot, plan);
-	return rowFromPhysics(physics, highestReaching(sweep, plan, physics.targetDepthCm, ladders), plan, keepCurves);
+	const highest = highestReaching(sweep, plan, physics.targetDepthCm, ladders);
+	return rowFromPhysics(physics, highest, plan, keepCurves, fitMemoryOf(memories, sweep, spot));
 }
 
 /**
@@ -349,9 +376,10 @@ export function* sweepRows(
 	options: RunOptions = {},
 ): Generator<TableRow> {
 	const ladders: LadderCache = new Map();
+	const memories: FitMemories = new Map();
 	let done = 0;
 	for (const spot of rowSpots(sweep)) {
-		const row = tableRow(sweep, spot, rowValues(sweep, spot, ladders, options.keepCurves), reference);
+		const row = tableRow(sweep, spot, rowValues(sweep, spot, ladders, memories, options.keepCurves), reference);
 		options.onProgress?.(++done, sweep.rowCount);
 		yield row;
 	}

@@ -6,6 +6,7 @@
 import {parentPort, workerData} from 'node:worker_threads';
 import type {ResolvedSweep} from './sweep-spec.js';
 import {
+	type FitMemories,
 	highestReaching,
 	type LadderCache,
 	type RowPhysics,
@@ -119,10 +120,11 @@ if (parentPort && (workerData as SweepJob | undefined)?.sweep) {
 		}
 	} else {
 		const ladders: LadderCache = new Map();
+		const memories: FitMemories = new Map();
 		let rows: [number, RowValues][] = [];
 		for (const spot of rowSpots(sweep)) {
 			if (!isWorkersRow(sweep, spot.index, worker, workers)) continue;
-			rows.push([spot.index, rowValues(sweep, spot, ladders, keepCurves)]);
+			rows.push([spot.index, rowValues(sweep, spot, ladders, memories, keepCurves)]);
 			if (rows.length >= rowsPerReply) {
 				parentPort.postMessage({rows} satisfies WorkerReply);
 				rows = [];
