@@ -511,7 +511,9 @@ function minimaxTotals(
 	if (solution === null) return null;
 	const x = solution.x;
 	if (memory) {
-		memory.last = {sliders: n, depths: data.depths, knots, ends, boxStart, basis: solution.basis};
+		// The depth of each sample row in the basis (all the next fit checks), not the whole list.
+		const depthsOfBasis = solution.basis.map((j) => (j < boxStart ? data.depths[j >> 1]! : Number.NaN));
+		memory.last = {sliders: n, depthsOfBasis, knots, ends, boxStart, basis: solution.basis};
 	}
 	const totals = Array.from({length: n}, (_, k) => x[k]!);
 	if (!totals.every(Number.isFinite)) return null;
@@ -522,7 +524,8 @@ function minimaxTotals(
 export interface FitMemory {
 	last?: {
 		readonly sliders: number;
-		readonly depths: readonly number[];
+		/** For each row of the basis: the depth of its sample, cm (NaN for a bound or spread row). */
+		readonly depthsOfBasis: readonly number[];
 		readonly knots: readonly number[];
 		readonly ends: SliderBank['ends'];
 		readonly boxStart: number;
@@ -550,12 +553,13 @@ function rememberedBasis(
 	let deepest = depths.length - 1;
 	const past = last.basis.filter((j) => j < last.boxStart && j >> 1 > deepest).sort((a, b) => b - a);
 	const moved = new Map(past.map((j) => [j, 2 * deepest-- + (j & 1)]));
-	for (const j of last.basis) {
+	for (let r = 0; r < last.basis.length; r++) {
+		const j = last.basis[r]!;
 		if (j >= last.boxStart) out.push(j - last.boxStart + boxStart);
 		else {
 			const to = moved.get(j) ?? j;
 			const i = to >> 1;
-			if (i < 0 || (!moved.has(j) && depths[i] !== last.depths[i])) return null;
+			if (i < 0 || (!moved.has(j) && depths[i] !== last.depthsOfBasis[r])) return null;
 			out.push(to);
 		}
 	}
