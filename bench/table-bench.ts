@@ -144,7 +144,8 @@ export async function run(pinned: PinnedBuild): Promise<void> {
 	// means fundamental + tissue harmonic (a far costlier model the pinned build never computed), so
 	// the two sides would not do the same work. 200 fat steps × 50 frequencies = 10,000 rows.
 	const sweep = ['--fat', '0.25:50:0.25', '--freq', '2:11.8:0.2', '--receive', 'fundamental', '--format', 'json'];
-	const pairs = Number(process.env['EVENECHO_BENCH_TABLE_PAIRS'] ?? 2);
+	// Three pairs: wall time on a shared 2-core machine drifts by ±10 % between minutes, and an odd count has a true median.
+	const pairs = Number(process.env['EVENECHO_BENCH_TABLE_PAIRS'] ?? 3);
 	try {
 		// Warm the file cache and both builds' module loading on a small sweep.
 		const small = ['--fat', '1,2', '--freq', '3,4', '--format', 'json'];
