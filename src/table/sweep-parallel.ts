@@ -1,9 +1,10 @@
 /**
- * Runs a protocol-table sweep on every core: this thread and worker threads each take whole row
- * groups (rows that differ only in frequency, so each frequency ladder is climbed once, by one of
- * them); the workers send back plain row values and this thread hands the rows on in order as they
- * become ready. Small sweeps, or a build without the worker file (the TypeScript sources under
- * test), run on this thread alone, as runSweep does.
+ * Runs a protocol-table sweep on every core. With two threads the worker works out the rows' physics
+ * and this thread fits them (see streamSweepInParallel for why); with more, this thread and the
+ * workers each take whole row groups (rows that differ only in frequency, so each frequency ladder is
+ * climbed once, by one of them). Either way this thread hands the rows on in order as they become
+ * ready. Small sweeps, or a build without the worker file (the TypeScript sources under test), run on
+ * this thread alone, as runSweep does.
  */
 import {existsSync} from 'node:fs';
 import {availableParallelism} from 'node:os';

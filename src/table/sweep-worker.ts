@@ -1,7 +1,7 @@
 /**
- * A worker thread of {@link runSweepInParallel}: works out its share of a sweep's rows (whole groups
- * of rows that differ only in frequency) and posts them in batches: whole rows, or only their physics
- * for the main thread to fit (sweep-parallel.ts says when).
+ * A worker thread of {@link runSweepInParallel}: works out its share of a sweep's rows and posts them
+ * in batches: whole rows of its whole row groups (rows that differ only in frequency), or the physics
+ * of the rows it claims, for the main thread to fit (sweep-parallel.ts says when).
  */
 import {parentPort, workerData} from 'node:worker_threads';
 import type {ResolvedSweep} from './sweep-spec.js';
