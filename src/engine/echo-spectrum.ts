@@ -342,21 +342,31 @@ function fallPoint(
 
 /** Panel edges from the peak out to one window edge, in order from the peak: the shoulder where the
  * integrand has fallen by 1 Np and the spectrum's centre `kink` (f0 for p < 2, where |x|^p has a
- * corner), each only when it lies strictly between. */
-function panelEdges(fp: number, edge: number, shoulder: number, kink: number): number[] {
+ * corner), each only when it lies strictly between. Written into `out`; returns how many. */
+function panelEdges(fp: number, edge: number, shoulder: number, kink: number, out: Float64Array): number {
 	const dir = edge > fp ? 1 : -1;
 	const inside = (v: number) => dir * (v - fp) > 0 && dir * (edge - v) > 0;
-	const edges = [fp];
+	let n = 0;
+	out[n++] = fp;
 	const s = inside(shoulder);
 	const k = inside(kink) && kink !== shoulder;
 	if (s && k) {
 		const nearFirst = dir * (shoulder - kink) < 0;
-		edges.push(nearFirst ? shoulder : kink, nearFirst ? kink : shoulder);
-	} else if (s) edges.push(shoulder);
-	else if (k) edges.push(kink);
-	if (edge !== fp) edges.push(edge);
-	return edges;
+		out[n++] = nearFirst ? shoulder : kink;
+		out[n++] = nearFirst ? kink : shoulder;
+	} else if (s) out[n++] = shoulder;
+	else if (k) out[n++] = kink;
+	if (edge !== fp) out[n++] = edge;
+	return n;
 }
+
+/**
+ * The panel edges and the moments of the integral being worked out, kept between calls: logIntegral
+ * is never re-entered (its integrand and build-up factor are plain arithmetic), and these small
+ * arrays and objects were a third of what a curve allocated.
+ */
+const edges = new Float64Array(4);
+const sums: Moments = {m0: 0, m1: 0};
 
 /** The window reaches this much further when a build-up factor multiplies the integrand. */
 const extraWindowNp = 12;
@@ -381,7 +391,8 @@ function logIntegral(
 	// Width scale of the peak: the curvature where it is meaningful, never wider than the spectrum.
 	let w = Number.isFinite(c) && c < 0 ? Math.min(halfWidth, 1 / Math.sqrt(-c)) : halfWidth;
 	if (fp === 0) w = Math.min(halfWidth, 1 / Math.max(1e-12, -ig.slope(Number.MIN_VALUE)));
-	const sums: Moments = {m0: 0, m1: 0};
+	sums.m0 = 0;
+	sums.m1 = 0;
 	for (let side = 0; side < 2; side++) {
 		const dir = side === 0 ? 1 : -1;
 		if (dir < 0 && fp === 0) continue;
@@ -389,8 +400,8 @@ function logIntegral(
 		if (edge === fp) continue;
 		// A Gaussian needs no shoulder panel (one panel per side is exact to < 0.001 dB).
 		const shoulder = steepness > 2 || extra ? fallPoint(ig, fp, gEnvelope, dir, w, 1, 0.6) : edge;
-		const edges = panelEdges(fp, edge, shoulder, steepness < 2 ? f0 : fp);
-		for (let i = 1; i < edges.length; i++) {
+		const count = panelEdges(fp, edge, shoulder, steepness < 2 ? f0 : fp, edges);
+		for (let i = 1; i < count; i++) {
 			const a = Math.min(edges[i - 1]!, edges[i]!);
 			const b = Math.max(edges[i - 1]!, edges[i]!);
 			if (b <= a) continue;
