@@ -31,6 +31,7 @@ import {
 	highestReaching,
 	rowPhysics,
 	rowFromPhysics,
+	rowGroup,
 	rowPlan,
 	type RunOptions,
 	type TableRow,
@@ -113,8 +114,7 @@ export async function streamSweepInParallel(
 	const pipeline = threads === 2;
 	// Rows (or their physics) received but not yet handed on, by row number; `next` is the next row to hand on.
 	const waiting = new Map<number, RowValues | RowPhysics>();
-	const spots = pipeline ? [...rowSpots(sweep)] : [];
-	const spotsInOrder = rowSpots(sweep);
+	const spots = [...rowSpots(sweep)];
 	let next = 1;
 	let done = 0;
 	let wake: (() => void) | undefined;
@@ -128,8 +128,8 @@ export async function streamSweepInParallel(
 	};
 	const keepCurves = options.keepCurves === true;
 	const progress = pipeline ? new Int32Array(new SharedArrayBuffer(4 * physicsProgress.length)) : undefined;
-	// The sample depths the worker leaves out of each row's physics, per display depth.
-	const depthsByDisplay = new Map<number, number[]>();
+	// The sample depths the worker leaves out of each row's physics (a sweep never changes the display).
+	const depths = sampleDepths(sweep.doc.display.depthCm, sweep.stepCm);
 	const ladders: LadderCache = new Map();
 	const memories: FitMemories = new Map();
 	const groups = rowsPerFrequency(sweep);
@@ -139,10 +139,7 @@ export async function streamSweepInParallel(
 	const highestByGroup = new Map<number, HighestReaching>();
 	const fitted = (spot: RowSpot, physics: RowPhysics): RowValues => {
 		const plan = rowPlan(sweep, spot);
-		const depthCm = plan.display.depthCm;
-		let depths = depthsByDisplay.get(depthCm);
-		if (!depths) depthsByDisplay.set(depthCm, (depths = sampleDepths(depthCm, sweep.stepCm)));
-		const group = (spot.index - 1) % groups;
+		const group = rowGroup(sweep, spot.index);
 		let highest = physics.highest ?? highestByGroup.get(group);
 		if (!highest) {
 			// Not climbed yet (or claimed by the worker for a later row of the group): climb it here.
@@ -167,7 +164,7 @@ export async function streamSweepInParallel(
 			batch = [];
 		};
 		while (waiting.has(next)) {
-			const spot = pipeline ? spots[next - 1]! : spotsInOrder.next().value!;
+			const spot = spots[next - 1]!;
 			const got = waiting.get(next)!;
 			waiting.delete(next++);
 			batch.push(tableRow(sweep, spot, pipeline ? fitted(spot, got as RowPhysics) : (got as RowValues), reference));
@@ -228,7 +225,7 @@ export async function streamSweepInParallel(
 	allWorkers.catch(() => {});
 	if (!pipeline) {
 		let mine: [number, RowValues][] = [];
-		for (const spot of rowSpots(sweep)) {
+		for (const spot of spots) {
 			if (!isWorkersRow(sweep, spot.index, 0, threads)) continue;
 			mine.push([spot.index, rowValues(sweep, spot, ladders, memories, keepCurves)]);
 			if (mine.length >= rowsPerReply) {

@@ -133,6 +133,11 @@ export function rowsPerFrequency(sweep: ResolvedSweep): number {
 	return sweep.rowCount / sweep.freqMhz.length;
 }
 
+/** The row group (0-based) of the row numbered `index`: its rows share a frequency ladder. */
+export function rowGroup(sweep: ResolvedSweep, index: number): number {
+	return (index - 1) % rowsPerFrequency(sweep);
+}
+
 /** The highest-reaching frequency (and where it meets the noise floor) of each ladder already climbed. */
 export type LadderCache = Map<string, HighestReaching>;
 
@@ -168,8 +173,15 @@ export function rowPlan(sweep: ResolvedSweep, spot: RowSpot): EnginePlan {
 /** Works out one row's physics. */
 export function rowPhysics(sweep: ResolvedSweep, spot: RowSpot, plan: EnginePlan = rowPlan(sweep, spot)): RowPhysics {
 	const facts = curveFacts(curvePhysics(plan, {stepCm: sweep.stepCm, band: false, samples: false}), plan);
-	const targetDepthCm = targetDepthOf(variantDoc(sweep, spot.combo, spot.layerCm), plan);
-	return {facts, targetDepthCm, noiseBudgetDb: plan.noiseBudgetDb};
+	return {facts, targetDepthCm: rowTarget(sweep, plan), noiseBudgetDb: plan.noiseBudgetDb};
+}
+
+/**
+ * A row's target depth. The target rule is the sweep's own document's: a row's document differs only
+ * in its layers and probe (variantDoc), which the rule reads from the row's plan.
+ */
+function rowTarget(sweep: ResolvedSweep, plan: EnginePlan): number {
+	return targetDepthOf(sweep.doc, plan);
 }
 
 /** A row's highest-reaching frequency; `ladders` keeps that of each ladder already climbed. */
@@ -193,7 +205,7 @@ export function highestReaching(
 /** Climbs the frequency ladder of a row's group (its rows share one ladder) into `ladders`. */
 export function climbLadder(sweep: ResolvedSweep, spot: RowSpot, ladders: LadderCache): HighestReaching {
 	const plan = rowPlan(sweep, spot);
-	return highestReaching(sweep, plan, targetDepthOf(variantDoc(sweep, spot.combo, spot.layerCm), plan), ladders);
+	return highestReaching(sweep, plan, rowTarget(sweep, plan), ladders);
 }
 
 /**
@@ -205,7 +217,7 @@ export type FitMemories = Map<number, FitMemory>;
 
 /** The fit memory of a row's group. */
 export function fitMemoryOf(memories: FitMemories, sweep: ResolvedSweep, spot: RowSpot): FitMemory {
-	const group = (spot.index - 1) % rowsPerFrequency(sweep);
+	const group = rowGroup(sweep, spot.index);
 	let memory = memories.get(group);
 	if (!memory) memories.set(group, (memory = {}));
 	return memory;

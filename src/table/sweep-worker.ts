@@ -13,8 +13,8 @@ import {
 	rowPhysics,
 	rowPlan,
 	type RowSpot,
+	rowGroup,
 	rowSpots,
-	rowsPerFrequency,
 	rowValues,
 	type RowValues,
 } from './sweep-runner.js';
@@ -65,8 +65,7 @@ export interface WorkerReply {
  * turn, so every frequency ladder is climbed by one worker only.
  */
 export function isWorkersRow(sweep: ResolvedSweep, index: number, worker: number, workers: number): boolean {
-	const groups = rowsPerFrequency(sweep);
-	return ((index - 1) % groups) % workers === worker;
+	return rowGroup(sweep, index) % workers === worker;
 }
 
 /** Rows per message: few enough messages to cost nothing, often enough for the progress bar. */
@@ -88,13 +87,12 @@ export function unpackedPhysics(p: RowPhysics, depths: readonly number[]): RowPh
 if (parentPort && (workerData as SweepJob | undefined)?.sweep) {
 	const {sweep, worker, workers, keepCurves, part, progress, ladderClaims} = workerData as SweepJob;
 	if (part === 'physics' && progress && ladderClaims) {
-		const groups = rowsPerFrequency(sweep);
 		const ladders: LadderCache = new Map();
 		// The row's physics, with its ladder when this worker is the first to claim the group's.
 		const physicsOf = (spot: RowSpot): RowPhysics => {
 			const plan = rowPlan(sweep, spot);
 			const physics = rowPhysics(sweep, spot, plan);
-			const group = (spot.index - 1) % groups;
+			const group = rowGroup(sweep, spot.index);
 			if (Atomics.compareExchange(ladderClaims, group, ladderClaim.free, ladderClaim.worker) !== ladderClaim.free)
 				return physics;
 			return {...physics, highest: highestReaching(sweep, plan, physics.targetDepthCm, ladders)};
