@@ -1,14 +1,22 @@
 /**
- * The project patches Ink's frame writer (patches/ink+6.8.0.patch, applied by `npm install`): it
- * keeps tokenized lines and finished rows from one frame to the next instead of redoing all of
- * them. The patch must not change a single byte of any frame. Checked against the tokenizer
- * library's own functions on random styled text, frame after frame, with lines kept, changed and
- * moved between frames.
+ * The project patches Ink's frame writer (patches/ink+6.8.0.patch, applied by `npm install`): a row
+ * of plain lines (no wide or joined characters, every style closed by the line's end) is its lines
+ * joined by spaces, with no cell per character; other rows go through Ink's cell grid, with the
+ * tokenized lines and finished rows kept from one frame to the next. The patch must not change what
+ * a terminal shows: every cell's character and style. Checked against the tokenizer library's own
+ * functions on random styled text, frame after frame, with lines kept, changed, moved and
+ * overlapping; rows drawn through the grid must match byte for byte.
  */
 import {createRequire} from 'node:module';
 import {dirname, join} from 'node:path';
 import {pathToFileURL} from 'node:url';
-import {type StyledChar, styledCharsFromTokens, styledCharsToString, tokenize} from '@alcalzone/ansi-tokenize';
+import {
+	reduceAnsiCodes,
+	type StyledChar,
+	styledCharsFromTokens,
+	styledCharsToString,
+	tokenize,
+} from '@alcalzone/ansi-tokenize';
 import stringWidth from 'string-width';
 import widestLine from 'widest-line';
 import {describe, expect, it} from 'vitest';
@@ -81,6 +89,27 @@ function referenceRow(texts: readonly {x: number; text: string}[], width: number
 // Written after each line at a fixed column: a character counted into the wrong cells moves it.
 const marker = {x: 57, text: `${esc}2m#${esc}22m`};
 
+/** What a terminal shows of a row: each cell's character and the set of styles in force there. */
+function cellsShown(row: string): string[] {
+	const cells = styledCharsFromTokens(tokenize(row)).map((c) =>
+		[
+			c.value,
+			...reduceAnsiCodes(c.styles)
+				.map((s) => s.code)
+				.sort(),
+		].join('|'),
+	);
+	// Blank cells with no style at the end of a row are not written at all.
+	while (cells.length > 0 && cells[cells.length - 1] === ' ') cells.pop();
+	return cells;
+}
+
+/** Does a line leave a style open at its end (so the patch draws its row through the cell grid)? */
+const leavesStyleOpen = (line: string) => {
+	const chars = styledCharsFromTokens(tokenize(`${line}x`));
+	return reduceAnsiCodes(chars[chars.length - 1]!.styles).length > 0;
+};
+
 describe('the patched Ink frame writer', () => {
 	it('is the patched one (npm install applies patches/)', () => {
 		const first = new Output({width: 4, height: 1});
@@ -92,12 +121,13 @@ describe('the patched Ink frame writer', () => {
 		['any characters', anyCharacters, 20261202],
 		['lone characters', loneCharacters, 7],
 	] as const)(
-		'writes every frame byte for byte as the tokenizer library does (%s), with lines kept and changed between frames',
+		'shows every cell of every frame as the tokenizer library does (%s), with lines kept, changed and overlapping',
 		(_, characters, seed) => {
 			const random = mulberry32(seed);
 			const width = 60;
 			const height = 12;
 			let lines = Array.from({length: height}, () => randomLine(random, width - 8, characters));
+			let plainRows = 0;
 			for (let frame = 0; frame < 120; frame++) {
 				// Some lines kept, some new, some moved to another row, as when a value or a plot changes.
 				lines = lines.map((line, y) => {
@@ -107,16 +137,46 @@ describe('the patched Ink frame writer', () => {
 					return lines[(y + 1) % height]!;
 				});
 				const xs = lines.map((_, y) => (frame + y) % 4);
+				// Every fifth row also gets a short line written over its middle (the grid's overwrite).
+				const over = lines.map((_, y) => ((frame + y) % 5 === 0 ? {x: 20, text: `${esc}7mover${esc}27m`} : null));
 				const output = new Output({width, height});
-				lines.forEach((line, y) => {
-					output.write(xs[y]!, y, line, {transformers: []});
-					output.write(marker.x, y, marker.text, {transformers: []});
-				});
-				const expected = lines.map((line, y) => referenceRow([{x: xs[y]!, text: line}, marker], width)).join('\n');
-				expect(output.get().output).toBe(expected);
+				const written = lines.map((line, y) => [{x: xs[y]!, text: line}, ...(over[y] ? [over[y]] : []), marker]);
+				for (const [y, texts] of written.entries())
+					for (const t of texts) output.write(t.x, y, t.text, {transformers: []});
+				const rows = output.get().output.split('\n');
+				expect(rows).toHaveLength(height);
+				for (const [y, texts] of written.entries()) {
+					const expected = referenceRow(texts, width);
+					// Surely drawn through the grid: a line written over another, or a style left open.
+					if (texts.length > 2 || leavesStyleOpen(lines[y]!)) expect(rows[y]).toBe(expected);
+					else if (characters === loneCharacters) plainRows++;
+					expect(cellsShown(rows[y]!)).toEqual(cellsShown(expected));
+				}
 			}
+			// Rows of plain lines were drawn too (lone characters only).
+			if (characters === loneCharacters) expect(plainRows).toBeGreaterThan(100);
 		},
 	);
+
+	it('draws a line that runs past the right edge, or overlaps another, as the cell grid does', () => {
+		const width = 20;
+		const cases = [
+			[{x: 17, text: `${esc}36mabcdef${esc}39m`}],
+			[
+				{x: 0, text: 'plain words'},
+				{x: 16, text: `${esc}1mbold tail${esc}22m`},
+			],
+			[
+				{x: 2, text: `${esc}32m──────${esc}39m`},
+				{x: 5, text: `${esc}31m│${esc}39m`},
+			],
+		];
+		for (const texts of cases) {
+			const output = new Output({width, height: 1});
+			for (const t of texts) output.write(t.x, 0, t.text, {transformers: []});
+			expect(cellsShown(output.get().output)).toEqual(cellsShown(referenceRow(texts, width)));
+		}
+	});
 
 	it('takes a text’s widest line from the measuring cache, which stays bounded and right', () => {
 		// Ink's text rendering now asks measure-text (cached) instead of widest-line (uncached);
