@@ -3,6 +3,7 @@ import {Box, Text} from 'ink';
 import {memo} from 'react';
 import type {CurveResult} from '../../engine/types.js';
 import {depthPlot, glyph} from '../kit/depth-plot.js';
+import {styledText} from '../kit/styled-text.js';
 import type {Theme} from '../kit/theme.js';
 import {useTheme} from '../kit/theme-context.js';
 
@@ -56,15 +57,13 @@ function PlotViewImpl({curve, width, height, selectedSlider}: PlotViewProps) {
 			{plot.rows.map((row, i) => {
 				const a = row.indexOf('|');
 				const b = row.indexOf('|', a + 1);
+				// One text per row, its runs styled here (styled-text.ts).
+				const runs = styledRuns(row.slice(a + 1, b), theme)
+					.map((run) => styledText(run.text, run.style))
+					.join('');
 				return (
 					<Text key={i} wrap="truncate">
-						<Text {...theme.muted}>{row.slice(0, a + 1)}</Text>
-						{styledRuns(row.slice(a + 1, b), theme).map((run, k) => (
-							<Text key={k} {...run.style}>
-								{run.text}
-							</Text>
-						))}
-						<Text {...theme.muted}>{row.slice(b)}</Text>
+						{styledText(row.slice(0, a + 1), theme.muted) + runs + styledText(row.slice(b), theme.muted)}
 					</Text>
 				);
 			})}
