@@ -7,7 +7,7 @@
  */
 import {deliveredCompensationDb} from '../../engine/compensation-curve.js';
 import {clip} from './text-fit.js';
-import type {CurveResult, CurveSample} from '../../engine/types.js';
+import type {CurveResult} from '../../engine/types.js';
 
 export interface PlotOptions {
 	/** Total width of every line, characters. */
@@ -112,9 +112,20 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	const grid = Math.max(8, o.width - labelWidth - 3 - (note ? note + 1 : 0));
 	const totals = sliderDeliveredDb(r);
 
-	const values = [0, ...r.samples.map((s) => s.highDb), ...r.samples.map((s) => s.lowDb), ...totals];
-	const lowDb = Math.floor(Math.min(...values) / 10) * 10;
-	const highDb = Math.max(lowDb + 10, Math.ceil(Math.max(...values) / 10) * 10);
+	// The scale holds 0 dB, the whole band and every slider's total (drawn on every key press: loops,
+	// not spread arrays of every sample).
+	let least = 0;
+	let most = 0;
+	for (const s of r.samples) {
+		least = Math.min(least, s.lowDb, s.highDb);
+		most = Math.max(most, s.lowDb, s.highDb);
+	}
+	for (const t of totals) {
+		least = Math.min(least, t);
+		most = Math.max(most, t);
+	}
+	const lowDb = Math.floor(least / 10) * 10;
+	const highDb = Math.max(lowDb + 10, Math.ceil(most / 10) * 10);
 	const col = (db: number) =>
 		Math.max(0, Math.min(grid - 1, Math.round(((db - lowDb) / (highDb - lowDb)) * (grid - 1))));
 	const rowOf = (d: number) => Math.max(0, Math.min(height - 1, Math.floor(d / rowCm + 1e-9)));
@@ -130,19 +141,21 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 		const bottom = Math.min(depth, (row + 1) * rowCm);
 		const isLast = row === height - 1;
 		while (first < samples.length && samples[first]!.displayedDepthCm < top - 1e-9) first++;
-		const inRow: CurveSample[] = [];
+		// The row's samples are samples[first … end − 1] (no list of them made).
+		let end = first;
 		for (let i = first; i < samples.length; i++) {
 			const d = samples[i]!.displayedDepthCm;
-			if (d < bottom - 1e-9 || (isLast && d <= bottom + 1e-9)) inRow.push(samples[i]!);
+			if (d < bottom - 1e-9 || (isLast && d <= bottom + 1e-9)) end = i + 1;
 			else if (d > bottom + 1e-9) break;
 		}
-		if (inRow.length === 0) continue;
+		if (end === first) continue;
 		const line = cells[row]!;
 		let isBlocked = true;
 		let isNoise = true;
 		let lo = Number.POSITIVE_INFINITY;
 		let hi = Number.NEGATIVE_INFINITY;
-		for (const s of inRow) {
+		for (let i = first; i < end; i++) {
+			const s = samples[i]!;
 			isBlocked &&= s.blocked;
 			isNoise &&= s.belowNoise;
 			lo = Math.min(lo, s.lowDb);
@@ -150,7 +163,7 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 		}
 		if (isBlocked || isNoise) line.fill(isBlocked ? glyph.blocked : glyph.noise);
 		for (let c = col(lo); c <= col(hi); c++) line[c] = glyph.band;
-		const mid = inRow[Math.floor(inRow.length / 2)]!;
+		const mid = samples[first + Math.floor((end - first) / 2)]!;
 		line[col(mid.compensationDb)] = glyph.curve;
 	}
 	// Notes: the barrier and the noise floor in their own rows, then each layer's name at its top
@@ -159,10 +172,13 @@ export function depthPlot(r: CurveResult, o: PlotOptions): Plot {
 	if (r.penetrationDepthCm !== null && !notes[rowOf(r.penetrationDepthCm)])
 		notes[rowOf(r.penetrationDepthCm)] = `${glyph.noise} noise`;
 	let next = 0;
+	// Each layer's first sample, in one pass (layers run down in depth like the samples).
+	const layerTops = new Array<number | undefined>(r.plan.layers.length);
+	for (const s of samples) if (layerTops[s.layerIndex] === undefined) layerTops[s.layerIndex] = s.displayedDepthCm;
 	r.plan.layers.forEach((layer, i) => {
-		const first = r.samples.find((s) => s.layerIndex === i);
-		if (!first) return;
-		let row = Math.max(next, rowOf(first.displayedDepthCm));
+		const firstCm = layerTops[i];
+		if (firstCm === undefined) return;
+		let row = Math.max(next, rowOf(firstCm));
 		while (row < height && notes[row]) row++;
 		if (row >= height) return;
 		notes[row] = clip(layer.tissue.label, note);

@@ -14,6 +14,9 @@ export interface PlotViewProps {
 	readonly selectedSlider?: number;
 }
 
+/** The style of a blank or label character: one object, so runs of them compare equal. */
+const noStyle: Theme['plotCurve'] = {};
+
 function styleOf(ch: string, theme: Theme) {
 	switch (ch) {
 		case glyph.curve:
@@ -28,7 +31,7 @@ function styleOf(ch: string, theme: Theme) {
 		case glyph.blocked:
 			return theme.plotBlocked;
 		default:
-			return {};
+			return noStyle;
 	}
 }
 
