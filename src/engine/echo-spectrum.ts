@@ -107,26 +107,6 @@ function pathDbAt(terms: PathTerms, f: number, lnF: number): number {
 	return e;
 }
 
-function pathSlope(terms: PathTerms, f: number): number {
-	let e = 0;
-	for (let j = 0; j < terms.exponents.length; j++) {
-		const n = terms.exponents[j]!;
-		const c = terms.coefficients[j]!;
-		if (c !== 0) e += c * n * (n === 1 ? 1 : n === 2 ? f : f ** (n - 1));
-	}
-	return e;
-}
-
-function pathCurvature(terms: PathTerms, f: number): number {
-	let e = 0;
-	for (let j = 0; j < terms.exponents.length; j++) {
-		const n = terms.exponents[j]!;
-		const c = terms.coefficients[j]!;
-		if (n !== 1 && c !== 0) e += c * n * (n - 1) * (n === 2 ? 1 : f ** (n - 2));
-	}
-	return e;
-}
-
 // Gauss–Legendre nodes and weights on [−1, 1] (Golub–Welsch, computed once at load).
 const glNodes: number[] = [];
 const glWeights: number[] = [];
@@ -152,8 +132,8 @@ const glWeights: number[] = [];
 	}
 })(nodesPerPanel);
 
-/** Slope and curvature of the log-integrand at the last Newton step (peak searches never overlap). */
-const newtonStep = {slope: 0, curvature: 0};
+/** Slope and curvature of the log-integrand at the last f asked for (BandIntegrand.derivativesAt; never re-entered). */
+const derivatives = {slope: 0, curvature: 0};
 
 /** A band with the path already fixed: evaluates the log-integrand and its derivatives. */
 class BandIntegrand {
@@ -187,44 +167,40 @@ class BandIntegrand {
 	}
 
 	slope(f: number): number {
-		const d = f - this.f0;
-		const x = Math.abs(d) / this.h;
-		const p = this.p;
-		const shape = p === 2 ? (2 * d) / (this.h * this.h) : (Math.sign(d) * p * x ** (p - 1)) / this.h;
-		return -spectrumNp * shape + (this.m === 0 ? 0 : this.m / f) - this.k * pathSlope(this.terms, f);
+		this.derivativesAt(f);
+		return derivatives.slope;
 	}
 
 	/** Second derivative; −∞ at f0 when p < 2 (the kink of |x|^p). */
 	curvature(f: number): number {
-		const x = Math.abs(f - this.f0) / this.h;
-		const p = this.p;
-		const shape = p === 2 ? 2 : p === 1 ? 0 : p * (p - 1) * x ** (p - 2);
-		return (
-			(-spectrumNp * shape) / (this.h * this.h) -
-			(this.m === 0 ? 0 : this.m / (f * f)) -
-			this.k * pathCurvature(this.terms, f)
-		);
+		this.derivativesAt(f);
+		return derivatives.curvature;
 	}
 
 	/**
-	 * {@link slope} and {@link curvature} at one f > 0, for the Newton steps: each path exponent's
-	 * f^(n−2) once, as exp((n−2)·ln f), with f^(n−1) = f·f^(n−2) (two pow() calls per exponent were a
-	 * sixth of an integral's time). Written into `newtonStep`.
+	 * Slope and curvature of the log-integrand at f, into `derivatives`: the Newton steps need both.
+	 * Each path exponent's f^(n−2) is worked out once, as exp((n−2)·ln f), with f^(n−1) = f·f^(n−2)
+	 * (two pow() calls per exponent were a sixth of an integral's time); where that overflows (at or
+	 * next to 0 MHz) the powers are taken apart.
 	 */
-	private slopeAndCurvature(f: number): void {
-		// At 0 MHz (f^(n−2) infinite) and on a spectrum that is not Gaussian, the plain forms.
-		if (f <= 0 || this.p !== 2) {
-			newtonStep.slope = this.slope(f);
-			newtonStep.curvature = this.curvature(f);
-			return;
-		}
+	private derivativesAt(f: number): void {
+		const d = f - this.f0;
 		const h = this.h;
-		const shapeSlope = (2 * (f - this.f0)) / (h * h);
-		const shapeCurvature = 2 / (h * h);
+		const p = this.p;
+		let shapeSlope: number;
+		let shapeCurvature: number;
+		if (p === 2) {
+			shapeSlope = (2 * d) / (h * h);
+			shapeCurvature = 2 / (h * h);
+		} else {
+			const x = Math.abs(d) / h;
+			shapeSlope = (Math.sign(d) * p * x ** (p - 1)) / h;
+			shapeCurvature = (p === 1 ? 0 : p * (p - 1) * x ** (p - 2)) / (h * h);
+		}
 		const {exponents, coefficients} = this.terms;
 		let pathSlopeDb = 0;
 		let pathCurvatureDb = 0;
-		let lnF = Number.NaN;
+		const lnF = Math.log(f);
 		for (let j = 0; j < exponents.length; j++) {
 			const n = exponents[j]!;
 			const c = coefficients[j]!;
@@ -234,15 +210,19 @@ class BandIntegrand {
 				pathSlopeDb += 2 * c * f;
 				pathCurvatureDb += 2 * c;
 			} else {
-				if (Number.isNaN(lnF)) lnF = Math.log(f);
 				const fn2 = Math.exp((n - 2) * lnF);
-				pathSlopeDb += c * n * fn2 * f;
-				pathCurvatureDb += c * n * (n - 1) * fn2;
+				if (Number.isFinite(fn2)) {
+					pathSlopeDb += c * n * fn2 * f;
+					pathCurvatureDb += c * n * (n - 1) * fn2;
+				} else {
+					pathSlopeDb += c * n * f ** (n - 1);
+					pathCurvatureDb += c * n * (n - 1) * f ** (n - 2);
+				}
 			}
 		}
 		const m = this.m;
-		newtonStep.slope = -spectrumNp * shapeSlope + (m === 0 ? 0 : m / f) - this.k * pathSlopeDb;
-		newtonStep.curvature = -spectrumNp * shapeCurvature - (m === 0 ? 0 : m / (f * f)) - this.k * pathCurvatureDb;
+		derivatives.slope = -spectrumNp * shapeSlope + (m === 0 ? 0 : m / f) - this.k * pathSlopeDb;
+		derivatives.curvature = -spectrumNp * shapeCurvature - (m === 0 ? 0 : m / (f * f)) - this.k * pathCurvatureDb;
 	}
 
 	/** Peak of the (log-concave) integrand on f ≥ 0: bracketed Newton on the slope, bisection where
@@ -254,12 +234,12 @@ class BandIntegrand {
 		let hi = f0 + 12 * h + 2 * m * h + 1;
 		let f = Math.min(Math.max(start ?? f0, 1e-6), hi);
 		for (let it = 0; it < 200; it++) {
-			this.slopeAndCurvature(f);
-			const g = newtonStep.slope;
+			this.derivativesAt(f);
+			const g = derivatives.slope;
 			if (g === 0) return f;
 			if (g > 0) lo = f;
 			else hi = f;
-			const c = newtonStep.curvature;
+			const c = derivatives.curvature;
 			let next = Number.isFinite(c) && c < 0 ? f - g / c : Number.NaN;
 			// A step landing exactly on the bracket's edge is a good one (it happens when the peak sits
 			// at or next to the edge): refusing it for a halving took 10–40 steps instead of 2–3.
